@@ -1,0 +1,3 @@
+import type { Builtin } from '../sheet/builtin';
+
+export const cosmologyBuiltins: Builtin[] = [];

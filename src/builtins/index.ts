@@ -1,0 +1,23 @@
+// Every built-in of the sheet, grouped by file. Add a file's list here (see DEVELOPERS.md).
+import type { Builtin } from '../sheet/builtin';
+import { cosmologyBuiltins } from './cosmology';
+import { populationBuiltins } from './population';
+import { spectrumBuiltins } from './spectrum';
+import { orbitBuiltins } from './orbits';
+import { environmentBuiltins } from './environment';
+import { statisticsBuiltins } from './statistics';
+import { arrayViewBuiltins } from './arrayView';
+import { utilityBuiltins } from './utility';
+
+export function allBuiltins(): Builtin[] {
+  return [
+    ...utilityBuiltins,
+    ...cosmologyBuiltins,
+    ...populationBuiltins,
+    ...spectrumBuiltins,
+    ...orbitBuiltins,
+    ...environmentBuiltins,
+    ...statisticsBuiltins,
+    ...arrayViewBuiltins,
+  ];
+}

@@ -1,0 +1,36 @@
+// The private mathjs instance every formula is evaluated with. Astronomers' units are defined
+// here before the instance is locked (see formulaCompiler for the allow-list that guards it).
+import { create, all, type MathJsInstance, type Unit } from 'mathjs';
+import { M_SUN_KG, AU_M, PC_M, YEAR_S } from '../physics/constants';
+
+function buildInstance(): MathJsInstance {
+  // absTol 0: mathjs's default absolute tolerance would make 1e-15 == 0 true.
+  const m = create(all, { absTol: 0, relTol: 1e-12 });
+  // Units of the trade (values from src/physics/constants.ts, each with its source there).
+  m.createUnit('Msun', { definition: `${M_SUN_KG} kg` });
+  m.createUnit('au', { definition: `${AU_M} m` });
+  m.createUnit('pc', { definition: `${PC_M} m` });
+  m.createUnit('kpc', { definition: `${1e3 * PC_M} m` });
+  m.createUnit('Mpc', { definition: `${1e6 * PC_M} m` });
+  m.createUnit('Gpc', { definition: `${1e9 * PC_M} m` });
+  m.createUnit('yr', { definition: `${YEAR_S} s` }); // Julian year
+  m.createUnit('Myr', { definition: `${1e6 * YEAR_S} s` });
+  m.createUnit('Gyr', { definition: `${1e9 * YEAR_S} s` });
+  return m;
+}
+
+/** The shared instance. Built-ins are imported and the instance is locked by the formula compiler. */
+export const math: MathJsInstance = buildInstance();
+
+/** A quantity in SI with the given unit text, e.g. quantity(3.1e22, 'm'). */
+export function quantity(valueSI: number, unitText: string): Unit {
+  const u = math.unit(unitText);
+  // mathjs stores a unit's value in SI base units; set it directly to avoid rounding twice.
+  const q = u.clone() as Unit & { value: number; fixPrefix: boolean };
+  q.value = valueSI;
+  return q;
+}
+
+export function isUnit(v: unknown): v is Unit {
+  return math.isUnit(v);
+}
