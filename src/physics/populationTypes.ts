@@ -1,0 +1,26 @@
+// The population every spectrum routine integrates over (plain numbers, no units objects).
+
+/**
+ * A population of binaries that merge, described as a comoving number density of remnants
+ * (Phinney 2001, astro-ph/0108028: n, not a rate).
+ * density(z, log10M, q) = d^3n / (dz dlog10M dq) in Mpc^-3, where M is the total mass
+ * m1 + m2 in solar masses and q = m2/m1 <= 1.
+ */
+export interface BinaryPopulation {
+  density(z: number, log10M: number, q: number): number;
+  /** Integration limits (the density is taken as zero outside them). */
+  zMin: number;
+  zMax: number;
+  log10MMin: number;
+  log10MMax: number;
+  qMin: number;
+  qMax: number;
+}
+
+/**
+ * Energy a single binary radiates per logarithmic rest-frame frequency, dE/dln f_r, in joules,
+ * at rest-frame GW frequency frHz, for chirp mass mcKg, total mass mKg, mass ratio q, redshift z.
+ * The circular GW-driven kernel is (pi^(2/3)/3) G^(2/3) Mc^(5/3) f_r^(2/3) (Phinney 2001);
+ * eccentric and environment kernels multiply or replace it (see src/physics).
+ */
+export type EmissionKernel = (frHz: number, mcKg: number, mKg: number, q: number, z: number) => number;
