@@ -17,6 +17,7 @@ export default defineConfig({
     environment: 'node',
     include: ['test/**/*.test.ts'],
     testTimeout: 30_000,
+    reporters: ['default', './test/support/summaryReporter.ts'],
     benchmark: { include: ['bench/**/*.bench.ts'] },
   },
 });
