@@ -1,0 +1,111 @@
+// Expected signal-to-noise ratio of the optimal cross-correlation statistic for a Gaussian, isotropic
+// background, and the observing span at which it first reaches a chosen threshold.
+//
+// Per frequency bin f_k = k/T and pulsar pair (I, J), with residual PSDs P_I, P_J (noise) and
+// P_g = h_c^2/(12 pi^2 f^3) (signal), the cross-correlation of the two Fourier amplitudes has mean
+// Gamma P_g and variance [(P_I + P_g)(P_J + P_g) + Gamma^2 P_g^2] / 2 per real degree of freedom, so
+//   rho^2 = sum_k sum_{I<J} 2 Gamma_IJ^2 P_g^2 / [ (P_I + P_g)(P_J + P_g) + Gamma_IJ^2 P_g^2 ],
+// the discrete-bin form (2 T Int df -> 2 sum_k) of the expected S/N of Siemens, Ellis, Jenet &
+// Romano 2013, CQG 30, 224015 (their eq. for <rho>, memory: check the equation number), which, like
+// that paper, treats different pairs as independent. Limits, each checked in test/arrayView:
+//  - weak signal (P_g << P_I): rho^2 = 2 sum sum Gamma^2 P_g^2/(P_I P_J), so with white noise and
+//    h_c = A (f/f_yr)^(-2/3) (gamma = 13/3): rho proportional to A^2 T^(13/3) N (for N >> 1) / sigma^2;
+//  - strong signal (P_g >> P_I in all bins): rho^2 = 2 K sum_{I<J} Gamma^2/(1 + Gamma^2), independent
+//    of the amplitude and growing as sqrt(K), i.e. as T^(1/2) for fixed cadence.
+// Without sky positions the pair sum uses the expectation over isotropic positions of each pair's
+// term (so the result is sqrt(E[rho^2]) over random skies), see pulsarPairs.ts.
+import { frequencyBins, residualPsdFromStrain, shortestCadence, type PulsarArray } from './pulsarArray';
+import { memberNoise, pairLayout, sumOverPairs } from './pulsarPairs';
+import type { StrainModel } from './strainOnBins';
+
+export interface SnrResult {
+  /** Expected S/N of the cross-correlation statistic. */
+  snr: number;
+  /** The weak-signal approximation of the same (signal left out of the variance). */
+  weakSignalSnr: number;
+  /** Frequency bins used, Hz. */
+  frequencyHz: Float64Array;
+  /** Each bin's contribution to rho^2. */
+  binSnrSquared: Float64Array;
+}
+
+/** One pair's contribution to rho^2 in one bin (Siemens et al. 2013, CQG 30, 224015; form above). */
+export function pairBinSnrSquared(gammaSq: number, pI: number, pJ: number, pg: number): number {
+  if (pg === 0) return 0;
+  const signalSq = gammaSq * pg * pg;
+  return (2 * signalSq) / ((pI + pg) * (pJ + pg) + signalSq);
+}
+
+/** Expected S/N of the array for the background `model` (h_c at f), observed over `spanS`. */
+export function detectionSnr(array: PulsarArray, model: StrainModel, spanS: number = array.spanS): SnrResult {
+  const f = frequencyBins(spanS, shortestCadence(array));
+  const layout = pairLayout(array);
+  const noise = new Float64Array(layout.members.length);
+  const binSnrSquared = new Float64Array(f.length);
+  let total = 0;
+  let weak = 0;
+  for (let k = 0; k < f.length; k++) {
+    const pg = residualPsdFromStrain(model(f[k]), f[k]);
+    if (pg === 0) continue;
+    memberNoise(layout, f[k], noise);
+    const s = sumOverPairs(layout, noise, (g2, pI, pJ) => pairBinSnrSquared(g2, pI, pJ, pg));
+    weak += sumOverPairs(layout, noise, (g2, pI, pJ) => (2 * g2 * pg * pg) / (pI * pJ));
+    binSnrSquared[k] = s;
+    total += s;
+  }
+  return { snr: Math.sqrt(total), weakSignalSnr: Math.sqrt(weak), frequencyHz: f, binSnrSquared };
+}
+
+export interface SpanResult {
+  /** Shortest span at which the S/N reaches the threshold, s (NaN if not reached). */
+  spanS: number;
+  reached: boolean;
+  /** S/N at the span found, or at the longest span searched when not reached. */
+  snr: number;
+  /** The span range searched, s. */
+  searchedFromS: number;
+  searchedToS: number;
+}
+
+/**
+ * Shortest observing span at which the expected S/N reaches `threshold`: a scan over 48 spans spaced
+ * evenly in log T from one bin (2 dt) to `maxSpanS`, then bisection in log T on the first bracket to
+ * a relative width of 1e-10. S/N(T) jumps up where a new bin k/T enters, so the answer may sit on
+ * such a jump; with strong red pulsar noise S/N(T) need not be monotonic, and the first crossing
+ * found on the scan is returned.
+ */
+export function detectionSpan(
+  array: PulsarArray,
+  model: StrainModel,
+  threshold: number,
+  maxSpanS: number,
+  minSpanS: number = 2 * shortestCadence(array),
+): SpanResult {
+  const snrAt = (t: number) => detectionSnr(array, model, t).snr;
+  const steps = 48;
+  const ratio = Math.pow(maxSpanS / minSpanS, 1 / (steps - 1));
+  let previous = minSpanS;
+  for (let i = 0; i < steps; i++) {
+    const t = i === steps - 1 ? maxSpanS : minSpanS * Math.pow(ratio, i);
+    const s = snrAt(t);
+    if (s >= threshold) {
+      if (i === 0) return { spanS: t, reached: true, snr: s, searchedFromS: minSpanS, searchedToS: maxSpanS };
+      let lo = previous;
+      let hi = t;
+      let sHi = s;
+      while (hi / lo - 1 > 1e-10) {
+        const mid = Math.sqrt(lo * hi);
+        const sMid = snrAt(mid);
+        if (sMid >= threshold) {
+          hi = mid;
+          sHi = sMid;
+        } else lo = mid;
+      }
+      return { spanS: hi, reached: true, snr: sHi, searchedFromS: minSpanS, searchedToS: maxSpanS };
+    }
+    previous = t;
+    if (i === steps - 1) return { spanS: NaN, reached: false, snr: s, searchedFromS: minSpanS, searchedToS: maxSpanS };
+  }
+  /* c8 ignore next */
+  throw new Error('unreachable');
+}
