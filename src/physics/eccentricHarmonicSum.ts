@@ -1,0 +1,156 @@
+// The harmonic-sum factor of the eccentric GW-driven background (Enoki & Nagashima 2007, PTP 117, 241):
+//   dE/dln f_r = (dE/dln f_r)_circular * Phi,  Phi = sum_n (2/n)^(2/3) g(n, e_n) / F(e_n),
+// where e_n is the eccentricity when the orbital frequency is f_r / n, and only orbits that exist
+// (f_r / n >= f0 for binaries that start at orbital frequency f0 with eccentricity e0) contribute.
+// Under GW-only decay e depends on f_orb/f0 and e0 alone (Peters 1964, Phys. Rev. 136, B1224), so
+// Phi is a universal function of x = f_r / f0 for each e0; HarmonicSumTable tabulates it once.
+import { eccentricityEnhancement, harmonicCut, harmonicPower, harmonicPowerBound } from './petersMathews';
+import { eccentricityAtOrbitalFrequency } from './petersEvolution';
+
+/** A harmonic whose Kapteyn-bounded weight is below this is skipped (it cannot change a double sum of size >= 1e-2). */
+const SKIP_WEIGHT = 1e-19;
+
+/**
+ * Phi(x; e0) by direct summation over harmonics n = 1 .. min(floor(x), nMax), x = f_r / f0.
+ * nTop, if given, replaces floor(x) (used for left limits at integer x).
+ */
+export function harmonicSumDirect(x: number, e0: number, nMax: number, nTop?: number): number {
+  if (!(x >= 1)) return 0;
+  const top = Math.min(nTop ?? Math.floor(x), nMax);
+  let sum = 0;
+  for (let n = 1; n <= top; n++) {
+    const en = eccentricityAtOrbitalFrequency(e0, x / n);
+    const weight = Math.pow(2 / n, 2 / 3) / eccentricityEnhancement(en);
+    if (n > 2 && weight * harmonicPowerBound(n, en) < SKIP_WEIGHT) continue;
+    sum += weight * harmonicPower(n, en);
+  }
+  return sum;
+}
+
+export interface HarmonicSumTableOptions {
+  /**
+   * Power fraction allowed to be left out at e0 by truncating the harmonic sum (sum rule
+   * sum_n g = F, Peters & Mathews 1963). Default 1e-7.
+   */
+  harmonicTolerance?: number;
+  /** Sub-intervals per unit interval [k, k+1) for x below integerRegionEnd. Default 16. */
+  pointsPerUnit?: number;
+  /** x where the integer-interval region ends and the logarithmic grid begins. Default 64. */
+  integerRegionEnd?: number;
+  /** Logarithmic grid points per decade of x. Default 48. */
+  pointsPerDecade?: number;
+}
+
+/**
+ * Phi(x) tabulated for one e0 (or a weighted mixture of e0 values on the same grid).
+ * Layout: x < 1 gives 0 (no orbit exists yet); on [1, X1) each unit interval [k, k+1) holds its own
+ * uniformly spaced values, from the right limit at k to the left limit at k+1 (Phi jumps at every
+ * integer, where harmonic k+1 switches on); on [X1, X2] a logarithmic grid (the jumps there are below
+ * the stated tolerance, checked in test/orbits); beyond X2, where |Phi - 1| < 1e-9, the small-e law
+ * Phi - 1 proportional to e^2 proportional to x^(-19/9) (Peters 1964: e proportional to f^(-19/18)).
+ * Interpolation is four-point Lagrange (cubic) in x (integer region) and in ln x (log region), never
+ * across an integer below X1.
+ */
+export class HarmonicSumTable {
+  readonly e0Values: Float64Array;
+  readonly e0Weights: Float64Array;
+  /** Highest harmonic kept for each e0. */
+  readonly harmonicsKept: Int32Array;
+  /** Largest power fraction left out by the truncation, over the e0 values. */
+  readonly omittedFraction: number;
+  private readonly perUnit: number;
+  private readonly x1: number;
+  private readonly unitValues: Float64Array; // (x1 - 1) intervals x (perUnit + 1) values
+  private readonly logStart: number;
+  private readonly logStep: number;
+  private readonly logValues: Float64Array;
+  private readonly x2: number;
+  private readonly tailAtX2: number;
+
+  /** A table for one e0, or for a mixture sum_k w_k Phi(x; e0_k) (weights summing to 1). */
+  constructor(e0: number | { values: ArrayLike<number>; weights: ArrayLike<number> }, opts: HarmonicSumTableOptions = {}) {
+    const values = typeof e0 === 'number' ? [e0] : Array.from(e0.values);
+    const weights = typeof e0 === 'number' ? [1] : Array.from(e0.weights);
+    if (values.length === 0 || values.length !== weights.length) throw new RangeError('HarmonicSumTable: e0 values and weights must be non-empty and of equal length');
+    for (const e of values) if (!(e >= 0 && e < 1)) throw new RangeError(`HarmonicSumTable: eccentricity e0 must lie in [0, 1), got ${e}`);
+    const tol = opts.harmonicTolerance ?? 1e-7;
+    this.perUnit = opts.pointsPerUnit ?? 16;
+    this.x1 = opts.integerRegionEnd ?? 64;
+    const perDecade = opts.pointsPerDecade ?? 48;
+    this.e0Values = Float64Array.from(values);
+    this.e0Weights = Float64Array.from(weights);
+    const cuts = values.map((e) => harmonicCut(e, tol));
+    this.harmonicsKept = Int32Array.from(cuts.map((c) => c.nMax));
+    this.omittedFraction = Math.max(...cuts.map((c) => c.omittedFraction));
+
+    const mix = (x: number, nTop?: number): number => {
+      let s = 0;
+      for (let k = 0; k < values.length; k++) if (weights[k] !== 0) s += weights[k] * harmonicSumDirect(x, values[k], this.harmonicsKept[k], nTop);
+      return s;
+    };
+
+    const m = this.perUnit;
+    this.unitValues = new Float64Array((this.x1 - 1) * (m + 1));
+    for (let k = 1; k < this.x1; k++) {
+      for (let i = 0; i <= m; i++) this.unitValues[(k - 1) * (m + 1) + i] = mix(k + i / m, k);
+    }
+    this.logStart = Math.log(this.x1);
+    this.logStep = Math.LN10 / perDecade;
+    const logValues: number[] = [];
+    let x = this.x1;
+    let calm = 0;
+    // Grow the log grid until Phi stays within 1e-9 of 1 for a few points (or x reaches 1e15).
+    for (let i = 0; ; i++) {
+      x = Math.exp(this.logStart + i * this.logStep);
+      const v = mix(x);
+      logValues.push(v);
+      calm = Math.abs(v - 1) < 1e-9 ? calm + 1 : 0;
+      if ((calm >= 4 && i >= 2) || x > 1e15) break;
+    }
+    this.logValues = Float64Array.from(logValues);
+    this.x2 = x;
+    this.tailAtX2 = logValues[logValues.length - 1] - 1;
+  }
+
+  /** Phi at x = f_r / f0. */
+  at(x: number): number {
+    if (!(x >= 1)) return 0;
+    if (x < this.x1) {
+      const k = Math.floor(x);
+      const t = (x - k) * this.perUnit;
+      return cubicAt(this.unitValues, (k - 1) * (this.perUnit + 1), this.perUnit + 1, t);
+    }
+    if (x <= this.x2) {
+      const t = (Math.log(x) - this.logStart) / this.logStep;
+      return cubicAt(this.logValues, 0, this.logValues.length, t);
+    }
+    return 1 + this.tailAtX2 * Math.pow(this.x2 / x, 19 / 9);
+  }
+
+  /** Where the logarithmic grid ends (above it the small-e law is used). */
+  get logGridEnd(): number {
+    return this.x2;
+  }
+
+  /** Number of tabulated values. */
+  get size(): number {
+    return this.unitValues.length + this.logValues.length;
+  }
+}
+
+/** Four-point Lagrange interpolation at fractional index t of values[offset .. offset + count - 1] (count >= 4). */
+function cubicAt(values: Float64Array, offset: number, count: number, t: number): number {
+  let i = Math.floor(t) - 1;
+  if (i < 0) i = 0;
+  if (i > count - 4) i = count - 4;
+  const u = t - i; // position relative to node i, in [0, 3]
+  const y0 = values[offset + i];
+  const y1 = values[offset + i + 1];
+  const y2 = values[offset + i + 2];
+  const y3 = values[offset + i + 3];
+  const a = u - 1;
+  const b = u - 2;
+  const c = u - 3;
+  // Written about y1 so that a constant table is reproduced exactly (the basis sums to 1).
+  return y1 + (-(y0 - y1) * a * b * c - 3 * (y2 - y1) * u * a * c + (y3 - y1) * u * a * b) / 6;
+}
