@@ -1,0 +1,120 @@
+// Turns whatever a formula's evaluation threw into a CellError in plain language, and checks a
+// result for values the sheet flags (non-finite numbers, oversized lists).
+import type { Matrix, Unit } from 'mathjs';
+import { BuiltinError, type CellError } from './cellError';
+import { math } from './mathInstance';
+import { MAX_ELEMENTS } from './formulaCompiler';
+
+function plainMathMessage(message: string): { kind: CellError['kind']; detail: string } {
+  if (/^Units do not match/.test(message)) {
+    const m = /\('(.*)' != '(.*)'\)/.exec(message);
+    return {
+      kind: 'unit',
+      detail: m ? `cannot convert ${m[2]} to ${m[1]}: the units have different dimensions` : 'units do not match: the quantities combined have different dimensions',
+    };
+  }
+  let m = /^Unexpected type of argument in function (\w+) \(expected: ([^,]+(?:,[^,]+)*?), actual: ([^,]+), index: (\d+)\)/.exec(message);
+  if (m) {
+    const [, fn, expected, actual] = m;
+    if (/Unit/.test(expected) !== /Unit/.test(actual)) {
+      return { kind: 'unit', detail: `units do not match in ${fn}: one value has a unit and the other is a plain number (${actual} where ${expected} was expected)` };
+    }
+    return { kind: 'eval', detail: `${fn} cannot take ${actual} there (expected ${expected})` };
+  }
+  if (/is no angle$/.test(message)) return { kind: 'unit', detail: 'trigonometric functions need an angle (rad, deg) or a plain number' };
+  m = /^Undefined symbol (\w+)/.exec(message);
+  if (m) return { kind: 'name', detail: `unknown name ${m[1]}` };
+  m = /^Undefined function (\w+)/.exec(message);
+  if (m) return { kind: 'name', detail: `unknown function ${m[1]}` };
+  m = /^Too (few|many) arguments in function (\w+) \(expected: (\d+), actual: (\d+)\)/.exec(message);
+  if (m) return { kind: 'eval', detail: `${m[2]} takes ${m[3]} argument${m[3] === '1' ? '' : 's'}, got ${m[4]}` };
+  m = /^'(\w+)' is not a function/.exec(message);
+  if (m) return { kind: 'eval', detail: `${m[1]} is called like a function but is a value (define it as ${m[1]}(x) = ... to make a function cell)` };
+  if (/^Index out of range/.test(message)) return { kind: 'eval', detail: `index out of range ${message.replace(/^Index out of range\s*/, '')}`.trim() };
+  if (/Dimension mismatch|shape mismatch|broadcast/.test(message)) return { kind: 'eval', detail: `list sizes do not match (${message})` };
+  return { kind: 'eval', detail: message || 'evaluation failed' };
+}
+
+/** The CellError for an exception thrown while evaluating cell `cell`. */
+export function errorFromException(cell: string, e: unknown): CellError {
+  if (e instanceof BuiltinError) return { kind: e.kind, message: `${cell}: ${e.message}` };
+  if (e instanceof RangeError && /call stack/i.test(e.message)) {
+    return { kind: 'limit', message: `${cell}: the calculation went too deep (nested calls)` };
+  }
+  if (e instanceof Error) {
+    const { kind, detail } = plainMathMessage(e.message);
+    return { kind, message: `${cell}: ${detail}` };
+  }
+  return { kind: 'eval', message: `${cell}: evaluation failed (${String(e)})` };
+}
+
+function nonFiniteNumber(x: number): string | undefined {
+  if (Number.isNaN(x)) return 'is not a number (NaN)';
+  if (!Number.isFinite(x)) return x > 0 ? 'is infinite' : 'is minus infinity';
+  return undefined;
+}
+
+/** Describes a non-finite scalar, or undefined when the scalar is fine. */
+function scalarProblem(v: unknown): string | undefined {
+  if (typeof v === 'number') return nonFiniteNumber(v);
+  if (math.isUnit(v)) {
+    const value = (v as Unit & { value: number | null }).value;
+    return typeof value === 'number' ? nonFiniteNumber(value) : undefined;
+  }
+  if (math.isComplex(v)) {
+    const c = v as unknown as { re: number; im: number };
+    return nonFiniteNumber(c.re) ?? nonFiniteNumber(c.im);
+  }
+  return undefined;
+}
+
+/** Checks a computed value; returns the CellError to store instead, if any. */
+export function checkResult(cell: string, value: unknown): CellError | undefined {
+  if (value === undefined) return { kind: 'eval', message: `${cell}: the formula gives no value` };
+  const problem = scalarProblem(value);
+  if (problem) return { kind: 'nonfinite', message: `${cell}: the result ${problem}` };
+  const isMatrix = math.isMatrix(value);
+  if (isMatrix || Array.isArray(value)) {
+    const size = isMatrix ? (value as Matrix).size() : [value.length];
+    const total = size.reduce((a, b) => a * b, 1);
+    if (total > MAX_ELEMENTS) return { kind: 'limit', message: `${cell}: the result has ${total} elements (at most ${MAX_ELEMENTS})` };
+    const flat = (isMatrix ? ((value as Matrix).toArray() as unknown[]) : value).flat(Infinity as 1) as unknown[];
+    for (let i = 0; i < flat.length; i++) {
+      const p = scalarProblem(flat[i]);
+      if (p) return { kind: 'nonfinite', message: `${cell}: element ${i + 1} of the result ${p}` };
+    }
+  }
+  return undefined;
+}
+
+/** Levenshtein distance, for "did you mean" suggestions. */
+export function editDistance(a: string, b: string): number {
+  const prev = new Array<number>(b.length + 1);
+  for (let j = 0; j <= b.length; j++) prev[j] = j;
+  for (let i = 1; i <= a.length; i++) {
+    let diag = prev[0];
+    prev[0] = i;
+    for (let j = 1; j <= b.length; j++) {
+      const tmp = prev[j];
+      prev[j] = Math.min(prev[j] + 1, prev[j - 1] + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
+      diag = tmp;
+    }
+  }
+  return prev[b.length];
+}
+
+/** The nearest of `candidates` to `name`, if it is close enough to be a likely typo. */
+export function nearestName(name: string, candidates: Iterable<string>): string | undefined {
+  let best: string | undefined;
+  let bestDistance = Infinity;
+  const lower = name.toLowerCase();
+  for (const c of candidates) {
+    const d = c.toLowerCase() === lower ? 0.5 : editDistance(name, c);
+    if (d < bestDistance) {
+      best = c;
+      bestDistance = d;
+    }
+  }
+  const allowed = Math.max(1, Math.min(3, Math.floor(name.length / 3)));
+  return best !== undefined && bestDistance <= allowed ? best : undefined;
+}

@@ -1,0 +1,66 @@
+// Prepares the shared mathjs instance for formulas, once: imports every built-in as a raw
+// function, keeps private references to the parser, then replaces the functions that could
+// change the instance or evaluate text with stubs that throw. Done lazily on first use so that
+// built-in modules (which import the instance) finish loading first.
+import type { MathNode } from 'mathjs';
+import { math } from './mathInstance';
+import { allBuiltins } from '../builtins/index';
+import type { Builtin } from './builtin';
+import { ALLOWED_MATH_FUNCTIONS, LOCKED_FUNCTIONS } from './allowedFunctions';
+
+export interface LockedMath {
+  /** mathjs's parser, kept before the instance was locked. */
+  parse(text: string): MathNode;
+  /** Built-ins by name. */
+  builtins: ReadonlyMap<string, Builtin>;
+  /** Problems met while importing built-ins (a name clash), reported to developers. */
+  importProblems: string[];
+}
+
+let locked: LockedMath | undefined;
+
+/** Message of the stubs that replace the locked functions. */
+export function lockedMessage(name: string): string {
+  return `${name} is not available in Strainsheet formulas`;
+}
+
+export function lockedMath(): LockedMath {
+  if (locked) return locked;
+  const parse = math.parse.bind(math) as (text: string) => MathNode;
+  const builtins = new Map<string, Builtin>();
+  const importProblems: string[] = [];
+  for (const b of allBuiltins()) {
+    if (builtins.has(b.name)) {
+      importProblems.push(`built-in ${b.name} is defined twice; the first is kept`);
+      continue;
+    }
+    try {
+      math.import({ [b.name]: b.fn }, { override: false });
+      builtins.set(b.name, b);
+    } catch (e) {
+      importProblems.push(`built-in ${b.name} could not be added: ${(e as Error).message}`);
+    }
+  }
+  // Resolve mathjs's lazily built functions now, while their dependencies are intact.
+  const withTransform = (math as unknown as { expression: { mathWithTransform: Record<string, unknown> } }).expression
+    .mathWithTransform;
+  for (const name of ALLOWED_MATH_FUNCTIONS) void withTransform[name], void (math as unknown as Record<string, unknown>)[name];
+  const stubs: Record<string, () => never> = {};
+  for (const name of LOCKED_FUNCTIONS) {
+    stubs[name] = () => {
+      throw new Error(lockedMessage(name));
+    };
+  }
+  // `import` must be replaced last, by the import call itself.
+  const { import: importStub, ...others } = stubs;
+  math.import(others, { override: true });
+  math.import({ import: importStub }, { override: true });
+  // config() may still be read (returns a copy) but never changed.
+  const readConfig = math.config.bind(math) as unknown as () => unknown;
+  (math as unknown as { config: unknown }).config = (options?: unknown) => {
+    if (options !== undefined) throw new Error(lockedMessage('config'));
+    return readConfig();
+  };
+  locked = { parse, builtins, importProblems };
+  return locked;
+}

@@ -1,0 +1,483 @@
+// The reactive sheet: named cells, their formulas compiled once, values recomputed downstream of
+// each edit only, errors kept as values. The UI, the command line and the statistics code all
+// work through this class.
+import type { CellError } from './cellError';
+import type { CellSpec, CellState, SheetObserver } from './types';
+import type { Builtin } from './builtin';
+import { compileFormula, makeCellFunction, type CompiledFormula } from './formulaCompiler';
+import { DependencyGraph } from './dependencyGraph';
+import { checkResult, errorFromException, nearestName } from './evaluationError';
+import { sameValue } from './valueEquality';
+import { checkCellName } from './cellName';
+import { lockedMath } from './lockedMath';
+import { SheetEditError } from './sheetEditError';
+import { ALLOWED_CONSTANTS, ALLOWED_MATH_FUNCTIONS } from './allowedFunctions';
+import { renameInFormula, identifierTokens } from './renameReferences';
+import { canonicalCell, parseSheetFile, serializeSheetFile, SheetFileError, type SheetFile, FILE_FORMAT, FILE_VERSION } from './sheetFile';
+
+export { SheetEditError } from './sheetEditError';
+export { SheetFileError } from './sheetFile';
+
+export interface SheetOptions {
+  title?: string;
+  notes?: string;
+  cells?: CellSpec[];
+}
+
+interface CellRecord {
+  spec: CellSpec;
+  compiled: CompiledFormula;
+  state: CellState;
+}
+
+type Lookup = (name: string) => CellState | undefined;
+
+const PENDING: CellState = Object.freeze({ status: 'pending' }) as CellState;
+
+function sameState(a: CellState | undefined, b: CellState): boolean {
+  if (!a || a.status !== b.status) return false;
+  if (a.status === 'value' && b.status === 'value') return sameValue(a.value, b.value);
+  if (a.status === 'error' && b.status === 'error') return a.error.kind === b.error.kind && a.error.message === b.error.message;
+  return a.status === 'pending';
+}
+
+/** The root cause of a failed input (so that messages down a chain name the original problem). */
+const rootCause = new WeakMap<CellError, CellError>();
+
+export class Sheet {
+  private readonly records = new Map<string, CellRecord>();
+  private order: string[] = [];
+  private positions: Map<string, number> | null = null;
+  private readonly graph = new DependencyGraph();
+  private readonly observers = new Set<SheetObserver>();
+  private readonly planCache = new Map<string, string[]>();
+  private readonly builtinNames: ReadonlySet<string>;
+  private _title: string;
+  private _notes: string;
+
+  constructor(options: SheetOptions = {}) {
+    this.builtinNames = new Set(lockedMath().builtins.keys());
+    this._title = typeof options.title === 'string' ? options.title : '';
+    this._notes = typeof options.notes === 'string' ? options.notes : '';
+    for (const spec of options.cells ?? []) {
+      const s = this.normalize(spec);
+      if (this.records.has(s.name)) throw new SheetEditError(`cell name ${s.name} appears twice`, 'a cell name must be unique');
+      this.records.set(s.name, { spec: s, compiled: this.compile(s), state: PENDING });
+      this.order.push(s.name);
+      this.graph.setDependencies(s.name, this.records.get(s.name)!.compiled.deps);
+    }
+    this.recalculate(this.order, false);
+  }
+
+  // ---- files ---------------------------------------------------------------------------------
+
+  /** Reads a sheet file; throws SheetFileError naming the problem. */
+  static fromFile(text: string): Sheet {
+    const file = parseSheetFile(text);
+    try {
+      return new Sheet({ title: file.title, notes: file.notes, cells: file.cells });
+    } catch (e) {
+      if (e instanceof SheetEditError) throw new SheetFileError(`the sheet file has a bad cell: ${e.message}`);
+      throw e;
+    }
+  }
+
+  toFile(): SheetFile {
+    return { format: FILE_FORMAT, version: FILE_VERSION, title: this._title, notes: this._notes, cells: this.cells() };
+  }
+
+  /** Stable JSON text (2-space indent, canonical key order, trailing newline). */
+  toFileText(): string {
+    return serializeSheetFile(this.toFile());
+  }
+
+  // ---- reading -------------------------------------------------------------------------------
+
+  get title(): string {
+    return this._title;
+  }
+  set title(text: string) {
+    this._title = String(text);
+    this.emitStructure();
+  }
+  get notes(): string {
+    return this._notes;
+  }
+  set notes(text: string) {
+    this._notes = String(text);
+    this.emitStructure();
+  }
+
+  /** The cells in sheet order (copies). */
+  cells(): CellSpec[] {
+    return this.order.map((n) => ({ ...this.records.get(n)!.spec }));
+  }
+
+  get(name: string): CellSpec | undefined {
+    const r = this.records.get(name);
+    return r ? { ...r.spec } : undefined;
+  }
+
+  has(name: string): boolean {
+    return this.records.has(name);
+  }
+
+  state(name: string): CellState {
+    const r = this.records.get(name);
+    if (r) return r.state;
+    return { status: 'error', error: { kind: 'name', message: `${name}: there is no cell of that name` } };
+  }
+
+  /** The cell's value, or undefined when it has none (error, pending or no such cell). */
+  value(name: string): unknown {
+    const s = this.records.get(name)?.state;
+    return s && s.status === 'value' ? s.value : undefined;
+  }
+
+  /** Names the cell reads directly (including names that are not cells yet). */
+  dependencies(name: string): string[] {
+    return this.graph.dependencies(name);
+  }
+
+  /** Cells that read this cell directly, in sheet order. */
+  dependents(name: string): string[] {
+    const pos = this.positionMap();
+    return this.graph
+      .dependents(name)
+      .filter((n) => this.records.has(n))
+      .sort((a, b) => pos.get(a)! - pos.get(b)!);
+  }
+
+  builtins(): Builtin[] {
+    return [...lockedMath().builtins.values()];
+  }
+
+  subscribe(observer: SheetObserver): () => void {
+    this.observers.add(observer);
+    return () => {
+      this.observers.delete(observer);
+    };
+  }
+
+  // ---- editing -------------------------------------------------------------------------------
+
+  /** Adds a cell, or replaces the cell of the same name; `index` places it. */
+  setCell(spec: CellSpec, index?: number): void {
+    const s = this.normalize(spec);
+    const existing = this.records.get(s.name);
+    if (existing) {
+      const formulaChanged = existing.spec.formula !== s.formula;
+      existing.spec = s;
+      if (index !== undefined) this.place(s.name, index);
+      this.emitStructure();
+      if (formulaChanged) this.recompile(s.name);
+      return;
+    }
+    this.records.set(s.name, { spec: s, compiled: this.compile(s), state: PENDING });
+    this.graph.setDependencies(s.name, this.records.get(s.name)!.compiled.deps);
+    this.order.push(s.name);
+    this.positions = null;
+    if (index !== undefined) this.place(s.name, index);
+    this.planCache.clear();
+    this.emitStructure();
+    this.recalculate([s.name]);
+  }
+
+  /** Changes some fields of a cell; a new `name` renames it (references follow). */
+  updateCell(name: string, patch: Partial<CellSpec>): void {
+    const r = this.records.get(name);
+    if (!r) throw new SheetEditError(`there is no cell named ${name}`);
+    let target = name;
+    if (patch.name !== undefined && patch.name !== name) {
+      this.renameCell(name, patch.name);
+      target = patch.name;
+    }
+    const current = this.records.get(target)!;
+    const { name: _ignored, ...rest } = patch;
+    void _ignored;
+    const s = this.normalize({ ...current.spec, ...rest, name: target });
+    const formulaChanged = s.formula !== current.spec.formula;
+    current.spec = s;
+    this.emitStructure();
+    if (formulaChanged) this.recompile(target);
+  }
+
+  removeCell(name: string): void {
+    if (!this.records.has(name)) throw new SheetEditError(`there is no cell named ${name}`);
+    this.records.delete(name);
+    this.order = this.order.filter((n) => n !== name);
+    this.positions = null;
+    this.graph.removeCell(name);
+    this.planCache.clear();
+    this.emitStructure();
+    this.recalculate([name]);
+  }
+
+  /** Renames a cell and rewrites every formula that refers to it. */
+  renameCell(oldName: string, newName: string): void {
+    const r = this.records.get(oldName);
+    if (!r) throw new SheetEditError(`there is no cell named ${oldName}`);
+    if (oldName === newName) return;
+    this.assertName(newName);
+    if (this.records.has(newName)) throw new SheetEditError(`a cell named ${newName} already exists`, 'the name is taken');
+    const readers = new Set(this.graph.dependents(oldName).filter((n) => this.records.has(n)));
+    if (r.compiled.kind === 'function' || r.compiled.deps.includes(oldName)) readers.add(oldName);
+    const rewrites = new Map<string, CellSpec>();
+    for (const reader of readers) {
+      const rec = this.records.get(reader)!;
+      if (rec.compiled.kind === 'function' && rec.compiled.params.includes(newName)) {
+        throw new SheetEditError(
+          `cannot rename ${oldName} to ${newName}: ${newName} is a parameter of the function cell ${reader}`,
+          'the new name would be captured by a function parameter',
+        );
+      }
+      const formula = renameInFormula(rec.spec.formula, oldName, newName);
+      if (formula === undefined) throw new SheetEditError(`cannot rename ${oldName} safely in the formula of ${reader}`);
+      rewrites.set(reader, { ...rec.spec, formula });
+    }
+    // Uncertainty formulas (read by the statistics code) follow the rename too.
+    for (const [name, rec] of this.records) {
+      const u = rec.spec.uncertainty;
+      if (u && identifierTokens(u).some((t) => t.name === oldName)) {
+        const renamed = renameInFormula(u, oldName, newName);
+        if (renamed === undefined) throw new SheetEditError(`cannot rename ${oldName} safely in the uncertainty of ${name}`);
+        rewrites.set(name, { ...(rewrites.get(name) ?? rec.spec), uncertainty: renamed });
+      }
+    }
+    // Apply: move the record, then the rewritten formulas.
+    this.records.delete(oldName);
+    this.records.set(newName, r);
+    r.spec = { ...r.spec, name: newName };
+    this.order = this.order.map((n) => (n === oldName ? newName : n));
+    this.positions = null;
+    this.graph.removeCell(oldName);
+    this.graph.setDependencies(newName, r.compiled.deps);
+    for (const [name, spec] of rewrites) {
+      const target = name === oldName ? newName : name;
+      const rec = this.records.get(target)!;
+      rec.spec = { ...spec, name: target };
+      rec.compiled = this.compile(rec.spec);
+      this.graph.setDependencies(target, rec.compiled.deps);
+    }
+    this.planCache.clear();
+    this.emitStructure();
+    this.recalculate([oldName, newName, ...[...rewrites.keys()].map((n) => (n === oldName ? newName : n))]);
+  }
+
+  /** Moves a cell to position `index` in the sheet order. */
+  moveCell(name: string, index: number): void {
+    if (!this.records.has(name)) throw new SheetEditError(`there is no cell named ${name}`);
+    this.place(name, index);
+    this.emitStructure();
+  }
+
+  // ---- evaluation with overrides ---------------------------------------------------------------
+
+  /**
+   * Evaluates `outputs` with some cells' values replaced, leaving the sheet untouched. Only cells
+   * between the overrides and the outputs are recomputed; the rest are read from the sheet. The
+   * plan for a given set of override names and outputs is cached until the sheet changes.
+   */
+  evaluateWith(overrides: Record<string, unknown>, outputs: string[]): Record<string, CellState> {
+    const entries = Object.entries(overrides);
+    for (const [name] of entries) {
+      if (!this.records.has(name)) throw new SheetEditError(`cannot override ${name}: there is no cell of that name`);
+    }
+    const key = `${entries.map(([n]) => n).sort().join(',')}|${outputs.join(',')}`;
+    let plan = this.planCache.get(key);
+    if (!plan) {
+      const overridden = new Set(entries.map(([n]) => n));
+      const down = this.graph.downstream(overridden);
+      const up = this.graph.upstream(outputs);
+      const subset = new Set([...down].filter((n) => up.has(n) && !overridden.has(n) && this.records.has(n)));
+      plan = this.graph.plan(subset, this.positionMap()).order;
+      this.planCache.set(key, plan);
+    }
+    const local = new Map<string, CellState>();
+    for (const [name, value] of entries) local.set(name, { status: 'value', value });
+    const lookup: Lookup = (n) => local.get(n) ?? this.records.get(n)?.state;
+    for (const name of plan) {
+      const rec = this.records.get(name)!;
+      local.set(name, this.evaluateCompiled(name, rec.compiled, lookup));
+    }
+    const result: Record<string, CellState> = {};
+    for (const o of outputs) result[o] = local.get(o) ?? this.state(o);
+    return result;
+  }
+
+  /**
+   * Values of formulas written for existing cells, evaluated against the sheet as it is (for
+   * `--set` style overrides and scans). Throws SheetEditError naming the cell when one fails.
+   */
+  overridesFromFormulas(formulas: Record<string, string>): Record<string, unknown> {
+    const out: Record<string, unknown> = {};
+    for (const [name, text] of Object.entries(formulas)) {
+      if (!this.records.has(name)) throw new SheetEditError(`cannot override ${name}: there is no cell of that name`);
+      const compiled = compileFormula(text, name, this.builtinNames);
+      const state = this.evaluateCompiled(name, compiled, (n) => this.records.get(n)?.state);
+      if (state.status !== 'value') {
+        throw new SheetEditError(state.status === 'error' ? state.error.message : `${name}: the formula has no value`);
+      }
+      out[name] = state.value;
+    }
+    return out;
+  }
+
+  // ---- internals -----------------------------------------------------------------------------
+
+  private normalize(spec: CellSpec): CellSpec {
+    if (typeof spec !== 'object' || spec === null) throw new SheetEditError('a cell must be given as { name, formula }');
+    if (typeof spec.formula !== 'string') {
+      throw new SheetEditError(`the formula of cell ${String(spec.name)} must be text`);
+    }
+    for (const key of ['unit', 'note', 'source', 'section', 'uncertainty'] as const) {
+      const v = spec[key];
+      if (v !== undefined && typeof v !== 'string') throw new SheetEditError(`the ${key} of cell ${String(spec.name)} must be text`);
+    }
+    this.assertName(spec.name);
+    return canonicalCell(spec);
+  }
+
+  private assertName(name: unknown): asserts name is string {
+    const verdict = checkCellName(name, this.builtinNames);
+    if (!verdict.ok) {
+      throw new SheetEditError(
+        `${typeof name === 'string' ? name || '(empty)' : 'the name'} cannot be a cell name: ${verdict.reason} (try ${verdict.suggestion})`,
+        verdict.reason,
+        verdict.suggestion,
+      );
+    }
+  }
+
+  private compile(spec: CellSpec): CompiledFormula {
+    return compileFormula(spec.formula, spec.name, this.builtinNames);
+  }
+
+  private recompile(name: string): void {
+    const rec = this.records.get(name)!;
+    rec.compiled = this.compile(rec.spec);
+    this.graph.setDependencies(name, rec.compiled.deps);
+    this.planCache.clear();
+    this.recalculate([name]);
+  }
+
+  private place(name: string, index: number): void {
+    const rest = this.order.filter((n) => n !== name);
+    const i = Math.max(0, Math.min(rest.length, Number.isFinite(index) ? Math.trunc(index) : rest.length));
+    rest.splice(i, 0, name);
+    this.order = rest;
+    this.positions = null;
+  }
+
+  private positionMap(): Map<string, number> {
+    if (!this.positions) this.positions = new Map(this.order.map((n, i) => [n, i]));
+    return this.positions;
+  }
+
+  /**
+   * Recomputes the edited cells and whatever reads them, in dependency order. A cell is
+   * recomputed only when it was edited or one of its inputs changed; unchanged values stop
+   * the propagation there.
+   */
+  private recalculate(edited: Iterable<string>, notify = true): void {
+    const editedSet = new Set(edited);
+    const affected = new Set([...this.graph.downstream(editedSet)].filter((n) => this.records.has(n)));
+    const plan = this.graph.plan(affected, this.positionMap());
+    // Edited names that are no longer cells (removed, renamed) count as changed.
+    const changed = new Set([...editedSet].filter((n) => !this.records.has(n)));
+    const lookup: Lookup = (n) => this.records.get(n)?.state;
+    const store = (name: string, state: CellState) => {
+      const rec = this.records.get(name)!;
+      if (!sameState(rec.state, state)) changed.add(name);
+      rec.state = state;
+      if (!notify) return;
+      if (state.status === 'value') this.emit((o) => o.value?.(name, state.value));
+      else if (state.status === 'error') this.emit((o) => o.error?.(name, state.error));
+    };
+    for (const [name, cycle] of plan.cycles) {
+      if (notify) this.emit((o) => o.pending?.(name));
+      const path = cycle.join(' -> ');
+      store(name, { status: 'error', error: { kind: 'cycle', message: `${name}: ${name} is on a dependency cycle ${path}`, inputs: cycle } });
+    }
+    for (const name of plan.order) {
+      const rec = this.records.get(name)!;
+      if (!editedSet.has(name) && !rec.compiled.deps.some((d) => changed.has(d)) && !plan.cycles.has(name)) {
+        if (rec.state.status !== 'pending') continue;
+      }
+      if (notify) this.emit((o) => o.pending?.(name));
+      store(name, this.evaluateCompiled(name, rec.compiled, lookup));
+    }
+  }
+
+  /** Evaluates one compiled formula with inputs read through `lookup`. Never throws. */
+  private evaluateCompiled(name: string, compiled: CompiledFormula, lookup: Lookup): CellState {
+    if (compiled.kind === 'error') return { status: 'error', error: compiled.error };
+    const inputs = new Map<string, unknown>();
+    for (const dep of compiled.deps) {
+      const st = lookup(dep);
+      if (!st) {
+        const near = nearestName(dep, this.suggestionPool());
+        return {
+          status: 'error',
+          error: { kind: 'name', message: `${name}: unknown name ${dep}${near ? ` (did you mean ${near}?)` : ''}`, inputs: [dep] },
+        };
+      }
+      if (st.status === 'error') {
+        const root = st.error.kind === 'input' || st.error.kind === 'cycle' ? (rootCause.get(st.error) ?? st.error) : st.error;
+        const error: CellError = {
+          kind: 'input',
+          message: st.error.kind === 'cycle'
+            ? `${name}: input ${dep} is on a dependency cycle`
+            : `${name}: input ${dep} has an error (${root.message})`,
+          inputs: [dep],
+        };
+        rootCause.set(error, root);
+        return { status: 'error', error };
+      }
+      if (st.status === 'pending') {
+        return { status: 'error', error: { kind: 'input', message: `${name}: input ${dep} has no value yet`, inputs: [dep] } };
+      }
+      inputs.set(dep, st.value);
+    }
+    if (compiled.kind === 'function') {
+      return { status: 'value', value: makeCellFunction(compiled.functionName, compiled.params, compiled.body, inputs) };
+    }
+    let value: unknown;
+    try {
+      value = compiled.code.evaluate(inputs);
+    } catch (e) {
+      return { status: 'error', error: errorFromException(name, e) };
+    }
+    const problem = checkResult(name, value);
+    return problem ? { status: 'error', error: problem } : { status: 'value', value };
+  }
+
+  private suggestionPool(): string[] {
+    return [...this.records.keys(), ...this.builtinNames, ...ALLOWED_MATH_FUNCTIONS];
+  }
+
+  private emit(call: (o: SheetObserver) => void): void {
+    for (const o of [...this.observers]) {
+      try {
+        call(o);
+      } catch {
+        // An observer's failure must not stop the recalculation of the sheet.
+      }
+    }
+  }
+
+  private emitStructure(): void {
+    this.emit((o) => o.structure?.());
+  }
+}
+
+/** Every function a formula can call: the allowed mathjs functions and the built-ins, sorted. */
+export function allFunctionNames(): string[] {
+  return [...new Set([...ALLOWED_MATH_FUNCTIONS, ...lockedMath().builtins.keys()])].sort();
+}
+
+/** Names a formula can use (for completion): functions, constants, and the sheet's cells. */
+export function availableNames(sheet?: Sheet): string[] {
+  const cells = sheet ? sheet.cells().map((c) => c.name) : [];
+  return [...new Set([...cells, ...allFunctionNames(), ...ALLOWED_CONSTANTS])].sort();
+}

@@ -1,0 +1,149 @@
+// The sheet file format (our own, JSON):
+//   { "format": "strainsheet", "version": 1, "title": "...", "notes": "...",
+//     "cells": [ { "name", "formula", "unit"?, "note"?, "source"?, "section"?, "uncertainty"? } ] }
+// Keys are written in that order, empty optional cell fields are left out, 2-space indent and a
+// trailing newline, so saving what was loaded gives the same bytes. Loading validates everything
+// and refuses a bad file with a message that names the problem.
+import { z } from 'zod';
+import type { CellSpec } from './types';
+import { migrateToCurrent } from './sheetMigrations';
+
+export const FILE_FORMAT = 'strainsheet';
+export const FILE_VERSION = 1;
+/** Largest file accepted, in bytes of UTF-8. */
+export const MAX_FILE_BYTES = 5 * 1024 * 1024;
+/** Most cells a file may hold. */
+export const MAX_FILE_CELLS = 20_000;
+
+export interface SheetFile {
+  format: typeof FILE_FORMAT;
+  version: typeof FILE_VERSION;
+  title: string;
+  notes: string;
+  cells: CellSpec[];
+}
+
+/** A file that cannot be read as a sheet; the message says why. */
+export class SheetFileError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'SheetFileError';
+  }
+}
+
+const CELL_KEYS = ['name', 'formula', 'unit', 'note', 'source', 'section', 'uncertainty'] as const;
+const HOSTILE_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
+
+const cellSchema = z.strictObject({
+  name: z.string().min(1, 'the cell name is empty').max(64, 'the cell name is longer than 64 characters'),
+  formula: z.string(),
+  unit: z.string().max(200).optional(),
+  note: z.string().optional(),
+  source: z.string().optional(),
+  section: z.string().max(200).optional(),
+  uncertainty: z.string().optional(),
+});
+
+const fileSchema = z.strictObject({
+  format: z.literal(FILE_FORMAT),
+  version: z.literal(FILE_VERSION),
+  title: z.string().max(1000).optional(),
+  notes: z.string().optional(),
+  cells: z.array(cellSchema).max(MAX_FILE_CELLS, `a sheet file may hold at most ${MAX_FILE_CELLS} cells`),
+});
+
+/** A cell with keys in canonical order and empty optional fields left out. */
+export function canonicalCell(spec: CellSpec): CellSpec {
+  const out: Record<string, string> = { name: spec.name, formula: spec.formula };
+  for (const key of CELL_KEYS.slice(2)) {
+    const v = spec[key];
+    if (typeof v === 'string' && v !== '') out[key] = v;
+  }
+  return out as unknown as CellSpec;
+}
+
+/** The canonical text of a sheet file. */
+export function serializeSheetFile(file: SheetFile): string {
+  const canonical = {
+    format: FILE_FORMAT,
+    version: FILE_VERSION,
+    title: file.title ?? '',
+    notes: file.notes ?? '',
+    cells: file.cells.map(canonicalCell),
+  };
+  return JSON.stringify(canonical, null, 2) + '\n';
+}
+
+function where(path: ReadonlyArray<PropertyKey>): string {
+  if (path.length === 0) return 'the file';
+  let out = '';
+  for (const p of path) out += typeof p === 'number' ? `[${p + 1}]` : out ? `.${String(p)}` : String(p);
+  return out.replace(/^cells\[(\d+)\]/, 'cell $1');
+}
+
+function utf8Length(text: string): number {
+  if (text.length > MAX_FILE_BYTES) return text.length; // at least this many bytes
+  return new TextEncoder().encode(text).length;
+}
+
+/** Parses and validates sheet file text (migrating older versions); throws SheetFileError. */
+export function parseSheetFile(text: string): SheetFile {
+  if (typeof text !== 'string') throw new SheetFileError('the sheet file must be text');
+  const bytes = utf8Length(text);
+  if (bytes > MAX_FILE_BYTES) {
+    throw new SheetFileError(`the file is too large (${(bytes / 1048576).toFixed(1)} MB; a sheet file may be at most 5 MB)`);
+  }
+  if (text.trim() === '') throw new SheetFileError('the file is empty');
+  let data: unknown;
+  let hostile: string | undefined;
+  try {
+    data = JSON.parse(text, (key, value) => {
+      if (HOSTILE_KEYS.has(key)) hostile ??= key;
+      return value;
+    });
+  } catch (e) {
+    const detail = (e as Error).message.replace(/^JSON\.parse: /, '');
+    throw new SheetFileError(`the file is not valid JSON (it may be truncated or damaged): ${detail}`);
+  }
+  if (hostile !== undefined) throw new SheetFileError(`the file contains the key "${hostile}", which sheet files never use; it was refused`);
+  if (typeof data !== 'object' || data === null || Array.isArray(data)) {
+    throw new SheetFileError('the file is not a Strainsheet sheet (expected a JSON object)');
+  }
+  const record = data as Record<string, unknown>;
+  if (record.format !== FILE_FORMAT) {
+    throw new SheetFileError(`the file is not a Strainsheet sheet (its "format" should be "${FILE_FORMAT}")`);
+  }
+  const version = record.version;
+  if (typeof version !== 'number' || !Number.isInteger(version) || version < 0) {
+    throw new SheetFileError('the file has no valid "version" (a whole number)');
+  }
+  if (version > FILE_VERSION) {
+    throw new SheetFileError(`the file was made by a newer Strainsheet (file version ${version}; this one reads versions up to ${FILE_VERSION})`);
+  }
+  const migrated = version < FILE_VERSION ? migrateToCurrent(record, version) : record;
+  if (Array.isArray(migrated.cells) && migrated.cells.length > MAX_FILE_CELLS) {
+    throw new SheetFileError(`the file has ${migrated.cells.length} cells; a sheet file may hold at most ${MAX_FILE_CELLS}`);
+  }
+  const parsed = fileSchema.safeParse(migrated);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    let detail = issue.message;
+    if (issue.code === 'unrecognized_keys') detail = `unknown field${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => `"${k}"`).join(', ')}`;
+    else if (issue.code === 'invalid_type') detail = `expected ${issue.expected === 'string' ? 'text' : issue.expected}`;
+    throw new SheetFileError(`the sheet file is invalid at ${where(issue.path)}: ${detail}`);
+  }
+  const f = parsed.data;
+  const seen = new Map<string, number>();
+  f.cells.forEach((c, i) => {
+    const first = seen.get(c.name);
+    if (first !== undefined) throw new SheetFileError(`the cell name ${c.name} appears twice (cells ${first + 1} and ${i + 1})`);
+    seen.set(c.name, i);
+  });
+  return {
+    format: FILE_FORMAT,
+    version: FILE_VERSION,
+    title: f.title ?? '',
+    notes: f.notes ?? '',
+    cells: f.cells.map((c) => canonicalCell(c as CellSpec)),
+  };
+}

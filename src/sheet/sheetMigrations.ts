@@ -1,0 +1,34 @@
+// Migrations from older sheet file versions, each a pure function from one version's data to the
+// next. Version 0 was the draft format: cells had `display` (display unit) and `comment` (note),
+// and the sheet text was `description`.
+
+export type Migration = (data: Record<string, unknown>) => Record<string, unknown>;
+
+/** Version 0 -> 1: display -> unit, comment -> note, description -> notes. */
+export const migrate0to1: Migration = (data) => {
+  const cells = data.cells;
+  const out: Record<string, unknown> = { format: data.format, version: 1 };
+  if (data.title !== undefined) out.title = data.title;
+  if (data.description !== undefined) out.notes = data.description;
+  out.cells = Array.isArray(cells)
+    ? cells.map((c: unknown) => {
+        if (typeof c !== 'object' || c === null || Array.isArray(c)) return c;
+        const { display, comment, ...rest } = c as Record<string, unknown>;
+        const cell: Record<string, unknown> = { ...rest };
+        if (display !== undefined) cell.unit = display;
+        if (comment !== undefined) cell.note = comment;
+        return cell;
+      })
+    : cells;
+  return out;
+};
+
+/** Migrations by the version they start from. */
+export const MIGRATIONS: ReadonlyArray<Migration> = [migrate0to1];
+
+/** Applies the migrations from `version` up to the current version. */
+export function migrateToCurrent(data: Record<string, unknown>, version: number): Record<string, unknown> {
+  let d = data;
+  for (let v = version; v < MIGRATIONS.length; v++) d = MIGRATIONS[v](d);
+  return d;
+}
