@@ -1,3 +1,388 @@
+// The array's view as sheet built-ins: timing arrays, the Hellings & Downs correlation, the array's
+// sensitivity curve, the expected S/N of the correlated background and the span that detects it.
+// Units and argument checks happen here; the physics is plain numbers in src/physics.
+import type { Matrix, Unit } from 'mathjs';
 import type { Builtin } from '../sheet/builtin';
+import { BuiltinError } from '../sheet/cellError';
+import { math, isUnit, quantity } from '../sheet/mathInstance';
+import { isSheetObject, type SheetObject } from '../sheet/sheetObject';
+import { DAY_S, YEAR_S } from '../physics/constants';
+import { hellingsDowns } from '../physics/hellingsDowns';
+import { MAX_FREQUENCY_BINS, shortestCadence, type PulsarArray, type PulsarNoise } from '../physics/pulsarArray';
+import { arraySensitivity, type SensitivityCurve } from '../physics/arraySensitivity';
+import { detectionSnr, detectionSpan } from '../physics/detectionSnr';
+import { BelowSpectrumError, powerLawModel, spectrumModel, spectrumProblem, type StrainModel } from '../physics/strainOnBins';
+import type { Spectrum } from '../physics/spectrum';
+import { kindOf, objectOf, requireRange, scalarSI, vectorSI, where } from './args';
 
-export const arrayViewBuiltins: Builtin[] = [];
+/** Most pulsars an array may hold (pair layouts with positions grow as N^2). */
+export const MAX_PULSARS = 2000;
+/** Default longest span detectionSpan searches. */
+const DEFAULT_LONGEST_SPAN_S = 100 * YEAR_S;
+
+// ---- values ---------------------------------------------------------------------------------
+
+/** A timing array as a sheet value. */
+export class PulsarArrayValue implements SheetObject {
+  readonly kind = 'pulsarArray';
+  constructor(readonly array: PulsarArray) {}
+  describe(): string {
+    const a = this.array;
+    const p = a.pulsars;
+    const precisions = p.map((x) => x.precisionS);
+    const lo = Math.min(...precisions);
+    const hi = Math.max(...precisions);
+    const prec = lo === hi ? `${fmt(lo * 1e9)} ns` : `${fmt(lo * 1e9)}-${fmt(hi * 1e9)} ns`;
+    const red = p.some((x) => x.redAmplitude > 0) ? ', red noise' : '';
+    const sky = a.positions ? 'positions given' : 'sky-averaged';
+    return `pulsar array, ${p.length} pulsars, ${prec} every ${fmt(shortestCadence(a) / DAY_S)} d over ${fmt(a.spanS / YEAR_S)} yr${red}, ${sky}`;
+  }
+  toJSON(): unknown {
+    return { kind: this.kind, spanS: this.array.spanS, pulsars: this.array.pulsars, positionsRad: this.array.positions };
+  }
+}
+
+/** The array's noise-equivalent characteristic strain on its frequency bins (plots like a spectrum). */
+export class SensitivityCurveValue implements SheetObject, Spectrum {
+  readonly kind = 'sensitivityCurve';
+  readonly frequencyHz: Float64Array;
+  readonly hc: Float64Array;
+  constructor(readonly curve: SensitivityCurve) {
+    this.frequencyHz = curve.frequencyHz;
+    this.hc = curve.hc;
+  }
+  describe(): string {
+    const f = this.frequencyHz;
+    return `array sensitivity, ${f.length} bins, ${fmt(f[0] * 1e9)} nHz to ${fmt(f[f.length - 1] * 1e9)} nHz, ${this.curve.pulsarPairs} pairs${this.curve.skyAveraged ? ' (sky-averaged)' : ''}`;
+  }
+  toJSON(): unknown {
+    return {
+      kind: this.kind,
+      frequencyHz: Array.from(this.frequencyHz),
+      hc: Array.from(this.hc),
+      pulsarPairs: this.curve.pulsarPairs,
+      skyAveraged: this.curve.skyAveraged,
+    };
+  }
+}
+
+function fmt(x: number): string {
+  return Number(x.toPrecision(3)).toString();
+}
+
+// ---- argument helpers -----------------------------------------------------------------------
+
+const RADIAN = math.unit('rad');
+
+/** An angle in radians; plain numbers are refused (degrees or radians must be said). */
+function angleRad(v: unknown, fn: string, arg: string): number {
+  if (isUnit(v)) {
+    const u = v as Unit & { value: number | null };
+    if (!u.equalBase(RADIAN)) throw new BuiltinError(`${where(fn, arg)} needs an angle unit (deg or rad), got ${u.formatUnits() || 'no unit'}`, 'unit');
+    if (u.value === null || !Number.isFinite(u.value)) throw new BuiltinError(`${where(fn, arg)} is not a finite angle`, 'domain');
+    return u.value;
+  }
+  if (typeof v === 'number') throw new BuiltinError(`${where(fn, arg)} needs an angle unit (for example ${v} deg or ${v} rad), got the plain number ${v}`, 'unit');
+  throw new BuiltinError(`${where(fn, arg)} must be an angle, got ${kindOf(v)}`, 'domain');
+}
+
+function listItems(v: unknown): unknown[] | null {
+  if (math.isMatrix(v)) return (v as Matrix).toArray() as unknown[];
+  if (Array.isArray(v)) return v;
+  return null;
+}
+
+/** A per-pulsar quantity: one value for all, or a list with one value per pulsar; `check` sees each given value. */
+function perPulsar(
+  v: unknown,
+  count: number,
+  dim: 'time' | 'dimensionless',
+  fn: string,
+  arg: string,
+  check: (x: number, argName: string) => void,
+): Float64Array {
+  const values = vectorSI(v, dim, fn, arg);
+  const listed = listItems(v) !== null;
+  values.forEach((x, i) => check(x, listed ? `${arg}[${i + 1}]` : arg));
+  if (values.length === 1) return new Float64Array(count).fill(values[0]);
+  if (values.length !== count) throw new BuiltinError(`${where(fn, arg)} must be one value or a list of ${count} (one per pulsar), got ${values.length}`);
+  return values;
+}
+
+function integerCount(v: unknown, fn: string, arg: string): number {
+  const n = scalarSI(v, 'dimensionless', fn, arg);
+  if (!Number.isInteger(n)) throw new BuiltinError(`${where(fn, arg)} must be a whole number of pulsars, got ${n}`);
+  if (n < 2) throw new BuiltinError(`${where(fn, arg)} must be at least 2: a correlation needs a pair of pulsars, got ${n}`);
+  if (n > MAX_PULSARS) throw new BuiltinError(`${where(fn, arg)} must be at most ${MAX_PULSARS}, got ${n}`, 'limit');
+  return n;
+}
+
+function checkSpan(spanS: number, cadenceS: number, fn: string, arg: string): number {
+  requireRange(spanS, fn, arg, 0, Infinity, { loOpen: true, unitText: 's' });
+  if (spanS < 2 * cadenceS * (1 - 1e-12)) {
+    throw new BuiltinError(
+      `${where(fn, arg)} is ${fmt(spanS / DAY_S)} d, shorter than two cadences (${fmt((2 * cadenceS) / DAY_S)} d): ` +
+        `the cadence is too long for the span to hold even one frequency bin 1/T below the Nyquist frequency 1/(2 cadence)`,
+    );
+  }
+  const bins = Math.floor(spanS / (2 * cadenceS));
+  if (bins > MAX_FREQUENCY_BINS) {
+    throw new BuiltinError(`${where(fn, arg)} with this cadence gives ${bins} frequency bins, more than the limit of ${MAX_FREQUENCY_BINS}; use a shorter span or a longer cadence`, 'limit');
+  }
+  return spanS;
+}
+
+/** Builds the pulsars' noise from the shared arguments of pulsarArray and pulsarArrayOnSky. */
+function buildArray(
+  fn: string,
+  count: number,
+  precision: unknown,
+  cadence: unknown,
+  span: unknown,
+  redAmplitude: unknown,
+  redGamma: unknown,
+  positions: Array<[number, number]> | null,
+): PulsarArrayValue {
+  const sigma = perPulsar(precision, count, 'time', fn, 'precision', (x, name) => {
+    if (!(x > 0)) throw new BuiltinError(`${where(fn, name)} must be positive, got ${x} s`);
+  });
+  const cadenceS = scalarSI(cadence, 'time', fn, 'cadence');
+  if (!(cadenceS > 0)) throw new BuiltinError(`${where(fn, 'cadence')} must be positive, got ${cadenceS} s`);
+  const spanS = checkSpan(scalarSI(span, 'time', fn, 'span'), cadenceS, fn, 'span');
+  let amp: Float64Array = new Float64Array(count);
+  let gam: Float64Array = new Float64Array(count);
+  if (redAmplitude !== undefined) {
+    if (redGamma === undefined) throw new BuiltinError(`${where(fn, 'redGamma')} is needed when redAmplitude is given`);
+    amp = perPulsar(redAmplitude, count, 'dimensionless', fn, 'redAmplitude', (x, name) => requireRange(x, fn, name, 0, 1e-6));
+    gam = perPulsar(redGamma, count, 'dimensionless', fn, 'redGamma', (x, name) => requireRange(x, fn, name, 0, 10));
+  }
+  const pulsars: PulsarNoise[] = [];
+  for (let i = 0; i < count; i++) {
+    pulsars.push({ precisionS: sigma[i], cadenceS, redAmplitude: amp[i], redGamma: gam[i] });
+  }
+  return new PulsarArrayValue({ pulsars, spanS, positions });
+}
+
+function arrayArg(v: unknown, fn: string, arg: string): PulsarArray {
+  return objectOf<PulsarArrayValue>(v, 'pulsarArray', fn, arg).array;
+}
+
+/** An optional span override, checked against the array's cadence. */
+function spanArg(v: unknown, array: PulsarArray, fn: string, arg: string): number {
+  if (v === undefined) return array.spanS;
+  return checkSpan(scalarSI(v, 'time', fn, arg), shortestCadence(array), fn, arg);
+}
+
+/** The signal: a spectrum value (kind 'spectrum' or anything holding frequencyHz and hc) or an amplitude A_yr. */
+function signalArg(v: unknown, fn: string, arg: string): { model: StrainModel; lowestHz: number } {
+  if (typeof v === 'number' || (isUnit(v) && (v as Unit).dimensions.every((d: number) => d === 0))) {
+    const a = scalarSI(v, 'dimensionless', fn, arg);
+    requireRange(a, fn, arg, 0, 1e-6, { loOpen: true });
+    return { model: powerLawModel(a), lowestHz: 0 };
+  }
+  if (isSheetObject(v) && (v.kind === 'spectrum' || v.kind === 'sensitivityCurve')) {
+    const s = spectrumOfObject(v);
+    if (!s) throw new BuiltinError(`${where(fn, arg)} is a ${v.kind} without frequency and strain arrays`);
+    const problem = spectrumProblem(s);
+    if (problem) throw new BuiltinError(`${where(fn, arg)} is not a usable spectrum: ${problem}`);
+    return { model: spectrumModel(s), lowestHz: s.frequencyHz[0] };
+  }
+  throw new BuiltinError(`${where(fn, arg)} must be a spectrum or an amplitude A_yr (a number), got ${kindOf(v)}`, 'domain');
+}
+
+/** Reads the Spectrum a sheet object carries: its own fields, or a `spectrum` field. */
+function spectrumOfObject(v: SheetObject): Spectrum | null {
+  const o = v as unknown as { frequencyHz?: unknown; hc?: unknown; spectrum?: { frequencyHz?: unknown; hc?: unknown } };
+  const src = o.frequencyHz !== undefined ? o : o.spectrum;
+  if (!src) return null;
+  const f = toFloat64(src.frequencyHz);
+  const h = toFloat64(src.hc);
+  return f && h ? { frequencyHz: f, hc: h } : null;
+}
+
+function toFloat64(x: unknown): Float64Array | null {
+  if (x instanceof Float64Array) return x;
+  if (Array.isArray(x) && x.every((e) => typeof e === 'number')) return Float64Array.from(x as number[]);
+  return null;
+}
+
+/** Runs a physics call, turning its RangeErrors into errors that name the function and argument. */
+function guarded<T>(fn: string, signalArgName: string, body: () => T): T {
+  try {
+    return body();
+  } catch (e) {
+    if (e instanceof BelowSpectrumError) {
+      throw new BuiltinError(
+        `${where(fn, signalArgName)}: the array's lowest frequency bin 1/T = ${fmt(e.binHz * 1e9)} nHz lies below the spectrum's lowest frequency ` +
+          `${fmt(e.lowestHz * 1e9)} nHz; extend the spectrum's grid down to 1/T (spans up to ${fmt(1 / e.lowestHz / YEAR_S)} yr fit)`,
+      );
+    }
+    if (e instanceof RangeError) throw new BuiltinError(`${fn}: ${e.message}`);
+    throw e;
+  }
+}
+
+// ---- built-ins ------------------------------------------------------------------------------
+
+const hellingsDownsBuiltin: Builtin = {
+  name: 'hellingsDowns',
+  category: 'array',
+  summary: 'Hellings & Downs correlation of two distinct pulsars an angle apart on the sky (1/2 at zero separation).',
+  args: [{ name: 'separation', unit: 'angle (deg or rad), or a list of angles', description: 'angle between the two pulsars, 0 to 180 deg' }],
+  returns: { unit: 'dimensionless', description: 'expected correlation of the two pulsars’ residuals, or a list of them' },
+  source: 'Hellings & Downs 1983, ApJ 265, L39',
+  example: 'hellingsDowns(90 deg)  → -0.1449',
+  fn: (separation: unknown) => {
+    const fn = 'hellingsDowns';
+    const one = (v: unknown, arg: string) => {
+      const z = angleRad(v, fn, arg);
+      requireRange(z, fn, arg, 0, Math.PI * (1 + 1e-12), { unitText: 'rad (0 to 180 deg)' });
+      return hellingsDowns(Math.min(z, Math.PI));
+    };
+    const items = listItems(separation);
+    if (items === null) return one(separation, 'separation');
+    const flat = (items as unknown[]).flat(Infinity as 1);
+    return math.matrix(flat.map((v, i) => one(v, `separation[${i + 1}]`)));
+  },
+};
+
+const pulsarArrayBuiltin: Builtin = {
+  name: 'pulsarArray',
+  category: 'array',
+  summary: 'A timing array of pulsars with white (and optional red) noise, observed at a cadence over a span; sky positions unknown (pair sums use the isotropic-sky expectation).',
+  args: [
+    { name: 'count', unit: 'dimensionless', description: 'number of pulsars, at least 2' },
+    { name: 'precision', unit: 'time (ns), or a list per pulsar', description: 'rms timing precision per observation (tens of ns are typical for millisecond pulsars)' },
+    { name: 'cadence', unit: 'time (d)', description: 'time between observations' },
+    { name: 'span', unit: 'time (yr)', description: 'observing span, at least two cadences' },
+    { name: 'redAmplitude', unit: 'dimensionless, or a list per pulsar', description: 'red-noise amplitude A_red of P = A_red^2/(12 pi^2) f_yr^-3 (f/f_yr)^-gamma', optional: true },
+    { name: 'redGamma', unit: 'dimensionless, or a list per pulsar', description: 'red-noise spectral index gamma (0 to 10); needed with redAmplitude', optional: true },
+  ],
+  returns: { unit: 'pulsarArray', description: 'the array, for arraySensitivity, detectionSnr and detectionSpan' },
+  source: 'white-noise PSD 2 sigma^2 dt and power-law red noise as in Hazboun, Romano & Smith 2019, PRD 100, 104028 (memory)',
+  example: 'pulsarArray(30, 200 ns, 14 day, 12 yr)',
+  fn: (count: unknown, precision: unknown, cadence: unknown, span: unknown, redAmplitude?: unknown, redGamma?: unknown) => {
+    const fn = 'pulsarArray';
+    return buildArray(fn, integerCount(count, fn, 'count'), precision, cadence, span, redAmplitude, redGamma, null);
+  },
+};
+
+const pulsarArrayOnSkyBuiltin: Builtin = {
+  name: 'pulsarArrayOnSky',
+  category: 'array',
+  summary: 'A timing array whose pulsars sit at given sky positions, so each pair carries its own Hellings & Downs factor.',
+  args: [
+    { name: 'positions', unit: 'list of [right ascension, declination] angles', description: 'one row per pulsar, e.g. [[10 deg, 20 deg], [200 deg, -35 deg]]' },
+    { name: 'precision', unit: 'time (ns), or a list per pulsar', description: 'rms timing precision per observation' },
+    { name: 'cadence', unit: 'time (d)', description: 'time between observations' },
+    { name: 'span', unit: 'time (yr)', description: 'observing span, at least two cadences' },
+    { name: 'redAmplitude', unit: 'dimensionless, or a list per pulsar', description: 'red-noise amplitude A_red', optional: true },
+    { name: 'redGamma', unit: 'dimensionless, or a list per pulsar', description: 'red-noise spectral index gamma (0 to 10)', optional: true },
+  ],
+  returns: { unit: 'pulsarArray', description: 'the array, for arraySensitivity, detectionSnr and detectionSpan' },
+  source: 'Hellings & Downs 1983, ApJ 265, L39 (pair factors); noise as in pulsarArray',
+  example: 'pulsarArrayOnSky([[0 deg, 0 deg], [90 deg, 0 deg], [0 deg, 60 deg]], 100 ns, 14 day, 10 yr)',
+  fn: (positions: unknown, precision: unknown, cadence: unknown, span: unknown, redAmplitude?: unknown, redGamma?: unknown) => {
+    const fn = 'pulsarArrayOnSky';
+    const rows = listItems(positions);
+    if (rows === null) throw new BuiltinError(`${where(fn, 'positions')} must be a list of [right ascension, declination] rows, got ${kindOf(positions)}`);
+    if (rows.length < 2) throw new BuiltinError(`${where(fn, 'positions')} must hold at least 2 pulsars: a correlation needs a pair, got ${rows.length}`);
+    if (rows.length > MAX_PULSARS) throw new BuiltinError(`${where(fn, 'positions')} may hold at most ${MAX_PULSARS} pulsars, got ${rows.length}`, 'limit');
+    const sky: Array<[number, number]> = rows.map((row, i) => {
+      const r = listItems(row);
+      if (r === null || r.length !== 2) throw new BuiltinError(`${where(fn, `positions[${i + 1}]`)} must be a pair [right ascension, declination], got ${kindOf(row)}`);
+      const ra = angleRad(r[0], fn, `positions[${i + 1}] right ascension`);
+      const dec = angleRad(r[1], fn, `positions[${i + 1}] declination`);
+      if (Math.abs(dec) > Math.PI / 2 * (1 + 1e-12)) throw new BuiltinError(`${where(fn, `positions[${i + 1}] declination`)} must lie in [-90, 90] deg, got ${fmt((dec * 180) / Math.PI)} deg`);
+      return [ra, dec];
+    });
+    return buildArray(fn, sky.length, precision, cadence, span, redAmplitude, redGamma, sky);
+  },
+};
+
+const arraySensitivityBuiltin: Builtin = {
+  name: 'arraySensitivity',
+  category: 'array',
+  summary: 'Noise-equivalent characteristic strain of the array for the correlated background, on its frequency bins k/T up to 1/(2 cadence).',
+  args: [
+    { name: 'array', unit: 'pulsarArray', description: 'from pulsarArray or pulsarArrayOnSky' },
+    { name: 'span', unit: 'time (yr)', description: 'span to use instead of the array’s own', optional: true },
+  ],
+  returns: { unit: 'sensitivityCurve', description: 'h_n(f) = sqrt(12 pi^2 f^3 P_eff), P_eff = [sum over pairs Gamma^2/(P_I P_J)]^(-1/2); plots beside a spectrum' },
+  source: 'pair combination as in Hazboun, Romano & Smith 2019, PRD 100, 104028 (memory); P = h_c^2/(12 pi^2 f^3)',
+  example: 'arraySensitivity(pulsarArray(30, 200 ns, 14 day, 12 yr))',
+  fn: (array: unknown, span?: unknown) => {
+    const fn = 'arraySensitivity';
+    const a = arrayArg(array, fn, 'array');
+    const t = spanArg(span, a, fn, 'span');
+    return guarded(fn, 'array', () => new SensitivityCurveValue(arraySensitivity(a, t)));
+  },
+};
+
+const detectionSnrBuiltin: Builtin = {
+  name: 'detectionSnr',
+  category: 'array',
+  summary: 'Expected signal-to-noise ratio of the optimal cross-correlation statistic for a predicted background and an array.',
+  args: [
+    { name: 'signal', unit: 'spectrum, or dimensionless A_yr', description: 'predicted spectrum (its grid must reach down to 1/T; above its top the signal counts as 0), or an amplitude A_yr for h_c = A_yr (f/f_yr)^(-2/3)' },
+    { name: 'array', unit: 'pulsarArray', description: 'from pulsarArray or pulsarArrayOnSky' },
+    { name: 'span', unit: 'time (yr)', description: 'span to use instead of the array’s own (for scans over span)', optional: true },
+  ],
+  returns: { unit: 'dimensionless', description: 'expected S/N, sqrt of the sum over bins k/T and pulsar pairs of 2 Gamma^2 P_g^2 / [(P_I+P_g)(P_J+P_g) + Gamma^2 P_g^2]' },
+  source: 'Siemens, Ellis, Jenet & Romano 2013, CQG 30, 224015 (discrete-bin form)',
+  example: 'detectionSnr(2e-15, pulsarArray(30, 200 ns, 14 day, 12 yr))',
+  fn: (signal: unknown, array: unknown, span?: unknown) => {
+    const fn = 'detectionSnr';
+    const a = arrayArg(array, fn, 'array');
+    const { model } = signalArg(signal, fn, 'signal');
+    const t = spanArg(span, a, fn, 'span');
+    return guarded(fn, 'signal', () => detectionSnr(a, model, t).snr);
+  },
+};
+
+const detectionSpanBuiltin: Builtin = {
+  name: 'detectionSpan',
+  category: 'array',
+  summary: 'Shortest observing span at which the expected cross-correlation S/N reaches a threshold (root find over span).',
+  args: [
+    { name: 'signal', unit: 'spectrum, or dimensionless A_yr', description: 'predicted spectrum or amplitude A_yr, as in detectionSnr' },
+    { name: 'array', unit: 'pulsarArray', description: 'the array; its own span is ignored' },
+    { name: 'threshold', unit: 'dimensionless', description: 'S/N to reach, greater than 0' },
+    { name: 'longestSpan', unit: 'time (yr)', description: 'longest span searched (default 100 yr, and never beyond 1/(lowest frequency of the spectrum))', optional: true },
+  ],
+  returns: { unit: 'time (yr)', description: 'the span; an error says so when the threshold is not reached within the search' },
+  source: 'S/N of Siemens, Ellis, Jenet & Romano 2013, CQG 30, 224015; log-spaced scan then bisection (common practice, no source)',
+  example: 'detectionSpan(2e-15, pulsarArray(30, 200 ns, 14 day, 12 yr), 3)',
+  fn: (signal: unknown, array: unknown, threshold: unknown, longestSpan?: unknown) => {
+    const fn = 'detectionSpan';
+    const a = arrayArg(array, fn, 'array');
+    const { model, lowestHz } = signalArg(signal, fn, 'signal');
+    const thr = requireRange(scalarSI(threshold, 'dimensionless', fn, 'threshold'), fn, 'threshold', 0, 1e6, { loOpen: true });
+    const minSpan = 2 * shortestCadence(a);
+    let longest = longestSpan === undefined ? DEFAULT_LONGEST_SPAN_S : checkSpan(scalarSI(longestSpan, 'time', fn, 'longestSpan'), shortestCadence(a), fn, 'longestSpan');
+    if (lowestHz > 0) {
+      const fits = 1 / lowestHz;
+      if (fits < minSpan) {
+        throw new BuiltinError(`${where(fn, 'signal')}: the spectrum starts at ${fmt(lowestHz * 1e9)} nHz, above the array's Nyquist frequency; no span fits both`);
+      }
+      if (longestSpan !== undefined && longest > fits * (1 + 1e-12)) {
+        throw new BuiltinError(`${where(fn, 'longestSpan')} is ${fmt(longest / YEAR_S)} yr, but the spectrum starts at ${fmt(lowestHz * 1e9)} nHz, so spans beyond ${fmt(fits / YEAR_S)} yr need frequencies it does not have`);
+      }
+      longest = Math.min(longest, fits);
+    }
+    const r = guarded(fn, 'signal', () => detectionSpan(a, model, thr, longest, minSpan));
+    if (!r.reached) {
+      throw new BuiltinError(`${fn}: the expected S/N stays below the threshold ${thr} for spans up to ${fmt(longest / YEAR_S)} yr (it reaches ${fmt(r.snr)} there)`);
+    }
+    return quantity(r.spanS, 'yr');
+  },
+};
+
+export const arrayViewBuiltins: Builtin[] = [
+  hellingsDownsBuiltin,
+  pulsarArrayBuiltin,
+  pulsarArrayOnSkyBuiltin,
+  arraySensitivityBuiltin,
+  detectionSnrBuiltin,
+  detectionSpanBuiltin,
+];
