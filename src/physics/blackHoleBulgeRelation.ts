@@ -1,0 +1,30 @@
+// Black-hole mass against host bulge stellar mass, log10 M_BH = a + b log10(M_bulge / 1e11 Msun),
+// with log-normal intrinsic scatter (dex). Masses in Msun.
+
+export interface BlackHoleBulgeRelation {
+  /** Normalisation a: log10 M_BH at M_bulge = 1e11 Msun. */
+  a: number;
+  /** Slope b. */
+  b: number;
+  /** Intrinsic scatter, dex. */
+  scatterDex: number;
+  /** Where the numbers come from. */
+  source: string;
+}
+
+/**
+ * McConnell & Ma 2013 (ApJ 764, 184), M_BH-M_bulge fit: a = 8.46, b = 1.05 (as in PHYSICS.md);
+ * intrinsic scatter 0.34 dex (memory: not verified against the paper).
+ */
+export const MCCONNELL_MA_2013: BlackHoleBulgeRelation = Object.freeze({ a: 8.46, b: 1.05, scatterDex: 0.34, source: 'McConnell & Ma 2013, ApJ 764, 184 (scatter from memory)' });
+
+/**
+ * Kormendy & Ho 2013 (ARA&A 51, 511), eq. 10: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.16, so
+ * a = 9 + log10 0.49 = 8.690 and b = 1.16 (as in PHYSICS.md); intrinsic scatter 0.29 dex (PHYSICS.md, memory).
+ */
+export const KORMENDY_HO_2013: BlackHoleBulgeRelation = Object.freeze({ a: 9 + Math.log10(0.49), b: 1.16, scatterDex: 0.29, source: 'Kormendy & Ho 2013, ARA&A 51, 511 (scatter from memory)' });
+
+/** Median log10 M_BH for a bulge of the given stellar mass. */
+export function medianLog10BlackHoleMass(r: BlackHoleBulgeRelation, bulgeMass: number): number {
+  return r.a + r.b * Math.log10(bulgeMass / 1e11);
+}

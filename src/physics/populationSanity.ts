@@ -1,0 +1,52 @@
+// Checks of a population against what is known of black holes today: merger-rate density, number of
+// mergers, and the mass locked in merged black holes, to compare with the local black-hole mass density
+// (about 3-6e5 Msun Mpc^-3: Marconi et al. 2004, MNRAS 351, 169; Shankar, Weinberg & Miralda-Escude
+// 2009, ApJ 690, 20).
+import { GYR_S } from './constants';
+import type { FlatLambdaCdm } from './cosmology';
+import { compositeNodes } from './gaussLegendre';
+import { checkPopulation } from './backgroundIntegral';
+import type { BinaryPopulation } from './populationTypes';
+
+/** The local black-hole mass density range quoted by Marconi et al. 2004 and Shankar et al. 2009, Msun Mpc^-3 (the range as PHYSICS.md quotes it; journal references from memory). */
+export const LOCAL_BLACK_HOLE_MASS_DENSITY_RANGE: readonly [number, number] = [3e5, 6e5];
+
+const PANELS = 8;
+const ORDER = 8;
+
+/** Int dlog10M dq n(z, ., .) at one z, Mpc^-3 per unit z. */
+function perUnitRedshift(pop: BinaryPopulation, z: number, weightOfMass: (msun: number) => number): number {
+  const mr = compositeNodes(pop.log10MMin, pop.log10MMax, PANELS, ORDER);
+  const qr = compositeNodes(pop.qMin, pop.qMax, PANELS, ORDER);
+  let s = 0;
+  for (let a = 0; a < mr.nodes.length; a++) {
+    const wm = mr.weights[a] * weightOfMass(Math.pow(10, mr.nodes[a]));
+    for (let b = 0; b < qr.nodes.length; b++) s += wm * qr.weights[b] * pop.density(z, mr.nodes[a], qr.nodes[b]);
+  }
+  return s;
+}
+
+/** Merger-rate density at redshift z, Mpc^-3 Gyr^-1 (rest-frame time): Int n dlog10M dq / |dt_r/dz|. */
+export function mergerRateDensity(pop: BinaryPopulation, cosmo: FlatLambdaCdm, z: number): number {
+  checkPopulation(pop);
+  if (!(z >= pop.zMin && z <= pop.zMax)) throw new RangeError(`redshift ${z} lies outside the population's range [${pop.zMin}, ${pop.zMax}]`);
+  return perUnitRedshift(pop, z, () => 1) / (cosmo.dtdzS(z) / GYR_S);
+}
+
+function overRedshift(pop: BinaryPopulation, weightOfMass: (msun: number) => number): number {
+  checkPopulation(pop);
+  const zr = compositeNodes(pop.zMin, pop.zMax, PANELS, ORDER);
+  let s = 0;
+  for (let c = 0; c < zr.nodes.length; c++) s += zr.weights[c] * perUnitRedshift(pop, zr.nodes[c], weightOfMass);
+  return s;
+}
+
+/** Comoving number density of all mergers in the population, Mpc^-3. */
+export function mergedNumberDensity(pop: BinaryPopulation): number {
+  return overRedshift(pop, () => 1);
+}
+
+/** Comoving mass density of the black holes that merged (total mass M per merger), Msun Mpc^-3. */
+export function mergedMassDensity(pop: BinaryPopulation): number {
+  return overRedshift(pop, (m) => m);
+}
