@@ -1,0 +1,66 @@
+// The always-visible bar of key results: A_yr, the comparison with the measurement, and the merger
+// rate the measurement allows — whichever of these the sheet has.
+import { createMemo, For, Show } from 'solid-js';
+import { useServices } from './services';
+import { formatValue, isSheetObject, type CellSpec } from '../engine/engine';
+import { sectionOf } from '../sheet/sections';
+import { ScientificText } from '../sheet/ScientificText';
+
+interface KeyResult {
+  role: string;
+  cell: CellSpec;
+}
+
+/** Picks the key-result cells: by name for A_yr, by value kind or name for the others. */
+export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unknown): KeyResult[] {
+  const out: KeyResult[] = [];
+  const ayr = cells.find((c) => c.name === 'A_yr');
+  if (ayr) out.push({ role: 'predicted A_yr', cell: ayr });
+  const kindIs = (c: CellSpec, re: RegExp) => {
+    const v = valueOf(c.name);
+    return isSheetObject(v) && re.test(v.kind);
+  };
+  const comparison = cells.find((c) => kindIs(c, /^comparison$/i)) ?? cells.find((c) => /^(comparison|compare|tension)/i.test(c.name));
+  if (comparison) out.push({ role: 'against the measurement', cell: comparison });
+  const allowed =
+    cells.find((c) => kindIs(c, /allowed|rateSolution|rateRange/i)) ??
+    cells.find((c) => /allowed/i.test(c.name) && sectionOf(c) !== 'population');
+  if (allowed) out.push({ role: 'allowed merger rate', cell: allowed });
+  return out;
+}
+
+export function KeyResultsBar() {
+  const services = useServices();
+  const { session } = services;
+  const results = createMemo(() => pickKeyResults(session.cells(), (n) => session.value(n)));
+  return (
+    <div class="key-results" role="status" aria-label="Key results">
+      <Show when={results().length} fallback={<span class="key-empty">No result cells yet (a cell named A_yr shows here).</span>}>
+        <For each={results()}>
+          {(r) => {
+            const st = () => session.state(r.cell.name);
+            const text = () => {
+              const s = st();
+              if (s.status === 'pending') return 'computing…';
+              if (s.status === 'error') return `error: ${s.error.message}`;
+              try {
+                return formatValue(s.value, r.cell.unit);
+              } catch {
+                return String(s.value);
+              }
+            };
+            return (
+              <button type="button" class={`key-result ${st().status}`} data-key-result={r.cell.name} onClick={() => services.focusCell(r.cell.name)}>
+                <span class="key-role">{r.role}</span>
+                <span class="key-name">{r.cell.name}</span>
+                <span class="key-value" data-key-value={r.cell.name} data-raw={text()} title={text()}>
+                  <ScientificText text={text()} />
+                </span>
+              </button>
+            );
+          }}
+        </For>
+      </Show>
+    </div>
+  );
+}

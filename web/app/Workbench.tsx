@@ -1,0 +1,270 @@
+// The whole screen: tool bar, key results, the sheet, and the side panel (plots, scans, reference).
+import { createEffect, createMemo, createSignal, For, onCleanup, onMount, Show } from 'solid-js';
+import { Sheet } from '../engine/engine';
+import { SheetSession } from '../state/sheetSession';
+import { ServicesProvider, type Services, type Tone } from './services';
+import { KeyResultsBar } from './KeyResultsBar';
+import { SheetPanel } from '../sheet/SheetPanel';
+import { groupBySection } from '../sheet/sections';
+import { SidePanel } from './SidePanel';
+import { restoreAutosave, writeAutosave } from '../files/autosave';
+import { openSheetFile, MAX_SHEET_FILE_BYTES } from '../files/openSheetFile';
+import { downloadText, fileStem } from '../files/download';
+import { cellTableCsv } from '../files/cellTableCsv';
+import type { Completion } from '../help/formulaContext';
+import { DEMO_TEXT } from './demoSheet';
+
+interface Message {
+  id: number;
+  text: string;
+  tone: Tone;
+}
+
+function initialSheet(notify: (t: string, tone?: Tone) => void): { sheet: Sheet; autosaveAllowed: boolean } {
+  const restored = restoreAutosave((text) => Sheet.fromFile(text));
+  if (restored.message) notify(restored.message, restored.sheet ? 'info' : 'error');
+  if (restored.sheet) return { sheet: restored.sheet, autosaveAllowed: restored.safeToWrite };
+  return { sheet: demoSheet(notify), autosaveAllowed: restored.safeToWrite };
+}
+
+/** The demo sheet, or an empty one with a message when the demo file is missing or unreadable. */
+function demoSheet(notify: (t: string, tone?: Tone) => void): Sheet {
+  if (DEMO_TEXT === null) {
+    notify('The demo sheet (examples/demo.json) is not part of this build; starting with an empty sheet.', 'error');
+    return new Sheet({ title: 'Untitled sheet' });
+  }
+  try {
+    return Sheet.fromFile(DEMO_TEXT);
+  } catch (err) {
+    notify(`The demo sheet could not be read: ${err instanceof Error ? err.message : String(err)}`, 'error');
+    return new Sheet({ title: 'Untitled sheet' });
+  }
+}
+
+export function Workbench() {
+  const [messages, setMessages] = createSignal<Message[]>([]);
+  let nextId = 1;
+  const notify = (text: string, tone: Tone = 'info') => {
+    const id = nextId++;
+    setMessages((m) => [...m.slice(-3), { id, text, tone }]);
+    if (tone === 'info') setTimeout(() => dismiss(id), 8000);
+  };
+  const dismiss = (id: number) => setMessages((m) => m.filter((x) => x.id !== id));
+
+  const start = initialSheet(notify);
+  const session = new SheetSession(start.sheet);
+  let autosaveAllowed = start.autosaveAllowed;
+  const [autosaveState, setAutosaveState] = createSignal(autosaveAllowed ? 'autosave on' : 'autosave off');
+  let lastAutosaveError = '';
+  session.onChange = (s) => {
+    if (!autosaveAllowed) return;
+    const r = writeAutosave(s.toFileText());
+    if (r.ok) {
+      lastAutosaveError = '';
+      setAutosaveState(`autosaved ${new Date().toLocaleTimeString()}`);
+    } else {
+      setAutosaveState('autosave failed');
+      if (r.message !== lastAutosaveError) notify(r.message, 'error');
+      lastAutosaveError = r.message;
+    }
+  };
+
+  // First computed A_yr after start: read by the UI benchmark.
+  let firstMarked = false;
+  createEffect(() => {
+    if (!firstMarked && session.value('A_yr') !== undefined) {
+      firstMarked = true;
+      performance.mark('strainsheet:first-A_yr');
+    }
+  });
+
+  const rows = new Map<string, HTMLElement>();
+  const [traced, setTraced] = createSignal<string | null>(null);
+  const builtins = createMemo(() => {
+    session.structure();
+    try {
+      return session.current.builtins();
+    } catch {
+      return [];
+    }
+  });
+  const completions = createMemo<Completion[]>(() => {
+    const cells = session.cells().map<Completion>((c) => {
+      const fn = /^\s*[A-Za-z_][A-Za-z0-9_]*\s*\(/.test(c.formula) && /\)\s*=(?!=)/.test(c.formula);
+      return { name: c.name, kind: fn ? 'function' : 'cell', detail: c.unit ? `cell [${c.unit}]` : 'cell' };
+    });
+    const fns = builtins().map<Completion>((b) => ({ name: b.name, kind: 'built-in', detail: b.summary }));
+    return [...cells, ...fns];
+  });
+
+  const services: Services = {
+    session,
+    notify,
+    focusCell(name, part = 'formula') {
+      const row = rows.get(name);
+      if (!row) return;
+      row.scrollIntoView({ block: 'nearest' });
+      const target = row.querySelector<HTMLElement>(part === 'formula' ? '.formula-input' : '.name-button');
+      target?.focus();
+    },
+    registerRow(name, el) {
+      if (el) rows.set(name, el);
+      else rows.delete(name);
+    },
+    rowOrder: () => groupBySection(session.cells()).flatMap((g) => g.cells.map((c) => c.name)),
+    builtins,
+    completions,
+    traced,
+    setTraced,
+  };
+
+  // Files.
+  let filePicker!: HTMLInputElement;
+  const openFile = async (file: File) => {
+    const r = await openSheetFile(file, (text) => Sheet.fromFile(text));
+    if (!r.ok) {
+      notify(r.message, 'error');
+      return;
+    }
+    session.load(r.sheet, `open ${file.name}`);
+    notify(`Opened ${file.name}.`);
+  };
+  const newSheet = () => {
+    session.load(new Sheet({ title: 'Untitled sheet', cells: [] }), 'new sheet');
+    notify('New empty sheet. Undo brings the previous one back.');
+  };
+  const loadDemo = () => {
+    session.load(demoSheet(notify), 'load demo');
+    notify('Demo sheet loaded. Undo brings the previous one back.');
+  };
+  const title = () => {
+    session.revision();
+    return session.current.title || 'Untitled sheet';
+  };
+  const saveFile = () => downloadText(session.toFileText(), `${fileStem(title(), 'sheet')}.strainsheet.json`, 'application/json');
+  const exportCells = () => downloadText(cellTableCsv(session), `${fileStem(title(), 'sheet')}-cells.csv`, 'text/csv');
+
+  // Drag and drop a sheet file anywhere on the page.
+  const [dropping, setDropping] = createSignal(false);
+  const onDragOver = (e: DragEvent) => {
+    if (!e.dataTransfer?.types.includes('Files')) return;
+    e.preventDefault();
+    setDropping(true);
+  };
+  const onDragLeave = (e: DragEvent) => {
+    if (e.relatedTarget === null) setDropping(false);
+  };
+  const onDrop = (e: DragEvent) => {
+    e.preventDefault();
+    setDropping(false);
+    const file = e.dataTransfer?.files[0];
+    if (file) void openFile(file);
+  };
+
+  // Undo and redo from the keyboard, outside text boxes (text boxes keep the browser's own undo).
+  const onKey = (e: KeyboardEvent) => {
+    const inText = e.target instanceof HTMLInputElement || e.target instanceof HTMLTextAreaElement;
+    const mod = e.ctrlKey || e.metaKey;
+    if (!mod) return;
+    const k = e.key.toLowerCase();
+    if (k === 's') {
+      e.preventDefault();
+      saveFile();
+    } else if (!inText && k === 'z') {
+      e.preventDefault();
+      if (e.shiftKey) session.redo();
+      else session.undo();
+    } else if (!inText && k === 'y') {
+      e.preventDefault();
+      session.redo();
+    }
+  };
+  onMount(() => {
+    window.addEventListener('keydown', onKey);
+    window.addEventListener('dragover', onDragOver);
+    window.addEventListener('dragleave', onDragLeave);
+    window.addEventListener('drop', onDrop);
+  });
+  onCleanup(() => {
+    window.removeEventListener('keydown', onKey);
+    window.removeEventListener('dragover', onDragOver);
+    window.removeEventListener('dragleave', onDragLeave);
+    window.removeEventListener('drop', onDrop);
+  });
+
+  return (
+    <ServicesProvider value={services}>
+      <div class="workbench" classList={{ dropping: dropping() }}>
+        <header class="topbar">
+          <div class="brand">
+            <span class="brand-mark" aria-hidden="true">
+              h<sub>c</sub>
+            </span>
+            <span class="brand-name">Strainsheet</span>
+          </div>
+          <input
+            class="sheet-title"
+            aria-label="Sheet title"
+            value={title()}
+            onChange={(e) => {
+              const t = e.currentTarget.value;
+              session.edit('rename sheet', (sheet) => {
+                sheet.title = t;
+              });
+            }}
+          />
+          <nav class="toolbar no-print" aria-label="File and history">
+            <button type="button" onClick={newSheet}>New</button>
+            <button type="button" onClick={() => filePicker.click()}>Open…</button>
+            <button type="button" data-action="save-sheet" onClick={saveFile}>Save</button>
+            <button type="button" onClick={loadDemo}>Demo</button>
+            <button type="button" data-action="export-cells" onClick={exportCells}>Cells CSV</button>
+            <span class="toolbar-gap" />
+            <button type="button" data-action="undo" disabled={!session.canUndo()} title={session.canUndo() ? `Undo ${session.canUndo()}` : 'Nothing to undo'} onClick={() => session.undo()}>
+              Undo
+            </button>
+            <button type="button" data-action="redo" disabled={!session.canRedo()} title={session.canRedo() ? `Redo ${session.canRedo()}` : 'Nothing to redo'} onClick={() => session.redo()}>
+              Redo
+            </button>
+            <button type="button" onClick={() => window.print()}>Print</button>
+            <span class="autosave-state" data-autosave>{autosaveState()}</span>
+          </nav>
+          <input
+            ref={filePicker}
+            type="file"
+            accept=".json,application/json"
+            data-action="open-file"
+            hidden
+            onChange={(e) => {
+              const f = e.currentTarget.files?.[0];
+              e.currentTarget.value = '';
+              if (f) void openFile(f);
+            }}
+          />
+        </header>
+        <KeyResultsBar />
+        <div class="messages" aria-live="polite">
+          <For each={messages()}>
+            {(m) => (
+              <div class={`message ${m.tone}`} role={m.tone === 'error' ? 'alert' : 'status'}>
+                <span>{m.text}</span>
+                <button type="button" class="dismiss" aria-label="Dismiss" onClick={() => dismiss(m.id)}>
+                  ×
+                </button>
+              </div>
+            )}
+          </For>
+        </div>
+        <main class="workspace">
+          <SheetPanel />
+          <SidePanel />
+        </main>
+        <Show when={dropping()}>
+          <div class="drop-overlay" aria-hidden="true">
+            Drop a sheet file (at most {Math.round(MAX_SHEET_FILE_BYTES / 1e6)} MB) to open it
+          </div>
+        </Show>
+      </div>
+    </ServicesProvider>
+  );
+}

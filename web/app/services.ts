@@ -1,0 +1,31 @@
+// What the components share: the live sheet, messages, row focus and the help topic.
+import { createContext, useContext, type Accessor } from 'solid-js';
+import type { SheetSession } from '../state/sheetSession';
+import type { Builtin } from '../engine/engine';
+import type { Completion } from '../help/formulaContext';
+
+export type Tone = 'info' | 'error';
+
+export interface Services {
+  session: SheetSession;
+  notify(text: string, tone?: Tone): void;
+  /** Moves keyboard focus to a cell's formula box (and scrolls it into view). */
+  focusCell(name: string, part?: 'formula' | 'name'): void;
+  registerRow(name: string, el: HTMLElement | undefined): void;
+  /** Cell names in screen order, for keyboard navigation. */
+  rowOrder(): string[];
+  builtins: Accessor<Builtin[]>;
+  completions: Accessor<Completion[]>;
+  /** The cell whose trace is open. */
+  traced: Accessor<string | null>;
+  setTraced(name: string | null): void;
+}
+
+const ServicesContext = createContext<Services>();
+export const ServicesProvider = ServicesContext.Provider;
+
+export function useServices(): Services {
+  const s = useContext(ServicesContext);
+  if (!s) throw new Error('Strainsheet: component used outside the workbench');
+  return s;
+}

@@ -1,0 +1,25 @@
+// Reading a sheet file the user picked or dropped. The file is parsed into a new Sheet; only when
+// that succeeds does the caller replace the current one, so a bad file leaves the sheet untouched.
+
+/** Files larger than this are refused before reading (the engine has its own limit too). */
+export const MAX_SHEET_FILE_BYTES = 5_000_000;
+
+export type OpenOutcome<T> = { ok: true; sheet: T } | { ok: false; message: string };
+
+export async function openSheetFile<T>(file: Blob & { name?: string }, parse: (text: string) => T): Promise<OpenOutcome<T>> {
+  const label = file.name ? `"${file.name}"` : 'The file';
+  if (file.size > MAX_SHEET_FILE_BYTES) {
+    return { ok: false, message: `${label} was not opened: it is ${(file.size / 1e6).toFixed(1)} MB, more than the ${MAX_SHEET_FILE_BYTES / 1e6} MB a sheet file may have. The sheet is unchanged.` };
+  }
+  let text: string;
+  try {
+    text = await file.text();
+  } catch (err) {
+    return { ok: false, message: `${label} could not be read (${err instanceof Error ? err.message : String(err)}). The sheet is unchanged.` };
+  }
+  try {
+    return { ok: true, sheet: parse(text) };
+  } catch (err) {
+    return { ok: false, message: `${label} was not opened: ${err instanceof Error ? err.message : String(err)} The sheet is unchanged.` };
+  }
+}

@@ -1,0 +1,250 @@
+// Long jobs: scan one input, map two inputs against the measurement, or sample the uncertain
+// cells (Monte Carlo). They run in the job worker on a copy of the sheet, with progress and cancel.
+import { createMemo, createSignal, For, Match, onCleanup, Show, Switch } from 'solid-js';
+import { useServices } from '../app/services';
+import { isSheetObject, type CellSpec } from '../engine/engine';
+import { math } from '../../src/sheet/mathInstance';
+import { JobClient } from './jobClient';
+import type { JobSpec, SampleResult, ScanAxisSpec } from './jobProtocol';
+import { PlotView } from '../plots/PlotView';
+import { scan1Model, scan2Model, sampleModel } from './scanPlotModels';
+import { measuredFromJson } from '../plots/sheetPlotData';
+
+type Mode = 'scan1' | 'scan2' | 'sample';
+
+/** A scalar cell's value as a number in its display unit (or SI when it has none). */
+function scalarInUnit(v: unknown, unit: string | undefined): { value: number; unit: string } | null {
+  if (typeof v === 'number' && Number.isFinite(v)) return { value: v, unit: '' };
+  if (math.isUnit(v)) {
+    try {
+      const u = v as unknown as { toNumber(unit: string): number; formatUnits(): string };
+      const target = unit || u.formatUnits();
+      return { value: u.toNumber(target), unit: target };
+    } catch {
+      return null;
+    }
+  }
+  return null;
+}
+
+function AxisFields(props: { label: string; axis: ScanAxisSpec; choices: CellSpec[]; onChange: (a: ScanAxisSpec) => void; onPick: (cell: string) => void }) {
+  return (
+    <fieldset class="axis-fields">
+      <legend>{props.label}</legend>
+      <label>
+        cell
+        <select value={props.axis.cell} onChange={(e) => props.onPick(e.currentTarget.value)} aria-label={`${props.label} cell`}>
+          <For each={props.choices}>{(c) => <option value={c.name}>{c.name}</option>}</For>
+        </select>
+      </label>
+      <label>
+        from <input type="number" step="any" value={props.axis.lo} onChange={(e) => props.onChange({ ...props.axis, lo: Number(e.currentTarget.value) })} />
+      </label>
+      <label>
+        to <input type="number" step="any" value={props.axis.hi} onChange={(e) => props.onChange({ ...props.axis, hi: Number(e.currentTarget.value) })} />
+      </label>
+      <label>
+        points <input type="number" min="2" max="400" step="1" value={props.axis.n} onChange={(e) => props.onChange({ ...props.axis, n: Math.round(Number(e.currentTarget.value)) })} />
+      </label>
+      <label class="inline">
+        <input type="checkbox" checked={props.axis.log} onChange={(e) => props.onChange({ ...props.axis, log: e.currentTarget.checked })} /> log spacing
+      </label>
+      <span class="axis-unit">{props.axis.unit ? `in ${props.axis.unit}` : 'plain number'}</span>
+    </fieldset>
+  );
+}
+
+export function ScanPanel() {
+  const services = useServices();
+  const { session } = services;
+  const client = new JobClient();
+  onCleanup(() => client.dispose());
+  const [mode, setMode] = createSignal<Mode>('scan1');
+  const [formError, setFormError] = createSignal<string | null>(null);
+
+  const scalarCells = createMemo(() => session.cells().filter((c) => scalarInUnit(session.value(c.name), c.unit) !== null));
+  const measurementCells = createMemo(() =>
+    session.cells().filter((c) => {
+      const v = session.value(c.name);
+      return isSheetObject(v) && v.kind === 'measurement';
+    }),
+  );
+  const defaultAxis = (cell: string | undefined): ScanAxisSpec => {
+    const spec = session.cells().find((c) => c.name === cell);
+    const s = spec ? scalarInUnit(session.value(spec.name), spec.unit) : null;
+    if (!spec || !s) return { cell: cell ?? '', lo: 0, hi: 1, n: 41, log: false, unit: '' };
+    const positive = s.value > 0;
+    return { cell: spec.name, lo: positive ? s.value / 10 : s.value - 1, hi: positive ? s.value * 10 : s.value + 1, n: 41, log: positive, unit: s.unit };
+  };
+  const firstCell = (prefer: string) => scalarCells().find((c) => c.name === prefer)?.name ?? scalarCells()[0]?.name;
+  const [axisX, setAxisX] = createSignal<ScanAxisSpec>(defaultAxis(firstCell('rate_norm')));
+  const [axisY, setAxisY] = createSignal<ScanAxisSpec>({ ...defaultAxis(scalarCells().find((c) => c.name !== axisX().cell)?.name), n: 31 });
+  const [output, setOutput] = createSignal(session.cells().some((c) => c.name === 'A_yr') ? 'A_yr' : (scalarCells()[0]?.name ?? ''));
+  const [measurement, setMeasurement] = createSignal<string>(measurementCells()[0]?.name ?? '');
+  const [samples, setSamples] = createSignal(1000);
+  const [seed, setSeed] = createSignal(1);
+
+  const measured = () => {
+    const name = measurement();
+    const v = name ? session.value(name) : undefined;
+    return isSheetObject(v) ? measuredFromJson(name, v.toJSON()) : null;
+  };
+
+  const run = () => {
+    setFormError(null);
+    const checkAxis = (a: ScanAxisSpec, what: string): string | null => {
+      if (!a.cell) return `Choose the ${what} cell.`;
+      if (!Number.isFinite(a.lo) || !Number.isFinite(a.hi)) return `${what}: both ends must be numbers.`;
+      if (!(a.hi > a.lo)) return `${what}: the range must run from a smaller to a larger value (got ${a.lo} to ${a.hi}).`;
+      if (a.log && !(a.lo > 0)) return `${what}: log spacing needs a positive range (got ${a.lo}).`;
+      if (!(Number.isInteger(a.n) && a.n >= 2 && a.n <= 400)) return `${what}: points must be a whole number from 2 to 400.`;
+      return null;
+    };
+    let job: JobSpec;
+    const m = mode();
+    if (!output()) return setFormError('Choose the output cell.');
+    if (m === 'scan1') {
+      const e = checkAxis(axisX(), 'input');
+      if (e) return setFormError(e);
+      job = { kind: 'scan1', axis: axisX(), output: output(), measurement: measurement() || null };
+    } else if (m === 'scan2') {
+      const e = checkAxis(axisX(), 'first input') ?? checkAxis(axisY(), 'second input');
+      if (e) return setFormError(e);
+      if (axisX().cell === axisY().cell) return setFormError('The two inputs must be different cells.');
+      if (!measurement()) return setFormError('A map needs a measurement cell to compare with.');
+      job = { kind: 'scan2', x: axisX(), y: axisY(), output: output(), measurement: measurement() };
+    } else {
+      if (!(Number.isInteger(samples()) && samples() >= 10 && samples() <= 200_000)) return setFormError('Samples must be a whole number from 10 to 200000.');
+      job = { kind: 'sample', samples: samples(), seed: seed(), output: output(), measurement: measurement() || null };
+    }
+    client.start(session.toFileText(), job);
+  };
+
+  const status = client.status;
+  const running = () => {
+    const s = status();
+    return s.state === 'running' ? s : null;
+  };
+  const failed = () => {
+    const s = status();
+    return s.state === 'failed' ? s.message : null;
+  };
+  const done = () => {
+    const s = status();
+    return s.state === 'done' ? s : null;
+  };
+  const resultModel = createMemo(() => {
+    const s = status();
+    if (s.state !== 'done') return null;
+    const r = s.result;
+    if (r.kind === 'scan1') return scan1Model(r, measured());
+    if (r.kind === 'scan2') return scan2Model(r);
+    return sampleModel(r, measured());
+  });
+
+  return (
+    <div class="scan-panel">
+      <div class="mode-switch no-print" role="radiogroup" aria-label="Job">
+        <label>
+          <input type="radio" name="mode" checked={mode() === 'scan1'} onChange={() => setMode('scan1')} /> scan one input
+        </label>
+        <label>
+          <input type="radio" name="mode" checked={mode() === 'scan2'} onChange={() => setMode('scan2')} /> map two inputs
+        </label>
+        <label>
+          <input type="radio" name="mode" checked={mode() === 'sample'} onChange={() => setMode('sample')} /> sample uncertain cells
+        </label>
+      </div>
+      <div class="job-form no-print">
+        <Show when={mode() !== 'sample'}>
+          <AxisFields label={mode() === 'scan2' ? 'first input' : 'input'} axis={axisX()} choices={scalarCells()} onChange={setAxisX} onPick={(c) => setAxisX(defaultAxis(c))} />
+        </Show>
+        <Show when={mode() === 'scan2'}>
+          <AxisFields label="second input" axis={axisY()} choices={scalarCells()} onChange={setAxisY} onPick={(c) => setAxisY({ ...defaultAxis(c), n: 31 })} />
+        </Show>
+        <Show when={mode() === 'sample'}>
+          <fieldset class="axis-fields">
+            <legend>samples</legend>
+            <label>
+              how many <input type="number" min="10" step="1" value={samples()} onChange={(e) => setSamples(Math.round(Number(e.currentTarget.value)))} />
+            </label>
+            <label>
+              seed <input type="number" step="1" value={seed()} onChange={(e) => setSeed(Math.round(Number(e.currentTarget.value)))} />
+            </label>
+            <span class="axis-unit">cells with an uncertainty are drawn from it</span>
+          </fieldset>
+        </Show>
+        <fieldset class="axis-fields">
+          <legend>result</legend>
+          <label>
+            output
+            <select value={output()} onChange={(e) => setOutput(e.currentTarget.value)} aria-label="Output cell">
+              <For each={scalarCells()}>{(c) => <option value={c.name}>{c.name}</option>}</For>
+            </select>
+          </label>
+          <label>
+            measurement
+            <select value={measurement()} onChange={(e) => setMeasurement(e.currentTarget.value)} aria-label="Measurement cell">
+              <option value="">none</option>
+              <For each={measurementCells()}>{(c) => <option value={c.name}>{c.name}</option>}</For>
+            </select>
+          </label>
+        </fieldset>
+        <div class="job-buttons">
+          <button type="button" class="primary" data-action="run-job" disabled={status().state === 'running'} onClick={run}>
+            Run
+          </button>
+          <button type="button" data-action="cancel-job" disabled={status().state !== 'running'} onClick={() => client.cancel()}>
+            Cancel
+          </button>
+        </div>
+        <Show when={formError()}>
+          <div class="form-error" role="alert">{formError()}</div>
+        </Show>
+      </div>
+      <Switch>
+        <Match when={running()}>
+          {(s) => (
+            <div class="job-progress" role="progressbar" aria-valuemin={0} aria-valuemax={s().total} aria-valuenow={s().done}>
+              <progress max={s().total} value={s().done} /> {s().done} of {s().total}
+            </div>
+          )}
+        </Match>
+        <Match when={status().state === 'cancelled'}>
+          <div class="job-progress" data-job-cancelled>Cancelled. The sheet is as it was.</div>
+        </Match>
+        <Match when={failed()}>
+          {(message) => (
+            <div class="form-error" role="alert">
+              The job failed: {message()}
+            </div>
+          )}
+        </Match>
+        <Match when={done()}>
+          {(s) => (
+            <div class="job-result" data-job-result={s().result.kind}>
+              <div class="job-time">finished in {(s().elapsedMs / 1000).toFixed(2)} s</div>
+              <Show when={s().result.kind === 'sample' ? (s().result as SampleResult).summary : null}>
+                {(rows) => (
+                  <table class="summary-table">
+                    <tbody>
+                      <For each={rows()}>
+                        {(row) => (
+                          <tr>
+                            <th>{row.label}</th>
+                            <td>{row.value}</td>
+                          </tr>
+                        )}
+                      </For>
+                    </tbody>
+                  </table>
+                )}
+              </Show>
+            </div>
+          )}
+        </Match>
+      </Switch>
+      <Show when={resultModel()}>{(m) => <PlotView model={m} height={340} onMessage={(t) => services.notify(t, 'error')} />}</Show>
+    </div>
+  );
+}

@@ -1,0 +1,218 @@
+// Turns a PlotModel into a chart.js configuration (animation off, white page, our own colours).
+import {
+  Chart,
+  LineController,
+  ScatterController,
+  LineElement,
+  PointElement,
+  LinearScale,
+  LogarithmicScale,
+  Legend,
+  Tooltip,
+  Filler,
+  Title,
+  type ChartConfiguration,
+  type ChartDataset,
+  type Plugin,
+} from 'chart.js';
+import { cellEdges, dataRange, heatColor, usableOnAxis, type PlotAxis, type PlotModel } from './plotModel';
+import { formatTick } from './axisTicks';
+
+Chart.register(LineController, ScatterController, LineElement, PointElement, LinearScale, LogarithmicScale, Legend, Tooltip, Filler, Title);
+
+/** Paints the canvas white before drawing, so PNG exports and prints have a page behind them. */
+export const whitePage: Plugin<'line'> = {
+  id: 'strainsheetWhitePage',
+  beforeDraw(chart) {
+    const { ctx, width, height } = chart;
+    ctx.save();
+    ctx.globalCompositeOperation = 'destination-over';
+    ctx.fillStyle = '#ffffff';
+    ctx.fillRect(0, 0, width, height);
+    ctx.restore();
+  },
+};
+
+type Point = { x: number; y: number | null };
+
+const drawnModels = new WeakMap<object, PlotModel>();
+
+/** Tells the chart's layers which PlotModel it currently shows (call before update()). */
+export function attachModel(chart: object, model: PlotModel): void {
+  drawnModels.set(chart, model);
+}
+
+/** Draws the current PlotModel's heatmap under the datasets, using the chart's own scales. */
+const heatmapLayer: Plugin<'line'> = {
+    id: 'strainsheetHeatmap',
+    beforeDatasetsDraw(chart) {
+      const model = drawnModels.get(chart);
+      const h = model?.heatmap;
+      if (!model || !h) return;
+      const xf = model.x.displayFactor ?? 1;
+      const yf = model.y.displayFactor ?? 1;
+      const xe = cellEdges(h.x, model.x.scale);
+      const ye = cellEdges(h.y, model.y.scale);
+      const zmax = Math.max(...h.z.filter(Number.isFinite), 0) || 1;
+      const { ctx, chartArea, scales } = chart;
+      ctx.save();
+      ctx.beginPath();
+      ctx.rect(chartArea.left, chartArea.top, chartArea.right - chartArea.left, chartArea.bottom - chartArea.top);
+      ctx.clip();
+      for (let j = 0; j < h.y.length; j++) {
+        for (let i = 0; i < h.x.length; i++) {
+          const z = h.z[i + h.x.length * j];
+          if (!Number.isFinite(z) || z <= 0) continue;
+          const x0 = scales.x.getPixelForValue(xe[i] * xf);
+          const x1 = scales.x.getPixelForValue(xe[i + 1] * xf);
+          const y0 = scales.y.getPixelForValue(ye[j + 1] * yf);
+          const y1 = scales.y.getPixelForValue(ye[j] * yf);
+          ctx.fillStyle = heatColor(z / zmax);
+          ctx.fillRect(x0, y0, x1 - x0 + 0.5, y1 - y0 + 0.5);
+        }
+      }
+      ctx.restore();
+    },
+};
+
+function withAlpha(color: string, alpha: number): string {
+  const m = /^#([0-9a-f]{6})$/i.exec(color);
+  if (!m) return color;
+  const n = parseInt(m[1], 16);
+  return `rgba(${(n >> 16) & 255}, ${(n >> 8) & 255}, ${n & 255}, ${alpha})`;
+}
+
+export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
+  const xf = model.x.displayFactor ?? 1;
+  const yf = model.y.displayFactor ?? 1;
+  const okX = (v: number) => usableOnAxis(v, model.x.scale);
+  const okY = (v: number | undefined) => v !== undefined && usableOnAxis(v, model.y.scale);
+  const sets: ChartDataset<'line', Point[]>[] = [];
+  for (const s of model.series) {
+    const base = { borderColor: s.color, backgroundColor: s.color, borderWidth: s.width ?? 2, borderDash: s.dash ?? [] };
+    if (s.kind === 'line') {
+      sets.push({
+        ...base,
+        label: s.label,
+        data: s.x.map((x, i) => ({ x: x * xf, y: okX(x) && okY(s.y[i]) ? s.y[i] * yf : null })),
+        pointRadius: 0,
+        spanGaps: false,
+        tension: 0,
+      });
+    } else if (s.kind === 'points') {
+      sets.push({
+        ...base,
+        label: s.label,
+        data: s.x.flatMap((x, i) => (okX(x) && okY(s.y[i]) ? [{ x: x * xf, y: s.y[i] * yf }] : [])),
+        showLine: false,
+        pointRadius: 4,
+      });
+    } else if (s.kind === 'band') {
+      const lo = s.yLow ?? [];
+      const hi = s.yHigh ?? [];
+      const keep = s.x.map((x, i) => okX(x) && okY(lo[i]) && okY(hi[i]));
+      sets.push({
+        label: `${s.label} (lower)`,
+        data: s.x.map((x, i) => ({ x: x * xf, y: keep[i] ? lo[i] * yf : null })),
+        borderColor: withAlpha(s.color, 0.6),
+        borderWidth: 1,
+        pointRadius: 0,
+        fill: false,
+      });
+      sets.push({
+        label: s.label,
+        data: s.x.map((x, i) => ({ x: x * xf, y: keep[i] ? hi[i] * yf : null })),
+        borderColor: withAlpha(s.color, 0.6),
+        backgroundColor: withAlpha(s.color, 0.22),
+        borderWidth: 1,
+        pointRadius: 0,
+        fill: '-1',
+      });
+    } else {
+      // Vertical intervals as line segments separated by gaps, plus square markers at the centre.
+      const lo = s.yLow ?? [];
+      const hi = s.yHigh ?? [];
+      const seg: Point[] = [];
+      s.x.forEach((x, i) => {
+        if (!okX(x) || !okY(lo[i]) || !okY(hi[i])) return;
+        seg.push({ x: x * xf, y: lo[i] * yf }, { x: x * xf, y: hi[i] * yf }, { x: x * xf, y: null });
+      });
+      sets.push({ ...base, label: `${s.label} (interval)`, data: seg, pointRadius: 0, spanGaps: false });
+      sets.push({
+        ...base,
+        label: s.label,
+        data: s.x.flatMap((x, i) => (okX(x) && okY(s.y[i]) ? [{ x: x * xf, y: s.y[i] * yf }] : [])),
+        showLine: false,
+        pointRadius: 5,
+        pointStyle: 'rect',
+      });
+    }
+  }
+  return sets;
+}
+
+function scaleFor(axis: PlotAxis, range: [number, number] | null, factor: number) {
+  const lo = axis.min ?? range?.[0];
+  const hi = axis.max ?? range?.[1];
+  const decades = lo !== undefined && hi !== undefined ? Math.log10(hi) - Math.log10(lo) : 0;
+  const padLog = decades * 0.04 || 0.1;
+  const fewDecades = decades < 2.5;
+  return {
+    type: axis.scale === 'log' ? ('logarithmic' as const) : ('linear' as const),
+    min: lo === undefined ? undefined : (axis.scale === 'log' && axis.min === undefined ? lo * 10 ** -padLog : lo) * factor,
+    max: hi === undefined ? undefined : (axis.scale === 'log' && axis.max === undefined ? hi * 10 ** padLog : hi) * factor,
+    title: { display: true, text: axis.label, color: '#1f2a36', font: { size: 13 } },
+    grid: { color: '#e6e3dc' },
+    ticks: {
+      color: '#3b4652',
+      autoSkip: true,
+      maxTicksLimit: 9,
+      callback: (v: number | string) => {
+        const n = Number(v);
+        if (axis.scale !== 'log') return formatTick(n);
+        // On log axes label powers of ten, and also 2 and 5 times them when the axis spans few decades.
+        const mant = Math.round(n / 10 ** Math.floor(Math.log10(n) + 1e-9));
+        return mant === 1 || (fewDecades && (mant === 2 || mant === 5)) ? formatTick(n) : '';
+      },
+    },
+  };
+}
+
+export function chartConfig(model: PlotModel, opts: { devicePixelRatio?: number; responsive?: boolean } = {}): ChartConfiguration<'line', Point[]> {
+  return {
+    type: 'line',
+    data: { datasets: datasetsFor(model) },
+    plugins: [whitePage, heatmapLayer],
+    options: {
+      animation: false,
+      responsive: opts.responsive ?? true,
+      maintainAspectRatio: false,
+      devicePixelRatio: opts.devicePixelRatio,
+      parsing: false,
+      normalized: true,
+      interaction: { mode: 'nearest', intersect: false },
+      scales: {
+        x: scaleFor(model.x, dataRange(model, 'x'), model.x.displayFactor ?? 1),
+        y: scaleFor(model.y, dataRange(model, 'y'), model.y.displayFactor ?? 1),
+      },
+      plugins: {
+        title: { display: true, text: model.title, color: '#1f2a36', font: { size: 14, weight: 'bold' } },
+        legend: {
+          position: 'bottom',
+          labels: {
+            color: '#1f2a36',
+            boxWidth: 14,
+            // Hide helper datasets (band lower edges, interval bars) from the legend.
+            filter: (item) => !/\((lower|interval)\)$/.test(item.text),
+          },
+        },
+        tooltip: {
+          filter: (item) => !/\((lower|interval)\)$/.test(item.dataset.label ?? ''),
+          callbacks: {
+            label: (item) => `${item.dataset.label}: ${formatTick(item.parsed.y ?? NaN)} at ${formatTick(item.parsed.x ?? NaN)}`,
+          },
+        },
+      },
+    },
+  };
+}

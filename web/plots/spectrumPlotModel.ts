@@ -1,0 +1,154 @@
+// The spectrum plot as a PlotModel: predicted spectra, pinned curves, function cells of frequency,
+// the measured amplitude at its reference frequency with its interval, the measured power-law band and
+// per-bin measured values, all shown as h_c, Omega_gw or timing-residual power.
+import { omegaGwFromStrain, residualPowerFromStrain, strainFromOmegaGw, strainFromResidualPower } from '../../src/statistics/powerLaw';
+import type { PlotModel, PlotSeries } from './plotModel';
+import { curveColor, MEASURED_COLOR, BINS_COLOR } from './palette';
+
+export type VerticalQuantity = 'hc' | 'omega' | 'psd';
+
+export const VERTICAL_LABELS: Record<VerticalQuantity, string> = {
+  hc: 'characteristic strain h_c (dimensionless)',
+  omega: 'energy-density fraction Ω_gw(f) (dimensionless)',
+  psd: 'timing-residual power P(f) (s³)',
+};
+
+/** A strain spectrum to draw, numbers in SI (Hz). */
+export interface StrainCurve {
+  id: string;
+  label: string;
+  frequencyHz: number[];
+  hc: number[];
+  dashed?: boolean;
+}
+
+/** A measured power-law amplitude: median and an interval with its stated credibility. */
+export interface MeasuredAmplitude {
+  label: string;
+  median: number;
+  lower: number;
+  upper: number;
+  /** Credibility of [lower, upper] as a fraction, e.g. 0.9. */
+  level: number;
+  gamma: number;
+  fRefHz: number;
+}
+
+/** Measured values in frequency bins (free spectrum), converted to h_c by the extractor. */
+export interface BinnedStrain {
+  label: string;
+  frequencyHz: number[];
+  hc: number[];
+  hcLower: number[];
+  hcUpper: number[];
+}
+
+export interface SpectrumPlotInput {
+  quantity: VerticalQuantity;
+  curves: StrainCurve[];
+  measured: MeasuredAmplitude[];
+  bins: BinnedStrain[];
+  /** Hubble constant in s^-1, needed for Omega_gw. */
+  h0PerS: number | null;
+  notes: string[];
+}
+
+export function convertStrain(quantity: VerticalQuantity, hc: number, fHz: number, h0PerS: number | null): number {
+  if (quantity === 'hc') return hc;
+  if (quantity === 'psd') return residualPowerFromStrain(hc, fHz);
+  return h0PerS === null ? NaN : omegaGwFromStrain(hc, fHz, h0PerS);
+}
+
+/** Inverse of convertStrain, for per-bin values given as Omega_gw or residual power. */
+export function strainFrom(quantity: VerticalQuantity, value: number, fHz: number, h0PerS: number | null): number {
+  if (quantity === 'hc') return value;
+  if (quantity === 'psd') return strainFromResidualPower(value, fHz);
+  return h0PerS === null ? NaN : strainFromOmegaGw(value, fHz, h0PerS);
+}
+
+/** h_c of a power law with amplitude A at fRef and residual-power index gamma (alpha = (3 - gamma)/2). */
+function powerLaw(a: number, gamma: number, fRef: number, f: number): number {
+  return a * Math.pow(f / fRef, (3 - gamma) / 2);
+}
+
+export function spectrumPlotModel(input: SpectrumPlotInput): PlotModel {
+  const q = input.quantity;
+  const conv = (hc: number, f: number) => convertStrain(q, hc, f, input.h0PerS);
+  const series: PlotSeries[] = [];
+  const notes = [...input.notes];
+  if (q === 'omega' && input.h0PerS === null) notes.push('Ω_gw needs H0: no Hubble-constant cell (a quantity like 70 km/s/Mpc) was found.');
+
+  input.curves.forEach((c, i) => {
+    series.push({
+      id: c.id,
+      label: c.label,
+      kind: 'line',
+      x: c.frequencyHz,
+      y: c.hc.map((h, k) => conv(h, c.frequencyHz[k])),
+      color: curveColor(i),
+      dash: c.dashed ? [6, 4] : undefined,
+      width: c.dashed ? 1.5 : 2.2,
+    });
+  });
+
+  // Frequency range for the measured band: the drawn curves' range, else a decade around f_ref.
+  let fLo = Infinity;
+  let fHi = -Infinity;
+  for (const c of input.curves) for (const f of c.frequencyHz) if (f > 0 && Number.isFinite(f)) (fLo = Math.min(fLo, f)), (fHi = Math.max(fHi, f));
+  for (const m of input.measured) {
+    if (!(fLo < fHi)) {
+      fLo = m.fRefHz / 10;
+      fHi = m.fRefHz * 3;
+    }
+    const n = 48;
+    const xs = Array.from({ length: n }, (_, k) => fLo * Math.pow(fHi / fLo, k / (n - 1)));
+    const pct = `${Math.round(m.level * 1000) / 10}%`;
+    series.push({
+      id: `${m.label}:band`,
+      label: `${m.label}: power law γ=${Number(m.gamma.toFixed(3))}, ${pct} band`,
+      kind: 'band',
+      x: xs,
+      y: xs.map((f) => conv(powerLaw(m.median, m.gamma, m.fRefHz, f), f)),
+      yLow: xs.map((f) => conv(powerLaw(m.lower, m.gamma, m.fRefHz, f), f)),
+      yHigh: xs.map((f) => conv(powerLaw(m.upper, m.gamma, m.fRefHz, f), f)),
+      color: MEASURED_COLOR,
+    });
+    series.push({
+      id: `${m.label}:amplitude`,
+      label: `${m.label}: amplitude at ${formatNhz(m.fRefHz)} with ${pct} interval`,
+      kind: 'interval',
+      x: [m.fRefHz],
+      y: [conv(m.median, m.fRefHz)],
+      yLow: [conv(m.lower, m.fRefHz)],
+      yHigh: [conv(m.upper, m.fRefHz)],
+      color: MEASURED_COLOR,
+      width: 2.5,
+    });
+  }
+  for (const b of input.bins) {
+    series.push({
+      id: `${b.label}:bins`,
+      label: `${b.label}: per-bin values`,
+      kind: 'interval',
+      x: b.frequencyHz,
+      y: b.hc.map((h, k) => conv(h, b.frequencyHz[k])),
+      yLow: b.hcLower.map((h, k) => conv(h, b.frequencyHz[k])),
+      yHigh: b.hcUpper.map((h, k) => conv(h, b.frequencyHz[k])),
+      color: BINS_COLOR,
+      width: 1.5,
+    });
+  }
+  if (!input.curves.length) notes.push('No spectrum cell yet: a cell whose value is a spectrum is drawn here.');
+  return {
+    id: 'spectrum',
+    title: q === 'hc' ? 'Characteristic-strain spectrum' : q === 'omega' ? 'Energy-density spectrum' : 'Timing-residual power spectrum',
+    x: { label: 'gravitational-wave frequency f (nHz)', scale: 'log', displayFactor: 1e9 },
+    y: { label: VERTICAL_LABELS[q], scale: 'log' },
+    series,
+    notes,
+  };
+}
+
+function formatNhz(f: number): string {
+  return `${Number((f * 1e9).toPrecision(3))} nHz`;
+}

@@ -1,0 +1,98 @@
+// The sheet: sections of named rows, and a form to add a cell to any section.
+import { createMemo, createSignal, For, Show } from 'solid-js';
+import { useServices } from '../app/services';
+import type { CellSpec } from '../engine/engine';
+import { CellRow } from './CellRow';
+import { groupBySection, LOOSE_SECTION, sectionChoices } from './sections';
+
+export function SheetPanel() {
+  const services = useServices();
+  const { session } = services;
+  const specs = createMemo(() => {
+    const map = new Map<string, CellSpec>();
+    for (const c of session.cells()) map.set(c.name, c);
+    return map;
+  });
+  const groups = createMemo(() => groupBySection(session.cells()).map((g) => ({ name: g.name, names: g.cells.map((c) => c.name) })));
+
+  return (
+    <div class="sheet" role="table" aria-label="Sheet">
+      <div class="sheet-head" role="row">
+        <span role="columnheader">name</span>
+        <span role="columnheader">formula</span>
+        <span role="columnheader">value</span>
+        <span role="columnheader">status</span>
+        <span role="columnheader">note · source</span>
+      </div>
+      <Show when={groups().length === 0}>
+        <p class="empty-sheet">This sheet has no cells yet. Add one below.</p>
+      </Show>
+      <For each={groups()}>
+        {(g) => (
+          <section class="sheet-section" data-section={g.name} role="rowgroup">
+            <h2 class="section-title">{g.name}</h2>
+            <For each={g.names}>{(n) => <Show when={specs().get(n)}>{(spec) => <CellRow spec={spec()} />}</Show>}</For>
+          </section>
+        )}
+      </For>
+      <AddCellForm />
+    </div>
+  );
+}
+
+function AddCellForm() {
+  const services = useServices();
+  const { session } = services;
+  const [error, setError] = createSignal<string | null>(null);
+  let nameEl!: HTMLInputElement;
+  let formulaEl!: HTMLInputElement;
+  let sectionEl!: HTMLInputElement;
+  let unitEl!: HTMLInputElement;
+
+  const add = (e: Event) => {
+    e.preventDefault();
+    const name = nameEl.value.trim();
+    const formula = formulaEl.value;
+    const section = sectionEl.value.trim();
+    const unit = unitEl.value.trim();
+    if (!name) return setError('Give the new cell a name.');
+    if (session.cells().some((c) => c.name === name)) return setError(`A cell named ${name} already exists.`);
+    const spec: CellSpec = { name, formula: formula || '0' };
+    if (section && section !== LOOSE_SECTION) spec.section = section;
+    if (unit) spec.unit = unit;
+    const r = session.edit(`add ${name}`, (sheet) => sheet.setCell(spec));
+    if (!r.ok) return setError(r.message);
+    setError(null);
+    nameEl.value = '';
+    formulaEl.value = '';
+    unitEl.value = '';
+    queueMicrotask(() => services.focusCell(name));
+  };
+
+  return (
+    <form class="add-cell no-print" onSubmit={add} aria-label="Add a cell">
+      <h2 class="section-title">add a cell</h2>
+      <div class="add-fields">
+        <label>
+          name <input ref={nameEl} name="name" spellcheck={false} autocomplete="off" placeholder="e.g. T_span" />
+        </label>
+        <label class="grow">
+          formula <input ref={formulaEl} name="formula" spellcheck={false} autocomplete="off" placeholder="e.g. 12.5 yr" />
+        </label>
+        <label>
+          display unit <input ref={unitEl} name="unit" spellcheck={false} autocomplete="off" placeholder="optional" />
+        </label>
+        <label>
+          section <input ref={sectionEl} name="section" list="section-names" autocomplete="off" placeholder={LOOSE_SECTION} />
+        </label>
+        <datalist id="section-names">
+          <For each={sectionChoices(session.cells())}>{(s) => <option value={s} />}</For>
+        </datalist>
+        <button type="submit">Add</button>
+      </div>
+      <Show when={error()}>
+        <div class="form-error" role="alert">{error()}</div>
+      </Show>
+    </form>
+  );
+}

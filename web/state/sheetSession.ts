@@ -1,0 +1,208 @@
+// The live sheet behind the screen: one Sheet, per-cell signals the rows read, undo/redo, and
+// performance marks the UI benchmark reads. Every edit goes through `edit()`, so every edit can be undone.
+import { batch, createSignal, type Accessor, type Setter } from 'solid-js';
+import { Sheet, type CellSpec, type CellState } from '../engine/engine';
+
+/** Outcome of an edit: refused edits (bad name, ...) carry the engine's reason for the user. */
+export type EditOutcome = { ok: true } | { ok: false; message: string };
+
+interface Snapshot {
+  text: string;
+  label: string;
+}
+
+const HISTORY_LIMIT = 200;
+
+export class SheetSession {
+  private sheet: Sheet;
+  private unsubscribe: () => void = () => {};
+  private states = new Map<string, [Accessor<CellState>, Setter<CellState>]>();
+  private refreshQueued = false;
+  private undoStack: Snapshot[] = [];
+  private redoStack: Snapshot[] = [];
+
+  /** Bumps when cells are added, removed, renamed, moved or their specs change. */
+  readonly structure: Accessor<number>;
+  private setStructure: Setter<number>;
+  /** Bumps after any recalculation (any value may have changed). */
+  readonly revision: Accessor<number>;
+  private setRevision: Setter<number>;
+  readonly canUndo: Accessor<string | null>;
+  private setCanUndo: Setter<string | null>;
+  readonly canRedo: Accessor<string | null>;
+  private setCanRedo: Setter<string | null>;
+  /** Called after each edit that changed the sheet (autosave listens here). */
+  onChange: (session: SheetSession) => void = () => {};
+
+  constructor(sheet: Sheet) {
+    [this.structure, this.setStructure] = createSignal(0);
+    [this.revision, this.setRevision] = createSignal(0);
+    [this.canUndo, this.setCanUndo] = createSignal<string | null>(null);
+    [this.canRedo, this.setCanRedo] = createSignal<string | null>(null);
+    this.sheet = sheet;
+    this.attach();
+  }
+
+  /** The engine object, for read-only calls (builtins, evaluateWith, dependencies). */
+  get current(): Sheet {
+    return this.sheet;
+  }
+
+  cells(): CellSpec[] {
+    this.structure();
+    return this.sheet.cells();
+  }
+
+  /** Reactive state of one cell. */
+  state(name: string): CellState {
+    let entry = this.states.get(name);
+    if (!entry) {
+      entry = createSignal<CellState>(this.safeState(name), { equals: false });
+      this.states.set(name, entry);
+    }
+    return entry[0]();
+  }
+
+  /** Reactive value of a cell, or undefined when it has none (error, pending, absent). */
+  value(name: string): unknown {
+    const s = this.state(name);
+    return s.status === 'value' ? s.value : undefined;
+  }
+
+  dependencies(name: string): string[] {
+    this.revision();
+    try {
+      return this.sheet.dependencies(name);
+    } catch {
+      return [];
+    }
+  }
+
+  dependents(name: string): string[] {
+    this.revision();
+    try {
+      return this.sheet.dependents(name);
+    } catch {
+      return [];
+    }
+  }
+
+  toFileText(): string {
+    return this.sheet.toFileText();
+  }
+
+  /**
+   * Applies one edit as an undoable step. Edits the engine refuses (SheetEditError) leave the
+   * sheet and history as they were and return the reason.
+   */
+  edit(label: string, change: (sheet: Sheet) => void): EditOutcome {
+    const before = this.sheet.toFileText();
+    try {
+      performance.mark('strainsheet:edit');
+      change(this.sheet);
+    } catch (err) {
+      // A refused edit may have been partly applied: restore the text we had.
+      if (this.sheet.toFileText() !== before) this.replaceSheet(Sheet.fromFile(before));
+      return { ok: false, message: err instanceof Error ? err.message : String(err) };
+    }
+    if (this.sheet.toFileText() !== before) {
+      this.undoStack.push({ text: before, label });
+      if (this.undoStack.length > HISTORY_LIMIT) this.undoStack.shift();
+      this.redoStack = [];
+      this.updateHistorySignals();
+    }
+    this.refresh(true);
+    this.onChange(this);
+    return { ok: true };
+  }
+
+  undo(): boolean {
+    const step = this.undoStack.pop();
+    if (!step) return false;
+    this.redoStack.push({ text: this.sheet.toFileText(), label: step.label });
+    this.replaceSheet(Sheet.fromFile(step.text));
+    this.updateHistorySignals();
+    this.onChange(this);
+    return true;
+  }
+
+  redo(): boolean {
+    const step = this.redoStack.pop();
+    if (!step) return false;
+    this.undoStack.push({ text: this.sheet.toFileText(), label: step.label });
+    this.replaceSheet(Sheet.fromFile(step.text));
+    this.updateHistorySignals();
+    this.onChange(this);
+    return true;
+  }
+
+  /** Replaces the whole sheet (open, new) as one undoable step. */
+  load(sheet: Sheet, label: string): void {
+    this.undoStack.push({ text: this.sheet.toFileText(), label });
+    this.redoStack = [];
+    this.replaceSheet(sheet);
+    this.updateHistorySignals();
+    this.onChange(this);
+  }
+
+  private replaceSheet(sheet: Sheet): void {
+    this.unsubscribe();
+    this.sheet = sheet;
+    this.attach();
+    this.refresh(true);
+  }
+
+  private attach(): void {
+    this.unsubscribe = this.sheet.subscribe({
+      pending: () => this.queueRefresh(false),
+      value: () => this.queueRefresh(false),
+      error: () => this.queueRefresh(false),
+      structure: () => this.queueRefresh(true),
+    });
+  }
+
+  private updateHistorySignals(): void {
+    this.setCanUndo(this.undoStack.at(-1)?.label ?? null);
+    this.setCanRedo(this.redoStack.at(-1)?.label ?? null);
+  }
+
+  private queueRefresh(structural: boolean): void {
+    if (structural) this.structuralPending = true;
+    if (this.refreshQueued) return;
+    this.refreshQueued = true;
+    queueMicrotask(() => this.refresh(this.structuralPending));
+  }
+  private structuralPending = false;
+
+  /** Copies the engine's states into the signals; only changed states notify. */
+  private refresh(structural: boolean): void {
+    this.refreshQueued = false;
+    this.structuralPending = false;
+    batch(() => {
+      for (const [name, [get, set]] of this.states) {
+        const next = this.safeState(name);
+        if (!sameState(get(), next)) set(next);
+      }
+      if (structural) this.setStructure((n) => n + 1);
+      this.setRevision((n) => n + 1);
+    });
+  }
+
+  private safeState(name: string): CellState {
+    try {
+      return this.sheet.state(name);
+    } catch (err) {
+      return { status: 'error', error: { kind: 'eval', message: `${name}: ${String(err)}` } };
+    }
+  }
+}
+
+function sameState(a: CellState, b: CellState): boolean {
+  if (a === b) return true;
+  if (a.status !== b.status) return false;
+  if (a.status === 'value' && b.status === 'value') return a.value === b.value;
+  if (a.status === 'error' && b.status === 'error') {
+    return a.error.message === b.error.message && a.error.kind === b.error.kind && a.error.position === b.error.position;
+  }
+  return true;
+}
