@@ -134,8 +134,33 @@ export function formatValueParts(value: unknown, displayUnit?: string): ShownVal
   if (math.isMatrix(value) || Array.isArray(value)) {
     const items = math.isMatrix(value) ? ((value as Matrix).toArray() as unknown[]) : value;
     const size = math.isMatrix(value) ? (value as Matrix).size() : [items.length];
-    const text = showList(items, displayUnit);
-    return { number: size.length > 1 ? `${size.join('x')} matrix ${text}` : text, unit: '' };
+    const label = (text: string) => (size.length > 1 ? `${size.join('x')} matrix ${text}` : text);
+    // A list of quantities of one dimension shows plain numbers with the unit once.
+    const flat = items.flat(Infinity as 1) as unknown[];
+    const first = flat[0];
+    if (flat.length > 0 && flat.every((x) => math.isUnit(x)) && math.isUnit(first)) {
+      const f = first as Unit;
+      let target = f.formatUnits();
+      let note: string | undefined;
+      if (displayUnit) {
+        const fits = (() => {
+          try {
+            return f.equalBase(math.unit(displayUnit));
+          } catch {
+            return false;
+          }
+        })();
+        if (fits) target = displayUnit;
+        else note = `display unit '${displayUnit}' does not fit: the values are ${dimensionWord(f)}`;
+      }
+      if (target && flat.every((x) => (x as Unit).equalBase(f))) {
+        const toNumbers = (xs: unknown[]): unknown[] => xs.map((x) => (Array.isArray(x) ? toNumbers(x) : (x as Unit).toNumber(target)));
+        const shown: ShownValue = { number: label(showList(toNumbers(items))), unit: target };
+        if (note) shown.note = note;
+        return shown;
+      }
+    }
+    return { number: label(showList(items, displayUnit)), unit: '' };
   }
   return showScalar(value, displayUnit);
 }
