@@ -15,7 +15,8 @@
 // Without sky positions the pair sum uses the expectation over isotropic positions of each pair's
 // term (so the result is sqrt(E[rho^2]) over random skies), see pulsarPairs.ts.
 import { frequencyBins, residualPsdFromStrain, shortestCadence, type PulsarArray } from './pulsarArray';
-import { memberNoise, pairLayout, sumOverPairs } from './pulsarPairs';
+import { skyAverageRule } from './hellingsDowns';
+import { memberNoise, pairLayout, type PairLayout } from './pulsarPairs';
 import type { StrainModel } from './strainOnBins';
 
 export interface SnrResult {
@@ -42,18 +43,61 @@ export function detectionSnr(array: PulsarArray, model: StrainModel, spanS: numb
   const layout = pairLayout(array);
   const noise = new Float64Array(layout.members.length);
   const binSnrSquared = new Float64Array(f.length);
+  const sums = { full: 0, weak: 0 };
   let total = 0;
   let weak = 0;
   for (let k = 0; k < f.length; k++) {
     const pg = residualPsdFromStrain(model(f[k]), f[k]);
     if (pg === 0) continue;
     memberNoise(layout, f[k], noise);
-    const s = sumOverPairs(layout, noise, (g2, pI, pJ) => pairBinSnrSquared(g2, pI, pJ, pg));
-    weak += sumOverPairs(layout, noise, (g2, pI, pJ) => (2 * g2 * pg * pg) / (pI * pJ));
-    binSnrSquared[k] = s;
-    total += s;
+    const s = pairSums(layout, noise, pg, sums);
+    binSnrSquared[k] = s.full;
+    total += s.full;
+    weak += s.weak;
   }
   return { snr: Math.sqrt(total), weakSignalSnr: Math.sqrt(weak), frequencyHz: f, binSnrSquared };
+}
+
+/**
+ * Sum over all pulsar pairs, in one bin, of pairBinSnrSquared (full) and of its weak-signal limit
+ * 2 Gamma^2 P_g^2 / (P_I P_J) (weak). A tight loop without callbacks: with positions it runs over
+ * N(N-1)/2 pairs per bin, the hot path of span scans.
+ */
+function pairSums(layout: PairLayout, noise: Float64Array, pg: number, out: { full: number; weak: number }): { full: number; weak: number } {
+  const { first, second, count, gamma } = layout;
+  const pg2 = pg * pg;
+  let full = 0;
+  let weak = 0;
+  if (gamma) {
+    for (let k = 0; k < first.length; k++) {
+      const pI = noise[first[k]];
+      const pJ = noise[second[k]];
+      const s2 = gamma[k] * gamma[k] * pg2;
+      full += (2 * s2) / ((pI + pg) * (pJ + pg) + s2);
+      weak += (2 * s2) / (pI * pJ);
+    }
+  } else {
+    const rule = skyAverageRule();
+    const g = rule.gamma;
+    const w = rule.weight;
+    for (let k = 0; k < first.length; k++) {
+      const pI = noise[first[k]];
+      const pJ = noise[second[k]];
+      const both = (pI + pg) * (pJ + pg);
+      let e = 0;
+      let eWeak = 0;
+      for (let r = 0; r < g.length; r++) {
+        const s2 = g[r] * g[r] * pg2;
+        e += (w[r] * 2 * s2) / (both + s2);
+        eWeak += w[r] * 2 * s2;
+      }
+      full += count[k] * e;
+      weak += (count[k] * eWeak) / (pI * pJ);
+    }
+  }
+  out.full = full;
+  out.weak = weak;
+  return out;
 }
 
 export interface SpanResult {

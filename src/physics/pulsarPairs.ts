@@ -19,8 +19,20 @@ export interface PairLayout {
   pulsarPairs: number;
 }
 
-/** Lays out the pairs of an array (O(N^2) with positions, O(groups^2) without). */
+// Layouts are cached per array object: arrays are treated as immutable once built.
+const layouts = new WeakMap<PulsarArray, PairLayout>();
+
+/** Lays out the pairs of an array (O(N^2) with positions, O(groups^2) without); cached per array object. */
 export function pairLayout(array: PulsarArray): PairLayout {
+  let layout = layouts.get(array);
+  if (!layout) {
+    layout = buildLayout(array);
+    layouts.set(array, layout);
+  }
+  return layout;
+}
+
+function buildLayout(array: PulsarArray): PairLayout {
   const n = array.pulsars.length;
   const pulsarPairs = (n * (n - 1)) / 2;
   if (array.positions) {
