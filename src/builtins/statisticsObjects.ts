@@ -1,0 +1,137 @@
+// SheetObjects of the statistics built-ins: a measured amplitude, a distribution of an uncertain
+// input (with the unit its parameters carried), per-bin values, a comparison and an allowed rate.
+import type { Unit } from 'mathjs';
+import type { SheetObject } from '../sheet/sheetObject';
+import { F_YR_HZ } from '../physics/constants';
+import type { AmplitudeMeasurement } from '../statistics/measurement';
+import type { UncertainDistribution } from '../statistics/distributions';
+import type { BinnedSpectrum } from '../statistics/binnedSpectrum';
+import type { AmplitudeComparison } from '../statistics/comparison';
+import type { RandomSource } from '../statistics/prng';
+
+const g = (x: number) => Number(x.toPrecision(3)).toString();
+
+export class MeasurementObject implements SheetObject {
+  readonly kind = 'measurement';
+  constructor(readonly measurement: AmplitudeMeasurement) {}
+  /** Median amplitude at the reference frequency. */
+  get median(): number {
+    return Math.pow(10, this.measurement.log10Median);
+  }
+  describe(): string {
+    const m = this.measurement;
+    const at = m.fRefHz === F_YR_HZ ? '1/yr' : `${g(m.fRefHz * 1e9)} nHz`;
+    const gam = Math.abs(m.gamma - 13 / 3) < 1e-12 ? '13/3' : g(m.gamma);
+    if (m.stated) {
+      return `measured A = ${g(this.median)} (${g(m.stated.lower)} to ${g(m.stated.upper)}, ${g(100 * m.stated.level)}%) at ${at}, gamma ${gam}`;
+    }
+    return `measured log10 A = ${g(m.log10Median)} +- ${g(m.sigmaLowDex)} at ${at}, gamma ${gam}`;
+  }
+  toJSON(): unknown {
+    const m = this.measurement;
+    return { median: this.median, log10Median: m.log10Median, sigmaLowDex: m.sigmaLowDex, sigmaHighDex: m.sigmaHighDex, stated: m.stated, gamma: m.gamma, fRefHz: m.fRefHz };
+  }
+}
+
+/** A distribution over an input cell's value. Samples carry the unit of the parameters. */
+export class DistributionObject implements SheetObject {
+  readonly kind = 'distribution';
+  constructor(
+    readonly distribution: UncertainDistribution,
+    /** A Unit whose dimensions the samples take (null: plain numbers). */
+    readonly unitTemplate: Unit | null,
+  ) {}
+  /** A value of the right kind (number or Unit) holding x in SI. */
+  valueOf(xSI: number): unknown {
+    if (!this.unitTemplate) return xSI;
+    const q = this.unitTemplate.clone() as Unit & { value: number };
+    q.value = xSI;
+    return q;
+  }
+  sample(rng: RandomSource): unknown {
+    return this.valueOf(this.distribution.sample(rng));
+  }
+  describe(): string {
+    const d = this.distribution;
+    const u = this.unitTemplate ? ` ${this.unitTemplate.formatUnits()}` : '';
+    const show = (x: number) => (this.unitTemplate ? g((this.valueOf(x) as Unit).toNumber(this.unitTemplate.formatUnits())) : g(x));
+    switch (d.family) {
+      case 'normal':
+        return `normal, mean ${show(d.params.mean)}${u}, sd ${show(d.params.sd)}${u}`;
+      case 'lognormal':
+        return `log-normal, median ${show(d.params.median)}${u}, ${g(d.params.sigmaDex)} dex`;
+      case 'uniform':
+        return `uniform, ${show(d.params.lo)} to ${show(d.params.hi)}${u}`;
+      default:
+        return `log-uniform, ${show(d.params.lo)} to ${show(d.params.hi)}${u}`;
+    }
+  }
+  toJSON(): unknown {
+    return { family: this.distribution.family, params: this.distribution.params, unitSI: this.unitTemplate ? siUnitOf(this.unitTemplate) : '' };
+  }
+}
+
+function siUnitOf(u: Unit): string {
+  const base = ['kg', 'm', 's', 'A', 'K', 'cd', 'mol', 'rad', 'bit'];
+  const dims = (u as Unit & { dimensions: number[] }).dimensions;
+  return dims
+    .map((p, i) => (p ? (p === 1 ? base[i] : `${base[i]}^${p}`) : ''))
+    .filter(Boolean)
+    .join(' ');
+}
+
+export class BinnedSpectrumObject implements SheetObject {
+  readonly kind = 'binnedSpectrum';
+  constructor(readonly bins: BinnedSpectrum) {}
+  describe(): string {
+    const b = this.bins;
+    const n = b.frequencyHz.length;
+    const what = b.quantity === 'hc' ? 'h_c' : b.quantity === 'omegaGw' ? 'Omega_gw' : 'residual power';
+    return `${what} in ${n} bin${n === 1 ? '' : 's'}, ${g(b.frequencyHz[0] * 1e9)} to ${g(b.frequencyHz[n - 1] * 1e9)} nHz, ${g(100 * b.level)}% intervals`;
+  }
+  toJSON(): unknown {
+    const b = this.bins;
+    return { quantity: b.quantity, level: b.level, frequencyHz: Array.from(b.frequencyHz), value: Array.from(b.value), lower: Array.from(b.lower), upper: Array.from(b.upper) };
+  }
+}
+
+export class ComparisonObject implements SheetObject {
+  readonly kind = 'comparison';
+  constructor(readonly comparison: AmplitudeComparison) {}
+  describe(): string {
+    const c = this.comparison;
+    const t = c.tensionSigma;
+    return `predicted/measured = ${g(c.ratio)}, ${g(Math.abs(t))} sigma ${t >= 0 ? 'high' : 'low'}, ${c.inside ? 'inside' : 'outside'} the ${g(100 * c.level)}% interval`;
+  }
+  toJSON(): unknown {
+    return { ...this.comparison };
+  }
+}
+
+/** The merger-rate normalisation a measurement allows, given A^2 proportional to it. */
+export class AllowedRateObject implements SheetObject {
+  readonly kind = 'allowedRate';
+  constructor(
+    /** Rates in SI: median and interval ends, at `level`. */
+    readonly median: number,
+    readonly lower: number,
+    readonly upper: number,
+    readonly level: number,
+    readonly unitTemplate: Unit | null,
+    readonly displayUnit: string,
+  ) {}
+  valueOf(xSI: number): unknown {
+    if (!this.unitTemplate) return xSI;
+    const q = this.unitTemplate.clone() as Unit & { value: number };
+    q.value = xSI;
+    return q;
+  }
+  describe(): string {
+    const show = (x: number) => (this.unitTemplate ? g((this.valueOf(x) as Unit).toNumber(this.displayUnit)) : g(x));
+    const u = this.unitTemplate ? ` ${this.displayUnit}` : '';
+    return `allowed rate ${show(this.median)}${u} (${show(this.lower)} to ${show(this.upper)}, ${g(100 * this.level)}%)`;
+  }
+  toJSON(): unknown {
+    return { median: this.median, lower: this.lower, upper: this.upper, level: this.level, unitSI: this.unitTemplate ? siUnitOf(this.unitTemplate) : '' };
+  }
+}
