@@ -11,7 +11,8 @@ import type { BinaryPopulation } from './populationTypes';
 /** The local black-hole mass density range quoted by Marconi et al. 2004 and Shankar et al. 2009, Msun Mpc^-3 (the range as PHYSICS.md quotes it; journal references from memory). */
 export const LOCAL_BLACK_HOLE_MASS_DENSITY_RANGE: readonly [number, number] = [3e5, 6e5];
 
-const PANELS = 8;
+/** 4 panels of 8 Gauss-Legendre points in each of z, log10M and q (32^3 density evaluations). */
+const PANELS = 4;
 const ORDER = 8;
 
 /** Int dlog10M dq n(z, ., .) at one z, Mpc^-3 per unit z. */

@@ -18,7 +18,7 @@ export interface OriginOptions {
   cutFactor?: number;
   /** Points of the even grid the contributions are given on (default 80). */
   gridPoints?: number;
-  /** Gauss-Legendre panels x 8 points in each integrated variable (default 4). */
+  /** Gauss-Legendre panels x 8 points in each integrated variable (default 2). */
   panels?: number;
 }
 
@@ -47,7 +47,7 @@ export function redshiftOrigin(pop: BinaryPopulation, fHz: number, opts: OriginO
   const kernel = opts.kernel ?? circularGwKernel;
   const cut = opts.cutFactor ?? 1;
   const n = opts.gridPoints ?? 80;
-  const panels = opts.panels ?? 4;
+  const panels = opts.panels ?? 2;
   const qr = compositeNodes(pop.qMin, pop.qMax, panels, 8);
   const grid = evenGrid(pop.zMin, pop.zMax, n);
   const density = new Float64Array(n);
@@ -86,7 +86,7 @@ export function chirpMassOrigin(pop: BinaryPopulation, fHz: number, opts: Origin
   const kernel = opts.kernel ?? circularGwKernel;
   const cut = opts.cutFactor ?? 1;
   const n = opts.gridPoints ?? 80;
-  const panels = opts.panels ?? 4;
+  const panels = opts.panels ?? 2;
   const lo = pop.log10MMin + 0.6 * Math.log10(symmetricMassRatio(pop.qMin));
   const hi = pop.log10MMax + 0.6 * Math.log10(symmetricMassRatio(pop.qMax));
   const grid = evenGrid(lo, hi, n);
