@@ -8,6 +8,7 @@ import { spectrumPlotModel, type StrainCurve, type VerticalQuantity } from './sp
 import {
   binsFromJson,
   curveFromSpectrumJson,
+  drawingGrid,
   hubbleConstant,
   isOneArgumentFunction,
   measuredFromJson,
@@ -52,10 +53,10 @@ export function PlotsPanel() {
     const notes: string[] = [];
     const h0 = hubbleConstant(cells, valueOf);
     const curves: StrainCurve[] = [...spectra()];
-    const grid = curves[0]?.frequencyHz;
+    const grid = drawingGrid(curves[0]?.frequencyHz, cells, valueOf);
     for (const c of cells) {
       const v = valueOf(c.name);
-      if (!isOneArgumentFunction(v) || !grid) continue;
+      if (!isOneArgumentFunction(v)) continue;
       const r = sampleFrequencyFunction(v, grid);
       if ('y' in r) curves.push({ id: `fn:${c.name}`, label: `${c.name}(f)`, frequencyHz: grid, hc: r.y, dashed: true });
       else notes.push(`${c.name}(f) is not drawn: ${r.reason}.`);

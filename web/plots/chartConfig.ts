@@ -171,7 +171,9 @@ function scaleFor(axis: PlotAxis, range: [number, number] | null, factor: number
         const n = Number(v);
         if (axis.scale !== 'log') return formatTick(n);
         // On log axes label powers of ten, and also 2 and 5 times them when the axis spans few decades.
-        const mant = Math.round(n / 10 ** Math.floor(Math.log10(n) + 1e-9));
+        const decade = 10 ** Math.floor(Math.log10(n) + 1e-9);
+        const mant = Math.round(n / decade);
+        if (Math.abs(n / (mant * decade) - 1) > 1e-6) return ''; // the axis ends are not round numbers
         return mant === 1 || (fewDecades && (mant === 2 || mant === 5)) ? formatTick(n) : '';
       },
     },

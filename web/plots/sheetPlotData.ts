@@ -39,7 +39,9 @@ export function curveFromSpectrumJson(id: string, label: string, json: unknown):
   const f = first(o, ['frequencyHz', 'frequency', 'f'], numbers);
   const hc = first(o, ['hc', 'strain', 'characteristicStrain'], numbers);
   if (!f || !hc || f.length !== hc.length) return null;
-  return { id, label, frequencyHz: f, hc };
+  const omegaGw = first(o, ['omegaGw', 'omega'], numbers) ?? undefined;
+  const residualPsd = first(o, ['residualPsd', 'residualPower', 'psd'], numbers) ?? undefined;
+  return { id, label, frequencyHz: f, hc, omegaGw, residualPsd };
 }
 
 /** A measurement object: median and interval with level, or log10 median with sigmas (in dex). */
@@ -135,4 +137,28 @@ export function sampleFrequencyFunction(fn: (x: unknown) => unknown, frequencyHz
     } else return { reason: 'it does not return a number' };
   }
   return { y };
+}
+
+/** A list of frequencies in Hz from a cell holding a list of frequency quantities (e.g. `freqs`). */
+export function frequencyList(v: unknown): number[] | null {
+  const items = math.isMatrix(v) ? ((v as { toArray(): unknown[] }).toArray() as unknown[]) : Array.isArray(v) ? v : null;
+  if (!items) return null;
+  const hz = math.unit('1 Hz');
+  const out: number[] = [];
+  for (const x of items.flat(Infinity as 1)) {
+    if (!math.isUnit(x) || !(x as unknown as { equalBase(u: unknown): boolean }).equalBase(hz)) return null;
+    const si = (x as unknown as { value: number | null }).value;
+    if (si === null || !(si > 0)) return null;
+    out.push(si);
+  }
+  return out.length ? out : null;
+}
+
+/** Frequencies to draw function cells on: the first spectrum's, else the `freqs` cell, else 1 to 100 nHz. */
+export function drawingGrid(spectrumGrid: number[] | undefined, cells: CellSpec[], valueOf: (name: string) => unknown): number[] {
+  if (spectrumGrid?.length) return spectrumGrid;
+  const named = cells.find((c) => c.name === 'freqs');
+  const fromCell = named ? frequencyList(valueOf(named.name)) : null;
+  if (fromCell) return fromCell;
+  return Array.from({ length: 41 }, (_, k) => 1e-9 * Math.pow(100, k / 40));
 }

@@ -19,6 +19,9 @@ export interface StrainCurve {
   label: string;
   frequencyHz: number[];
   hc: number[];
+  /** The spectrum's own Omega_gw and residual-power series, when it carries them (used as given). */
+  omegaGw?: number[];
+  residualPsd?: number[];
   dashed?: boolean;
 }
 
@@ -66,6 +69,13 @@ export function strainFrom(quantity: VerticalQuantity, value: number, fHz: numbe
   return h0PerS === null ? NaN : strainFromOmegaGw(value, fHz, h0PerS);
 }
 
+/** A curve's values on the chosen axis: its own series when it has one, else converted from h_c. */
+function curveValues(q: VerticalQuantity, c: StrainCurve, h0PerS: number | null): number[] {
+  const own = q === 'omega' ? c.omegaGw : q === 'psd' ? c.residualPsd : undefined;
+  if (own && own.length === c.hc.length) return own;
+  return c.hc.map((h, k) => convertStrain(q, h, c.frequencyHz[k], h0PerS));
+}
+
 /** h_c of a power law with amplitude A at fRef and residual-power index gamma (alpha = (3 - gamma)/2). */
 function powerLaw(a: number, gamma: number, fRef: number, f: number): number {
   return a * Math.pow(f / fRef, (3 - gamma) / 2);
@@ -76,7 +86,7 @@ export function spectrumPlotModel(input: SpectrumPlotInput): PlotModel {
   const conv = (hc: number, f: number) => convertStrain(q, hc, f, input.h0PerS);
   const series: PlotSeries[] = [];
   const notes = [...input.notes];
-  if (q === 'omega' && input.h0PerS === null) notes.push('Ω_gw needs H0: no Hubble-constant cell (a quantity like 70 km/s/Mpc) was found.');
+  if (q === 'omega' && input.h0PerS === null && input.curves.some((c) => !c.omegaGw)) notes.push('Ω_gw needs H0: no Hubble-constant cell (a quantity like 70 km/s/Mpc) was found.');
 
   input.curves.forEach((c, i) => {
     series.push({
@@ -84,7 +94,7 @@ export function spectrumPlotModel(input: SpectrumPlotInput): PlotModel {
       label: c.label,
       kind: 'line',
       x: c.frequencyHz,
-      y: c.hc.map((h, k) => conv(h, c.frequencyHz[k])),
+      y: curveValues(q, c, input.h0PerS),
       color: curveColor(i),
       dash: c.dashed ? [6, 4] : undefined,
       width: c.dashed ? 1.5 : 2.2,

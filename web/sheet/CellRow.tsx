@@ -147,7 +147,7 @@ export function CellRow(props: { spec: CellSpec }) {
               <span class="error-message">{err().message}</span>
               <Show when={err().position !== undefined}>
                 <span class="error-position">
-                  {' '}at character {err().position! + 1}:{' '}
+                  {/character/.test(err().message) ? ' ' : ` at character ${err().position! + 1}: `}
                   <code>
                     {props.spec.formula.slice(0, err().position)}
                     <mark>{props.spec.formula.slice(err().position, err().position! + 1) || ' '}</mark>

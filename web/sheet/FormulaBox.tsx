@@ -128,6 +128,7 @@ export function FormulaBox(props: {
         autocomplete="off"
         aria-label={`Formula of ${props.name}`}
         value={draft()}
+        title={draft()}
         onInput={(e) => {
           setDraft(e.currentTarget.value);
           setCaret(e.currentTarget.selectionStart ?? 0);

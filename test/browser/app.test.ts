@@ -1,0 +1,367 @@
+// The web app in a real browser (Debian's chromium through playwright-core), on the production
+// build served by Vite's preview server. Values on screen are checked against the sheet engine run
+// headless in this process on the same demo file (an independent path to the same numbers), and
+// against published facts named beside each check.
+import { mkdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { Sheet } from '../../src/sheet/sheet';
+import { formatValue } from '../../src/sheet/formatValue';
+import { isSheetObject } from '../../src/sheet/sheetObject';
+import { buildAndServe, PROJECT_ROOT, type ServedApp } from './appServer';
+import { browserAvailability, launchChromium, type LaunchedBrowser } from './chromiumBrowser';
+import { canvasFingerprint, canvasInk, cellStatus, cellValueText, download, firstNumber, setFormula } from './pageHelpers';
+
+const availability = browserAvailability();
+if (!availability.ok) console.warn(availability.reason + (availability.required ? ' STRAINSHEET_REQUIRE_BROWSER=1, so this fails.' : ''));
+const runSuite = availability.ok || availability.required;
+
+const ARTIFACTS = join(PROJECT_ROOT, 'test-artifacts');
+const DEMO_TEXT = readFileSync(join(PROJECT_ROOT, 'examples/demo.json'), 'utf8');
+const SPECTRUM_CANVAS = '[data-plot="spectrum"] canvas';
+
+/** The demo evaluated headless by the engine: the reference for what the screen must show. */
+function headlessDemo(edits: Record<string, string> = {}): Sheet {
+  const sheet = Sheet.fromFile(DEMO_TEXT);
+  for (const [name, formula] of Object.entries(edits)) sheet.updateCell(name, { formula });
+  return sheet;
+}
+
+function shown(sheet: Sheet, name: string): string {
+  const s = sheet.state(name);
+  if (s.status !== 'value') throw new Error(`headless ${name} has no value: ${JSON.stringify(s)}`);
+  return formatValue(s.value, sheet.get(name)?.unit);
+}
+
+describe.runIf(runSuite)('Strainsheet in the browser', () => {
+  let app: ServedApp;
+  let chromium: LaunchedBrowser;
+  let page: Page;
+  const pageErrors: string[] = [];
+
+  beforeAll(async () => {
+    if (!availability.ok) throw new Error(availability.reason);
+    mkdirSync(ARTIFACTS, { recursive: true });
+    app = await buildAndServe();
+    chromium = await launchChromium();
+    page = await chromium.context.newPage();
+    page.on('pageerror', (e) => pageErrors.push(e.message));
+    await page.goto(app.url);
+    await page.waitForSelector('[data-key-value="A_yr"]');
+  }, 120_000);
+
+  afterAll(async () => {
+    await chromium?.close();
+    await app?.close();
+  });
+
+  /** Fresh start on the demo: no autosave, no pins. */
+  async function freshDemo(): Promise<void> {
+    await page.evaluate(() => localStorage.clear());
+    await page.reload();
+    await page.waitForSelector('[data-key-value="A_yr"]');
+    await page.waitForFunction(() => document.querySelector('[data-key-value="A_yr"]')?.getAttribute('data-raw')?.match(/\d/));
+  }
+
+  it('opens the demo and shows the engine’s A_yr in the key results and in its row', async () => {
+    await freshDemo();
+    const expected = shown(headlessDemo(), 'A_yr');
+    expect(await page.getAttribute('[data-key-value="A_yr"]', 'data-raw')).toBe(expected);
+    expect(await cellValueText(page, 'A_yr')).toBe(expected);
+    // Every demo cell that has a value headless has the same text on screen.
+    const sheet = headlessDemo();
+    for (const c of sheet.cells()) {
+      if (sheet.state(c.name).status === 'value') expect.soft(await cellValueText(page, c.name), c.name).toBe(shown(sheet, c.name));
+    }
+    await page.screenshot({ path: join(ARTIFACTS, '01-demo.png') });
+    expect(pageErrors).toEqual([]);
+  });
+
+  it('draws a spectrum that is not blank (pixel check)', async () => {
+    await page.waitForSelector(SPECTRUM_CANVAS);
+    const ink = await canvasInk(page, SPECTRUM_CANVAS);
+    expect(ink.total).toBeGreaterThan(10_000);
+    // Axes, grid, text and curves: well over 1% of the pixels inked, in several colours.
+    expect(ink.inked / ink.total).toBeGreaterThan(0.01);
+    expect(ink.colours).toBeGreaterThan(4);
+  });
+
+  it('edits the merger-rate cell: A_yr follows A_yr^2 proportional to the rate, and the plot changes', async () => {
+    await freshDemo();
+    const before = firstNumber(await cellValueText(page, 'A_yr'));
+    const plotBefore = await canvasFingerprint(page, SPECTRUM_CANVAS);
+    const rateFormula = headlessDemo().get('rate_norm')!.formula;
+    const edited = `4 * (${rateFormula})`;
+    await setFormula(page, 'rate_norm', edited);
+    await page.waitForFunction((b) => {
+      const t = document.querySelector('[data-key-value="A_yr"]')?.getAttribute('data-raw') ?? '';
+      return t !== '' && t !== b;
+    }, String(await page.getAttribute('[data-key-value="A_yr"]', 'data-raw')).replace(/^$/, 'x'));
+    const after = firstNumber(await cellValueText(page, 'A_yr'));
+    // h_c^2 is linear in the number density of binaries (Phinney 2001, astro-ph/0108028), so four
+    // times the rate doubles A_yr; 4 significant digits are shown.
+    expect(after / before).toBeCloseTo(2, 2);
+    expect(await cellValueText(page, 'A_yr')).toBe(shown(headlessDemo({ rate_norm: edited }), 'A_yr'));
+    await page.waitForFunction(
+      ([sel, fp]) => {
+        const c = document.querySelector(sel) as HTMLCanvasElement | null;
+        if (!c) return false;
+        const d = c.getContext('2d')!.getImageData(0, 0, c.width, c.height).data;
+        let h = 0x811c9dc5;
+        for (let i = 0; i < d.length; i++) h = Math.imul(h ^ d[i], 0x01000193) >>> 0;
+        return h.toString(16) !== fp;
+      },
+      [SPECTRUM_CANVAS, plotBefore] as const,
+    );
+    expect(await canvasFingerprint(page, SPECTRUM_CANVAS)).not.toBe(plotBefore);
+  });
+
+  it('shows a broken formula’s error in its row, keeps the text, keeps the rest live, and recovers', async () => {
+    await freshDemo();
+    const original = headlessDemo().get('rate_norm')!.formula;
+    const broken = `${original} * (2 +`;
+    await setFormula(page, 'rate_norm', broken);
+    await page.waitForSelector('[data-cell="rate_norm"] .cell-error');
+    expect(await page.inputValue('input[data-formula="rate_norm"]')).toBe(broken);
+    expect(await cellStatus(page, 'rate_norm')).toBe('syntax');
+    const message = (await page.textContent('[data-cell="rate_norm"] .error-message')) ?? '';
+    expect(message).toContain('rate_norm');
+    // A cell that does not depend on rate_norm keeps its value.
+    const sheet = headlessDemo();
+    const independent = sheet.cells().find((c) => c.name !== 'rate_norm' && !sheet.dependencies(c.name).includes('rate_norm') && sheet.state(c.name).status === 'value');
+    if (independent) expect(await cellValueText(page, independent.name)).toBe(shown(sheet, independent.name));
+    // A_yr depends on it and says which input failed.
+    expect(await cellStatus(page, 'A_yr')).not.toBe('ok');
+    await page.screenshot({ path: join(ARTIFACTS, '02-error.png') });
+    await setFormula(page, 'rate_norm', original);
+    await page.waitForFunction(() => !document.querySelector('[data-cell="rate_norm"] .cell-error'));
+    expect(await cellStatus(page, 'A_yr')).toBe('ok');
+    expect(await cellValueText(page, 'A_yr')).toBe(shown(sheet, 'A_yr'));
+  });
+
+  it('reports a cycle on the cells of the cycle and recovers when it is broken', async () => {
+    await freshDemo();
+    const original = headlessDemo().get('rate_norm')!.formula;
+    await setFormula(page, 'rate_norm', `A_yr * 1e12 Mpc^-3 Gyr^-1`);
+    await page.waitForFunction(() => document.querySelector('[data-cell="rate_norm"] .cell-error')?.getAttribute('data-error-kind') === 'cycle');
+    expect(await cellStatus(page, 'A_yr')).toBe('cycle');
+    const text = (await page.textContent('[data-cell="rate_norm"] .error-message')) ?? '';
+    expect(text).toMatch(/rate_norm/);
+    expect(text).toMatch(/A_yr/);
+    await setFormula(page, 'rate_norm', original);
+    await page.waitForFunction(() => !document.querySelector('[data-cell="A_yr"] .cell-error'));
+    expect(await cellValueText(page, 'A_yr')).toBe(shown(headlessDemo(), 'A_yr'));
+  });
+
+  it('undoes and redoes an edit', async () => {
+    await freshDemo();
+    const original = await cellValueText(page, 'A_yr');
+    const rate = headlessDemo().get('rate_norm')!.formula;
+    await setFormula(page, 'rate_norm', `9 * (${rate})`);
+    await page.waitForFunction((o) => document.querySelector('[data-value="A_yr"]')?.getAttribute('data-raw') !== o, original);
+    await page.click('[data-action="undo"]');
+    await page.waitForFunction((o) => document.querySelector('[data-value="A_yr"]')?.getAttribute('data-raw') === o, original);
+    expect(await page.inputValue('input[data-formula="rate_norm"]')).toBe(rate);
+    await page.click('[data-action="redo"]');
+    await page.waitForFunction((o) => document.querySelector('[data-value="A_yr"]')?.getAttribute('data-raw') !== o, original);
+    expect(await page.inputValue('input[data-formula="rate_norm"]')).toBe(`9 * (${rate})`);
+  });
+
+  it('renames a cell with references following, and a deleted input is named by its dependents', async () => {
+    await freshDemo();
+    const users = headlessDemo().dependents('rate_norm');
+    expect(users.length).toBeGreaterThan(0);
+    await page.click('[data-cell="rate_norm"] .name-button');
+    await page.click('[data-cell="rate_norm"] .cell-actions >> text=rename');
+    await page.fill('[data-cell="rate_norm"] .rename-input', 'rate_scale');
+    await page.press('[data-cell="rate_norm"] .rename-input', 'Enter');
+    await page.waitForSelector('[data-cell="rate_scale"]');
+    for (const u of users) expect(await page.inputValue(`input[data-formula="${u}"]`)).toContain('rate_scale');
+    expect(await cellStatus(page, 'A_yr')).toBe('ok');
+    // Delete it: the dependents now report the vanished name.
+    await page.click('[data-cell="rate_scale"] .name-button');
+    await page.click('[data-cell="rate_scale"] .cell-actions >> text=delete');
+    await page.waitForSelector(`[data-cell="${users[0]}"] .cell-error`);
+    expect((await page.textContent(`[data-cell="${users[0]}"] .error-message`)) ?? '').toContain('rate_scale');
+    await page.click('[data-action="undo"]');
+    await page.waitForSelector('[data-cell="rate_scale"]');
+    await page.click('[data-action="undo"]');
+    await page.waitForSelector('[data-cell="rate_norm"]');
+    expect(await cellValueText(page, 'A_yr')).toBe(shown(headlessDemo(), 'A_yr'));
+  });
+
+  it('moves between rows with the arrow keys', async () => {
+    await freshDemo();
+    const order = await page.$$eval('[data-cell]', (rows) => rows.map((r) => r.getAttribute('data-cell')!));
+    await page.click(`input[data-formula="${order[0]}"]`);
+    await page.keyboard.press('ArrowDown');
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('data-formula'))).toBe(order[1]);
+    await page.keyboard.press('ArrowUp');
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('data-formula'))).toBe(order[0]);
+  });
+
+  it('offers completion of cell and built-in names, and help for the function being called', async () => {
+    await freshDemo();
+    const box = page.locator('input[data-formula="rate_norm"]');
+    await box.click();
+    await box.fill('rate_n');
+    await page.waitForSelector('.completions');
+    expect(await page.textContent('.completions')).toContain('rate_norm');
+    await box.fill('logGrid(1 nHz, ');
+    await box.press('End');
+    await page.waitForSelector('.call-help');
+    expect(await page.textContent('.call-help')).toContain('logGrid');
+    await box.press('Escape');
+    await box.evaluate((el) => (el as HTMLInputElement).blur());
+  });
+
+  it('pins a curve, and the plot data export (CSV) holds the spectrum numbers and the pinned curve', async () => {
+    await freshDemo();
+    await page.click('[data-action="pin"]');
+    await page.waitForSelector('.pin');
+    expect(await page.$$eval('.pin', (p) => p.length)).toBe(1);
+    const csv = await download(page, () => page.click('[data-plot="spectrum"] [data-action="export-csv"]'));
+    const lines = csv.bytes.toString('utf8').trim().split('\r\n');
+    expect(lines[0].split(',')[0]).toBe('series');
+    expect(lines[0]).toContain('(nHz)');
+    // The spectrum rows hold the engine's h_c at the engine's frequencies (x in nHz).
+    const json = (() => {
+      const v = headlessDemo().value('spectrum');
+      if (!isSheetObject(v)) throw new Error('demo spectrum is not a spectrum');
+      return v.toJSON() as { frequencyHz: number[]; hc: number[] };
+    })();
+    const rows = lines.slice(1).map((l) => l.split(',')).filter((f) => f[0] === 'spectrum');
+    expect(rows.length).toBe(json.frequencyHz.length);
+    rows.forEach((f, i) => {
+      expect(Number(f[1])).toBeCloseTo(json.frequencyHz[i] * 1e9, 9);
+      expect(Math.abs(Number(f[2]) / json.hc[i] - 1)).toBeLessThan(1e-12);
+    });
+    expect(lines.some((l) => /\(pinned\)/.test(l) || /^spectrum at /.test(l))).toBe(true);
+    await page.screenshot({ path: join(ARTIFACTS, '03-pinned.png') });
+  });
+
+  it('exports the plot as PNG at the chosen size (PNG signature and IHDR size) and as well-formed SVG', async () => {
+    await page.selectOption('[data-plot="spectrum"] select', '1');
+    const png = await download(page, () => page.click('[data-plot="spectrum"] [data-action="export-png"]'));
+    // PNG signature and IHDR layout: ISO/IEC 15948:2004 (W3C PNG specification), sections 5.2 and 11.2.2.
+    expect([...png.bytes.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
+    expect(png.bytes.subarray(12, 16).toString('ascii')).toBe('IHDR');
+    expect(png.bytes.readUInt32BE(16)).toBe(1600);
+    expect(png.bytes.readUInt32BE(20)).toBe(1000);
+    expect(png.bytes.length).toBeGreaterThan(10_000);
+    // A hostile curve name must come out as text in the SVG, never as markup.
+    await page.fill('.pin-label', '<script>alert(1)</script> & more');
+    await page.press('.pin-label', 'Enter');
+    await page.locator('.pin-label').evaluate((el) => (el as HTMLInputElement).blur());
+    const svg = await download(page, () => page.click('[data-plot="spectrum"] [data-action="export-svg"]'));
+    const text = svg.bytes.toString('utf8');
+    expect(text).toContain('&lt;script&gt;alert(1)&lt;/script&gt; &amp; more');
+    expect(text).not.toContain('<script>');
+    // Chromium's own XML parser (an independent reader) accepts it and finds the drawn paths.
+    const parsed = await page.evaluate((t) => {
+      const doc = new DOMParser().parseFromString(t, 'image/svg+xml');
+      return { error: doc.getElementsByTagName('parsererror').length, paths: doc.getElementsByTagName('path').length, root: doc.documentElement.nodeName };
+    }, text);
+    expect(parsed).toEqual({ error: 0, paths: expect.any(Number), root: 'svg' });
+    expect(parsed.paths).toBeGreaterThan(1);
+    expect(await page.$$eval('script', (s) => s.filter((x) => x.textContent?.includes('alert(1)')).length)).toBe(0);
+  });
+
+  it('exports the cell table as CSV with the engine’s values', async () => {
+    const csv = await download(page, () => page.click('[data-action="export-cells"]'));
+    const lines = csv.bytes.toString('utf8').trim().split('\r\n');
+    expect(lines[0]).toBe('name,section,formula,value,value_si,display_unit,status,message,note,source');
+    const sheet = headlessDemo();
+    const ayr = sheet.value('A_yr') as number | { value: number };
+    const ayrSI = typeof ayr === 'number' ? ayr : ayr.value;
+    const row = lines.find((l) => l.startsWith('A_yr,'));
+    expect(row).toBeDefined();
+    // value_si is the fifth field; formulas with commas are quoted (RFC 4180), so read from a parser.
+    const fields = parseCsvLine(row!);
+    expect(Math.abs(Number(fields[4]) / ayrSI - 1)).toBeLessThan(1e-12);
+    expect(lines.length - 1).toBe(sheet.cells().length);
+  });
+
+  it('keeps the sheet after a reload (autosave) and keeps an unreadable autosave aside', async () => {
+    await freshDemo();
+    const rate = headlessDemo().get('rate_norm')!.formula;
+    await setFormula(page, 'rate_norm', `2 * (${rate})`);
+    await page.waitForFunction(() => (document.querySelector('[data-autosave]')?.textContent ?? '').startsWith('autosaved'));
+    await page.reload();
+    await page.waitForSelector('input[data-formula="rate_norm"]');
+    expect(await page.inputValue('input[data-formula="rate_norm"]')).toBe(`2 * (${rate})`);
+    expect(await cellValueText(page, 'A_yr')).toBe(shown(headlessDemo({ rate_norm: `2 * (${rate})` }), 'A_yr'));
+    // A corrupt autosave: the demo comes back, and the bad text is kept under another key.
+    await page.evaluate(() => localStorage.setItem('strainsheet:autosave:v1', '{"format":"strainsheet","version":1,"cells":[{"name":'));
+    await page.reload();
+    await page.waitForSelector('[data-key-value="A_yr"]');
+    const kept = await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('strainsheet:autosave:unreadable:')));
+    expect(kept.length).toBe(1);
+    expect(await page.evaluate((k) => localStorage.getItem(k), kept[0])).toContain('"cells":[{"name":');
+    expect(await page.textContent('.messages')).toContain('could not be read');
+  });
+
+  it('refuses broken and hostile files and leaves the sheet untouched', async () => {
+    await freshDemo();
+    const before = await page.$$eval('input[data-formula]', (xs) => xs.map((x) => (x as HTMLInputElement).value));
+    const ayrBefore = await cellValueText(page, 'A_yr');
+    const files = [
+      { name: 'truncated.json', text: DEMO_TEXT.slice(0, Math.floor(DEMO_TEXT.length / 2)) },
+      { name: 'hostile.json', text: '{"format":"strainsheet","version":1,"title":"x","cells":[{"name":"__proto__","formula":"1"}],"__proto__":{"polluted":true}}' },
+      { name: 'future.json', text: '{"format":"strainsheet","version":99,"title":"x","cells":[]}' },
+      { name: 'not-a-sheet.json', text: '[1, 2, 3]' },
+    ];
+    for (const f of files) {
+      await page.setInputFiles('input[data-action="open-file"]', { name: f.name, mimeType: 'application/json', buffer: Buffer.from(f.text) });
+      await page.waitForFunction((n) => [...document.querySelectorAll('.message.error')].some((m) => m.textContent?.includes(n)), f.name);
+      const after = await page.$$eval('input[data-formula]', (xs) => xs.map((x) => (x as HTMLInputElement).value));
+      expect(after, f.name).toEqual(before);
+      expect(await cellValueText(page, 'A_yr')).toBe(ayrBefore);
+    }
+    expect(await page.evaluate(() => ({} as Record<string, unknown>).polluted)).toBeUndefined();
+    await page.screenshot({ path: join(ARTIFACTS, '04-refused-file.png') });
+  });
+
+  it('runs a one-input scan in the worker with progress, and cancels a long one leaving the sheet as it was', async () => {
+    await freshDemo();
+    await page.click('[data-tab="scan"]');
+    await page.click('[data-action="run-job"]');
+    await page.waitForSelector('[data-job-result="scan1"]', { timeout: 30_000 });
+    await page.waitForSelector('[data-panel="scan"] [data-plot="scan1"] canvas');
+    const ink = await canvasInk(page, '[data-panel="scan"] [data-plot="scan1"] canvas');
+    expect(ink.inked / ink.total).toBeGreaterThan(0.01);
+    await page.screenshot({ path: join(ARTIFACTS, '05-scan.png') });
+    // A long scan, cancelled.
+    const ayrBefore = await cellValueText(page, 'A_yr');
+    await page.fill('[data-panel="scan"] .axis-fields input[type="number"] >> nth=2', '400');
+    await page.click('[data-action="run-job"]');
+    await page.click('[data-action="cancel-job"]');
+    await page.waitForSelector('[data-job-cancelled]', { timeout: 5_000 });
+    expect(await cellValueText(page, 'A_yr')).toBe(ayrBefore);
+    await page.click('[data-tab="plots"]');
+  });
+});
+
+/** A minimal RFC 4180 line reader (quoted fields, doubled quotes) for checking exports. */
+function parseCsvLine(line: string): string[] {
+  const out: string[] = [];
+  let cur = '';
+  let quoted = false;
+  for (let i = 0; i < line.length; i++) {
+    const ch = line[i];
+    if (quoted) {
+      if (ch === '"' && line[i + 1] === '"') {
+        cur += '"';
+        i++;
+      } else if (ch === '"') quoted = false;
+      else cur += ch;
+    } else if (ch === '"') quoted = true;
+    else if (ch === ',') {
+      out.push(cur);
+      cur = '';
+    } else cur += ch;
+  }
+  out.push(cur);
+  return out;
+}
