@@ -8,6 +8,7 @@ import { F_YR_HZ, M_SUN_KG } from '../physics/constants';
 import { backgroundSpectrum, characteristicStrainSquared, type BackgroundOptions } from '../physics/backgroundIntegral';
 import { frequencyGridFromSpan, logFrequencyGrid } from '../physics/frequencyGrid';
 import { alphaFromGamma, equivalentResidual, gammaFromAlpha, localSpectralSlope, omegaGw, residualPowerSpectralDensity, strainAtFrequency } from '../physics/spectrumConversions';
+import { iscoGwFrequencyHz } from '../physics/circularKernel';
 import { chirpMassOrigin, redshiftOrigin, type OriginProfile } from '../physics/signalOrigin';
 import { objectOf, scalarSI, vectorSI, where } from './args';
 import { elementwise, countArg, isList, populationArg, positiveSI } from './physicsArgs';
@@ -157,6 +158,20 @@ export const spectrumBuiltins: Builtin[] = [
       series.equivalentResidual = { unit: 's', description: 'h_c / (2 pi f)', values: s.hc.map((h, i) => equivalentResidual(f[i], h)) };
       return new SpectrumValue(s, series, { population: p.population, options, hubbleSI: p.cosmology?.hubbleSI, emission: label });
     },
+  },
+  {
+    name: 'iscoFrequency',
+    category: 'spectrum',
+    summary: 'Rest-frame GW frequency at the innermost stable circular orbit, c^3 / (6^(3/2) pi G M), where a circular inspiral stops emitting in strainSpectrum.',
+    args: [{ name: 'totalMass', unit: 'Msun', description: 'total mass > 0 (or a list)' }],
+    returns: { unit: 'nHz', description: 'f_ISCO,gw in the rest frame (divide by 1+z for the observed frequency)' },
+    source: 'Schwarzschild ISCO at r = 6GM/c^2 (Misner, Thorne & Wheeler 1973, Gravitation); GW frequency twice the orbital',
+    example: 'iscoFrequency(1e10 Msun) gives about 440 nHz',
+    fn: (totalMass: unknown) =>
+      elementwise(totalMass, 'mass', 'iscoFrequency', 'totalMass', (m, arg) => {
+        if (!(m > 0)) throw new BuiltinError(`${where('iscoFrequency', arg)} must be positive`);
+        return quantity(iscoGwFrequencyHz(m), 'nHz');
+      }),
   },
   {
     name: 'strainAt',
