@@ -13,6 +13,8 @@ import { arraySensitivity, type SensitivityCurve } from '../physics/arraySensiti
 import { detectionSnr, detectionSpan } from '../physics/detectionSnr';
 import { BelowSpectrumError, powerLawModel, spectrumModel, spectrumProblem, type StrainModel } from '../physics/strainOnBins';
 import type { Spectrum } from '../physics/spectrum';
+import type { BinaryPopulation } from '../physics/populationTypes';
+import { backgroundSpectrum, type BackgroundOptions } from '../physics/backgroundIntegral';
 import { kindOf, objectOf, requireRange, scalarSI, vectorSI, where } from './args';
 
 /** Most pulsars an array may hold (pair layouts with positions grow as N^2). */
@@ -173,21 +175,78 @@ function spanArg(v: unknown, array: PulsarArray, fn: string, arg: string): numbe
   return checkSpan(scalarSI(v, 'time', fn, arg), shortestCadence(array), fn, arg);
 }
 
-/** The signal: a spectrum value (kind 'spectrum' or anything holding frequencyHz and hc) or an amplitude A_yr. */
-function signalArg(v: unknown, fn: string, arg: string): { model: StrainModel; lowestHz: number } {
+/**
+ * The signal, in one of three forms:
+ *  - an amplitude A_yr (dimensionless number): h_c = A_yr (f/f_yr)^(-2/3);
+ *  - a spectrum value (kind 'spectrum', or anything holding frequencyHz and hc): interpolated on its
+ *    grid; below the grid it is extended with the circular background of the population it was
+ *    computed from when the value carries one (origin.population), and refused otherwise;
+ *  - a population value (kind 'population'): the circular GW-driven background (Phinney 2001,
+ *    astro-ph/0108028) computed on a log grid of 24 points per decade spanning the array's bins.
+ * `lowestHz` is the lowest frequency the signal can supply (0: any).
+ */
+interface SignalSource {
+  lowestHz: number;
+  modelFor(lowestBinHz: number, highestBinHz: number): StrainModel;
+}
+
+/** Points per decade of the grids computed from a population. */
+const POPULATION_GRID_PER_DECADE = 24;
+
+function signalArg(v: unknown, fn: string, arg: string): SignalSource {
   if (typeof v === 'number' || (isUnit(v) && (v as Unit).dimensions.every((d: number) => d === 0))) {
     const a = scalarSI(v, 'dimensionless', fn, arg);
     requireRange(a, fn, arg, 0, 1e-6, { loOpen: true });
-    return { model: powerLawModel(a), lowestHz: 0 };
+    const model = powerLawModel(a);
+    return { lowestHz: 0, modelFor: () => model };
+  }
+  if (isSheetObject(v) && v.kind === 'population') {
+    const pop = (v as unknown as { population?: BinaryPopulation }).population;
+    if (!pop || typeof pop.density !== 'function') throw new BuiltinError(`${where(fn, arg)} is a population without a density`);
+    return {
+      lowestHz: 0,
+      modelFor: (lo, hi) => guarded(fn, arg, () => spectrumModel(backgroundSpectrum(pop, logGrid(lo, hi)))),
+    };
   }
   if (isSheetObject(v) && (v.kind === 'spectrum' || v.kind === 'sensitivityCurve')) {
     const s = spectrumOfObject(v);
     if (!s) throw new BuiltinError(`${where(fn, arg)} is a ${v.kind} without frequency and strain arrays`);
     const problem = spectrumProblem(s);
     if (problem) throw new BuiltinError(`${where(fn, arg)} is not a usable spectrum: ${problem}`);
-    return { model: spectrumModel(s), lowestHz: s.frequencyHz[0] };
+    const model = spectrumModel(s);
+    const origin = (v as unknown as { origin?: { population?: BinaryPopulation; options?: BackgroundOptions } }).origin;
+    const pop = origin?.population;
+    if (!pop || typeof pop.density !== 'function') return { lowestHz: s.frequencyHz[0], modelFor: () => model };
+    return {
+      lowestHz: 0,
+      modelFor: (lo) => {
+        const f0 = s.frequencyHz[0];
+        if (lo >= f0) return model;
+        // Extend below the grid with the same population and options, then interpolate as before.
+        const low = logGrid(lo, f0).subarray(0, -1);
+        const extra = guarded(fn, arg, () => backgroundSpectrum(pop, low, origin?.options ?? {}));
+        const frequencyHz = new Float64Array(low.length + s.frequencyHz.length);
+        const hc = new Float64Array(frequencyHz.length);
+        frequencyHz.set(extra.frequencyHz);
+        frequencyHz.set(s.frequencyHz, low.length);
+        hc.set(extra.hc);
+        hc.set(s.hc, low.length);
+        return spectrumModel({ frequencyHz, hc });
+      },
+    };
   }
-  throw new BuiltinError(`${where(fn, arg)} must be a spectrum or an amplitude A_yr (a number), got ${kindOf(v)}`, 'domain');
+  throw new BuiltinError(`${where(fn, arg)} must be a spectrum, a population or an amplitude A_yr (a number), got ${kindOf(v)}`, 'domain');
+}
+
+/** Log-spaced frequencies from lo to hi inclusive, POPULATION_GRID_PER_DECADE per decade (at least 2). */
+function logGrid(lo: number, hi: number): Float64Array {
+  const decades = Math.log10(hi / lo);
+  const n = Math.max(2, Math.ceil(decades * POPULATION_GRID_PER_DECADE) + 1);
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) out[i] = lo * Math.pow(hi / lo, i / (n - 1));
+  out[0] = lo;
+  out[n - 1] = hi;
+  return out;
 }
 
 /** Reads the Spectrum a sheet object carries: its own fields, or a `spectrum` field. */
@@ -324,7 +383,7 @@ const detectionSnrBuiltin: Builtin = {
   category: 'array',
   summary: 'Expected signal-to-noise ratio of the optimal cross-correlation statistic for a predicted background and an array.',
   args: [
-    { name: 'signal', unit: 'spectrum, or dimensionless A_yr', description: 'predicted spectrum (its grid must reach down to 1/T; above its top the signal counts as 0), or an amplitude A_yr for h_c = A_yr (f/f_yr)^(-2/3)' },
+    { name: 'signal', unit: 'spectrum, population, or dimensionless A_yr', description: 'predicted spectrum (interpolated; below its grid extended with its own population if it has one, else refused; above its top the signal counts as 0), a population (circular background computed over the array’s bins), or an amplitude A_yr for h_c = A_yr (f/f_yr)^(-2/3)' },
     { name: 'array', unit: 'pulsarArray', description: 'from pulsarArray or pulsarArrayOnSky' },
     { name: 'span', unit: 'time (yr)', description: 'span to use instead of the array’s own (for scans over span)', optional: true },
   ],
@@ -334,8 +393,9 @@ const detectionSnrBuiltin: Builtin = {
   fn: (signal: unknown, array: unknown, span?: unknown) => {
     const fn = 'detectionSnr';
     const a = arrayArg(array, fn, 'array');
-    const { model } = signalArg(signal, fn, 'signal');
+    const source = signalArg(signal, fn, 'signal');
     const t = spanArg(span, a, fn, 'span');
+    const model = source.modelFor(1 / t, 1 / (2 * shortestCadence(a)));
     return guarded(fn, 'signal', () => detectionSnr(a, model, t).snr);
   },
 };
@@ -345,10 +405,10 @@ const detectionSpanBuiltin: Builtin = {
   category: 'array',
   summary: 'Shortest observing span at which the expected cross-correlation S/N reaches a threshold (root find over span).',
   args: [
-    { name: 'signal', unit: 'spectrum, or dimensionless A_yr', description: 'predicted spectrum or amplitude A_yr, as in detectionSnr' },
+    { name: 'signal', unit: 'spectrum, population, or dimensionless A_yr', description: 'predicted spectrum, population or amplitude A_yr, as in detectionSnr' },
     { name: 'array', unit: 'pulsarArray', description: 'the array; its own span is ignored' },
     { name: 'threshold', unit: 'dimensionless', description: 'S/N to reach, greater than 0' },
-    { name: 'longestSpan', unit: 'time (yr)', description: 'longest span searched (default 100 yr, and never beyond 1/(lowest frequency of the spectrum))', optional: true },
+    { name: 'longestSpan', unit: 'time (yr)', description: 'longest span searched (default 100 yr; for a spectrum without its population, never beyond 1/(its lowest frequency))', optional: true },
   ],
   returns: { unit: 'time (yr)', description: 'the span; an error says so when the threshold is not reached within the search' },
   source: 'S/N of Siemens, Ellis, Jenet & Romano 2013, CQG 30, 224015; log-spaced scan then bisection (common practice, no source)',
@@ -356,7 +416,8 @@ const detectionSpanBuiltin: Builtin = {
   fn: (signal: unknown, array: unknown, threshold: unknown, longestSpan?: unknown) => {
     const fn = 'detectionSpan';
     const a = arrayArg(array, fn, 'array');
-    const { model, lowestHz } = signalArg(signal, fn, 'signal');
+    const source = signalArg(signal, fn, 'signal');
+    const lowestHz = source.lowestHz;
     const thr = requireRange(scalarSI(threshold, 'dimensionless', fn, 'threshold'), fn, 'threshold', 0, 1e6, { loOpen: true });
     const minSpan = 2 * shortestCadence(a);
     let longest = longestSpan === undefined ? DEFAULT_LONGEST_SPAN_S : checkSpan(scalarSI(longestSpan, 'time', fn, 'longestSpan'), shortestCadence(a), fn, 'longestSpan');
@@ -370,6 +431,7 @@ const detectionSpanBuiltin: Builtin = {
       }
       longest = Math.min(longest, fits);
     }
+    const model = source.modelFor(1 / longest, 1 / minSpan);
     const r = guarded(fn, 'signal', () => detectionSpan(a, model, thr, longest, minSpan));
     if (!r.reached) {
       throw new BuiltinError(`${fn}: the expected S/N stays below the threshold ${thr} for spans up to ${fmt(longest / YEAR_S)} yr (it reaches ${fmt(r.snr)} there)`);

@@ -4,7 +4,11 @@ import { arrayViewBuiltins, PulsarArrayValue, SensitivityCurveValue } from '../.
 import { BuiltinError } from '../../src/sheet/cellError';
 import { math } from '../../src/sheet/mathInstance';
 import { isSheetObject } from '../../src/sheet/sheetObject';
-import { DAY_S, F_YR_HZ, YEAR_S } from '../../src/physics/constants';
+import { DAY_S, F_YR_HZ, KM_S_MPC_SI, YEAR_S } from '../../src/physics/constants';
+import { backgroundSpectrum } from '../../src/physics/backgroundIntegral';
+import { FlatLambdaCdm } from '../../src/physics/cosmology';
+import { phenomenologicalPopulation } from '../../src/physics/phenomenologicalPopulation';
+import { powerLawMassRatio } from '../../src/physics/populationShapes';
 
 // The sheet boundary: units in, SI inside, clear errors that name the function and the argument.
 // Invented arrays only.
@@ -152,7 +156,7 @@ describe('arraySensitivity, detectionSnr and detectionSpan built-ins', () => {
     expectError(() => call('detectionSnr', spectrum, demoArray()), 'detectionSnr', 'signal', /lies below the spectrum's lowest frequency 5 nHz.*6\.34 yr/);
     const broken = { ...spectrum, hc: Float64Array.of(1e-15, NaN, 2e-16) };
     expectError(() => call('detectionSnr', broken, demoArray()), 'detectionSnr', 'signal', /strain value 2/);
-    expectError(() => call('detectionSnr', u('3 m'), demoArray()), 'detectionSnr', 'signal', /spectrum or an amplitude/);
+    expectError(() => call('detectionSnr', u('3 m'), demoArray()), 'detectionSnr', 'signal', /spectrum, a population or an amplitude/);
     expectError(() => call('detectionSnr', 0, demoArray()), 'detectionSnr', 'signal', /must lie in/);
     expectError(() => call('detectionSnr', 2e-15, 'array'), 'detectionSnr', 'array', /pulsarArray/);
     expectError(() => call('detectionSnr', 2e-15, demoArray(), u('10 day')), 'detectionSnr', 'span', /cadence is too long/);
@@ -176,5 +180,52 @@ describe('arraySensitivity, detectionSnr and detectionSpan built-ins', () => {
     const spectrum = { kind: 'spectrum', describe: () => 's', toJSON: () => ({}), frequencyHz: f, hc: Float64Array.of(1e-15, 6e-16, 2e-16) };
     expectError(() => call('detectionSpan', spectrum, demoArray(), 3, u('30 yr')), 'detectionSpan', 'longestSpan', /need frequencies it does not have/);
     expectError(() => call('detectionSpan', 2e-15, demoArray(), 0), 'detectionSpan', 'threshold', /must lie in/);
+  });
+});
+
+describe('population and spectrum-with-origin signals', () => {
+  // An invented population (made-up parameters); the values stand in for a 'population' cell and a
+  // 'spectrum' cell that remembers its population (duck-typed here: only the fields the array view reads).
+  const population = phenomenologicalPopulation({
+    rateNorm: 2e-5,
+    alpha: 0,
+    cutoffMass: 3e9,
+    beta: 2,
+    z0: 1.5,
+    zMax: 5,
+    log10MMin: 7,
+    log10MMax: 11,
+    massRatio: powerLawMassRatio(0, 0.1),
+    cosmology: new FlatLambdaCdm({ hubbleSI: 70 * KM_S_MPC_SI, omegaM: 0.3 }),
+  });
+  const populationValue = { kind: 'population', population, describe: () => 'invented population', toJSON: () => ({}) };
+  const arr = () => call('pulsarArray', 20, u('300 ns'), u('30 day'), u('16 yr')) as PulsarArrayValue;
+
+  it('a population gives the S/N of its spectrum computed on the array bins themselves (24 points per decade, then interpolated)', () => {
+    const a = arr();
+    const bins = Array.from({ length: Math.floor((16 * YEAR_S) / (60 * DAY_S)) }, (_, k) => (k + 1) / (16 * YEAR_S));
+    const exact = backgroundSpectrum(population, bins);
+    const onBins = { kind: 'spectrum', describe: () => 's', toJSON: () => ({}), frequencyHz: exact.frequencyHz, hc: exact.hc };
+    const viaPopulation = call('detectionSnr', populationValue, a) as number;
+    const viaBins = call('detectionSnr', onBins, a) as number;
+    // Interpolation of a smooth spectrum at 24 points per decade: agreement to 1e-4 (tolerance set by that grid).
+    expect(Math.abs(viaPopulation / viaBins - 1), `${viaPopulation} vs ${viaBins}`).toBeLessThan(1e-4);
+  });
+
+  it('a spectrum that remembers its population is extended below its grid with that population', () => {
+    const a = arr();
+    const grid = Array.from({ length: 30 }, (_, i) => 4e-9 * Math.pow(100, i / 29));
+    const s = backgroundSpectrum(population, grid);
+    const withOrigin = { kind: 'spectrum', describe: () => 's', toJSON: () => ({}), frequencyHz: s.frequencyHz, hc: s.hc, origin: { population, options: {} } };
+    const without = { kind: 'spectrum', describe: () => 's', toJSON: () => ({}), frequencyHz: s.frequencyHz, hc: s.hc };
+    // 16 yr: 1/T = 1.98 nHz, below the 4 nHz grid start.
+    expectError(() => call('detectionSnr', without, a), 'detectionSnr', 'signal', /lies below/);
+    const extended = call('detectionSnr', withOrigin, a) as number;
+    const viaPopulation = call('detectionSnr', populationValue, a) as number;
+    expect(Math.abs(extended / viaPopulation - 1)).toBeLessThan(1e-3);
+    // detectionSpan may then search beyond 1/(grid start) = 7.9 yr.
+    const t = (call('detectionSpan', withOrigin, a, 3, u('60 yr')) as Unit).toNumber('yr');
+    const atT = call('detectionSnr', populationValue, a, u(`${t} yr`)) as number;
+    expect(Math.abs(atT - 3)).toBeLessThan(0.05);
   });
 });
