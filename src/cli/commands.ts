@@ -1,6 +1,8 @@
 // The commands of `strainsheet`, by name. To add one, write it in its own file and add an entry.
 import type { CliIO } from './cliIO';
 import { evaluateCommand } from './evaluateCommand';
+import { scanCommand } from './scanCommand';
+import { sampleCommand } from './sampleCommand';
 
 export interface Command {
   /** One line for the command list. */
@@ -13,4 +15,6 @@ export interface Command {
 
 export const commands: Record<string, Command> = {
   evaluate: evaluateCommand,
+  scan: scanCommand,
+  sample: sampleCommand,
 };
