@@ -18,8 +18,10 @@ export function harmonicSumDirect(x: number, e0: number, nMax: number, nTop?: nu
   if (!(x >= 1)) return 0;
   const top = Math.min(nTop ?? Math.floor(x), nMax);
   let sum = 0;
+  let en = e0;
   for (let n = 1; n <= top; n++) {
-    const en = eccentricityAtOrbitalFrequency(e0, x / n);
+    // e grows with n (lower orbital frequency): the previous harmonic's e is a close first guess.
+    en = eccentricityAtOrbitalFrequency(e0, x / n, n === 1 ? undefined : en);
     const weight = Math.pow(2 / n, 2 / 3) / eccentricityEnhancement(en);
     if (n > 2 && weight * harmonicPowerBound(n, en) < SKIP_WEIGHT) continue;
     sum += weight * harmonicPower(n, en);

@@ -23,9 +23,10 @@ function petersShapeLogSlope(e: number): number {
  * Eccentricity at orbital frequency f, given e0 at orbital frequency f0, under GW-driven decay:
  * Kepler (a^3 proportional to 1/f^2 at fixed mass) and the Peters 1964 a(e) give
  * ln a(e)/c0 = ln a(e0)/c0 - (2/3) ln(f/f0). Valid for any ratio f/f0 > 0 (ratios below 1 run
- * the orbit backwards in time). Solved by Newton's method in s = ln(e/(1-e)), safeguarded by bisection.
+ * the orbit backwards in time). Solved by Newton's method in s = ln(e/(1-e)), safeguarded by bisection;
+ * guess (optional) is an eccentricity near the answer, e.g. the solution at a nearby ratio.
  */
-export function eccentricityAtOrbitalFrequency(e0: number, frequencyRatio: number): number {
+export function eccentricityAtOrbitalFrequency(e0: number, frequencyRatio: number, guess?: number): number {
   if (!(e0 >= 0 && e0 < 1)) throw new RangeError(`eccentricity e0 must lie in [0, 1), got ${e0}`);
   if (!(frequencyRatio > 0) || !Number.isFinite(frequencyRatio)) {
     throw new RangeError(`orbital frequency ratio f/f0 must be positive and finite, got ${frequencyRatio}`);
@@ -36,22 +37,22 @@ export function eccentricityAtOrbitalFrequency(e0: number, frequencyRatio: numbe
   // Bracket in s = logit(e). At s = -745 e underflows; at s = 37, 1 - e underflows.
   let lo = -745;
   let hi = 37;
-  // Start from the small-e law e ~ e0 (f/f0)^(-19/18) (Peters 1964, eq. 5.11 at small e) or e0.
-  const guessE = Math.min(e0 * Math.pow(frequencyRatio, -19 / 18), 1 - 1e-12);
-  let s = Math.log(guessE) - Math.log1p(-guessE);
+  // Start from a nearby solution if the caller has one, else from the small-e law
+  // e ~ e0 (f/f0)^(-19/18) (Peters 1964, eq. 5.11 at small e) capped below 1.
+  const start = guess !== undefined && guess > 0 && guess < 1 ? guess : Math.min(e0 * Math.pow(frequencyRatio, -19 / 18), 1 - 1e-12);
+  let s = Math.log(start) - Math.log1p(-start);
   if (!(s > lo && s < hi)) s = 0.5 * (lo + hi);
+  const tol = 2e-15 * (Math.abs(target) + 1);
   for (let iter = 0; iter < 200; iter++) {
     const e = 1 / (1 + Math.exp(-s));
     const residual = petersShapeLog(e) - target;
+    if (Math.abs(residual) <= tol) break;
     if (residual > 0) hi = s;
     else lo = s;
     const slope = petersShapeLogSlope(e) * e * (1 - e);
     let next = s - residual / slope;
     if (!(next > lo && next < hi) || !Number.isFinite(next)) next = 0.5 * (lo + hi);
-    if (Math.abs(next - s) <= 1e-15 * Math.max(1, Math.abs(s))) {
-      s = next;
-      break;
-    }
+    if (next === s) break;
     s = next;
   }
   return 1 / (1 + Math.exp(-s));

@@ -1,0 +1,92 @@
+// Hardening of a bound binary by three-body scattering of stars (Quinlan 1996, New Astron. 1, 35):
+//   da/dt = -G rho H a^2 / sigma,
+// combined with GW emission through the residence time at each frequency:
+//   dE/dln f_r = L_GW dt/dln f_r,  dt/dln f_r = 1 / [(dln f/dt)_GW + (dln f/dt)_stars].
+// For circular orbits (dln f/dt)_stars / (dln f/dt)_GW = (f_t / f_r)^(10/3), which gives
+//   dE/dln f_r = (dE/dln f_r)_GW / (1 + (f_t/f_r)^(10/3)),
+// f_t being the GW frequency where the two hardening rates are equal.
+import { C_SI, G_SI } from './constants';
+import { eccentricityEnhancement } from './petersMathews';
+import { keplerOrbitalFrequency } from './petersEvolution';
+import type { EmissionKernel } from './populationTypes';
+import type { EccentricityDistribution } from './eccentricKernel';
+import { eccentricTables, type EccentricStart } from './eccentricKernel';
+
+/** The stellar environment of a binary (SI). */
+export interface StellarEnvironment {
+  /** Stellar mass density rho around the binary, kg/m^3. */
+  densityKgM3: number;
+  /** One-dimensional stellar velocity dispersion sigma, m/s. */
+  dispersionMS: number;
+  /** Dimensionless hardening rate H (Quinlan 1996 finds about 15-20 for hard binaries). */
+  hardeningRate: number;
+}
+
+export function checkEnvironment(env: StellarEnvironment): void {
+  if (!(env.densityKgM3 > 0) || !Number.isFinite(env.densityKgM3)) throw new RangeError(`stellar density must be positive and finite, got ${env.densityKgM3} kg/m^3`);
+  if (!(env.dispersionMS > 0) || !Number.isFinite(env.dispersionMS)) throw new RangeError(`velocity dispersion must be positive and finite, got ${env.dispersionMS} m/s`);
+  if (!(env.hardeningRate > 0) || !Number.isFinite(env.hardeningRate)) throw new RangeError(`hardening rate H must be positive and finite, got ${env.hardeningRate}`);
+}
+
+/** da/dt by stellar scattering, m/s: -G rho H a^2 / sigma (Quinlan 1996, New Astron. 1, 35). */
+export function stellarHardeningRate(aM: number, env: StellarEnvironment): number {
+  return (-G_SI * env.densityKgM3 * env.hardeningRate * aM * aM) / env.dispersionMS;
+}
+
+/**
+ * Semi-major axis where stellar and GW hardening rates are equal, m:
+ * G rho H a^5 / sigma = (64/5) G^3 m1 m2 M F(e) / c^5 (Quinlan 1996; Peters 1964, eq. 5.6),
+ * so a_t = [(64/5) G^2 m1 m2 M F(e) sigma / (c^5 rho H)]^(1/5). e = 0 unless given.
+ */
+export function stellarTransitionSemiMajorAxis(mKg: number, q: number, env: StellarEnvironment, e = 0): number {
+  const m1 = mKg / (1 + q);
+  const m2 = mKg - m1;
+  const num = (64 / 5) * G_SI * G_SI * m1 * m2 * mKg * eccentricityEnhancement(e) * env.dispersionMS;
+  const den = C_SI ** 5 * env.densityKgM3 * env.hardeningRate;
+  return Math.pow(num / den, 0.2);
+}
+
+/** Rest-frame GW frequency of the transition for a circular orbit, f_t = 2 f_orb(a_t), Hz. */
+export function stellarTransitionFrequency(mKg: number, q: number, env: StellarEnvironment): number {
+  return 2 * keplerOrbitalFrequency(stellarTransitionSemiMajorAxis(mKg, q, env), mKg);
+}
+
+/** Factor on dE/dln f_r (and on h_c^2 of one binary): 1 / (1 + (f_t/f_r)^(10/3)). */
+export function stellarSuppression(frHz: number, ftHz: number): number {
+  return 1 / (1 + Math.pow(ftHz / frHz, 10 / 3));
+}
+
+/** An environment for each binary: one for all, or a function of (total mass kg, q, z). */
+export type EnvironmentOf = StellarEnvironment | ((mKg: number, q: number, z: number) => StellarEnvironment);
+
+/** Circular binaries hardened by stars then by GW emission: base kernel times the suppression. */
+export function stellarEmissionKernel(base: EmissionKernel, envOf: EnvironmentOf): EmissionKernel {
+  if (typeof envOf !== 'function') {
+    checkEnvironment(envOf);
+    const env = envOf;
+    return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * stellarSuppression(fr, stellarTransitionFrequency(m, q, env));
+  }
+  return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * stellarSuppression(fr, stellarTransitionFrequency(m, q, envOf(m, q, z)));
+}
+
+/**
+ * Eccentric binaries whose GW-driven phase starts where the environment lets go: f0 is the orbital
+ * frequency at which stellar hardening and GW hardening (enhanced by F(e0)) are equal, and e0 is the
+ * eccentricity there. Below f0 the binary is taken to move on quickly (no GW emission counted); above
+ * it the decay is GW-only (Peters 1964) with harmonics as in Enoki & Nagashima 2007.
+ * See docs/orbits.md for this assumption.
+ */
+export function stellarEccentricKernel(base: EmissionKernel, envOf: EnvironmentOf, e0: number | EccentricityDistribution, opts: Omit<EccentricStart, 'e0' | 'f0OrbitalHz'> = {}): EmissionKernel {
+  if (typeof envOf !== 'function') checkEnvironment(envOf);
+  const { tables, weights, e0: nodes } = eccentricTables({ ...opts, e0, f0OrbitalHz: 1 });
+  const envAt = typeof envOf === 'function' ? envOf : () => envOf;
+  return (fr, mc, m, q, z) => {
+    const env = envAt(m, q, z);
+    let s = 0;
+    for (let k = 0; k < tables.length; k++) {
+      const f0 = keplerOrbitalFrequency(stellarTransitionSemiMajorAxis(m, q, env, nodes[k]), m);
+      s += weights[k] * tables[k].at(fr / f0);
+    }
+    return base(fr, mc, m, q, z) * s;
+  };
+}
