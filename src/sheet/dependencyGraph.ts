@@ -5,8 +5,22 @@
 export interface EvaluationPlan {
   /** Cells in an order where every cell comes after the cells it reads (within the planned set). */
   order: string[];
-  /** Cells on dependency cycles, each with one cycle through it, written as names: [a, b, a]. */
-  cycles: Map<string, string[]>;
+  /** Cells on dependency cycles, each with one cycle through it. */
+  cycles: Map<string, CycleThrough>;
+}
+
+/** Longest stretch of a cycle kept as names (longer cycles keep their start and end). */
+export const CYCLE_NAMES_KEPT = 50;
+
+/** A cycle through one cell: `a -> b -> a` has length 2 and names [a, b, a]. */
+export interface CycleThrough {
+  /** The cells on the cycle, starting and ending at the cell; for cycles longer than
+   *  CYCLE_NAMES_KEPT only the first CYCLE_NAMES_KEPT names, then the cell again. */
+  names: string[];
+  /** The last few cells before the cycle closes (for long cycles). */
+  closing: string[];
+  /** Number of cells on the cycle. */
+  length: number;
 }
 
 export class DependencyGraph {
@@ -87,7 +101,7 @@ export class DependencyGraph {
    */
   plan(subset: ReadonlySet<string>, tieOrder?: ReadonlyMap<string, number>): EvaluationPlan {
     const order = this.kahn(subset, new Set(), tieOrder);
-    const cycles = new Map<string, string[]>();
+    const cycles = new Map<string, CycleThrough>();
     if (order.length === subset.size) return { order, cycles };
     const placed = new Set(order);
     const rest = new Set([...subset].filter((n) => !placed.has(n)));
@@ -95,7 +109,23 @@ export class DependencyGraph {
       const members = new Set(component);
       const selfLoop = component.length === 1 && (this.reads.get(component[0]) ?? []).includes(component[0]);
       if (component.length === 1 && !selfLoop) continue;
-      for (const m of component) cycles.set(m, this.cycleThrough(m, members));
+      // One breadth-first search finds a cycle; members on it get that cycle rotated to start
+      // at them, the others (components that are not a simple ring) get a search of their own.
+      const ring = this.cycleThrough(component[0], members).slice(0, -1);
+      const onRing = new Map(ring.map((n, i) => [n, i]));
+      for (const m of component) {
+        const at = onRing.get(m);
+        const loop = at === undefined ? this.cycleThrough(m, members).slice(0, -1) : ring;
+        const from = at ?? 0;
+        const k = loop.length;
+        const take = Math.min(k, CYCLE_NAMES_KEPT);
+        const names = new Array<string>(take + 1);
+        for (let i = 0; i < take; i++) names[i] = loop[(from + i) % k];
+        names[take] = m;
+        const closing: string[] = [];
+        for (let i = Math.max(take, k - 3); i < k; i++) closing.push(loop[(from + i) % k]);
+        cycles.set(m, { names, closing, length: k });
+      }
     }
     const below = new Set([...rest].filter((n) => !cycles.has(n)));
     order.push(...this.kahn(below, new Set(cycles.keys()), tieOrder));

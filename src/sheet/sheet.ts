@@ -5,7 +5,7 @@ import type { CellError } from './cellError';
 import type { CellSpec, CellState, SheetObserver } from './types';
 import type { Builtin } from './builtin';
 import { compileFormula, makeCellFunction, type CompiledFormula } from './formulaCompiler';
-import { DependencyGraph } from './dependencyGraph';
+import { DependencyGraph, type CycleThrough } from './dependencyGraph';
 import { checkResult, errorFromException, nearestName } from './evaluationError';
 import { sameValue } from './valueEquality';
 import { checkCellName } from './cellName';
@@ -39,6 +39,19 @@ function sameState(a: CellState | undefined, b: CellState): boolean {
   if (a.status === 'value' && b.status === 'value') return sameValue(a.value, b.value);
   if (a.status === 'error' && b.status === 'error') return a.error.kind === b.error.kind && a.error.message === b.error.message;
   return a.status === 'pending';
+}
+
+function cycleError(name: string, cycle: CycleThrough): CellError {
+  if (cycle.names.length === cycle.length + 1) {
+    return { kind: 'cycle', message: `${name}: ${name} is on a dependency cycle ${cycle.names.join(' -> ')}`, inputs: cycle.names };
+  }
+  // A long cycle is shortened: its first and last names, with the count of cells on it.
+  const shown = [...cycle.names.slice(0, 5), '...', ...cycle.closing, name];
+  return {
+    kind: 'cycle',
+    message: `${name}: ${name} is on a dependency cycle of ${cycle.length} cells ${shown.join(' -> ')}`,
+    inputs: cycle.names,
+  };
 }
 
 /** The root cause of a failed input (so that messages down a chain name the original problem). */
@@ -396,8 +409,7 @@ export class Sheet {
     };
     for (const [name, cycle] of plan.cycles) {
       if (notify) this.emit((o) => o.pending?.(name));
-      const path = cycle.join(' -> ');
-      store(name, { status: 'error', error: { kind: 'cycle', message: `${name}: ${name} is on a dependency cycle ${path}`, inputs: cycle } });
+      store(name, { status: 'error', error: cycleError(name, cycle) });
     }
     for (const name of plan.order) {
       const rec = this.records.get(name)!;
