@@ -17,7 +17,8 @@
 //
 // Circular kernel fast path: with M_c^(5/3) = M^(5/3) eta, h_c^2 = 4 G^(5/3) / (3 pi^(1/3) c^2) f^(-4/3)
 // Int dz (1+z)^(-1/3) Int dlog10M M^(5/3) Int dq n eta (Phinney 2001, eq. 7 form), so the q integral is
-// done once per (z, M) node and frequencies below every cut reuse one cached mass integral per z node.
+// done once per (z, M) node (once in all when the population declares itself separable in q), and
+// whole mass panels below the cut are computed once per z node and shared by all frequencies.
 import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';
 import { symmetricMassRatio } from './binaryMasses';
 import { circularGwKernel, iscoTotalMassKg } from './circularKernel';
@@ -82,6 +83,12 @@ function densityAt(pop: BinaryPopulation, z: number, x: number, q: number): numb
   const n = pop.density(z, x, q);
   if (!(n >= 0) || n === Infinity) throw new RangeError(`population density is ${n} at z = ${z}, log10M = ${x}, q = ${q}; it must be finite and >= 0`);
   return n;
+}
+
+/** A factor of a separable density, checked like densityAt. */
+function checkedValue(v: number, what: string, ...at: number[]): number {
+  if (!(v >= 0) || v === Infinity) throw new RangeError(`population ${what} is ${v} at (${at.join(', ')}); it must be finite and >= 0`);
+  return v;
 }
 
 /** log10 of the largest total mass (Msun) still emitting at rest-frame frequency frHz. */
@@ -169,12 +176,17 @@ function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, c
   // Per z node: cumulative sums over whole mass panels of w M^(5/3) Int dq n eta (M in kg).
   const panelSums: (Float64Array | undefined)[] = new Array(zr.nodes.length);
 
+  // A separable density has its q integral Int dq p(q) eta done once here.
+  const sep = pop.separable;
+  let etaPdf = 0;
+  if (sep) for (let j = 0; j < etaW.length; j++) etaPdf += etaW[j] * checkedValue(sep.massRatio(qr.nodes[j]), 'mass-ratio factor', qr.nodes[j]);
   const massIntegral = (z: number, mr: QuadratureRule, from: number, to: number): number => {
     let s = 0;
     for (let i = from; i < to; i++) {
       const x = mr.nodes[i];
       let inner = 0;
-      for (let j = 0; j < etaW.length; j++) inner += etaW[j] * densityAt(pop, z, x, qr.nodes[j]);
+      if (sep) inner = etaPdf * checkedValue(sep.zMass(z, x), 'density', z, x);
+      else for (let j = 0; j < etaW.length; j++) inner += etaW[j] * densityAt(pop, z, x, qr.nodes[j]);
       s += mr.weights[i] * inner * Math.pow(10, (5 / 3) * (x + LOG10_MSUN));
     }
     return s;

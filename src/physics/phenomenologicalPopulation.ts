@@ -40,6 +40,19 @@ export function phenomenologicalPopulation(p: PhenomenologicalParams): BinaryPop
   let zFactor = 0;
   let lastX = NaN;
   let massFactor = 0;
+  const zMass = (z: number, log10M: number): number => {
+    if (z !== lastZ) {
+      // a rate per rest-frame time becomes n per unit z through |dt_r/dz| (Phinney 2001)
+      zFactor = p.rateNorm * zWeight(z) * (cosmo.dtdzS(z) / GYR_S);
+      lastZ = z;
+    }
+    if (log10M !== lastX) {
+      massFactor = Math.pow(10, -p.alpha * (log10M - log10Pivot)) * Math.exp(-Math.pow(10, log10M) / p.cutoffMass);
+      lastX = log10M;
+    }
+    return zFactor * massFactor;
+  };
+  const massRatio = (q: number) => p.massRatio.pdf(q);
   return {
     zMin: 0,
     zMax: p.zMax,
@@ -47,17 +60,7 @@ export function phenomenologicalPopulation(p: PhenomenologicalParams): BinaryPop
     log10MMax: p.log10MMax,
     qMin: p.massRatio.qMin,
     qMax: 1,
-    density(z, log10M, q) {
-      if (z !== lastZ) {
-        // a rate per rest-frame time becomes n per unit z through |dt_r/dz| (Phinney 2001)
-        zFactor = p.rateNorm * zWeight(z) * (cosmo.dtdzS(z) / GYR_S);
-        lastZ = z;
-      }
-      if (log10M !== lastX) {
-        massFactor = Math.pow(10, -p.alpha * (log10M - log10Pivot)) * Math.exp(-Math.pow(10, log10M) / p.cutoffMass);
-        lastX = log10M;
-      }
-      return zFactor * massFactor * p.massRatio.pdf(q);
-    },
+    density: (z, log10M, q) => zMass(z, log10M) * massRatio(q),
+    separable: { zMass, massRatio },
   };
 }

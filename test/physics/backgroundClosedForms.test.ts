@@ -87,6 +87,18 @@ describe('energy form and strain form agree', () => {
   }
 });
 
+describe('separable populations', () => {
+  it('the q integral done once (separable factors) equals the full triple sum (Mc^(5/3) = M^(5/3) eta)', () => {
+    for (const fp of fixturePopulations) {
+      const p = buildPopulation(fp);
+      const freqs = [1e-9, F_YR_HZ, 3e-7];
+      const fast = characteristicStrainSquared(p, freqs);
+      const full = characteristicStrainSquared({ ...p, separable: undefined }, freqs);
+      for (let i = 0; i < freqs.length; i++) expect(rel(fast[i], full[i])).toBeLessThan(1e-12);
+    }
+  });
+});
+
 describe('normalisation', () => {
   it('A_yr^2 is linear in the merger-rate normalisation (Phinney 2001: h_c^2 linear in n)', () => {
     const p = fixturePopulations[0];
@@ -106,9 +118,12 @@ describe('bad input', () => {
     expect(() => characteristicStrainSquared({ ...p, qMin: 0, density: p.density }, [1e-9])).toThrow(/mass-ratio limits/);
   });
   it('names a negative or NaN density and where it happened', () => {
-    const bad: BinaryPopulation = { ...p, density: (z) => (z > 1 ? -1 : 1) };
+    // separable: undefined, or the integrator would use the factors copied from p
+    const bad: BinaryPopulation = { ...p, separable: undefined, density: (z) => (z > 1 ? -1 : 1) };
     expect(() => characteristicStrainSquared(bad, [1e-9])).toThrow(/density is -1 at z = /);
-    expect(() => characteristicStrainSquared({ ...p, density: () => NaN }, [1e-9])).toThrow(/density is NaN/);
+    expect(() => characteristicStrainSquared({ ...p, separable: undefined, density: () => NaN }, [1e-9])).toThrow(/density is NaN/);
+    const badFactor: BinaryPopulation = { ...p, separable: { zMass: () => -2, massRatio: () => 1 } };
+    expect(() => characteristicStrainSquared(badFactor, [1e-9])).toThrow(/density is -2 at/);
   });
   it('rejects a bad resolution', () => {
     expect(() => characteristicStrainSquared(p, [1e-9], { resolution: { order: 0 } })).toThrow(/resolution order/);
