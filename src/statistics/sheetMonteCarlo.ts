@@ -11,6 +11,7 @@ import { relativeLikelihood, type AmplitudeMeasurement } from './measurement';
 import { measuredBand, type MeasuredBand } from './sheetScan';
 import { F_YR_HZ } from '../physics/constants';
 import { atReferenceFrequency } from './measurement';
+import { checkSqrtProportional } from './proportionality';
 import { SheetJobError, checkCancelled, numericOrNaN, siNumber, unitTextOf, yieldToEventLoop, type JobControl } from './sheetValues';
 
 /** What the Monte Carlo needs of a distribution value (the 'distribution' SheetObject of the built-ins). */
@@ -67,6 +68,12 @@ export interface MonteCarloOptions {
   measurement?: AmplitudeMeasurement;
   /** Keep the input draws in the result (default true). */
   keepInputs?: boolean;
+  /**
+   * Evaluate every sample in full even for inputs the outputs go as the square root of (default
+   * false: such inputs, e.g. the merger-rate normalisation, are applied as a factor sqrt(x/x0)
+   * after checking the law with probes, which gives the same numbers to rounding).
+   */
+  evaluateEverySample?: boolean;
 }
 
 export interface MonteCarloResult {
@@ -74,6 +81,9 @@ export interface MonteCarloResult {
   seed: number;
   /** Input cells drawn and their distributions (describe()). */
   inputs: Array<{ cell: string; distribution: string }>;
+  /** Inputs applied as a sqrt(x/x0) factor instead of evaluations (the sqrt law checked with probes). */
+  scaledInputs: string[];
+  evaluations: number;
   inputDraws?: Record<string, Float64Array>;
   /** Output values in SI per sample (NaN where the output had an error). */
   outputs: Record<string, Float64Array>;
@@ -92,6 +102,34 @@ export interface MonteCarloResult {
   };
 }
 
+/**
+ * Uncertain inputs every output goes as the square root of, checked at the nominal point and at
+ * two draws of the other uncertain inputs (their own fixed seed, so the run's stream is unchanged).
+ * Samples of such an input only need the factor sqrt(x/x0): A_yr and the normalisation, Phinney 2001.
+ */
+function sqrtFactorInputs(sheet: Sheet, names: string[], dists: Map<string, SampleableDistribution>, outputs: string[]): string[] {
+  const found: string[] = [];
+  const probeRng = seededRandom(0x5eed);
+  const otherDraws = [0, 1].map(() => Object.fromEntries(names.map((n) => [n, dists.get(n)!.sample(probeRng)])));
+  for (const n of names) {
+    const x0 = siNumber(sheet.value(n));
+    if (x0 === null || !(x0 > 0)) continue;
+    const ok = outputs.every((o) => {
+      try {
+        if (!checkSqrtProportional(sheet, n, o).proportional) return false;
+        return otherDraws.every((d) => {
+          const others = Object.fromEntries(Object.entries(d).filter(([k]) => k !== n));
+          return checkSqrtProportional(sheet, n, o, others).proportional;
+        });
+      } catch {
+        return false;
+      }
+    });
+    if (ok) found.push(n);
+  }
+  return found;
+}
+
 export async function monteCarlo(sheet: Sheet, opts: MonteCarloOptions, control?: JobControl): Promise<MonteCarloResult> {
   const { samples, seed, outputs } = opts;
   if (!Number.isInteger(samples) || samples < 1) throw new SheetJobError(`Monte Carlo: the number of samples must be a positive whole number, got ${samples}`);
@@ -103,8 +141,13 @@ export async function monteCarlo(sheet: Sheet, opts: MonteCarloOptions, control?
   if (dists.size === 0) throw new SheetJobError('Monte Carlo: no cell has an uncertainty; give at least one input an uncertainty formula such as lognormalDist(...)');
   for (const o of outputs) if (dists.has(o)) throw new SheetJobError(`Monte Carlo: ${o} is an uncertain input itself, not an output`);
 
-  const rng = seededRandom(seed);
   const names = [...dists.keys()];
+  const scaled = opts.evaluateEverySample ? [] : sqrtFactorInputs(sheet, names, dists, outputs);
+  const direct = names.filter((n) => !scaled.includes(n));
+  const nominalSI = new Map(scaled.map((n) => [n, siNumber(sheet.value(n))!]));
+  const base = direct.length === 0 ? sheet.evaluateWith({}, outputs) : null;
+  const rng = seededRandom(seed);
+  let evaluations = base ? 1 : 0;
   const keep = opts.keepInputs ?? true;
   const inputDraws: Record<string, Float64Array> = {};
   if (keep) for (const n of names) inputDraws[n] = new Float64Array(samples);
@@ -115,15 +158,22 @@ export async function monteCarlo(sheet: Sheet, opts: MonteCarloOptions, control?
   let last = Date.now();
   const overrides: Record<string, unknown> = {};
   for (let s = 0; s < samples; s++) {
+    let factor = 1;
     for (const n of names) {
       const v = dists.get(n)!.sample(rng);
-      overrides[n] = v;
-      if (keep) inputDraws[n][s] = siNumber(v) ?? NaN;
+      const x = siNumber(v) ?? NaN;
+      if (nominalSI.has(n)) factor *= Math.sqrt(x / nominalSI.get(n)!);
+      else overrides[n] = v;
+      if (keep) inputDraws[n][s] = x;
     }
-    const r = sheet.evaluateWith(overrides, outputs);
+    let r = base;
+    if (!r) {
+      r = sheet.evaluateWith(overrides, outputs);
+      evaluations++;
+    }
     let failed = false;
     for (const o of outputs) {
-      const v = numericOrNaN(r[o]);
+      const v = numericOrNaN(r[o]) * factor;
       res[o][s] = v;
       if (Number.isNaN(v)) {
         failed = true;
@@ -151,6 +201,8 @@ export async function monteCarlo(sheet: Sheet, opts: MonteCarloOptions, control?
     samples,
     seed,
     inputs: names.map((n) => ({ cell: n, distribution: dists.get(n)!.describe() })),
+    scaledInputs: scaled,
+    evaluations,
     inputDraws: keep ? inputDraws : undefined,
     outputs: res,
     units,

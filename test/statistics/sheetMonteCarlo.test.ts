@@ -40,6 +40,24 @@ describe('Monte Carlo through the sheet', () => {
     expect(ratio).toBeGreaterThan(4 / 1.35);
     expect(ratio).toBeLessThan(4 * 1.35);
   });
+  it('applying rate_norm as a sqrt factor gives the same samples as evaluating every sample in full', async () => {
+    const sheet = toySheet({ ...UNCERTAIN, slope: { uncertainty: 'normalDist(0.7, 0.1)' } });
+    const fast = await monteCarlo(sheet, { samples: 400, seed: 17, outputs: ['A_yr', 'bent'] });
+    const full = await monteCarlo(sheet, { samples: 400, seed: 17, outputs: ['A_yr', 'bent'], evaluateEverySample: true });
+    // bent = A_yr + 1e-15 is not proportional to sqrt(rate_norm): nothing may be factored for it.
+    expect(fast.scaledInputs).toEqual([]);
+    const one = await monteCarlo(sheet, { samples: 400, seed: 17, outputs: ['A_yr'] });
+    const oneFull = await monteCarlo(sheet, { samples: 400, seed: 17, outputs: ['A_yr'], evaluateEverySample: true });
+    expect(one.scaledInputs).toEqual(['rate_norm']);
+    expect(oneFull.evaluations).toBe(400);
+    for (let i = 0; i < 400; i++) {
+      expect(one.outputs.A_yr[i] / oneFull.outputs.A_yr[i]).toBeCloseTo(1, 12);
+      expect(fast.outputs.bent[i]).toBe(full.outputs.bent[i]);
+    }
+    // Only rate_norm uncertain: a single evaluation serves every sample.
+    const only = await monteCarlo(toySheet(UNCERTAIN), { samples: 400, seed: 17, outputs: ['A_yr'] });
+    expect(only.evaluations).toBe(1);
+  });
   it('a fixed seed reproduces the run exactly; another seed does not', async () => {
     const sheet = toySheet(UNCERTAIN);
     const a = await monteCarlo(sheet, { samples: 300, seed: 42, outputs: ['A_yr'] });
