@@ -20,7 +20,7 @@ export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unk
     const v = valueOf(c.name);
     return isSheetObject(v) && re.test(v.kind);
   };
-  const comparison = cells.find((c) => kindIs(c, /^comparison$/i)) ?? cells.find((c) => /^(comparison|compare|tension)/i.test(c.name));
+  const comparison = cells.find((c) => kindIs(c, /^comparison$/i)) ?? cells.find((c) => /compar|tension|ratio.*meas|meas.*ratio/i.test(c.name));
   if (comparison) out.push({ role: 'against the measurement', cell: comparison });
   const allowed =
     cells.find((c) => kindIs(c, /allowed|rateSolution|rateRange/i)) ??

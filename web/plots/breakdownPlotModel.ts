@@ -26,6 +26,13 @@ function variableOf(text: string): { label: string; kind: 'redshift' | 'mass' | 
   return { label: 'grid variable', kind: 'other' };
 }
 
+/** Integral of y over x by the trapezoid rule, or null when it is not positive. */
+function trapezoid(x: number[], y: number[]): number | null {
+  let sum = 0;
+  for (let i = 1; i < x.length; i++) sum += 0.5 * (y[i] + y[i - 1]) * (x[i] - x[i - 1]);
+  return Number.isFinite(sum) && sum > 0 ? sum : null;
+}
+
 export function breakdownModels(cells: CellSpec[], valueOf: (name: string) => unknown): PlotModel[] {
   const models: PlotModel[] = [];
   for (const c of cells) {
@@ -43,7 +50,7 @@ export function breakdownModels(cells: CellSpec[], valueOf: (name: string) => un
       if (grid.length !== density.length || grid.length < 2) continue;
       const hint = `${String(p.variable ?? '')} ${key} ${v.kind} ${c.name}`;
       const variable = variableOf(hint);
-      const total = typeof p.total === 'number' && p.total > 0 ? p.total : null;
+      const total = typeof p.total === 'number' && p.total > 0 ? p.total : trapezoid(grid, density);
       const y = density.map((d) => (total ? d / total : d));
       const top = Math.max(...y.filter(Number.isFinite));
       const series: PlotSeries[] = [];

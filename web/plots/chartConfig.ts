@@ -165,8 +165,10 @@ function scaleFor(axis: PlotAxis, range: [number, number] | null, factor: number
     grid: { color: '#e6e3dc' },
     ticks: {
       color: '#3b4652',
-      autoSkip: true,
-      maxTicksLimit: 9,
+      // Log axes: every 1-9 x 10^k tick is generated and the callback blanks all but 1 (2, 5);
+      // skipping would drop the labelled ones.
+      autoSkip: axis.scale !== 'log',
+      maxTicksLimit: axis.scale === 'log' ? undefined : 9,
       callback: (v: number | string) => {
         const n = Number(v);
         if (axis.scale !== 'log') return formatTick(n);
