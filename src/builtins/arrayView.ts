@@ -219,23 +219,46 @@ function signalArg(v: unknown, fn: string, arg: string): SignalSource {
     if (!pop || typeof pop.density !== 'function') return { lowestHz: s.frequencyHz[0], modelFor: () => model };
     return {
       lowestHz: 0,
-      modelFor: (lo) => {
-        const f0 = s.frequencyHz[0];
-        if (lo >= f0) return model;
-        // Extend below the grid with the same population and options, then interpolate as before.
-        const low = logGrid(lo, f0).subarray(0, -1);
-        const extra = guarded(fn, arg, () => backgroundSpectrum(pop, low, origin?.options ?? {}));
-        const frequencyHz = new Float64Array(low.length + s.frequencyHz.length);
-        const hc = new Float64Array(frequencyHz.length);
-        frequencyHz.set(extra.frequencyHz);
-        frequencyHz.set(s.frequencyHz, low.length);
-        hc.set(extra.hc);
-        hc.set(s.hc, low.length);
-        return spectrumModel({ frequencyHz, hc });
-      },
+      modelFor: (lo) => (lo >= s.frequencyHz[0] ? model : guarded(fn, arg, () => extendedModel(v, s, pop, origin?.options ?? {}, lo))),
     };
   }
   throw new BuiltinError(`${where(fn, arg)} must be a spectrum, a population or an amplitude A_yr (a number), got ${kindOf(v)}`, 'domain');
+}
+
+/** Points computed below a spectrum's grid, per spectrum value: f_j = f_0 10^(-j/24), j = 1, 2, ... */
+const extensions = new WeakMap<object, { frequencyHz: number[]; hc: number[] }>();
+
+/**
+ * The spectrum's model extended below its grid down to `lowHz` with its own population. The extra
+ * points sit on a fixed grid anchored at the spectrum's first frequency (24 per decade), so the
+ * result for a given span does not depend on earlier calls; computed points are kept per value,
+ * so a scan over spans computes each point once.
+ */
+function extendedModel(key: object, s: Spectrum, pop: BinaryPopulation, options: BackgroundOptions, lowHz: number): StrainModel {
+  const f0 = s.frequencyHz[0];
+  const need = Math.ceil(POPULATION_GRID_PER_DECADE * Math.log10(f0 / lowHz) - 1e-9);
+  let ext = extensions.get(key);
+  if (!ext) {
+    ext = { frequencyHz: [], hc: [] };
+    extensions.set(key, ext);
+  }
+  if (ext.frequencyHz.length < need) {
+    const missing: number[] = [];
+    for (let j = ext.frequencyHz.length + 1; j <= need; j++) missing.push(f0 * Math.pow(10, -j / POPULATION_GRID_PER_DECADE));
+    const extra = backgroundSpectrum(pop, missing, options);
+    ext.frequencyHz.push(...extra.frequencyHz);
+    ext.hc.push(...extra.hc);
+  }
+  const n = need;
+  const frequencyHz = new Float64Array(n + s.frequencyHz.length);
+  const hc = new Float64Array(frequencyHz.length);
+  for (let j = 0; j < n; j++) {
+    frequencyHz[n - 1 - j] = ext.frequencyHz[j];
+    hc[n - 1 - j] = ext.hc[j];
+  }
+  frequencyHz.set(s.frequencyHz, n);
+  hc.set(s.hc, n);
+  return spectrumModel({ frequencyHz, hc });
 }
 
 /** Log-spaced frequencies from lo to hi inclusive, POPULATION_GRID_PER_DECADE per decade (at least 2). */

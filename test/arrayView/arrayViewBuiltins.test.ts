@@ -228,4 +228,15 @@ describe('population and spectrum-with-origin signals', () => {
     const atT = call('detectionSnr', populationValue, a, u(`${t} yr`)) as number;
     expect(Math.abs(atT - 3)).toBeLessThan(0.05);
   });
+
+  it('the extension below the grid does not depend on earlier calls (fixed anchored points, kept per value)', () => {
+    const a = arr();
+    const grid = Array.from({ length: 20 }, (_, i) => 4e-9 * Math.pow(50, i / 19));
+    const s = backgroundSpectrum(population, grid);
+    const make = () => ({ kind: 'spectrum', describe: () => 's', toJSON: () => ({}), frequencyHz: s.frequencyHz, hc: s.hc, origin: { population, options: {} } });
+    const fresh = call('detectionSnr', make(), a, u('20 yr')) as number;
+    const reused = make();
+    call('detectionSnr', reused, a, u('35 yr')); // extends further down first
+    expect(call('detectionSnr', reused, a, u('20 yr'))).toBe(fresh);
+  });
 });
