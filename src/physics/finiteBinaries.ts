@@ -6,9 +6,9 @@
 //
 // Scheme: composite Gauss-Legendre nodes in z, log10M and q (as src/physics/backgroundIntegral.ts).
 // Each node carries the expected number of binaries in the bin and the strain of one such binary.
-// The mass where fewer than one binary is expected above it is found on the panel edges of the mass
-// rule and placed inside its panel by linear interpolation of the cumulative count (resolution: one
-// mass panel).
+// For the mass where fewer than one binary is expected above it, each mass node's count (summed over
+// z and q) is spread evenly over its cell (as wide as its weight), so the cumulative count from the
+// top is piecewise linear; the cut falls where it reaches 1.
 import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';
 import { chirpMassFromTotal } from './binaryMasses';
 import { iscoGwFrequencyHz } from './circularKernel';
@@ -117,15 +117,21 @@ export function finiteBinaryBins(
   };
   const perLnF = new Float64Array(size); // dN/dln f per node
   const strain = new Float64Array(size);
-  const panelCount = new Float64Array(res.log10MPanels);
-  const panelH2 = new Float64Array(res.log10MPanels);
+  const nodeCount = new Float64Array(nm); // per mass node, summed over z and q
+  const nodeH2 = new Float64Array(nm);
+  // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
+  // its own cell: the separation theorem of Chebyshev, Markov and Stieltjes, Szego 1939, Orthogonal
+  // Polynomials, 3.41; section from memory), so a node's count spread over its cell keeps the density it stands for.
+  const edges = new Float64Array(nm + 1);
+  edges[0] = pop.log10MMin;
+  for (let im = 0; im < nm; im++) edges[im + 1] = edges[im] + mr.weights[im];
   const histogram = new Float64Array(HISTOGRAM_BINS);
   for (let k = 0; k < nf; k++) {
     const f = freqsHz[k];
     if (!(f > 0) || !Number.isFinite(f)) throw new RangeError(`frequency ${k + 1} must be positive and finite, got ${f} Hz`);
     const dlnf = 1 / (f * spanS);
-    panelCount.fill(0);
-    panelH2.fill(0);
+    nodeCount.fill(0);
+    nodeH2.fill(0);
     let count = 0;
     let h2Total = 0;
     for (let iz = 0; iz < nz; iz++) {
@@ -142,7 +148,6 @@ export function finiteBinaryBins(
           }
           continue;
         }
-        const panel = Math.floor(im / res.order);
         for (let iq = 0; iq < nq; iq++) {
           const idx = (iz * nm + im) * nq + iq;
           const m53 = mc53[im * nq + iq];
@@ -152,32 +157,30 @@ export function finiteBinaryBins(
           strain[idx] = dN === 0 ? 0 : h;
           count += dN * dlnf;
           h2Total += dN * h * h;
-          panelCount[panel] += dN * dlnf;
-          panelH2[panel] += dN * h * h;
+          nodeCount[im] += dN * dlnf;
+          nodeH2[im] += dN * h * h;
         }
       }
     }
     out.expectedPerBin[k] = count;
     out.smoothHc[k] = Math.sqrt(h2Total);
 
-    // Cut: walk mass panels from the top until one or more binaries are expected above the edge.
+    // Cut: walk mass cells from the top until one or more binaries are expected above.
     // With fewer than one binary in the whole bin nothing is expected: cut at the bottom, h_c = 0.
     let cut = pop.log10MMin;
     let h2AboveCut = h2Total;
     if (count >= 1) {
       let above = 0;
       let h2Above = 0;
-      const width = (pop.log10MMax - pop.log10MMin) / res.log10MPanels;
-      for (let p = res.log10MPanels - 1; p >= 0; p--) {
-        if (above + panelCount[p] >= 1) {
-          // Linear interpolation of the cumulative count inside panel p.
-          const frac = (1 - above) / panelCount[p];
-          cut = pop.log10MMin + (p + 1 - frac) * width;
-          h2AboveCut = h2Above + frac * panelH2[p];
+      for (let im = nm - 1; im >= 0; im--) {
+        if (above + nodeCount[im] >= 1) {
+          const frac = (1 - above) / nodeCount[im];
+          cut = edges[im + 1] - frac * (edges[im + 1] - edges[im]);
+          h2AboveCut = h2Above + frac * nodeH2[im];
           break;
         }
-        above += panelCount[p];
-        h2Above += panelH2[p];
+        above += nodeCount[im];
+        h2Above += nodeH2[im];
       }
     }
     out.cutLog10M[k] = cut;
