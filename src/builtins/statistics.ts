@@ -109,7 +109,9 @@ function distribution(fn: string, make: () => UncertainDistribution, template: U
 }
 
 function matrixRows(v: unknown, fn: string, arg: string): unknown[][] {
-  const arr = math.isMatrix(v) ? ((v as Matrix).toArray() as unknown[]) : Array.isArray(v) ? v : null;
+  let arr = math.isMatrix(v) ? ((v as Matrix).toArray() as unknown[]) : Array.isArray(v) ? v : null;
+  // A single row [f, value, lower, upper] is a table of one bin.
+  if (arr && arr.length === 4 && arr.every((r) => !Array.isArray(r))) arr = [arr];
   if (!arr || !arr.every((r) => Array.isArray(r))) {
     throw new BuiltinError(`${where(fn, arg)} must be a table with one row per bin, [frequency, value, lower, upper; ...], got ${kindOf(v)}`);
   }
