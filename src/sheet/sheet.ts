@@ -274,7 +274,7 @@ export class Sheet {
     }
     this.planCache.clear();
     this.emitStructure();
-    this.recalculate([oldName, newName, ...[...rewrites.keys()].map((n) => (n === oldName ? newName : n))]);
+    this.recalculate([oldName, newName, ...[...rewrites.keys()].map((n) => (n === oldName ? newName : n))], true, [newName]);
   }
 
   /** Moves a cell to position `index` in the sheet order. */
@@ -392,12 +392,14 @@ export class Sheet {
    * recomputed only when it was edited or one of its inputs changed; unchanged values stop
    * the propagation there.
    */
-  private recalculate(edited: Iterable<string>, notify = true): void {
+  private recalculate(edited: Iterable<string>, notify = true, alwaysChanged: Iterable<string> = []): void {
     const editedSet = new Set(edited);
     const affected = new Set([...this.graph.downstream(editedSet)].filter((n) => this.records.has(n)));
     const plan = this.graph.plan(affected, this.positionMap());
-    // Edited names that are no longer cells (removed, renamed) count as changed.
+    // Edited names that are no longer cells (removed, renamed) count as changed, and so does a
+    // renamed cell under its new name (cells waiting for that name must now read it).
     const changed = new Set([...editedSet].filter((n) => !this.records.has(n)));
+    for (const n of alwaysChanged) changed.add(n);
     const lookup: Lookup = (n) => this.records.get(n)?.state;
     const store = (name: string, state: CellState) => {
       const rec = this.records.get(name)!;
