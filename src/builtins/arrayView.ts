@@ -179,8 +179,8 @@ function spanArg(v: unknown, array: PulsarArray, fn: string, arg: string): numbe
  * The signal, in one of three forms:
  *  - an amplitude A_yr (dimensionless number): h_c = A_yr (f/f_yr)^(-2/3);
  *  - a spectrum value (kind 'spectrum', or anything holding frequencyHz and hc): interpolated on its
- *    grid; below the grid it is extended with the circular background of the population it was
- *    computed from when the value carries one (origin.population), and refused otherwise;
+ *    grid; below the grid it is extended with the background of the population and options it was
+ *    computed from when the value carries them (origin.population, origin.options), refused otherwise;
  *  - a population value (kind 'population'): the circular GW-driven background (Phinney 2001,
  *    astro-ph/0108028) computed on a log grid of 24 points per decade spanning the array's bins.
  * `lowestHz` is the lowest frequency the signal can supply (0: any).

@@ -3,11 +3,12 @@
 //
 // Per frequency bin f_k = k/T and pulsar pair (I, J), with residual PSDs P_I, P_J (noise) and
 // P_g = h_c^2/(12 pi^2 f^3) (signal), the cross-correlation of the two Fourier amplitudes has mean
-// Gamma P_g and variance [(P_I + P_g)(P_J + P_g) + Gamma^2 P_g^2] / 2 per real degree of freedom, so
+// Gamma P_g and variance [(P_I + P_g)(P_J + P_g) + Gamma^2 P_g^2] / 2 (a bin's two real degrees of
+// freedom together, Gaussian amplitudes), so each pair and bin adds mean^2/variance:
 //   rho^2 = sum_k sum_{I<J} 2 Gamma_IJ^2 P_g^2 / [ (P_I + P_g)(P_J + P_g) + Gamma_IJ^2 P_g^2 ],
 // the discrete-bin form (2 T Int df -> 2 sum_k) of the expected S/N of Siemens, Ellis, Jenet &
-// Romano 2013, CQG 30, 224015 (their eq. for <rho>, memory: check the equation number), which, like
-// that paper, treats different pairs as independent. Limits, each checked in test/arrayView:
+// Romano 2013, CQG 30, 224015 (their eq. for <rho>, memory: check the equation number), treating
+// different pairs as independent, as that paper does (memory). Limits, each checked in test/arrayView:
 //  - weak signal (P_g << P_I): rho^2 = 2 sum sum Gamma^2 P_g^2/(P_I P_J), so with white noise and
 //    h_c = A (f/f_yr)^(-2/3) (gamma = 13/3): rho proportional to A^2 T^(13/3) N (for N >> 1) / sigma^2;
 //  - strong signal (P_g >> P_I in all bins): rho^2 = 2 K sum_{I<J} Gamma^2/(1 + Gamma^2), independent
