@@ -84,6 +84,9 @@ export function galaxyMergerPopulation(p: GalaxyMergerParams): BinaryPopulation 
     w.push(1);
   }
   const log10Fb = Math.log10(p.bulgeFraction);
+  let lastZ = NaN;
+  let zPart = 0;
+  let slope = 0;
   return {
     zMin: 0,
     zMax: p.zMax,
@@ -92,12 +95,24 @@ export function galaxyMergerPopulation(p: GalaxyMergerParams): BinaryPopulation 
     qMin: Math.pow(p.galaxyMassRatio.qMin, b),
     qMax: 1,
     density(z, log10M, q) {
+      if (z !== lastZ) {
+        const mf = p.massFunction;
+        zPart = (Math.LN10 * Math.pow(10, mf.log10PhiStar0 + mf.log10PhiStarSlope * z) * p.pairFraction0 * Math.pow(1 + z, p.betaPair) * (p.cosmology.dtdzS(z) / GYR_S)) / (p.mergerTime0Gyr * Math.pow(1 + z, p.betaTau));
+        slope = 1 + mf.alpha0 + mf.alphaSlope * z;
+        lastZ = z;
+      }
       const qg = Math.pow(q, 1 / b);
+      const pq = p.galaxyMassRatio.pdf(qg);
+      if (pq === 0) return 0;
       const jacobian = b * b * Math.pow(qg, b - 1);
       const base = 11 - log10Fb + (log10M - a - Math.log10(1 + q)) / b;
+      // Schechter per dex (as stellarMassFunctionPerDex) at each scatter node, z factors hoisted.
       let s = 0;
-      for (let i = 0; i < eps.length; i++) s += w[i] * galaxyMergerDensity(p, z, base - eps[i] / b, qg);
-      return s / jacobian;
+      for (let i = 0; i < eps.length; i++) {
+        const r = Math.pow(10, base - eps[i] / b) / p.massFunction.mStar;
+        s += w[i] * Math.pow(r, slope) * Math.exp(-r);
+      }
+      return (zPart * pq * s) / jacobian;
     },
   };
 }
