@@ -7,7 +7,7 @@ import { EXIT_BAD_INPUT, EXIT_CELL_ERROR, EXIT_OK } from './exitCodes';
 import { runJob, type JobSpec } from '../statistics/jobs';
 import { JobCancelledError, SheetJobError, inOwnUnit } from '../statistics/sheetValues';
 import type { AxisPrior } from '../statistics/credibleRegion';
-import { csvField, csvNumber, jobControls, parseVaryOption, writeCsv } from './statisticsCli';
+import { csvField, csvNumber, g4, jobControls, parseVaryOption, writeCsv } from './statisticsCli';
 
 const USAGE = `strainsheet scan FILE --vary name=lo:hi:n[:log] [--vary name=lo:hi:n[:log]] --output name [options]
 
@@ -19,7 +19,8 @@ The sheet itself is not changed.
   --output name              output cell (repeatable for a one-input scan; exactly one for two inputs)
   --csv FILE                 write the CSV to FILE instead of standard output (a summary goes to stdout)
   --against CELL             measurement cell: adds the measured band (one input) or the likelihood
-                             map with 68% and 95% highest-posterior-density regions (two inputs)
+                             map with 68.27% and 95.45% (1 and 2 sigma) highest-posterior-density
+                             regions (two inputs)
   --prior name=uniform|log-uniform   prior of a varied cell for the map (default: log-uniform on a
                              log axis, uniform on an even one)
   --set name=formula         replace a cell's formula first (repeatable)
@@ -96,7 +97,7 @@ export const scanCommand: Command = {
       const nx = r.x.values.length;
       if (r.band) lines.push(`# measured at 1/yr: median ${r.band.median}, ${100 * r.band.level}% interval ${r.band.lower} to ${r.band.upper}`);
       if (r.priors) lines.push(`# priors: ${r.priors}`);
-      if (r.thresholds) r.levels!.forEach((l, k) => lines.push(`# ${100 * l}% region: posterior >= ${r.thresholds![k]} (encloses ${r.enclosed![k]})`));
+      if (r.thresholds) r.levels!.forEach((l, k) => lines.push(`# ${g4(100 * l)}% region (column in${Math.round(100 * l)}): posterior >= ${r.thresholds![k]} (encloses ${r.enclosed![k]})`));
       if (r.scaledAxis) lines.push(`# ${r.output} scaled as sqrt(${r.scaledAxis === 'x' ? r.x.cell : r.y.cell}) (checked with two probes); ${r.evaluations} evaluations`);
       const head = [csvField(r.x.cell, r.x.unit), csvField(r.y.cell, r.y.unit), csvField(r.output, r.unit)];
       if (r.likelihood) head.push('likelihood', 'posterior', ...r.levels!.map((l) => `in${Math.round(100 * l)}`));
@@ -111,7 +112,7 @@ export const scanCommand: Command = {
         }
       }
       summary.push(`mapped ${r.output} over ${r.x.cell} x ${r.y.cell} (${nx} x ${r.y.values.length}), ${r.evaluations} evaluations`);
-      if (r.thresholds) summary.push(r.levels!.map((l, k) => `${100 * l}% region: ${r.posterior!.filter((p) => p >= r.thresholds![k]).length} grid points`).join('; '));
+      if (r.thresholds) summary.push(r.levels!.map((l, k) => `${g4(100 * l)}% region: ${r.posterior!.filter((p) => p >= r.thresholds![k]).length} grid points`).join('; '));
     }
     writeCsv(lines.join('\n') + '\n', csvPath, io);
     if (csvPath) io.out(summary.join('\n') + `\nwrote ${csvPath}\n`);

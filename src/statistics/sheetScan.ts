@@ -7,7 +7,7 @@ import { F_YR_HZ } from '../physics/constants';
 import { atReferenceFrequency, measurementInterval, relativeLikelihood, type AmplitudeMeasurement } from './measurement';
 import { axisPriorWeights, hpdThresholds, type AxisPrior } from './credibleRegion';
 import { checkSqrtProportional } from './proportionality';
-import { ONE_SIGMA_LEVEL } from './sampleSummary';
+import { ONE_SIGMA_LEVEL, TWO_SIGMA_LEVEL } from './sampleSummary';
 import {
   SheetJobError,
   checkCancelled,
@@ -201,7 +201,8 @@ export interface Scan2DResult {
   priors?: string;
 }
 
-export const DEFAULT_CREDIBLE_LEVELS = [0.68, 0.95];
+/** 68.27% and 95.45%: the 1- and 2-sigma probabilities of a normal, as for the Monte Carlo intervals. */
+export const DEFAULT_CREDIBLE_LEVELS = [ONE_SIGMA_LEVEL, TWO_SIGMA_LEVEL];
 
 export async function scan2D(
   sheet: Sheet,
