@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { detectionSnr, detectionSpan, pairBinSnrSquared } from '../../src/physics/detectionSnr';
 import { hellingsDowns, hellingsDownsOfX } from '../../src/physics/hellingsDowns';
-import { frequencyBins, type PulsarArray, type PulsarNoise } from '../../src/physics/pulsarArray';
+import { frequencyBins, pulsarNoisePsd, residualPsdFromStrain, type PulsarArray, type PulsarNoise } from '../../src/physics/pulsarArray';
 import { powerLawModel, spectrumModel } from '../../src/physics/strainOnBins';
 import { DAY_S, F_YR_HZ, YEAR_S } from '../../src/physics/constants';
 import { mulberry32, normal, unitSphere } from './seededRandom';
@@ -56,6 +56,64 @@ describe('per-pair, per-bin S/N of the cross-correlation', () => {
       const closed = pairBinSnrSquared(gamma * gamma, pI, pJ, pg);
       // Relative Monte Carlo error of mean^2/var with 4e5 samples is about 1-3 % here; allow 6 %.
       expect(Math.abs(mc / closed - 1), `pI=${pI} pJ=${pJ} pg=${pg} G=${gamma}: MC ${mc} closed ${closed}`).toBeLessThan(0.06);
+    }
+  });
+});
+
+describe('the S/N sums the Monte-Carlo-checked per-pair term in every regime', () => {
+  // Links the per-bin sums of detectionSnr (a separate, callback-free loop) to pairBinSnrSquared above,
+  // for an intermediate signal (neither limit holds) with mixed white and red noise.
+  const noises: PulsarNoise[] = [
+    { precisionS: 1e-7, cadenceS: CADENCE, redAmplitude: 0, redGamma: 0 },
+    { precisionS: 3e-7, cadenceS: CADENCE, redAmplitude: 2e-15, redGamma: 3.5 },
+    { precisionS: 5e-8, cadenceS: CADENCE, redAmplitude: 0, redGamma: 0 },
+    { precisionS: 2e-7, cadenceS: CADENCE, redAmplitude: 5e-15, redGamma: 5 },
+  ];
+  const model = powerLawModel(3e-15);
+
+  it('with positions: each bin equals the sum over pairs of pairBinSnrSquared (to 1e-12)', () => {
+    const pos: Array<[number, number]> = [
+      [0.2, 0.1],
+      [1.9, -0.6],
+      [3.3, 0.9],
+      [5.0, -1.2],
+    ];
+    const arr: PulsarArray = { pulsars: noises, spanS: 8 * YEAR_S, positions: pos };
+    const r = detectionSnr(arr, model);
+    for (const k of [0, 1, 5, 40]) {
+      const f = r.frequencyHz[k];
+      const pg = residualPsdFromStrain(model(f), f);
+      let sum = 0;
+      for (let i = 0; i < 4; i++) {
+        for (let j = i + 1; j < 4; j++) {
+          const c = Math.sin(pos[i][1]) * Math.sin(pos[j][1]) + Math.cos(pos[i][1]) * Math.cos(pos[j][1]) * Math.cos(pos[i][0] - pos[j][0]);
+          const g = hellingsDowns(Math.acos(c));
+          sum += pairBinSnrSquared(g * g, pulsarNoisePsd(noises[i], f), pulsarNoisePsd(noises[j], f), pg);
+        }
+      }
+      expect(Math.abs(r.binSnrSquared[k] / sum - 1), `bin ${k + 1}`).toBeLessThan(1e-12);
+    }
+  });
+
+  it('sky-averaged: each bin equals the pair sum of the term averaged over x uniform on [0, 1] (20000-point midpoint rule, 1e-6)', () => {
+    const arr: PulsarArray = { pulsars: noises, spanS: 8 * YEAR_S, positions: null };
+    const r = detectionSnr(arr, model);
+    for (const k of [0, 2, 30]) {
+      const f = r.frequencyHz[k];
+      const pg = residualPsdFromStrain(model(f), f);
+      let sum = 0;
+      const m = 20_000;
+      for (let i = 0; i < 4; i++) {
+        for (let j = i + 1; j < 4; j++) {
+          let e = 0;
+          for (let q = 0; q < m; q++) {
+            const g = hellingsDownsOfX((q + 0.5) / m);
+            e += pairBinSnrSquared(g * g, pulsarNoisePsd(noises[i], f), pulsarNoisePsd(noises[j], f), pg) / m;
+          }
+          sum += e;
+        }
+      }
+      expect(Math.abs(r.binSnrSquared[k] / sum - 1), `bin ${k + 1}`).toBeLessThan(1e-6);
     }
   });
 });
@@ -140,6 +198,33 @@ describe('strong-signal regime (Siemens et al. 2013, CQG 30, 224015)', () => {
     const K = frequencyBins(arr.spanS, CADENCE).length;
     const r = detectionSnr(arr, powerLawModel(1e-10)).snr;
     expect(Math.abs(r / Math.sqrt(2 * K * s) - 1)).toBeLessThan(1e-4);
+  });
+});
+
+describe('red pulsar noise with the background’s own slope', () => {
+  it('gives rho^2 = K N_pairs <2 G^2 r^2 / ((1+r)^2 + G^2 r^2)> with r = (A/A_red)^2 in every bin (closed form derived here)', () => {
+    // Red noise P_red = A_red^2/(12 pi^2) f_yr^-3 (f/f_yr)^(-13/3) has the same shape as the signal's P_g, so
+    // P_g/P_red = (A/A_red)^2 = r in every bin; with negligible white noise the per-bin term is a constant.
+    const A = 1e-15;
+    const aRed = 4e-15;
+    const r = (A / aRed) ** 2;
+    const n = 12;
+    const arr: PulsarArray = {
+      pulsars: Array.from({ length: n }, () => ({ precisionS: 1e-13, cadenceS: CADENCE, redAmplitude: aRed, redGamma: 13 / 3 })),
+      spanS: 9 * YEAR_S,
+      positions: null,
+    };
+    let e = 0;
+    const m = 200_000;
+    for (let i = 0; i < m; i++) {
+      const g = hellingsDownsOfX((i + 0.5) / m);
+      e += (2 * g * g * r * r) / ((1 + r) ** 2 + g * g * r * r) / m;
+    }
+    const K = frequencyBins(arr.spanS, CADENCE).length;
+    const expected = Math.sqrt(K * ((n * (n - 1)) / 2) * e);
+    const got = detectionSnr(arr, powerLawModel(A)).snr;
+    // White noise of 0.1 ps adds < 1e-6 relative to the red noise in every bin.
+    expect(Math.abs(got / expected - 1), `${got} vs ${expected}`).toBeLessThan(1e-5);
   });
 });
 
