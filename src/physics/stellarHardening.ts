@@ -59,12 +59,26 @@ export function stellarSuppression(frHz: number, ftHz: number): number {
 /** An environment for each binary: one for all, or a function of (total mass kg, q, z). */
 export type EnvironmentOf = StellarEnvironment | ((mKg: number, q: number, z: number) => StellarEnvironment);
 
+/**
+ * f_t for many binaries in one environment: the environment's part of a_t^5 is computed once.
+ * Same formula as stellarTransitionFrequency (a_t from equal rates, f_t = 2 f_orb(a_t)).
+ */
+export function transitionFrequencyFunction(env: StellarEnvironment, e = 0): (mKg: number, q: number) => number {
+  checkEnvironment(env);
+  const k = ((64 / 5) * G_SI * G_SI * eccentricityEnhancement(e) * env.dispersionMS) / (C_SI ** 5 * env.densityKgM3 * env.hardeningRate);
+  const g = G_SI;
+  return (mKg, q) => {
+    const m1 = mKg / (1 + q);
+    const aT = Math.pow(k * m1 * (mKg - m1) * mKg, 0.2);
+    return Math.sqrt((g * mKg) / (aT * aT * aT)) / Math.PI;
+  };
+}
+
 /** Circular binaries hardened by stars then by GW emission: base kernel times the suppression. */
 export function stellarEmissionKernel(base: EmissionKernel, envOf: EnvironmentOf): EmissionKernel {
   if (typeof envOf !== 'function') {
-    checkEnvironment(envOf);
-    const env = envOf;
-    return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * stellarSuppression(fr, stellarTransitionFrequency(m, q, env));
+    const ft = transitionFrequencyFunction(envOf);
+    return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * stellarSuppression(fr, ft(m, q));
   }
   return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * stellarSuppression(fr, stellarTransitionFrequency(m, q, envOf(m, q, z)));
 }
@@ -79,9 +93,17 @@ export function stellarEmissionKernel(base: EmissionKernel, envOf: EnvironmentOf
 export function stellarEccentricKernel(base: EmissionKernel, envOf: EnvironmentOf, e0: number | EccentricityDistribution, opts: Omit<EccentricStart, 'e0' | 'f0OrbitalHz'> = {}): EmissionKernel {
   if (typeof envOf !== 'function') checkEnvironment(envOf);
   const { tables, weights, e0: nodes } = eccentricTables({ ...opts, e0, f0OrbitalHz: 1 });
-  const envAt = typeof envOf === 'function' ? envOf : () => envOf;
+  if (typeof envOf !== 'function') {
+    // f0 = f_t(e0) / 2 per e0 node, from the precomputed environment factor.
+    const ftOf = Array.from(nodes, (e) => transitionFrequencyFunction(envOf, e));
+    return (fr, mc, m, q, z) => {
+      let s = 0;
+      for (let k = 0; k < tables.length; k++) s += weights[k] * tables[k].at(fr / (0.5 * ftOf[k](m, q)));
+      return base(fr, mc, m, q, z) * s;
+    };
+  }
   return (fr, mc, m, q, z) => {
-    const env = envAt(m, q, z);
+    const env = envOf(m, q, z);
     let s = 0;
     for (let k = 0; k < tables.length; k++) {
       const f0 = keplerOrbitalFrequency(stellarTransitionSemiMajorAxis(m, q, env, nodes[k]), m);

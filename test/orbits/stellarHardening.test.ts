@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { characteristicStrainSquared } from '../../src/physics/backgroundIntegral';
 import { circularGwKernel } from '../../src/physics/circularKernel';
 import { M_SUN_KG, PC_M, F_YR_HZ } from '../../src/physics/constants';
-import { gwSemiMajorAxisRate, keplerSemiMajorAxis } from '../../src/physics/petersEvolution';
+import { gwSemiMajorAxisRate, keplerOrbitalFrequency, keplerSemiMajorAxis } from '../../src/physics/petersEvolution';
 import { eccentricityEnhancement } from '../../src/physics/petersMathews';
 import {
   stellarEccentricKernel,
@@ -13,6 +13,7 @@ import {
   stellarSuppression,
   stellarTransitionFrequency,
   stellarTransitionSemiMajorAxis,
+  transitionFrequencyFunction,
   type StellarEnvironment,
 } from '../../src/physics/stellarHardening';
 import { bendEmissionKernel, bentPowerLawStrain, BEND_INDEX } from '../../src/physics/bendSpectrum';
@@ -111,5 +112,18 @@ describe('generic bend (Sampson, Cornish & McWilliams 2015)', () => {
     expect(() => stellarEmissionKernel(circularGwKernel, { ...env, densityKgM3: -1 })).toThrow(/stellar density must be positive/);
     expect(() => stellarEmissionKernel(circularGwKernel, { ...env, dispersionMS: 0 })).toThrow(/velocity dispersion must be positive/);
     expect(() => stellarEmissionKernel(circularGwKernel, { ...env, hardeningRate: 0 })).toThrow(/hardening rate H must be positive/);
+  });
+});
+
+describe('transition frequency for many binaries', () => {
+  it('the precomputed form equals stellarTransitionFrequency (same formula, environment factor hoisted) to 1e-14, and with e0 gives twice the orbital start frequency used by the eccentric kernel', async () => {
+    const { transitionFrequencyFunction } = await import('../../src/physics/stellarHardening');
+    const { keplerOrbitalFrequency } = await import('../../src/physics/petersEvolution');
+    const ft = transitionFrequencyFunction(env);
+    for (const [m, qq] of [[1e8, 1], [2e9, 0.5], [3e10, 0.05]]) {
+      expect(Math.abs(ft(m * M_SUN_KG, qq) / stellarTransitionFrequency(m * M_SUN_KG, qq, env) - 1)).toBeLessThan(1e-14);
+      const f0 = keplerOrbitalFrequency(stellarTransitionSemiMajorAxis(m * M_SUN_KG, qq, env, 0.4), m * M_SUN_KG);
+      expect(Math.abs(transitionFrequencyFunction(env, 0.4)(m * M_SUN_KG, qq) / (2 * f0) - 1)).toBeLessThan(1e-14);
+    }
   });
 });
