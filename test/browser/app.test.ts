@@ -334,13 +334,21 @@ describe.runIf(runSuite)('Strainsheet in the browser', () => {
     const ink = await canvasInk(page, '[data-panel="scan"] [data-plot="scan1"] canvas');
     expect(ink.inked / ink.total).toBeGreaterThan(0.01);
     await page.screenshot({ path: join(ARTIFACTS, '05-scan.png') });
-    // A long scan, cancelled.
+    // A long scan, cancelled: an input A_yr is not simply proportional to the square root of, so
+    // every point is evaluated (about a quarter second each here).
     const ayrBefore = await cellValueText(page, 'A_yr');
+    const headless = headlessDemo();
+    const upstream = headless
+      .cells()
+      .find((c) => c.name !== 'rate_norm' && typeof headless.value(c.name) === 'number' && (headless.value(c.name) as number) > 0 && headless.dependents(c.name).length > 0)!;
+    await page.selectOption('[data-panel="scan"] select[aria-label="input cell"]', upstream.name);
     await page.fill('[data-panel="scan"] .axis-fields input[type="number"] >> nth=2', '400');
     await page.click('[data-action="run-job"]');
+    await page.waitForSelector('[data-panel="scan"] progress');
     await page.click('[data-action="cancel-job"]');
     await page.waitForSelector('[data-job-cancelled]', { timeout: 5_000 });
     expect(await cellValueText(page, 'A_yr')).toBe(ayrBefore);
+    expect(await page.inputValue(`input[data-formula="${upstream.name}"]`)).toBe(upstream.formula);
     await page.click('[data-tab="plots"]');
   });
 });

@@ -12,7 +12,7 @@ import { spectrumPlotModel } from '../../web/plots/spectrumPlotModel';
 import { measuredFromJson, frequencyList } from '../../web/plots/sheetPlotData';
 import { groupBySection, freshName, STANDARD_SECTIONS } from '../../web/sheet/sections';
 import { scan2Model } from '../../web/jobs/scanPlotModels';
-import { axisValues, runJob, JobCancelled } from '../../web/jobs/jobRunner';
+import { axisSpecFor, runJob, JobCancelled } from '../../web/jobs/jobRunner';
 import { openSheetFile } from '../../web/files/openSheetFile';
 import { hpdThresholds } from '../../src/statistics/credibleRegion';
 import { math } from '../../src/sheet/mathInstance';
@@ -212,23 +212,25 @@ const SCAN_SHEET = JSON.stringify({
 });
 
 describe('the job runner (runs inside the worker; DOM-free)', () => {
-  it('spaces log axes by a constant ratio and keeps both ends', () => {
-    const v = axisValues({ cell: 'x', lo: 1e-4, hi: 1e-2, n: 5, log: true, unit: '' });
-    expect(v[0]).toBe(1e-4);
-    expect(v[4] / 1e-2).toBeCloseTo(1, 12);
-    for (let k = 1; k < 5; k++) expect(v[k] / v[k - 1]).toBeCloseTo(Math.sqrt(10), 12);
+  it('passes scan ends with their unit as formula text (numbers alone for plain cells)', () => {
+    expect(axisSpecFor({ cell: 'x', lo: 1e-4, hi: 1e-2, n: 5, log: true, unit: 'Mpc^-3 Gyr^-1' })).toEqual({ cell: 'x', lo: '0.0001 Mpc^-3 Gyr^-1', hi: '0.01 Mpc^-3 Gyr^-1', n: 5, log: true });
+    expect(axisSpecFor({ cell: 'x', lo: 1, hi: 2, n: 3, log: false, unit: '' })).toEqual({ cell: 'x', lo: 1, hi: 2, n: 3, log: false });
   });
   it('scans an input through the sheet: A_yr = A0 sqrt(rate/rate0) for this sheet (closed form of its formula)', async () => {
     const progress: number[] = [];
     const r = await runJob(SCAN_SHEET, { kind: 'scan1', axis: { cell: 'rate_norm', lo: 1e-4, hi: 1e-2, n: 9, log: true, unit: 'Mpc^-3 Gyr^-1' }, output: 'A_yr', measurement: null }, { signal: new AbortController().signal, progress: (d) => progress.push(d) });
     if (r.kind !== 'scan1') throw new Error('wrong kind');
+    expect(r.x.length).toBe(9);
+    for (let k = 1; k < 9; k++) expect(r.x[k] / r.x[k - 1]).toBeCloseTo(Math.sqrt(Math.sqrt(10)), 10); // 1e-4..1e-2 in 8 equal log steps
     r.x.forEach((x, i) => expect(r.y[i] / (2e-15 * Math.sqrt(x / 1e-3))).toBeCloseTo(1, 10));
     expect(progress.at(-1)).toBe(9);
   });
-  it('stops when cancelled', async () => {
+  it('stops when cancelled (an output that needs every point evaluated)', async () => {
     const c = new AbortController();
     c.abort();
-    await expect(runJob(SCAN_SHEET, { kind: 'scan1', axis: { cell: 'rate_norm', lo: 1e-4, hi: 1e-2, n: 9, log: true, unit: 'Mpc^-3 Gyr^-1' }, output: 'A_yr', measurement: null }, { signal: c.signal, progress: () => {} })).rejects.toBeInstanceOf(JobCancelled);
+    const sheet = SCAN_SHEET.replace('sqrt(rate_norm / (1e-3 Mpc^-3 Gyr^-1))', '(rate_norm / (1e-3 Mpc^-3 Gyr^-1))^0.7');
+    expect(sheet).not.toBe(SCAN_SHEET);
+    await expect(runJob(sheet, { kind: 'scan1', axis: { cell: 'rate_norm', lo: 1e-4, hi: 1e-2, n: 9, log: true, unit: 'Mpc^-3 Gyr^-1' }, output: 'A_yr', measurement: null }, { signal: c.signal, progress: () => {} })).rejects.toBeInstanceOf(JobCancelled);
   });
   it('names a missing cell', async () => {
     await expect(runJob(SCAN_SHEET, { kind: 'scan1', axis: { cell: 'nope', lo: 1, hi: 2, n: 3, log: false, unit: '' }, output: 'A_yr', measurement: null }, { signal: new AbortController().signal, progress: () => {} })).rejects.toThrow(/nope/);

@@ -8,7 +8,6 @@ import { JobClient } from './jobClient';
 import type { JobSpec, SampleResult, ScanAxisSpec } from './jobProtocol';
 import { PlotView } from '../plots/PlotView';
 import { scan1Model, scan2Model, sampleModel } from './scanPlotModels';
-import { measuredFromJson } from '../plots/sheetPlotData';
 
 type Mode = 'scan1' | 'scan2' | 'sample';
 
@@ -74,7 +73,8 @@ export function ScanPanel() {
     const s = spec ? scalarInUnit(session.value(spec.name), spec.unit) : null;
     if (!spec || !s) return { cell: cell ?? '', lo: 0, hi: 1, n: 41, log: false, unit: '' };
     const positive = s.value > 0;
-    return { cell: spec.name, lo: positive ? s.value / 10 : s.value - 1, hi: positive ? s.value * 10 : s.value + 1, n: 41, log: positive, unit: s.unit };
+    const round = (x: number) => Number(x.toPrecision(3));
+    return { cell: spec.name, lo: round(positive ? s.value / 10 : s.value - 1), hi: round(positive ? s.value * 10 : s.value + 1), n: 41, log: positive, unit: s.unit };
   };
   const firstCell = (prefer: string) => scalarCells().find((c) => c.name === prefer)?.name ?? scalarCells()[0]?.name;
   const [axisX, setAxisX] = createSignal<ScanAxisSpec>(defaultAxis(firstCell('rate_norm')));
@@ -83,12 +83,6 @@ export function ScanPanel() {
   const [measurement, setMeasurement] = createSignal<string>(measurementCells()[0]?.name ?? '');
   const [samples, setSamples] = createSignal(1000);
   const [seed, setSeed] = createSignal(1);
-
-  const measured = () => {
-    const name = measurement();
-    const v = name ? session.value(name) : undefined;
-    return isSheetObject(v) ? measuredFromJson(name, v.toJSON()) : null;
-  };
 
   const run = () => {
     setFormError(null);
@@ -137,9 +131,9 @@ export function ScanPanel() {
     const s = status();
     if (s.state !== 'done') return null;
     const r = s.result;
-    if (r.kind === 'scan1') return scan1Model(r, measured());
+    if (r.kind === 'scan1') return scan1Model(r, measurement() || null);
     if (r.kind === 'scan2') return scan2Model(r);
-    return sampleModel(r, measured());
+    return sampleModel(r, measurement() || null);
   });
 
   return (

@@ -17,13 +17,26 @@ export type JobSpec =
   | { kind: 'scan2'; x: ScanAxisSpec; y: ScanAxisSpec; output: string; measurement: string }
   | { kind: 'sample'; samples: number; seed: number; output: string; measurement: string | null };
 
+/** The measured amplitude's band at f_yr as the statistics code reports it. */
+export interface BandData {
+  median: number;
+  lower: number;
+  upper: number;
+  level: number;
+}
+
 export interface Scan1Result {
   kind: 'scan1';
   input: ScanAxisSpec;
   output: string;
+  /** Unit of the output values (SI text, '' for a plain number). */
+  outputUnit: string;
   /** Input values in the axis unit; output values in SI (plain numbers). */
   x: number[];
   y: number[];
+  band?: BandData;
+  /** Outputs obtained by the sqrt law instead of evaluating every point (checked with probes). */
+  scaled: boolean;
   /** Message per point that failed (index -> message), at most a few. */
   failures: { index: number; message: string }[];
 }
@@ -46,6 +59,8 @@ export interface Scan2Result {
 export interface SampleResult {
   kind: 'sample';
   output: string;
+  outputUnit: string;
+  band?: BandData;
   samples: number;
   seed: number;
   /** Sorted output values (SI), possibly thinned for transfer. */

@@ -1,21 +1,108 @@
-// Runs one job on a private copy of the sheet (DOM-free: used inside the job worker). Scans go
-// through Sheet.evaluateWith, which leaves the copy's own state untouched; credible regions and
-// likelihoods come from src/statistics.
+// Runs one job on a private copy of the sheet (DOM-free: used inside the job worker). The work is
+// done by the statistics code (src/statistics/jobs.ts: scans with the sqrt-law shortcut, HPD
+// credible regions, seeded Monte Carlo); this file turns the page's job into its JobSpec and its
+// result into plain arrays for the plots.
 import { Sheet } from '../../src/sheet/sheet';
-import { math } from '../../src/sheet/mathInstance';
-import { isSheetObject } from '../../src/sheet/sheetObject';
-import type { CellState } from '../../src/sheet/types';
-import { axisPriorWeights, hpdThresholds } from '../../src/statistics/credibleRegion';
-import { atReferenceFrequency, measurementFromInterval, relativeLikelihood, type AmplitudeMeasurement } from '../../src/statistics/measurement';
-import { ONE_SIGMA_LEVEL, TWO_SIGMA_LEVEL } from '../../src/statistics/sampleSummary';
-import { F_YR_HZ } from '../../src/physics/constants';
-import { measuredFromJson } from '../plots/sheetPlotData';
-import type { JobResult, JobSpec, Scan1Result, Scan2Result, ScanAxisSpec } from './jobProtocol';
-import { runSampleJob } from './sampleJob';
+import { runJob as runStatisticsJob, type AxisSpec, type JobResult as StatisticsResult } from '../../src/statistics/jobs';
+import { JobCancelledError } from '../../src/statistics/sheetValues';
+import { formatNumber } from '../../src/sheet/formatValue';
+import type { JobResult, JobSpec, Scan1Result, Scan2Result, SampleResult, ScanAxisSpec } from './jobProtocol';
 
 export interface JobControl {
   signal: AbortSignal;
   progress: (done: number, total: number) => void;
+}
+
+/** The page's axis as the statistics code takes it: numbers with their unit as formula text. */
+export function axisSpecFor(a: ScanAxisSpec): AxisSpec {
+  const bound = (v: number) => (a.unit ? `${v} ${a.unit}` : v);
+  return { cell: a.cell, lo: bound(a.lo), hi: bound(a.hi), n: a.n, log: a.log };
+}
+
+const MAX_SORTED_SENT = 4000;
+
+function failuresOf(count: number, first: string | undefined): { index: number; message: string }[] {
+  return count > 0 ? [{ index: 0, message: `${count} point${count === 1 ? '' : 's'} failed; the first: ${first ?? 'no message'}` }] : [];
+}
+
+function toScan1(job: Extract<JobSpec, { kind: 'scan1' }>, r: Extract<StatisticsResult, { kind: 'scan1d' }>['result']): Scan1Result {
+  return {
+    kind: 'scan1',
+    input: { ...job.axis, unit: r.axis.unit },
+    output: job.output,
+    outputUnit: r.units[job.output] ?? '',
+    x: Array.from(r.axis.values),
+    y: Array.from(r.outputs[job.output]),
+    band: r.band,
+    scaled: r.scaled.includes(job.output),
+    failures: failuresOf(r.failures, r.firstError),
+  };
+}
+
+function toScan2(job: Extract<JobSpec, { kind: 'scan2' }>, r: Extract<StatisticsResult, { kind: 'scan2d' }>['result']): Scan2Result {
+  if (!r.posterior || !r.levels || !r.thresholds) throw new Error('the map needs a measurement to give a posterior');
+  return {
+    kind: 'scan2',
+    x: { ...job.x, unit: r.x.unit },
+    y: { ...job.y, unit: r.y.unit },
+    output: job.output,
+    xValues: Array.from(r.x.values),
+    yValues: Array.from(r.y.values),
+    mass: Array.from(r.posterior),
+    levels: r.levels.map((level, k) => ({ level, threshold: r.thresholds![k] })),
+    prior: r.priors ?? `${r.x.prior} in ${r.x.cell}, ${r.y.prior} in ${r.y.cell}`,
+    failures: failuresOf(r.failures, r.firstError),
+  };
+}
+
+function toSample(job: Extract<JobSpec, { kind: 'sample' }>, r: Extract<StatisticsResult, { kind: 'sample' }>['result']): SampleResult {
+  const values = Float64Array.from(r.outputs[job.output].filter(Number.isFinite)).sort();
+  const step = Math.max(1, Math.ceil(values.length / MAX_SORTED_SENT));
+  const sorted: number[] = [];
+  for (let i = 0; i < values.length; i += step) sorted.push(values[i]);
+  const unit = r.units[job.output] ?? '';
+  const u = unit ? ` ${unit}` : '';
+  const s = r.summaries[job.output];
+  const summary: { label: string; value: string }[] = [
+    { label: 'inputs drawn', value: r.inputs.map((i) => `${i.cell}: ${i.distribution}`).join('; ') || 'none (no cell has an uncertainty)' },
+    { label: 'samples', value: `${r.samples} (seed ${r.seed}), ${r.evaluations} evaluations${r.failures ? `, ${r.failures} failed` : ''}` },
+  ];
+  if (s) {
+    summary.push({ label: 'median', value: `${formatNumber(s.median)}${u} ± ${formatNumber(s.medianError)} (Monte Carlo error)` });
+    for (const iv of s.intervals) {
+      summary.push({ label: `${(100 * iv.level).toFixed(2)}% interval`, value: `${formatNumber(iv.lower)} to ${formatNumber(iv.upper)}${u} (ends ± ${formatNumber(iv.lowerError)}, ± ${formatNumber(iv.upperError)})` });
+    }
+  }
+  if (r.overlap) {
+    summary.push({
+      label: 'inside the measured interval',
+      value: `${(100 * r.overlap.fractionInside).toFixed(1)}% ± ${(100 * r.overlap.fractionInsideError).toFixed(1)}% of samples (${(100 * r.overlap.band.level).toFixed(0)}% interval)`,
+    });
+  }
+  return { kind: 'sample', output: job.output, outputUnit: unit, band: r.overlap?.band, samples: r.samples, seed: r.seed, sorted, summary };
+}
+
+export async function runJob(sheetText: string, job: JobSpec, ctl: JobControl): Promise<JobResult> {
+  const sheet = Sheet.fromFile(sheetText);
+  const control = { signal: ctl.signal, onProgress: ctl.progress };
+  try {
+    if (job.kind === 'scan1') {
+      const r = await runStatisticsJob(sheet, { kind: 'scan', vary: [axisSpecFor(job.axis)], outputs: [job.output], measurementCell: job.measurement ?? undefined }, control);
+      if (r.kind !== 'scan1d') throw new Error(`unexpected result ${r.kind}`);
+      return toScan1(job, r.result);
+    }
+    if (job.kind === 'scan2') {
+      const r = await runStatisticsJob(sheet, { kind: 'scan', vary: [axisSpecFor(job.x), axisSpecFor(job.y)], outputs: [job.output], measurementCell: job.measurement }, control);
+      if (r.kind !== 'scan2d') throw new Error(`unexpected result ${r.kind}`);
+      return toScan2(job, r.result);
+    }
+    const r = await runStatisticsJob(sheet, { kind: 'sample', samples: job.samples, seed: job.seed, outputs: [job.output], measurementCell: job.measurement ?? undefined }, control);
+    if (r.kind !== 'sample') throw new Error(`unexpected result ${r.kind}`);
+    return toSample(job, r.result);
+  } catch (err) {
+    if (err instanceof JobCancelledError) throw new JobCancelled();
+    throw err;
+  }
 }
 
 export class JobCancelled extends Error {
@@ -23,127 +110,4 @@ export class JobCancelled extends Error {
     super('the job was cancelled');
     this.name = 'JobCancelled';
   }
-}
-
-/** Evenly spaced values from lo to hi (in log when asked). */
-export function axisValues(a: ScanAxisSpec): number[] {
-  const out: number[] = [];
-  for (let k = 0; k < a.n; k++) {
-    const t = a.n === 1 ? 0 : k / (a.n - 1);
-    out.push(a.log ? a.lo * Math.pow(a.hi / a.lo, t) : a.lo + (a.hi - a.lo) * t);
-  }
-  return out;
-}
-
-/** The value a scanned cell takes: a plain number or a quantity in the axis unit. */
-export function overrideValue(a: ScanAxisSpec, v: number): unknown {
-  return a.unit ? math.unit(v, a.unit) : v;
-}
-
-/** A cell state as a plain SI number, or a message saying why there is none. */
-export function stateToNumber(name: string, s: CellState | undefined): number | string {
-  if (!s) return `${name} was not computed`;
-  if (s.status === 'error') return s.error.message;
-  if (s.status === 'pending') return `${name} is still pending`;
-  const v = s.value;
-  if (typeof v === 'number') return v;
-  if (math.isUnit(v)) {
-    const si = (v as unknown as { value: number | null }).value;
-    return si ?? `${name} is a unit without a value`;
-  }
-  return `${name} is not a single number`;
-}
-
-/** Lets the worker read messages (cancel) now and then; resolves after pending events. */
-function breathe(): Promise<void> {
-  return new Promise((r) => setTimeout(r, 0));
-}
-
-function measurementOf(sheet: Sheet, name: string): AmplitudeMeasurement {
-  const v = sheet.value(name);
-  if (!isSheetObject(v) || v.kind !== 'measurement') throw new Error(`${name} is not a measurement cell`);
-  const m = measuredFromJson(name, v.toJSON());
-  if (!m) throw new Error(`${name}: the measurement has no amplitude interval`);
-  const parsed = measurementFromInterval(m.median, m.lower, m.upper, m.level, m.gamma, m.fRefHz);
-  // Outputs like A_yr are amplitudes at f_yr: compare at that frequency.
-  return Math.abs(parsed.fRefHz - F_YR_HZ) / F_YR_HZ > 1e-9 ? atReferenceFrequency(parsed, F_YR_HZ) : parsed;
-}
-
-async function scanOne(sheet: Sheet, job: Extract<JobSpec, { kind: 'scan1' }>, ctl: JobControl): Promise<Scan1Result> {
-  const xs = axisValues(job.axis);
-  const y: number[] = [];
-  const failures: Scan1Result['failures'] = [];
-  let last = performance.now();
-  for (let i = 0; i < xs.length; i++) {
-    if (ctl.signal.aborted) throw new JobCancelled();
-    const r = sheet.evaluateWith({ [job.axis.cell]: overrideValue(job.axis, xs[i]) }, [job.output]);
-    const v = stateToNumber(job.output, r[job.output]);
-    if (typeof v === 'number') y.push(v);
-    else {
-      y.push(NaN);
-      if (failures.length < 5) failures.push({ index: i, message: v });
-    }
-    if (performance.now() - last > 30) {
-      ctl.progress(i + 1, xs.length);
-      await breathe();
-      last = performance.now();
-    }
-  }
-  ctl.progress(xs.length, xs.length);
-  return { kind: 'scan1', input: job.axis, output: job.output, x: xs, y, failures };
-}
-
-async function scanTwo(sheet: Sheet, job: Extract<JobSpec, { kind: 'scan2' }>, ctl: JobControl): Promise<Scan2Result> {
-  const m = measurementOf(sheet, job.measurement);
-  const xs = axisValues(job.x);
-  const ys = axisValues(job.y);
-  const nx = xs.length;
-  const total = nx * ys.length;
-  // Priors: log-uniform on log-spaced axes, uniform on linear ones (so every grid cell has equal prior mass).
-  const wx = axisPriorWeights({ values: Float64Array.from(xs), log: job.x.log, prior: job.x.log ? 'log-uniform' : 'uniform' });
-  const wy = axisPriorWeights({ values: Float64Array.from(ys), log: job.y.log, prior: job.y.log ? 'log-uniform' : 'uniform' });
-  const mass = new Float64Array(total);
-  const failures: Scan2Result['failures'] = [];
-  let last = performance.now();
-  for (let j = 0; j < ys.length; j++) {
-    for (let i = 0; i < nx; i++) {
-      if (ctl.signal.aborted) throw new JobCancelled();
-      const r = sheet.evaluateWith({ [job.x.cell]: overrideValue(job.x, xs[i]), [job.y.cell]: overrideValue(job.y, ys[j]) }, [job.output]);
-      const v = stateToNumber(job.output, r[job.output]);
-      if (typeof v === 'number' && v > 0) mass[i + nx * j] = relativeLikelihood(m, v) * wx[i] * wy[j];
-      else if (failures.length < 5) failures.push({ index: i + nx * j, message: typeof v === 'number' ? `${job.output} = ${v} is not a positive amplitude` : v });
-      if (performance.now() - last > 30) {
-        ctl.progress(i + 1 + nx * j, total);
-        await breathe();
-        last = performance.now();
-      }
-    }
-  }
-  ctl.progress(total, total);
-  const levels = [ONE_SIGMA_LEVEL, TWO_SIGMA_LEVEL];
-  const hpd = hpdThresholds(mass, levels);
-  const prior = `${job.x.log ? 'log-uniform' : 'uniform'} in ${job.x.cell}, ${job.y.log ? 'log-uniform' : 'uniform'} in ${job.y.cell}, over the grid`;
-  return {
-    kind: 'scan2',
-    x: job.x,
-    y: job.y,
-    output: job.output,
-    xValues: xs,
-    yValues: ys,
-    mass: Array.from(hpd.posterior),
-    levels: levels.map((level, k) => ({ level, threshold: hpd.thresholds[k] })),
-    prior,
-    failures,
-  };
-}
-
-export async function runJob(sheetText: string, job: JobSpec, ctl: JobControl): Promise<JobResult> {
-  const sheet = Sheet.fromFile(sheetText);
-  for (const name of job.kind === 'scan2' ? [job.x.cell, job.y.cell] : job.kind === 'scan1' ? [job.axis.cell] : []) {
-    if (!sheet.has(name)) throw new Error(`there is no cell named ${name} to scan`);
-  }
-  if (!sheet.has(job.output)) throw new Error(`there is no output cell named ${job.output}`);
-  if (job.kind === 'scan1') return scanOne(sheet, job, ctl);
-  if (job.kind === 'scan2') return scanTwo(sheet, job, ctl);
-  return runSampleJob(sheet, job, ctl);
 }

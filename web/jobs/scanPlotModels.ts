@@ -3,14 +3,13 @@
 import { contours } from 'd3-contour';
 import type { PlotModel, PlotSeries } from '../plots/plotModel';
 import { curveColor, MEASURED_COLOR, INK } from '../plots/palette';
-import type { MeasuredAmplitude } from '../plots/spectrumPlotModel';
-import type { Scan1Result, Scan2Result, SampleResult, ScanAxisSpec } from './jobProtocol';
+import type { BandData, Scan1Result, Scan2Result, SampleResult, ScanAxisSpec } from './jobProtocol';
 
 function axisLabel(a: ScanAxisSpec): string {
   return a.unit ? `${a.cell} (${a.unit})` : a.cell;
 }
 
-function measuredBand(m: MeasuredAmplitude, xs: number[]): PlotSeries[] {
+function measuredBand(m: BandData & { label: string }, xs: number[]): PlotSeries[] {
   const lo = Math.min(...xs);
   const hi = Math.max(...xs);
   const pct = `${Math.round(m.level * 1000) / 10}%`;
@@ -20,17 +19,24 @@ function measuredBand(m: MeasuredAmplitude, xs: number[]): PlotSeries[] {
   ];
 }
 
-export function scan1Model(r: Scan1Result, measured: MeasuredAmplitude | null): PlotModel {
+function quantityLabel(name: string, unit: string): string {
+  return unit ? `${name} (${unit})` : `${name} (dimensionless)`;
+}
+
+export function scan1Model(r: Scan1Result, measurementLabel: string | null): PlotModel {
   const positive = r.y.every((v) => !Number.isFinite(v) || v > 0);
   const series: PlotSeries[] = [{ id: 'scan', label: `${r.output} against ${r.input.cell}`, kind: 'line', x: r.x, y: r.y, color: curveColor(0), width: 2.2 }];
-  if (measured) series.unshift(...measuredBand(measured, r.x));
+  if (r.band) series.unshift(...measuredBand({ ...r.band, label: measurementLabel ?? 'measured' }, r.x));
   return {
     id: 'scan1',
     title: `${r.output} as ${r.input.cell} varies`,
     x: { label: axisLabel(r.input), scale: r.input.log ? 'log' : 'linear' },
-    y: { label: `${r.output} (SI)`, scale: positive ? 'log' : 'linear' },
+    y: { label: quantityLabel(r.output, r.outputUnit), scale: positive ? 'log' : 'linear' },
     series,
-    notes: r.failures.map((f) => `point ${f.index + 1}: ${f.message}`),
+    notes: [
+      ...(r.scaled ? [`${r.output} was obtained from the square-root law in ${r.input.cell} (checked with probes; Phinney 2001), not by evaluating every point.`] : []),
+      ...r.failures.map((f) => f.message),
+    ],
   };
 }
 
@@ -81,18 +87,19 @@ export function scan2Model(r: Scan2Result): PlotModel {
     y: { label: axisLabel(r.y), scale: r.y.log ? 'log' : 'linear' },
     series,
     heatmap: { x: r.xValues, y: r.yValues, z: r.mass, label: 'posterior mass per grid cell' },
-    notes: [`Prior: ${r.prior}. Contours enclose the highest-posterior-density cells.`, ...r.failures.slice(0, 3).map((f) => `grid point ${f.index + 1}: ${f.message}`)],
+    notes: [`Prior: ${r.prior}. Contours enclose the highest-posterior-density cells.`, ...r.failures.map((f) => f.message)],
   };
 }
 
-export function sampleModel(r: SampleResult, measured: MeasuredAmplitude | null): PlotModel {
+export function sampleModel(r: SampleResult, measurementLabel: string | null): PlotModel {
   const n = r.sorted.length;
   const positive = r.sorted.every((v) => v > 0);
   const series: PlotSeries[] = [];
+  const measured = r.band;
   if (measured) {
     series.push({
       id: 'measured',
-      label: `${measured.label}: ${Math.round(measured.level * 1000) / 10}% interval`,
+      label: `${measurementLabel ?? 'measured'}: ${Math.round(measured.level * 1000) / 10}% interval`,
       kind: 'band',
       x: [measured.lower, measured.upper],
       y: [0.5, 0.5],
@@ -105,7 +112,7 @@ export function sampleModel(r: SampleResult, measured: MeasuredAmplitude | null)
   return {
     id: 'sample',
     title: `Distribution of ${r.output} (${r.samples} samples, seed ${r.seed})`,
-    x: { label: `${r.output} (SI)`, scale: positive ? 'log' : 'linear' },
+    x: { label: quantityLabel(r.output, r.outputUnit), scale: positive ? 'log' : 'linear' },
     y: { label: 'cumulative fraction of samples', scale: 'linear', min: 0, max: 1 },
     series,
     notes: [],

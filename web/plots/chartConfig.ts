@@ -169,6 +169,7 @@ function scaleFor(axis: PlotAxis, range: [number, number] | null, factor: number
       // skipping would drop the labelled ones.
       autoSkip: axis.scale !== 'log',
       maxTicksLimit: axis.scale === 'log' ? undefined : 9,
+      maxRotation: 0,
       callback: (v: number | string) => {
         const n = Number(v);
         if (axis.scale !== 'log') return formatTick(n);
