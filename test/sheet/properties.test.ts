@@ -1,0 +1,125 @@
+// Property tests (fast-check): the engine's answers do not depend on cell order or on the path
+// of edits, files round-trip, and random formulas never escape as exceptions. The oracle for
+// incremental recalculation is a sheet rebuilt from scratch from the same cells.
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { Sheet } from '../../src/sheet/sheet';
+import type { CellSpec, CellState } from '../../src/sheet/types';
+import { valueToJSON } from '../../src/sheet/formatValue';
+
+const NAMES = ['cell1', 'cell2', 'cell3', 'cell4', 'cell5', 'cell6', 'cell7', 'cell8'];
+
+function snapshot(sheet: Sheet): Record<string, unknown> {
+  const out: Record<string, unknown> = {};
+  for (const c of sheet.cells()) {
+    const st: CellState = sheet.state(c.name);
+    out[c.name] = st.status === 'value' ? { value: valueToJSON(st.value) } : st.status === 'error' ? { error: st.error.kind } : 'pending';
+  }
+  return out;
+}
+
+/** A formula over some names: constants, sums and products, sometimes a unit or a bad part. */
+const formulaArb = fc
+  .tuple(
+    fc.integer({ min: -5, max: 9 }),
+    fc.array(fc.tuple(fc.constantFrom(...NAMES.slice(0, 4), 'nowhere'), fc.constantFrom('+', '*', '-')), { maxLength: 3 }),
+    fc.constantFrom('', '', '', ' + 0 m', ' / 0', ' +'),
+  )
+  .map(([k, terms, tail]) => `${k}${terms.map(([n, op]) => ` ${op} ${n}`).join('')}${tail}`);
+
+describe('properties', () => {
+  it('shuffling the cells gives the same results', () => {
+    // An acyclic sheet: each cell reads only cells before it in NAMES.
+    const dagArb = fc.tuple(...NAMES.map((_, i) =>
+      fc.tuple(fc.integer({ min: 0, max: 9 }), fc.subarray(NAMES.slice(0, i), { maxLength: Math.min(3, i) })),
+    ));
+    fc.assert(
+      fc.property(dagArb, fc.infiniteStream(fc.nat()), (spec, randoms) => {
+        const cells: CellSpec[] = spec.map(([k, reads], i) => ({ name: NAMES[i], formula: [String(k), ...reads].join(' + ') }));
+        const shuffled = [...cells];
+        for (let i = shuffled.length - 1; i > 0; i--) {
+          const j = randoms.next().value % (i + 1);
+          [shuffled[i], shuffled[j]] = [shuffled[j], shuffled[i]];
+        }
+        const a = snapshot(new Sheet({ cells }));
+        const b = snapshot(new Sheet({ cells: shuffled }));
+        for (const n of NAMES) expect(b[n]).toEqual(a[n]);
+      }),
+      { numRuns: 60 },
+    );
+  });
+
+  it('incremental recalculation after random edits equals a full rebuild', () => {
+    // Few names, so that edits often meet: cells waiting for a name, renames onto it, cycles.
+    const few = NAMES.slice(0, 4);
+    const editArb = fc.oneof(
+      fc.record({ op: fc.constant('set' as const), name: fc.constantFrom(...few), formula: formulaArb }),
+      fc.record({ op: fc.constant('remove' as const), name: fc.constantFrom(...few) }),
+      fc.record({ op: fc.constant('rename' as const), name: fc.constantFrom(...few), to: fc.constantFrom(...few) }),
+    );
+    fc.assert(
+      fc.property(fc.array(editArb, { minLength: 1, maxLength: 25 }), (edits) => {
+        const s = new Sheet();
+        for (const e of edits) {
+          if (e.op === 'set') s.setCell({ name: e.name, formula: e.formula });
+          else if (e.op === 'remove' && s.has(e.name)) s.removeCell(e.name);
+          else if (e.op === 'rename' && s.has(e.name) && !s.has(e.to)) s.renameCell(e.name, e.to);
+          const rebuilt = new Sheet({ cells: s.cells() });
+          expect(snapshot(s)).toEqual(snapshot(rebuilt));
+        }
+      }),
+      { numRuns: 400 },
+    );
+  });
+
+  it('files round-trip byte for byte and give an equal sheet', () => {
+    const textArb = fc.string({ maxLength: 12, unit: fc.constantFrom('a', 'Z', ' ', '"', '\\', 'é', '\n', '{', '1', '×') });
+    const cellArb = fc.record(
+      {
+        formula: fc.oneof(formulaArb, textArb),
+        unit: fc.constantFrom('', 'Mpc', 'nHz', 'km/s'),
+        note: textArb,
+        source: textArb,
+        section: fc.constantFrom('', 'array', 'results'),
+        uncertainty: fc.constantFrom('', 'spread(1, 0.3)'),
+      },
+      { requiredKeys: ['formula'] },
+    );
+    fc.assert(
+      fc.property(fc.array(cellArb, { maxLength: NAMES.length }), textArb, textArb, (cells, title, notes) => {
+        const s = new Sheet({ title, notes, cells: cells.map((c, i) => ({ ...c, name: NAMES[i] }) as CellSpec) });
+        const text = s.toFileText();
+        const back = Sheet.fromFile(text);
+        expect(back.toFileText()).toBe(text);
+        expect(back.cells()).toEqual(s.cells());
+        expect(back.title).toBe(s.title);
+        expect(snapshot(back)).toEqual(snapshot(s));
+      }),
+      { numRuns: 80 },
+    );
+  });
+
+  it('random formulas give values or cell errors, never exceptions or prototype changes', () => {
+    const pieces = [
+      '1', '2.5e3', 'cell1', 'cell2', '(', ')', '[', ']', ',', '+', '-', '*', '/', '^', '!', ' ', 'm', 'km', 'Mpc', ':',
+      '=', ';', '.', '?', 'sqrt', 'sin', 'logGrid', 'map', 'constructor', '__proto__', 'toString', 'evaluate',
+      'import', 'end', '"', "'", '{', '}', 'x', 'f(x)', 'to', 'e', 'pi', '1:5', '[1,2,3]', 'prototype', 'cos.constructor',
+    ];
+    const before = Object.getOwnPropertyNames(Object.prototype).sort();
+    const fnBefore = Object.getOwnPropertyNames(Function.prototype).sort();
+    fc.assert(
+      fc.property(fc.array(fc.constantFrom(...pieces), { minLength: 1, maxLength: 14 }), (parts) => {
+        const s = new Sheet({ cells: [{ name: 'cell1', formula: '3' }, { name: 'cell2', formula: '[1, 2]' }] });
+        const formula = parts.join('');
+        s.setCell({ name: 'cell3', formula });
+        const st = s.state('cell3');
+        expect(['value', 'error']).toContain(st.status);
+        s.evaluateWith({ cell1: 4 }, ['cell3']);
+      }),
+      { numRuns: 400 },
+    );
+    expect(Object.getOwnPropertyNames(Object.prototype).sort()).toEqual(before);
+    expect(Object.getOwnPropertyNames(Function.prototype).sort()).toEqual(fnBefore);
+    expect(({} as Record<string, unknown>).polluted).toBeUndefined();
+  });
+});
