@@ -52,7 +52,7 @@ describe('two-input scan, demo circular model', () => {
 });
 
 // rate_norm uncertain only: one evaluation serves every sample (the sqrt factor).
-const mcRateOnly = demo({ rate_norm: { uncertainty: 'lognormalDist(1.2e-3 Mpc^-3 Gyr^-1, 0.3)' } });
+const mcRateOnly = demo({ rate_norm: { uncertainty: 'lognormalDist(1.2e-3 Mpc^-3 Gyr^-1, 0.3)' }, mass_slope: { uncertainty: undefined } });
 // rate_norm and mass_slope uncertain: every sample evaluates the population again. A_yr is taken
 // at the one frequency f_yr from the population (amplitudeAtYear(pop)), the same number the demo
 // gets through its 40-frequency spectrum (which costs about 40 times more per sample).
