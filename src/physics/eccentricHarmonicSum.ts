@@ -35,7 +35,10 @@ export interface HarmonicSumTableOptions {
    * sum_n g = F, Peters & Mathews 1963). Default 1e-7.
    */
   harmonicTolerance?: number;
-  /** Sub-intervals per unit interval [k, k+1) for x below integerRegionEnd. Default 16. */
+  /**
+   * Sub-intervals of [1, 2); interval [k, k+1) gets max(4, ceil(pointsPerUnit / k)) (Phi varies on the
+   * scale of x itself, so the relative step stays about 1/pointsPerUnit). Default 16.
+   */
   pointsPerUnit?: number;
   /** x where the integer-interval region ends and the logarithmic grid begins. Default 64. */
   integerRegionEnd?: number;
@@ -46,7 +49,7 @@ export interface HarmonicSumTableOptions {
 /**
  * Phi(x) tabulated for one e0 (or a weighted mixture of e0 values on the same grid).
  * Layout: x < 1 gives 0 (no orbit exists yet); on [1, X1) each unit interval [k, k+1) holds its own
- * uniformly spaced values, from the right limit at k to the left limit at k+1 (Phi jumps at every
+ * uniformly spaced values (max(4, ceil(16/k)) steps), from the right limit at k to the left limit at k+1 (Phi jumps at every
  * integer, where harmonic k+1 switches on); on [X1, X2] a logarithmic grid (the jumps there are below
  * the stated tolerance, checked in test/orbits); beyond X2, where |Phi - 1| < 1e-9, the small-e law
  * Phi - 1 proportional to e^2 proportional to x^(-19/9) (Peters 1964: e proportional to f^(-19/18)).
@@ -60,9 +63,10 @@ export class HarmonicSumTable {
   readonly harmonicsKept: Int32Array;
   /** Largest power fraction left out by the truncation, over the e0 values. */
   readonly omittedFraction: number;
-  private readonly perUnit: number;
+  private readonly unitSteps: Int32Array; // sub-intervals of [k, k+1), index k - 1
+  private readonly unitOffsets: Int32Array; // start of interval k's values in unitValues
   private readonly x1: number;
-  private readonly unitValues: Float64Array; // (x1 - 1) intervals x (perUnit + 1) values
+  private readonly unitValues: Float64Array; // per interval [k, k+1): unitSteps + 1 values
   private readonly logStart: number;
   private readonly logStep: number;
   private readonly logValues: Float64Array;
@@ -76,7 +80,7 @@ export class HarmonicSumTable {
     if (values.length === 0 || values.length !== weights.length) throw new RangeError('HarmonicSumTable: e0 values and weights must be non-empty and of equal length');
     for (const e of values) if (!(e >= 0 && e < 1)) throw new RangeError(`HarmonicSumTable: eccentricity e0 must lie in [0, 1), got ${e}`);
     const tol = opts.harmonicTolerance ?? 1e-7;
-    this.perUnit = opts.pointsPerUnit ?? 16;
+    const perUnit = opts.pointsPerUnit ?? 16;
     this.x1 = opts.integerRegionEnd ?? 64;
     const perDecade = opts.pointsPerDecade ?? 48;
     this.e0Values = Float64Array.from(values);
@@ -91,10 +95,19 @@ export class HarmonicSumTable {
       return s;
     };
 
-    const m = this.perUnit;
-    this.unitValues = new Float64Array((this.x1 - 1) * (m + 1));
+    this.unitSteps = new Int32Array(this.x1 - 1);
+    this.unitOffsets = new Int32Array(this.x1 - 1);
+    let total = 0;
     for (let k = 1; k < this.x1; k++) {
-      for (let i = 0; i <= m; i++) this.unitValues[(k - 1) * (m + 1) + i] = mix(k + i / m, k);
+      this.unitSteps[k - 1] = Math.max(4, Math.ceil(perUnit / k));
+      this.unitOffsets[k - 1] = total;
+      total += this.unitSteps[k - 1] + 1;
+    }
+    this.unitValues = new Float64Array(total);
+    for (let k = 1; k < this.x1; k++) {
+      const m = this.unitSteps[k - 1];
+      const o = this.unitOffsets[k - 1];
+      for (let i = 0; i <= m; i++) this.unitValues[o + i] = mix(k + i / m, k);
     }
     this.logStart = Math.log(this.x1);
     this.logStep = Math.LN10 / perDecade;
@@ -119,8 +132,8 @@ export class HarmonicSumTable {
     if (!(x >= 1)) return 0;
     if (x < this.x1) {
       const k = Math.floor(x);
-      const t = (x - k) * this.perUnit;
-      return cubicAt(this.unitValues, (k - 1) * (this.perUnit + 1), this.perUnit + 1, t);
+      const m = this.unitSteps[k - 1];
+      return cubicAt(this.unitValues, this.unitOffsets[k - 1], m + 1, (x - k) * m);
     }
     if (x <= this.x2) {
       const t = (Math.log(x) - this.logStart) / this.logStep;
