@@ -11,7 +11,7 @@ import type { Matrix, Unit } from 'mathjs';
 
 const sheet = Sheet.fromFile(readFileSync(new URL('../examples/demo.json', import.meta.url), 'utf8'));
 const demo = sheet.value('pop') as PopulationValue;
-const freqs = Float64Array.from(((sheet.value('freqs') as Matrix).toArray() as Unit[]).map((u) => (u as Unit & { value: number }).value));
+const freqs = Float64Array.from(((sheet.value("freqs") as Matrix).toArray() as unknown as Unit[]).map((u) => (u as Unit & { value: number }).value));
 if (freqs.length !== 40) throw new Error(`the demo grid has ${freqs.length} frequencies, expected 40`);
 
 describe('circular background spectrum, demo population, 40 frequencies', () => {

@@ -23,6 +23,7 @@ export function logFrequencyGrid(fMinHz: number, fMaxHz: number, n: number): Flo
   const a = Math.log(fMinHz);
   const step = (Math.log(fMaxHz) - a) / (n - 1);
   for (let i = 0; i < n; i++) out[i] = Math.exp(a + i * step);
+  out[0] = fMinHz;
   out[n - 1] = fMaxHz;
   return out;
 }

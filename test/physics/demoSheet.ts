@@ -9,5 +9,5 @@ export function loadDemo(): Sheet {
 
 /** SI values of a list of quantities. */
 export function siValues(v: unknown): Float64Array {
-  return Float64Array.from(((v as Matrix).toArray() as Unit[]).map((u) => (u as Unit & { value: number }).value));
+  return Float64Array.from(((v as Matrix).toArray() as unknown as Unit[]).map((u) => (u as Unit & { value: number }).value));
 }
