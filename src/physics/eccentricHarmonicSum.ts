@@ -50,7 +50,8 @@ export interface HarmonicSumTableOptions {
  * Phi(x) tabulated for one e0 (or a weighted mixture of e0 values on the same grid).
  * Layout: x < 1 gives 0 (no orbit exists yet); on [1, X1) each unit interval [k, k+1) holds its own
  * uniformly spaced values (max(4, ceil(16/k)) steps), from the right limit at k to the left limit at k+1 (Phi jumps at every
- * integer, where harmonic k+1 switches on); on [X1, X2] a logarithmic grid (the jumps there are below
+ * integer, where harmonic k+1 switches on); on [X1, X2] a logarithmic grid, computed as far as queries
+ * reach (the jumps there are below
  * the stated tolerance, checked in test/orbits); beyond X2, where |Phi - 1| < 1e-9, the small-e law
  * Phi - 1 proportional to e^2 proportional to x^(-19/9) (Peters 1964: e proportional to f^(-19/18)).
  * Interpolation is four-point Lagrange (cubic) in x (integer region) and in ln x (log region), never
@@ -69,9 +70,15 @@ export class HarmonicSumTable {
   private readonly unitValues: Float64Array; // per interval [k, k+1): unitSteps + 1 values
   private readonly logStart: number;
   private readonly logStep: number;
-  private readonly logValues: Float64Array;
-  private readonly x2: number;
-  private readonly tailAtX2: number;
+  // The log grid grows on demand, in order, so only the x range actually asked for is computed; the
+  // values (and where the grid ends) are the same whatever order the queries come in.
+  private logValues = new Float64Array(64);
+  private logCount = 0;
+  private logCalm = 0;
+  private logDone = false;
+  private x2 = Infinity;
+  private tailAtX2 = 0;
+  private readonly mix: (x: number, nTop?: number) => number;
 
   /** A table for one e0, or for a mixture sum_k w_k Phi(x; e0_k) (weights summing to 1). */
   constructor(e0: number | { values: ArrayLike<number>; weights: ArrayLike<number> }, opts: HarmonicSumTableOptions = {}) {
@@ -111,20 +118,30 @@ export class HarmonicSumTable {
     }
     this.logStart = Math.log(this.x1);
     this.logStep = Math.LN10 / perDecade;
-    const logValues: number[] = [];
-    let x = this.x1;
-    let calm = 0;
-    // Grow the log grid until Phi stays within 1e-9 of 1 for a few points (or x reaches 1e15).
-    for (let i = 0; ; i++) {
-      x = Math.exp(this.logStart + i * this.logStep);
-      const v = mix(x);
-      logValues.push(v);
-      calm = Math.abs(v - 1) < 1e-9 ? calm + 1 : 0;
-      if ((calm >= 4 && i >= 2) || x > 1e15) break;
+    this.mix = mix;
+    this.growLog(3); // at least four values, so interpolation always has its nodes
+  }
+
+  /** Computes log-grid values up to index i (or until the grid ends: Phi within 1e-9 of 1 at four points, or x > 1e15). */
+  private growLog(i: number): void {
+    while (!this.logDone && this.logCount <= i) {
+      const j = this.logCount;
+      const x = Math.exp(this.logStart + j * this.logStep);
+      const v = this.mix(x);
+      if (j === this.logValues.length) {
+        const bigger = new Float64Array(2 * j);
+        bigger.set(this.logValues);
+        this.logValues = bigger;
+      }
+      this.logValues[j] = v;
+      this.logCount = j + 1;
+      this.logCalm = Math.abs(v - 1) < 1e-9 ? this.logCalm + 1 : 0;
+      if ((this.logCalm >= 4 && j >= 3) || x > 1e15) {
+        this.logDone = true;
+        this.x2 = x;
+        this.tailAtX2 = v - 1;
+      }
     }
-    this.logValues = Float64Array.from(logValues);
-    this.x2 = x;
-    this.tailAtX2 = logValues[logValues.length - 1] - 1;
   }
 
   /** Phi at x = f_r / f0. */
@@ -135,21 +152,21 @@ export class HarmonicSumTable {
       const m = this.unitSteps[k - 1];
       return cubicAt(this.unitValues, this.unitOffsets[k - 1], m + 1, (x - k) * m);
     }
-    if (x <= this.x2) {
-      const t = (Math.log(x) - this.logStart) / this.logStep;
-      return cubicAt(this.logValues, 0, this.logValues.length, t);
-    }
+    const t = (Math.log(x) - this.logStart) / this.logStep;
+    if (!this.logDone) this.growLog(Math.floor(t) + 2);
+    if (x <= this.x2) return cubicAt(this.logValues, 0, this.logCount, t);
     return 1 + this.tailAtX2 * Math.pow(this.x2 / x, 19 / 9);
   }
 
-  /** Where the logarithmic grid ends (above it the small-e law is used). */
+  /** Where the logarithmic grid ends (above it the small-e law is used); completes the grid. */
   get logGridEnd(): number {
+    this.growLog(Number.MAX_SAFE_INTEGER);
     return this.x2;
   }
 
-  /** Number of tabulated values. */
+  /** Number of values tabulated so far. */
   get size(): number {
-    return this.unitValues.length + this.logValues.length;
+    return this.unitValues.length + this.logCount;
   }
 }
 

@@ -100,6 +100,18 @@ describe('HarmonicSumTable', () => {
     }
   });
 
+  it('the log grid grows on demand, and values do not depend on the order of queries', () => {
+    const far = new HarmonicSumTable(0.6);
+    const near = new HarmonicSumTable(0.6);
+    const xs = [70, 300, 5000, 2e4, 1e7];
+    const fromFar = [...xs].reverse().map((x) => far.at(x)).reverse();
+    expect(near.at(100)).toBeGreaterThan(0);
+    const sizeBefore = near.size;
+    const fromNear = xs.map((x) => near.at(x));
+    expect(near.size).toBeGreaterThan(sizeBefore);
+    for (let i = 0; i < xs.length; i++) expect(fromNear[i]).toBe(fromFar[i]);
+  });
+
   it('rejects e0 outside [0, 1) and mismatched weights', () => {
     expect(() => new HarmonicSumTable(1)).toThrow(/e0 must lie in \[0, 1\), got 1/);
     expect(() => new HarmonicSumTable({ values: [0.1], weights: [] })).toThrow(/equal length/);
