@@ -351,6 +351,74 @@ describe.runIf(runSuite)('Strainsheet in the browser', () => {
     expect(await page.inputValue(`input[data-formula="${upstream.name}"]`)).toBe(upstream.formula);
     await page.click('[data-tab="plots"]');
   });
+
+  it('maps two inputs against the measurement with credible contours, and samples the uncertain cells', async () => {
+    await freshDemo();
+    const sheet = headlessDemo();
+    const measurement = sheet.cells().find((c) => {
+      const v = sheet.value(c.name);
+      return isSheetObject(v) && v.kind === 'measurement';
+    });
+    expect(measurement, 'the demo has a measurement cell').toBeDefined();
+    await page.click('[data-tab="scan"]');
+    await page.click('[data-panel="scan"] input[name="mode"] >> nth=1');
+    const second = sheet.cells().find((c) => c.name === 'mass_slope') ?? sheet.cells().find((c) => c.name !== 'rate_norm' && typeof sheet.value(c.name) === 'number' && (sheet.value(c.name) as number) > 0 && sheet.dependents(c.name).length > 0)!;
+    await page.selectOption('[data-panel="scan"] select[aria-label="second input cell"]', second.name);
+    await page.fill('[data-panel="scan"] .axis-fields >> nth=1 >> input[type="number"] >> nth=2', '6');
+    await page.selectOption('[data-panel="scan"] select[aria-label="Measurement cell"]', measurement!.name);
+    await page.click('[data-action="run-job"]');
+    await page.waitForSelector('[data-job-result="scan2"]', { timeout: 60_000 });
+    const csv = await download(page, () => page.click('[data-panel="scan"] [data-plot="scan2"] [data-action="export-csv"]'));
+    const lines = csv.bytes.toString('utf8').trim().split('\r\n');
+    expect(lines[0].endsWith('posterior mass per grid cell')).toBe(true);
+    const mapRows = lines.filter((l) => l.startsWith('map,'));
+    expect(mapRows.length).toBe(41 * 6);
+    // The posterior over the grid is normalised: its cells sum to 1.
+    const total = mapRows.reduce((acc, l) => acc + Number(l.split(',')[5]), 0);
+    expect(total).toBeCloseTo(1, 9);
+    expect(lines.some((l) => l.startsWith('68.3% credible region,') || l.startsWith('68% credible region,'))).toBe(true);
+    await page.screenshot({ path: join(ARTIFACTS, '06-map.png') });
+    // Monte Carlo over the cells with an uncertainty.
+    await page.click('[data-panel="scan"] input[name="mode"] >> nth=2');
+    await page.fill('[data-panel="scan"] fieldset:has-text("samples") input >> nth=0', '300');
+    await page.click('[data-action="run-job"]');
+    await page.waitForSelector('[data-job-result="sample"] .summary-table', { timeout: 60_000 });
+    expect(await page.textContent('[data-job-result="sample"] .summary-table')).toContain('median');
+    await page.click('[data-tab="plots"]');
+  });
+
+  it('opens a dropped file, refuses a dropped broken one, and reports a full storage', async () => {
+    await freshDemo();
+    const edited = DEMO_TEXT.replace(/"title": "[^"]*"/, '"title": "Dropped copy (invented)"');
+    expect(edited).not.toBe(DEMO_TEXT);
+    const drop = (name: string, text: string) =>
+      page.evaluate(
+        ([n, t]) => {
+          const dt = new DataTransfer();
+          dt.items.add(new File([t], n, { type: 'application/json' }));
+          window.dispatchEvent(new DragEvent('dragover', { dataTransfer: dt, cancelable: true }));
+          window.dispatchEvent(new DragEvent('drop', { dataTransfer: dt, cancelable: true }));
+        },
+        [name, text] as const,
+      );
+    await drop('broken.json', '{"format": "strainsheet", "version": 1, "cells": [');
+    await page.waitForFunction(() => [...document.querySelectorAll('.message.error')].some((m) => m.textContent?.includes('broken.json')));
+    expect(await page.inputValue('.sheet-title')).not.toBe('Dropped copy (invented)');
+    await drop('copy.json', edited);
+    await page.waitForFunction(() => (document.querySelector('.sheet-title') as HTMLInputElement | null)?.value === 'Dropped copy (invented)');
+    // Storage full: every write to local storage fails with the browser's quota error.
+    await page.evaluate(() => {
+      Storage.prototype.setItem = function () {
+        throw new DOMException('full', 'QuotaExceededError');
+      };
+    });
+    const rate = headlessDemo().get('rate_norm')!.formula;
+    await setFormula(page, 'rate_norm', `3 * (${rate})`);
+    await page.waitForFunction(() => [...document.querySelectorAll('.message.error')].some((m) => /storage is full/.test(m.textContent ?? '')));
+    expect(await page.textContent('[data-autosave]')).toBe('autosave failed');
+    await page.reload(); // restores the real Storage.prototype.setItem
+    await page.waitForSelector('[data-key-value="A_yr"]');
+  });
 });
 
 /** A minimal RFC 4180 line reader (quoted fields, doubled quotes) for checking exports. */

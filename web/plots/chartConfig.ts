@@ -151,16 +151,18 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
   return sets;
 }
 
-function scaleFor(axis: PlotAxis, range: [number, number] | null, factor: number) {
+function scaleFor(axis: PlotAxis, range: [number, number] | null, factor: number, fitLinear = false) {
   const lo = axis.min ?? range?.[0];
   const hi = axis.max ?? range?.[1];
   const decades = lo !== undefined && hi !== undefined ? Math.log10(hi) - Math.log10(lo) : 0;
   const padLog = decades * 0.04 || 0.1;
   const fewDecades = decades < 2.5;
+  const log = axis.scale === 'log';
   return {
-    type: axis.scale === 'log' ? ('logarithmic' as const) : ('linear' as const),
-    min: lo === undefined ? undefined : (axis.scale === 'log' && axis.min === undefined ? lo * 10 ** -padLog : lo) * factor,
-    max: hi === undefined ? undefined : (axis.scale === 'log' && axis.max === undefined ? hi * 10 ** padLog : hi) * factor,
+    type: log ? ('logarithmic' as const) : ('linear' as const),
+    // Log axes get a little room beyond the data; linear axes end on round ticks unless fixed.
+    min: log ? (lo === undefined ? undefined : (axis.min === undefined ? lo * 10 ** -padLog : lo) * factor) : fitLinear || axis.min !== undefined ? (lo === undefined ? undefined : lo * factor) : undefined,
+    max: log ? (hi === undefined ? undefined : (axis.max === undefined ? hi * 10 ** padLog : hi) * factor) : fitLinear || axis.max !== undefined ? (hi === undefined ? undefined : hi * factor) : undefined,
     title: { display: true, text: axis.label, color: '#1f2a36', font: { size: 13 } },
     grid: { color: '#e6e3dc' },
     ticks: {
@@ -197,8 +199,9 @@ export function chartConfig(model: PlotModel, opts: { devicePixelRatio?: number;
       normalized: true,
       interaction: { mode: 'nearest', intersect: false },
       scales: {
-        x: scaleFor(model.x, dataRange(model, 'x'), model.x.displayFactor ?? 1),
-        y: scaleFor(model.y, dataRange(model, 'y'), model.y.displayFactor ?? 1),
+        // A map fills its grid exactly; other plots let linear axes end on round ticks.
+        x: scaleFor(model.x, dataRange(model, 'x'), model.x.displayFactor ?? 1, !!model.heatmap),
+        y: scaleFor(model.y, dataRange(model, 'y'), model.y.displayFactor ?? 1, !!model.heatmap),
       },
       plugins: {
         title: { display: true, text: model.title, color: '#1f2a36', font: { size: 14, weight: 'bold' } },
