@@ -5,7 +5,8 @@
 // output size or running time grows without bound from a small argument (zeros, ones, identity,
 // range, kron, resize, combinations, permutations, setPowerset, ...); random numbers (the
 // statistics built-ins own seeded sampling); and text formatting. `gamma` is left out so that
-// the trade's spectral index can be a cell named gamma (lgamma and factorial remain).
+// the trade's spectral index can be a cell named gamma (lgamma and factorial remain). subset and
+// index are left out because an index of text reads an object's property (v[2] indexing remains).
 
 export const ALLOWED_MATH_FUNCTIONS: ReadonlySet<string> = new Set([
   // arithmetic
@@ -24,7 +25,7 @@ export const ALLOWED_MATH_FUNCTIONS: ReadonlySet<string> = new Set([
   'min', 'max', 'sum', 'prod', 'mean', 'median', 'std', 'variance', 'mad', 'cumsum', 'quantileSeq',
   // lists and matrices (output no larger than the input, or bounded by the inputs' product)
   'size', 'count', 'concat', 'transpose', 'flatten', 'squeeze', 'sort', 'diff', 'dot', 'cross', 'norm',
-  'det', 'inv', 'trace', 'lusolve', 'reshape', 'matrix', 'row', 'column', 'subset', 'index',
+  'det', 'inv', 'trace', 'lusolve', 'reshape', 'matrix', 'row', 'column',
   'map', 'forEach', 'filter',
   // conversion
   'to', 'number',
