@@ -359,19 +359,20 @@ export const statisticsBuiltins: Builtin[] = [
   {
     name: 'allowedRate',
     category: 'statistics',
-    summary: 'The merger-rate normalisation (or any quantity A_yr^2 is proportional to) that a measurement allows',
+    summary: 'The merger-rate normalisation (or any quantity A_yr^2 is proportional to) that a measurement allows, and the local density it implies',
     args: [
       { name: 'rateNorm', unit: 'any (e.g. Mpc^-3 Gyr^-1)', description: 'the normalisation the prediction was made with' },
       { name: 'predicted', unit: 'dimensionless', description: 'predicted A_yr at that normalisation' },
       { name: 'measured', unit: 'measurement', description: 'the measurement' },
+      { name: 'density', unit: 'any', description: 'a quantity proportional to rateNorm at the same point, e.g. the local merger-rate density; scaled the same way', optional: true },
     ],
     returns: {
       unit: 'allowedRate',
       description: 'rateNorm (A_meas/A_pred)^2 at the median and interval ends. Assumes A_yr^2 proportional to rateNorm (true when the population density scales with it); the sheet-level solver checks this with two probes',
     },
     source: 'Phinney 2001, astro-ph/0108028 (h_c^2 linear in the number density)',
-    example: 'allowedRate(rate_norm, A_yr, measured)',
-    fn: (r: unknown, p: unknown, m: unknown) => {
+    example: 'allowedRate(rate_norm, A_yr, measured, rate_today)',
+    fn: (r: unknown, p: unknown, m: unknown, density?: unknown) => {
       const fn = 'allowedRate';
       let r0: number;
       let template: Unit | null = null;
@@ -390,7 +391,20 @@ export const statisticsBuiltins: Builtin[] = [
       const lev = meas.stated ? meas.stated.level : ONE_SIGMA_LEVEL;
       const iv = meas.stated ?? measurementInterval(meas, lev);
       const scale = (a: number) => r0 * (a / A) ** 2;
-      return new AllowedRateObject(scale(10 ** meas.log10Median), scale(iv.lower), scale(iv.upper), lev, template, display);
+      const out = new AllowedRateObject(scale(10 ** meas.log10Median), scale(iv.lower), scale(iv.upper), lev, template, display);
+      if (density === undefined) return out;
+      let d0: number;
+      let dTemplate: Unit | null = null;
+      if (isUnit(density)) {
+        const u = density as Unit & { value: number | null };
+        if (u.value === null) throw new BuiltinError(`${where(fn, 'density')} is a unit without a value`);
+        d0 = u.value;
+        dTemplate = u.clone();
+      } else d0 = scalarSI(density, 'dimensionless', fn, 'density');
+      if (!(Number.isFinite(d0) && d0 > 0)) throw new BuiltinError(`${where(fn, 'density')} must be positive, got ${d0}`);
+      const k = d0 / r0;
+      out.density = { median: k * out.median, lower: k * out.lower, upper: k * out.upper, unitTemplate: dTemplate };
+      return out;
     },
   },
   {
@@ -429,7 +443,12 @@ export const statisticsBuiltins: Builtin[] = [
         const parts: Record<string, number> = { median: obj.median, lower: obj.lower, upper: obj.upper };
         if (part === 'level') return obj.level;
         if (part in parts) return obj.valueOf(parts[part]);
-        throw new BuiltinError(`${where(fn, 'part')}: an allowed rate has no part "${part}"; parts: median, lower, upper, level`);
+        const d = obj.density;
+        const dParts: Record<string, number> | null = d ? { densityMedian: d.median, densityLower: d.lower, densityUpper: d.upper } : null;
+        if (dParts && part in dParts) return obj.densityValueOf(dParts[part]);
+        throw new BuiltinError(
+          `${where(fn, 'part')}: an allowed rate has no part "${part}"; parts: median, lower, upper, level${dParts ? ', densityMedian, densityLower, densityUpper' : ''}`,
+        );
       }
       throw new BuiltinError(`${where(fn, 'result')} must be a measurement, comparison or allowedRate, got ${kindOf(obj)}`);
     },

@@ -11,6 +11,13 @@ import type { RandomSource } from '../statistics/prng';
 
 const g = (x: number) => Number(x.toPrecision(3)).toString();
 
+function withValue(template: Unit | null, xSI: number): unknown {
+  if (!template) return xSI;
+  const q = template.clone() as Unit & { value: number };
+  q.value = xSI;
+  return q;
+}
+
 export class MeasurementObject implements SheetObject {
   readonly kind = 'measurement';
   constructor(readonly measurement: AmplitudeMeasurement) {}
@@ -120,18 +127,35 @@ export class AllowedRateObject implements SheetObject {
     readonly unitTemplate: Unit | null,
     readonly displayUnit: string,
   ) {}
+  /** The implied value of a quantity proportional to the rate (e.g. the local merger-rate density), SI. */
+  density?: { median: number; lower: number; upper: number; unitTemplate: Unit | null };
   valueOf(xSI: number): unknown {
-    if (!this.unitTemplate) return xSI;
-    const q = this.unitTemplate.clone() as Unit & { value: number };
-    q.value = xSI;
-    return q;
+    return withValue(this.unitTemplate, xSI);
+  }
+  densityValueOf(xSI: number): unknown {
+    return withValue(this.density?.unitTemplate ?? null, xSI);
   }
   describe(): string {
     const show = (x: number) => (this.unitTemplate ? g((this.valueOf(x) as Unit).toNumber(this.displayUnit)) : g(x));
     const u = this.unitTemplate ? ` ${this.displayUnit}` : '';
-    return `allowed rate ${show(this.median)}${u} (${show(this.lower)} to ${show(this.upper)}, ${g(100 * this.level)}%)`;
+    let text = `allowed rate ${show(this.median)}${u} (${show(this.lower)} to ${show(this.upper)}, ${g(100 * this.level)}%)`;
+    if (this.density) {
+      const t = this.density.unitTemplate;
+      const du = t ? t.formatUnits() : '';
+      const sd = (x: number) => (t ? g((withValue(t, x) as Unit).toNumber(du)) : g(x));
+      text += `; density ${sd(this.density.median)}${du ? ` ${du}` : ''} (${sd(this.density.lower)} to ${sd(this.density.upper)})`;
+    }
+    return text;
   }
   toJSON(): unknown {
-    return { median: this.median, lower: this.lower, upper: this.upper, level: this.level, unitSI: this.unitTemplate ? siUnitOf(this.unitTemplate) : '' };
+    const d = this.density;
+    return {
+      median: this.median,
+      lower: this.lower,
+      upper: this.upper,
+      level: this.level,
+      unitSI: this.unitTemplate ? siUnitOf(this.unitTemplate) : '',
+      ...(d ? { density: { median: d.median, lower: d.lower, upper: d.upper, unitSI: d.unitTemplate ? siUnitOf(d.unitTemplate) : '' } } : {}),
+    };
   }
 }

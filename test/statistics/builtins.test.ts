@@ -41,6 +41,9 @@ describe('measurement and comparison built-ins', () => {
     { name: 'rate', formula: '1e-3 Mpc^-3 Gyr^-1' },
     { name: 'allowed', formula: 'allowedRate(rate, 1.5e-15, meas)' },
     { name: 'allowed_median', formula: 'partOf(allowed, "median")' },
+    { name: 'today', formula: 'rate * 2.5' },
+    { name: 'allowed_d', formula: 'allowedRate(rate, 1.5e-15, meas, today)' },
+    { name: 'density_upper', formula: 'partOf(allowed_d, "densityUpper")' },
   ]);
   it('the upper 90% end is +1.6449 sigma (Abramowitz & Stegun 1964, table 26.1), at the 95th percentile', () => {
     expect(num(sheet, 'tension')).toBeCloseTo(1.6449, 4);
@@ -62,6 +65,8 @@ describe('measurement and comparison built-ins', () => {
   it('allowed rate: rate (A_meas / A_pred)^2 in the rate unit', () => {
     expect(num(sheet, 'allowed_median') / num(sheet, 'rate')).toBeCloseTo(4, 10);
     expect((sheet.value('allowed_median') as { formatUnits(): string }).formatUnits()).toBe('Mpc^-3 Gyr^-1');
+    // A density proportional to the rate scales the same way: 2.5 x rate x (4.5/1.5)^2.
+    expect(num(sheet, 'density_upper') / (2.5 * num(sheet, 'rate') * 9)).toBeCloseTo(1, 10);
   });
 });
 
