@@ -34,6 +34,22 @@ describe('g(n, e) (Peters & Mathews 1963, eq. 20)', () => {
     expect(Math.abs(eccentricityEnhancement(0.5) / ((1 + 73 / 96 + 37 / 1536) / Math.pow(0.75, 3.5)) - 1)).toBeLessThan(1e-15);
   });
 
+  it('the harmonic of peak power follows the fit n_peak = 2 (1+e)^1.1954 / (1-e^2)^1.5 of Wen 2003 (ApJ 598, 419; formula from memory) within 5% for e >= 0.7', () => {
+    for (const e of [0.7, 0.8, 0.9, 0.95]) {
+      let best = 1;
+      let bestG = 0;
+      for (let n = 1; n < 1000; n++) {
+        const g = harmonicPower(n, e);
+        if (g > bestG) {
+          bestG = g;
+          best = n;
+        }
+      }
+      const wen = (2 * Math.pow(1 + e, 1.1954)) / Math.pow(1 - e * e, 1.5);
+      expect(Math.abs(best / wen - 1), `e = ${e}: peak at n = ${best}, fit ${wen}`).toBeLessThan(0.05);
+    }
+  });
+
   it('rejects e outside [0, 1) and non-integer or non-positive harmonics', () => {
     expect(() => harmonicPower(2, 1)).toThrow(/eccentricity must lie in \[0, 1\), got 1/);
     expect(() => harmonicPower(2, -0.1)).toThrow(/eccentricity/);
