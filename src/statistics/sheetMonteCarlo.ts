@@ -8,7 +8,7 @@ import type { Unit } from 'mathjs';
 import { seededRandom, type RandomSource } from './prng';
 import { fractionInside, summariseSamples, type SampleSummary } from './sampleSummary';
 import { relativeLikelihood, type AmplitudeMeasurement } from './measurement';
-import { measuredBand, type MeasuredBand } from './sheetScan';
+import { measuredBand, requireNumericOutput, type MeasuredBand } from './sheetScan';
 import { F_YR_HZ } from '../physics/constants';
 import { atReferenceFrequency } from './measurement';
 import { checkSqrtProportional } from './proportionality';
@@ -136,7 +136,7 @@ export async function monteCarlo(sheet: Sheet, opts: MonteCarloOptions, control?
   if (samples > MAX_SAMPLES) throw new SheetJobError(`Monte Carlo: at most ${MAX_SAMPLES} samples, got ${samples}`);
   if (!Number.isSafeInteger(seed) || seed < 0) throw new SheetJobError(`Monte Carlo: the seed must be a non-negative whole number, got ${seed}`);
   if (outputs.length === 0) throw new SheetJobError('Monte Carlo: name at least one output cell');
-  for (const o of outputs) if (!sheet.has(o)) throw new SheetJobError(`Monte Carlo: there is no output cell ${o}`);
+  for (const o of outputs) requireNumericOutput(sheet, o, 'Monte Carlo');
   const dists = uncertainCells(sheet);
   if (dists.size === 0) throw new SheetJobError('Monte Carlo: no cell has an uncertainty; give at least one input an uncertainty formula such as lognormalDist(...)');
   for (const o of outputs) if (dists.has(o)) throw new SheetJobError(`Monte Carlo: ${o} is an uncertain input itself, not an output`);

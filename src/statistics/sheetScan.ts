@@ -14,6 +14,7 @@ import {
   inOwnUnit,
   nominalInput,
   numericOrNaN,
+  numericState,
   unitTextOf,
   valueLike,
   yieldToEventLoop,
@@ -86,6 +87,16 @@ export function measuredBand(m: AmplitudeMeasurement): MeasuredBand {
   return { median: 10 ** at.log10Median, lower: iv.lower, upper: iv.upper, level };
 }
 
+/** An output must exist and hold a single number or quantity at the sheet's own values. */
+export function requireNumericOutput(sheet: Sheet, output: string, job: string): void {
+  if (!sheet.has(output)) throw new SheetJobError(`${job}: there is no output cell ${output}`);
+  try {
+    numericState(output, sheet.state(output));
+  } catch (e) {
+    throw new SheetJobError(`${job}: ${(e as Error).message}`);
+  }
+}
+
 /** Pacing of progress reports and event-loop turns (ms of work between them). */
 const SLICE_MS = 30;
 
@@ -132,7 +143,7 @@ export async function scan1D(
   control?: JobControl,
 ): Promise<Scan1DResult> {
   if (outputs.length === 0) throw new SheetJobError('scan: name at least one output cell');
-  for (const o of outputs) if (!sheet.has(o)) throw new SheetJobError(`scan: there is no output cell ${o}`);
+  for (const o of outputs) requireNumericOutput(sheet, o, 'scan');
   const { result: ax, template, nominal } = axisResult(sheet, axis);
   const n = ax.valuesSI.length;
   const res: Record<string, Float64Array> = {};
@@ -213,7 +224,7 @@ export async function scan2D(
   control?: JobControl,
 ): Promise<Scan2DResult> {
   if (xAxis.cell === yAxis.cell) throw new SheetJobError(`scan: the two axes must be different cells, both are ${xAxis.cell}`);
-  if (!sheet.has(output)) throw new SheetJobError(`scan: there is no output cell ${output}`);
+  requireNumericOutput(sheet, output, 'scan');
   const X = axisResult(sheet, xAxis);
   const Y = axisResult(sheet, yAxis);
   const nx = X.result.valuesSI.length;

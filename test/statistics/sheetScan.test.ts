@@ -31,6 +31,13 @@ describe('one-input scans', () => {
     expect(Array.from(r.axis.values)).toEqual([0, 0.25, 0.5, 0.75, 1]);
     expect(r.outputs.A_yr[4] / toyAmplitude(1e-3, 1)).toBeCloseTo(1, 12);
   });
+  it('refuses an output that is not a single number', async () => {
+    const sheet = toySheet();
+    await expect(scan1D(sheet, { cell: 'slope', lo: 0, hi: 1, n: 3, log: false }, ['measured'])).rejects.toThrow(
+      /scan: output measured is not a single number or quantity/,
+    );
+    await expect(scan1D(sheet, { cell: 'slope', lo: 0, hi: 1, n: 3, log: false }, ['nosuch'])).rejects.toThrow(/scan: there is no output cell nosuch/);
+  });
   it('empty, reversed, too short or non-positive log ranges are refused with the cell named', () => {
     expect(() => axisValues({ cell: 'x', lo: 1, hi: 1, n: 10, log: false })).toThrow(/scan of x: the range is empty/);
     expect(() => axisValues({ cell: 'x', lo: 2, hi: 1, n: 10, log: false })).toThrow(/scan of x: the range is reversed/);
