@@ -203,7 +203,7 @@ const HISTOGRAM_BINS = 4096;
  * count reaches 1. Exactly what a full sort gives, in linear time: counts are first binned in ln h,
  * and only the nodes of the bin where the cumulative count crosses 1 are sorted.
  */
-function loudestExpected(perLnF: Float64Array, strain: Float64Array, dlnf: number, histogram: Float64Array): number {
+export function loudestExpected(perLnF: Float64Array, strain: Float64Array, dlnf: number, histogram: Float64Array): number {
   let lo = Infinity;
   let hi = -Infinity;
   for (let i = 0; i < strain.length; i++) {

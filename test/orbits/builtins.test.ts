@@ -78,6 +78,8 @@ describe('orbit built-ins', () => {
       e11: 'eccentricEmission(0.5, 1 Msun)',
       e12: 'eccentricityUniform(0.6, 0.2)',
       e13: 'stellarTransitionFrequency(1e9 Msun, 1.5, 100 Msun/pc^3, 200 km/s, 16)',
+      negDensity: 'negDensity(x) = x - 0.5',
+      e14: 'eccentricityCustom(negDensity, 0, 0.9)',
     });
     expect(errorOf(s, 'e1')).toMatch(/argument e of harmonicPower must be an eccentricity in \[0, 1\), got 1/);
     expect(errorOf(s, 'e2')).toMatch(/argument n of harmonicPower must be a whole number/);
@@ -92,5 +94,6 @@ describe('orbit built-ins', () => {
     expect(errorOf(s, 'e11')).toMatch(/argument f0 of eccentricEmission needs a unit of frequency/);
     expect(errorOf(s, 'e12')).toMatch(/argument hi of eccentricityUniform must exceed lo/);
     expect(errorOf(s, 'e13')).toMatch(/argument q of stellarTransitionFrequency must be a mass ratio in \(0, 1\]/);
+    expect(errorOf(s, 'e14')).toMatch(/argument density of eccentricityCustom must not be negative/);
   });
 });

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { characteristicStrainSquared } from '../../src/physics/backgroundIntegral';
 import { chirpMassFromTotal } from '../../src/physics/binaryMasses';
 import { MPC_M, M_SUN_KG, YEAR_S } from '../../src/physics/constants';
-import { circularResidenceTime, finiteBinaryBins, singleBinaryStrain, FINITE_DEFAULT_RESOLUTION } from '../../src/physics/finiteBinaries';
+import { circularResidenceTime, finiteBinaryBins, loudestExpected, singleBinaryStrain, FINITE_DEFAULT_RESOLUTION } from '../../src/physics/finiteBinaries';
 import type { BinaryPopulation } from '../../src/physics/populationTypes';
 import { boxPopulation, smoothPopulation, testCosmology } from './populations';
 
@@ -64,6 +64,39 @@ describe('counts and strains per bin', () => {
       const recount = finiteBinaryBins(above, testCosmology, [freqs[k]], T, { log10MPanels: 8 });
       expect(Math.abs(recount.expectedPerBin[0] - 1), `bin ${k}: cut 10^${r.cutLog10M[k]} Msun`).toBeLessThan(0.03);
     }
+  });
+
+  it('the loudest-binary search gives what a plain full sort gives (independent method), on seeded random counts and strains', () => {
+    let seed = 2008;
+    const rand = () => (seed = (seed * 16807) % 2147483647) / 2147483647; // Park & Miller 1988, CACM 31, 1192
+    for (let trial = 0; trial < 20; trial++) {
+      const size = 3000;
+      const perLnF = new Float64Array(size);
+      const strain = new Float64Array(size);
+      for (let i = 0; i < size; i++) {
+        perLnF[i] = rand() < 0.1 ? 0 : Math.pow(10, 6 * rand() - 3);
+        strain[i] = Math.pow(10, -17 + 3 * rand());
+      }
+      const dlnf = 0.01 + rand();
+      const order = Array.from({ length: size }, (_, i) => i).sort((a, b) => strain[b] - strain[a]);
+      let cum = 0;
+      let expected = 0;
+      for (const i of order) {
+        if (perLnF[i] === 0) continue;
+        if (cum + perLnF[i] * dlnf >= 1) {
+          expected = strain[i];
+          break;
+        }
+        cum += perLnF[i] * dlnf;
+      }
+      expect(loudestExpected(perLnF, strain, dlnf, new Float64Array(4096))).toBe(expected);
+    }
+  });
+
+  it('the thinned spectrum falls increasingly below the smooth one towards high frequency, where heavy binaries are rare (Sesana, Vecchio & Colacino 2008)', () => {
+    const r = finiteBinaryBins(smoothPopulation(), testCosmology, freqs, T);
+    for (let k = 1; k < freqs.length; k++) expect(r.thinnedHc[k] / r.smoothHc[k]).toBeLessThan(r.thinnedHc[k - 1] / r.smoothHc[k - 1]);
+    expect(r.thinnedHc[freqs.length - 1] / r.smoothHc[freqs.length - 1]).toBeLessThan(0.9);
   });
 
   it('a bin expecting fewer than one binary has thinned h_c = 0 and loudest strain 0', () => {
