@@ -30,6 +30,8 @@ import {
 import { BinnedSpectrumError, binsFromCsv, binsFromRows, type BinQuantity } from '../statistics/binnedSpectrum';
 import { AllowedRateObject, BinnedSpectrumObject, ComparisonObject, DistributionObject, MeasurementObject } from './statisticsObjects';
 import { ONE_SIGMA_LEVEL } from '../statistics/sampleSummary';
+import { binTensions } from '../statistics/binnedComparison';
+import type { SheetObject } from '../sheet/sheetObject';
 
 const TWO_HALF_NORMALS =
   'two half-normals in log10 A joined at the median, each holding 1/2, so median and interval ends are reproduced (common practice, no source)';
@@ -119,6 +121,21 @@ function matrixRows(v: unknown, fn: string, arg: string): unknown[][] {
 }
 
 const QUANTITIES: Record<string, BinQuantity> = { hc: 'hc', omega_gw: 'omegaGw', omegagw: 'omegaGw', power: 'residualPower', residualpower: 'residualPower' };
+
+function binComparisonArgs(fn: string, spec: unknown, bins: unknown, h0?: unknown) {
+  const sp = objectOf<SheetObject & { frequencyHz?: Float64Array; hc?: Float64Array }>(spec, 'spectrum', fn, 'spectrum');
+  if (!(sp.frequencyHz instanceof Float64Array) || !(sp.hc instanceof Float64Array)) {
+    throw new BuiltinError(`${where(fn, 'spectrum')} must be a spectrum with frequencies and h_c values`);
+  }
+  const b = objectOf<BinnedSpectrumObject>(bins, 'binnedSpectrum', fn, 'bins').bins;
+  let H: number | undefined;
+  if (h0 !== undefined) {
+    H = scalarSI(h0, 'hubble', fn, 'H0');
+    if (!(H > 0)) throw new BuiltinError(`${where(fn, 'H0')} must be positive`);
+  }
+  if (b.quantity === 'omegaGw' && H === undefined) throw new BuiltinError(`${where(fn, 'H0')} is needed to compare Omega_gw bins`);
+  return guarded(fn, () => binTensions(sp.frequencyHz!, sp.hc!, b, H));
+}
 
 export const statisticsBuiltins: Builtin[] = [
   {
@@ -577,6 +594,38 @@ export const statisticsBuiltins: Builtin[] = [
       });
       return new BinnedSpectrumObject(guarded(fn, () => binsFromRows(numeric, q, l)));
     },
+  },
+  {
+    name: 'binTension',
+    category: 'statistics',
+    summary: 'Tension of a model spectrum with measured per-bin values, bin by bin, in sigma of log10 (positive: model high)',
+    args: [
+      { name: 'spectrum', unit: 'spectrum', description: 'the model, from strainSpectrum' },
+      { name: 'bins', unit: 'binnedSpectrum', description: 'from binsFromText or binsFromTable' },
+      { name: 'H0', unit: 'km/s/Mpc', description: 'Hubble constant, needed for Omega_gw bins', optional: true },
+    ],
+    returns: { unit: 'dimensionless list', description: 'one tension per bin; the model h_c is interpolated log-log at the bin frequencies' },
+    source: 'common practice, no source (each bin as two half-normals in log10, as for measuredAmplitude)',
+    example: 'binTension(spectrum, bins)',
+    fn: (spec: unknown, bins: unknown, h0?: unknown) => {
+      const fn = 'binTension';
+      const r = binComparisonArgs(fn, spec, bins, h0);
+      return math.matrix(Array.from(r.tension));
+    },
+  },
+  {
+    name: 'binChiSquare',
+    category: 'statistics',
+    summary: 'Sum over bins of the squared tensions of a model spectrum with measured per-bin values',
+    args: [
+      { name: 'spectrum', unit: 'spectrum', description: 'the model, from strainSpectrum' },
+      { name: 'bins', unit: 'binnedSpectrum', description: 'from binsFromText or binsFromTable' },
+      { name: 'H0', unit: 'km/s/Mpc', description: 'Hubble constant, needed for Omega_gw bins', optional: true },
+    ],
+    returns: { unit: 'dimensionless', description: 'sum of squared per-bin tensions (compare with the number of bins)' },
+    source: 'common practice, no source',
+    example: 'binChiSquare(spectrum, bins)',
+    fn: (spec: unknown, bins: unknown, h0?: unknown) => binComparisonArgs('binChiSquare', spec, bins, h0).chiSquare,
   },
   {
     name: 'distQuantile',

@@ -11,6 +11,25 @@ import { valueLike } from '../../src/statistics/sheetValues';
 
 const demoText = readFileSync(new URL('../../examples/demo.json', import.meta.url), 'utf8');
 
+describe('demo sheet: per-bin values against the model spectrum', () => {
+  it('a bin placed at the model (strainAt of the physics) has tension 0; one whose lower 90% end sits on the model is at -1.6449', () => {
+    const sheet = Sheet.fromFile(demoText);
+    // Invented per-bin values built from the model itself at two of the demo's frequencies.
+    sheet.setCell({ name: 'f_a', formula: '4.527 nHz' });
+    sheet.setCell({ name: 'f_b', formula: '9.054 nHz' });
+    sheet.setCell({ name: 'h_a', formula: 'strainAt(spectrum, f_a)' });
+    sheet.setCell({ name: 'h_b', formula: 'strainAt(spectrum, f_b) * 2' });
+    sheet.setCell({ name: 'test_bins', formula: 'binsFromTable([f_a, h_a, h_a / 2, h_a * 2; f_b, h_b, h_b / 2, h_b * 3], "hc", 90%)' });
+    sheet.setCell({ name: 'test_tension', formula: 'binTension(spectrum, test_bins)' });
+    const st = sheet.state('test_tension');
+    if (st.status !== 'value') throw new Error(JSON.stringify(st));
+    const t = (st.value as { toArray(): number[] }).toArray();
+    expect(t[0]).toBeCloseTo(0, 8);
+    // Model = h_b / 2 = the bin's lower 90% end: one 90% half-width below, so -1.6449 (A&S 1964, table 26.1).
+    expect(t[1]).toBeCloseTo(-1.6449, 4);
+  });
+});
+
 describe('demo sheet: the rates the invented measurement allows', () => {
   const sheet = Sheet.fromFile(demoText);
   sheet.setCell({ name: 'test_measured', formula: 'measuredAmplitude(measured_A, measured_A_low, measured_A_high, measured_level)' });
