@@ -7,11 +7,12 @@ import { isUnit, math, quantity } from '../sheet/mathInstance';
 import { circularGwKernel } from '../physics/circularKernel';
 import { stellarEccentricKernel, stellarEmissionKernel, stellarTransitionFrequency, type StellarEnvironment } from '../physics/stellarHardening';
 import { bendEmissionKernel, bentPowerLawStrain, BEND_INDEX } from '../physics/bendSpectrum';
-import { scalarSI, where } from './args';
+import { scalarSI, vectorSI, where } from './args';
 import { elementwise, positiveSI } from './physicsArgs';
 import { EmissionModel, guardedPhysics, initialEccentricityArg } from './orbits';
 import { spectrumBuiltins } from './spectrum';
-import type { SpectrumValue } from './spectrumValue';
+import { SpectrumValue } from './spectrumValue';
+import { equivalentResidual, residualPowerSpectralDensity } from '../physics/spectrumConversions';
 
 const QUINLAN = 'Quinlan 1996, New Astron. 1, 35';
 const BEND = 'Sampson, Cornish & McWilliams 2015, Phys. Rev. D 91, 084055';
@@ -143,6 +144,41 @@ export const environmentBuiltins: Builtin[] = [
         if (!(f > 0)) throw new BuiltinError(`${where(fn, arg)} must be a positive frequency, got ${f} Hz`);
         return bentPowerLawStrain(f, A, fb, k);
       });
+    },
+  },
+  {
+    name: 'bentSpectrum',
+    category: 'environment',
+    summary: 'The bent power law h_c = A (f/f_yr)^(-2/3) [1 + (f_bend/f)^kappa]^(-1/2) as a spectrum (for plots and comparisons), with the timing-residual series.',
+    args: [
+      { name: 'freqs', unit: 'nHz', description: 'frequencies > 0 (a list)' },
+      { name: 'amplitude', unit: 'dimensionless', description: 'A = h_c at f_yr without the bend, > 0' },
+      { name: 'fBend', unit: 'nHz', description: 'bend frequency >= 0' },
+      { name: 'kappa', unit: 'dimensionless', description: 'bend index > 0 (10/3 stellar, 7/3 gas)' },
+    ],
+    returns: { unit: 'spectrum', description: 'h_c on the grid; series residualPsd (s^3) and equivalentResidual (s)' },
+    source: `${BEND}; residual conversions common practice (see docs/physics.md)`,
+    example: 'bentSpectrum(freqs, 2e-15, 3 nHz, 10/3)',
+    fn: (freqs: unknown, amplitude: unknown, fBend: unknown, kappa: unknown) => {
+      const fn = 'bentSpectrum';
+      const A = positiveSI(amplitude, 'dimensionless', fn, 'amplitude');
+      const fb = scalarSI(fBend, 'frequency', fn, 'fBend');
+      if (!(fb >= 0)) throw new BuiltinError(`${where(fn, 'fBend')} must not be negative, got ${fb} Hz`);
+      const k = bendIndexArg(kappa, fn);
+      const f = vectorSI(freqs, 'frequency', fn, 'freqs');
+      if (f.length === 0 || f.length > 10_000) throw new BuiltinError(`${where(fn, 'freqs')} must hold 1 to 10000 frequencies, got ${f.length}`);
+      f.forEach((x, i) => {
+        if (!(x > 0)) throw new BuiltinError(`${where(fn, `freqs[${i + 1}]`)} must be a positive frequency, got ${x} Hz`);
+      });
+      const hc = f.map((x) => bentPowerLawStrain(x, A, fb, k));
+      return new SpectrumValue(
+        { frequencyHz: f, hc },
+        {
+          residualPsd: { unit: 's^3', description: 'one-sided timing-residual PSD', values: hc.map((h, i) => residualPowerSpectralDensity(f[i], h)) },
+          equivalentResidual: { unit: 's', description: 'h_c / (2 pi f)', values: hc.map((h, i) => equivalentResidual(f[i], h)) },
+        },
+        undefined,
+      );
     },
   },
   {

@@ -53,6 +53,14 @@ describe('orbit built-ins', () => {
     expect(e[1]).toBeLessThan(0.5);
   });
 
+  it('bentSpectrum is the bent power law of bentStrain as a spectrum object (Sampson, Cornish & McWilliams 2015)', () => {
+    const s = sheetOf({ ...base, list: 'bentStrain(freqs, 2e-15, 3 nHz, 10/3)', spec: 'bentSpectrum(freqs, 2e-15, 3 nHz, 10/3)' });
+    const list = (s.value('list') as Matrix).toArray() as number[];
+    const spec = s.value('spec') as SpectrumValue;
+    expect(spec.kind).toBe('spectrum');
+    for (let k = 0; k < list.length; k++) expect(spec.hc[k]).toBe(list[k]);
+  });
+
   it('finite-number built-ins return counts, a thinned spectrum and strains', () => {
     const s = sheetOf({ ...base, n: 'binariesPerBin(pop, freqs, 12 yr)', thin: 'thinnedSpectrum(pop, freqs, 12 yr)', loud: 'loudestBinaryStrain(pop, freqs, 12 yr)' });
     const n = (s.value('n') as Matrix).toArray() as number[];
