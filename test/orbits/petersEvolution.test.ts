@@ -1,4 +1,5 @@
 // Peters 1964 (Phys. Rev. 136, B1224): closed-form a(e) against a direct integration of da/dt, de/dt.
+// Equation numbers of Peters 1964 cited here are from memory; the formulas are the ones in PHYSICS.md.
 import { describe, expect, it } from 'vitest';
 import {
   eccentricityAtOrbitalFrequency,
