@@ -9,7 +9,7 @@ import { stellarEccentricKernel, stellarEmissionKernel, stellarTransitionFrequen
 import { bendEmissionKernel, bentPowerLawStrain, BEND_INDEX } from '../physics/bendSpectrum';
 import { scalarSI, vectorSI, where } from './args';
 import { elementwise, positiveSI } from './physicsArgs';
-import { EmissionModel, guardedPhysics, initialEccentricityArg } from './orbits';
+import { checkSpectrumArgs, EmissionModel, guardedPhysics, initialEccentricityArg } from './orbits';
 import { spectrumBuiltins } from './spectrum';
 import { SpectrumValue } from './spectrumValue';
 import { equivalentResidual, residualPowerSpectralDensity } from '../physics/spectrumConversions';
@@ -118,8 +118,10 @@ export const environmentBuiltins: Builtin[] = [
     returns: { unit: 'spectrum', description: 'h_c on the grid, with the series strainSpectrum gives' },
     source: `${QUINLAN}; Phinney 2001, astro-ph/0108028`,
     example: 'stellarSpectrum(pop, freqs, 100 Msun/pc^3, 200 km/s, 16)',
-    fn: (population: unknown, freqs: unknown, density: unknown, dispersion: unknown, hardening: unknown, e0?: unknown) =>
-      strainSpectrumFn(population, freqs, stellarModel(density, dispersion, hardening, e0, 'stellarSpectrum')),
+    fn: (population: unknown, freqs: unknown, density: unknown, dispersion: unknown, hardening: unknown, e0?: unknown) => {
+      checkSpectrumArgs(population, freqs, 'stellarSpectrum');
+      return strainSpectrumFn(population, freqs, stellarModel(density, dispersion, hardening, e0, 'stellarSpectrum'));
+    },
   },
   {
     name: 'bentStrain',

@@ -93,6 +93,16 @@ function nHz(x: number): string {
   return `${(x * 1e9).toPrecision(3)} nHz`;
 }
 
+/** Checks the population and frequency arguments under the caller's name before strainSpectrum runs. */
+export function checkSpectrumArgs(population: unknown, freqs: unknown, fn: string): void {
+  populationArg(population, fn);
+  const f = vectorSI(freqs, 'frequency', fn, 'freqs');
+  if (f.length === 0) throw new BuiltinError(`${where(fn, 'freqs')} holds no frequency`);
+  f.forEach((x, i) => {
+    if (!(x > 0)) throw new BuiltinError(`${where(fn, `freqs[${i + 1}]`)} must be a positive frequency, got ${x} Hz`);
+  });
+}
+
 /** The eccentric emission model (shared by eccentricEmission and eccentricSpectrum). */
 function eccentricModel(e0v: unknown, f0v: unknown, fn: string): EmissionModel {
   const e0 = initialEccentricityArg(e0v, fn);
@@ -308,6 +318,7 @@ export const orbitBuiltins: Builtin[] = [
     source: `${ENOKI}, with the integrator of Phinney 2001, astro-ph/0108028`,
     example: 'eccentricSpectrum(pop, freqs, 0.9, 0.1 nHz)',
     fn: (population: unknown, freqs: unknown, e0: unknown, f0: unknown) => {
+      checkSpectrumArgs(population, freqs, 'eccentricSpectrum');
       const model = eccentricModel(e0, f0, 'eccentricSpectrum');
       return strainSpectrumBuiltin().fn(population, freqs, model) as SpectrumValue;
     },

@@ -88,6 +88,8 @@ describe('orbit built-ins', () => {
       e13: 'stellarTransitionFrequency(1e9 Msun, 1.5, 100 Msun/pc^3, 200 km/s, 16)',
       negDensity: 'negDensity(x) = x - 0.5',
       e14: 'eccentricityCustom(negDensity, 0, 0.9)',
+      e15: 'eccentricSpectrum(cosmo, freqs, 0.5, 1 nHz)',
+      e16: 'stellarSpectrum(pop, [1, -2] nHz, 100 Msun/pc^3, 200 km/s, 16)',
     });
     expect(errorOf(s, 'e1')).toMatch(/argument e of harmonicPower must be an eccentricity in \[0, 1\), got 1/);
     expect(errorOf(s, 'e2')).toMatch(/argument n of harmonicPower must be a whole number/);
@@ -103,5 +105,7 @@ describe('orbit built-ins', () => {
     expect(errorOf(s, 'e12')).toMatch(/argument hi of eccentricityUniform must exceed lo/);
     expect(errorOf(s, 'e13')).toMatch(/argument q of stellarTransitionFrequency must be a mass ratio in \(0, 1\]/);
     expect(errorOf(s, 'e14')).toMatch(/argument density of eccentricityCustom must not be negative/);
+    expect(errorOf(s, 'e15')).toMatch(/argument population of eccentricSpectrum must be a population, got a cosmology/);
+    expect(errorOf(s, 'e16')).toMatch(/argument freqs\[2\] of stellarSpectrum must be a positive frequency/);
   });
 });
