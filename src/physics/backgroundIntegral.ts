@@ -217,7 +217,7 @@ function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, c
   return out;
 }
 
-/** Energy form with an arbitrary kernel; densities on the whole mass panels are cached per z node. */
+/** Energy form with an arbitrary kernel; weighted densities and masses on the whole mass panels are cached per z node. */
 function energyForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, kernel: EmissionKernel, cutFactor: number, res: IntegrationResolution): Float64Array {
   const zr = compositeNodes(pop.zMin, pop.zMax, res.zPanels, res.order);
   const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
@@ -225,25 +225,44 @@ function energyForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, kernel: E
   const eta06 = new Float64Array(nq);
   for (let j = 0; j < nq; j++) eta06[j] = Math.pow(symmetricMassRatio(qr.nodes[j]), 0.6);
   const mp = new MassPanels(pop.log10MMin, pop.log10MMax, res.log10MPanels, res.order);
+  const nb = mp.base.nodes.length;
+  // Total and chirp masses (kg) at each (mass node, q node) of the whole panels; the same for every z.
+  const baseM = new Float64Array(nb);
+  const baseMc = new Float64Array(nb * nq);
+  for (let i = 0; i < nb; i++) {
+    baseM[i] = M_SUN_KG * Math.pow(10, mp.base.nodes[i]);
+    for (let j = 0; j < nq; j++) baseMc[i * nq + j] = baseM[i] * eta06[j];
+  }
   const cache: (Float64Array | undefined)[] = new Array(zr.nodes.length);
+  const partM = new Float64Array(res.order);
+  const partMc = new Float64Array(res.order * nq);
 
-  const densities = (z: number, mr: QuadratureRule): Float64Array => {
+  // A separable density gives w_q p(q) once per q node.
+  const sep = pop.separable;
+  const qFactor = new Float64Array(nq);
+  if (sep) for (let j = 0; j < nq; j++) qFactor[j] = qr.weights[j] * checkedValue(sep.massRatio(qr.nodes[j]), 'mass-ratio factor', qr.nodes[j]);
+  // w_M w_q n at each node of mr.
+  const weightedDensities = (z: number, mr: QuadratureRule): Float64Array => {
     const d = new Float64Array(mr.nodes.length * nq);
-    for (let i = 0; i < mr.nodes.length; i++) for (let j = 0; j < nq; j++) d[i * nq + j] = densityAt(pop, z, mr.nodes[i], qr.nodes[j]);
+    for (let i = 0; i < mr.nodes.length; i++) {
+      if (sep) {
+        const zm = mr.weights[i] * checkedValue(sep.zMass(z, mr.nodes[i]), 'density', z, mr.nodes[i]);
+        for (let j = 0; j < nq; j++) d[i * nq + j] = zm * qFactor[j];
+      } else {
+        for (let j = 0; j < nq; j++) d[i * nq + j] = mr.weights[i] * qr.weights[j] * densityAt(pop, z, mr.nodes[i], qr.nodes[j]);
+      }
+    }
     return d;
   };
-  // Int dlog10M Int dq n K over nodes [from, to) of mr with densities d.
-  const sum = (fr: number, z: number, mr: QuadratureRule, d: Float64Array, from: number, to: number): number => {
+  // Sum of w n K over the first `count` mass nodes.
+  const sum = (fr: number, z: number, wd: Float64Array, m: Float64Array, mc: Float64Array, count: number): number => {
     let s = 0;
-    for (let i = from; i < to; i++) {
-      const mKg = M_SUN_KG * Math.pow(10, mr.nodes[i]);
-      let inner = 0;
+    for (let i = 0; i < count; i++) {
+      const mKg = m[i];
       for (let j = 0; j < nq; j++) {
-        const n = d[i * nq + j];
-        if (n === 0) continue;
-        inner += qr.weights[j] * n * kernel(fr, mKg * eta06[j], mKg, qr.nodes[j], z);
+        const w = wd[i * nq + j];
+        if (w !== 0) s += w * kernel(fr, mc[i * nq + j], mKg, qr.nodes[j], z);
       }
-      s += mr.weights[i] * inner;
     }
     return s;
   };
@@ -257,10 +276,16 @@ function energyForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, kernel: E
       const fr = (1 + z) * f;
       const xCut = log10CutMass(fr, cutFactor);
       if (xCut <= pop.log10MMin) continue;
-      const d = (cache[iz] ??= densities(z, mp.base));
-      let s = sum(fr, z, mp.base, d, 0, mp.wholePanels(xCut) * mp.order);
+      const wd = (cache[iz] ??= weightedDensities(z, mp.base));
+      let s = sum(fr, z, wd, baseM, baseMc, mp.wholePanels(xCut) * mp.order);
       const part = mp.partialPanel(xCut);
-      if (part.nodes.length > 0) s += sum(fr, z, part, densities(z, part), 0, part.nodes.length);
+      if (part.nodes.length > 0) {
+        for (let i = 0; i < part.nodes.length; i++) {
+          partM[i] = M_SUN_KG * Math.pow(10, part.nodes[i]);
+          for (let j = 0; j < nq; j++) partMc[i * nq + j] = partM[i] * eta06[j];
+        }
+        s += sum(fr, z, weightedDensities(z, part), partM, partMc, part.nodes.length);
+      }
       total += (zr.weights[iz] / (1 + z)) * s;
     }
     out[k] = (ENERGY_FORM / (f * f)) * total * PER_MPC3;

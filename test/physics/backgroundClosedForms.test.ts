@@ -95,6 +95,14 @@ describe('separable populations', () => {
       const fast = characteristicStrainSquared(p, freqs);
       const full = characteristicStrainSquared({ ...p, separable: undefined }, freqs);
       for (let i = 0; i < freqs.length; i++) expect(rel(fast[i], full[i])).toBeLessThan(1e-12);
+      // and the same through the energy form (generic kernel path), with and without the factors
+      const kernel: EmissionKernel = (fr, mc, m, q, z) => circularGwKernel(fr, mc, m, q, z);
+      const eSep = characteristicStrainSquared(p, freqs, { kernel });
+      const eFull = characteristicStrainSquared({ ...p, separable: undefined }, freqs, { kernel });
+      for (let i = 0; i < freqs.length; i++) {
+        expect(rel(eSep[i], full[i])).toBeLessThan(1e-12);
+        expect(rel(eFull[i], full[i])).toBeLessThan(1e-12);
+      }
     }
   });
 });
