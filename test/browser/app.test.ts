@@ -11,7 +11,7 @@ import { formatValue } from '../../src/sheet/formatValue';
 import { isSheetObject } from '../../src/sheet/sheetObject';
 import { buildAndServe, PROJECT_ROOT, type ServedApp } from './appServer';
 import { browserAvailability, launchChromium, type LaunchedBrowser } from './chromiumBrowser';
-import { canvasFingerprint, canvasInk, cellStatus, cellValueText, download, firstNumber, setFormula } from './pageHelpers';
+import { canvasFingerprint, canvasInk, cellStatus, cellValueText, download, firstNumber, openRowDetails, setFormula } from './pageHelpers';
 
 const availability = browserAvailability();
 if (!availability.ok) console.warn(availability.reason + (availability.required ? ' STRAINSHEET_REQUIRE_BROWSER=1, so this fails.' : ''));
@@ -173,7 +173,7 @@ describe.runIf(runSuite)('Strainsheet in the browser', () => {
     await freshDemo();
     const users = headlessDemo().dependents('rate_norm');
     expect(users.length).toBeGreaterThan(0);
-    await page.click('[data-cell="rate_norm"] .name-button');
+    await openRowDetails(page, 'rate_norm');
     await page.click('[data-cell="rate_norm"] .cell-actions >> text=rename');
     await page.fill('[data-cell="rate_norm"] .rename-input', 'rate_scale');
     await page.press('[data-cell="rate_norm"] .rename-input', 'Enter');
@@ -181,7 +181,7 @@ describe.runIf(runSuite)('Strainsheet in the browser', () => {
     for (const u of users) expect(await page.inputValue(`input[data-formula="${u}"]`)).toContain('rate_scale');
     expect(await cellStatus(page, 'A_yr')).toBe('ok');
     // Delete it: the dependents now report the vanished name.
-    await page.click('[data-cell="rate_scale"] .name-button');
+    await openRowDetails(page, 'rate_scale');
     await page.click('[data-cell="rate_scale"] .cell-actions >> text=delete');
     await page.waitForSelector(`[data-cell="${users[0]}"] .cell-error`);
     expect((await page.textContent(`[data-cell="${users[0]}"] .error-message`)) ?? '').toContain('rate_scale');
@@ -418,6 +418,37 @@ describe.runIf(runSuite)('Strainsheet in the browser', () => {
     expect(await page.textContent('[data-autosave]')).toBe('autosave failed');
     await page.reload(); // restores the real Storage.prototype.setItem
     await page.waitForSelector('[data-key-value="A_yr"]');
+  });
+
+  it('adds a function cell of frequency and draws it as its own curve; duplicates and moves a cell between sections', async () => {
+    await freshDemo();
+    await page.fill('form.add-cell input[name="name"]', 'hc_line');
+    await page.fill('form.add-cell input[name="formula"]', 'hc_line(f) = A_yr * (f * 1 yr)^(-2/3)');
+    await page.fill('form.add-cell input[name="section"]', 'my curves');
+    await page.click('form.add-cell button[type="submit"]');
+    await page.waitForSelector('[data-section="my curves"] [data-cell="hc_line"]', { timeout: 8000 });
+    const csv = await download(page, () => page.click('[data-plot="spectrum"] [data-action="export-csv"]'));
+    const rows = csv.bytes
+      .toString('utf8')
+      .trim()
+      .split('\r\n')
+      .map((l) => l.split(','))
+      .filter((f) => f[0] === 'hc_line(f)');
+    const ayr = headlessDemo().value('A_yr') as number;
+    const year = 365.25 * 86400; // Julian year in seconds (IAU)
+    expect(rows.length).toBeGreaterThan(5);
+    // The curve is the power law the cell defines, h_c = A_yr (f yr)^(-2/3), evaluated independently here.
+    for (const f of rows) expect(Number(f[2]) / (ayr * (Number(f[1]) * 1e-9 * year) ** (-2 / 3))).toBeCloseTo(1, 9);
+    // Duplicate rate_norm: the copy sits right after it, in the same section, with the same value.
+    await openRowDetails(page, 'rate_norm');
+    await page.click('[data-cell="rate_norm"] .cell-actions >> text=copy', { timeout: 8000 });
+    await page.waitForSelector('[data-section="population"] [data-cell="rate_norm_copy"]', { timeout: 8000 });
+    expect(await cellValueText(page, 'rate_norm_copy')).toBe(await cellValueText(page, 'rate_norm'));
+    // Move the copy to the user's section.
+    await openRowDetails(page, 'rate_norm_copy');
+    await page.selectOption('[data-cell="rate_norm_copy"] select.section-select', 'my curves', { timeout: 8000 });
+    await page.waitForSelector('[data-section="my curves"] [data-cell="rate_norm_copy"]', { timeout: 8000 });
+    await page.screenshot({ path: join(ARTIFACTS, '07-own-section.png') });
   });
 });
 

@@ -64,3 +64,14 @@ export async function canvasFingerprint(page: Page, selector: string): Promise<s
     return h1.toString(16);
   });
 }
+
+/** Opens a row's details (inputs, dependents, actions): its name button toggles them. */
+export async function openRowDetails(page: Page, name: string): Promise<void> {
+  const details = page.locator(`[data-cell="${name}"] .row-details`);
+  for (let attempt = 0; attempt < 3; attempt++) {
+    if (await details.isVisible()) return;
+    await page.click(`[data-cell="${name}"] .name-button`);
+    await details.waitFor({ state: 'visible', timeout: 2000 }).catch(() => undefined);
+  }
+  await details.waitFor({ state: 'visible', timeout: 2000 });
+}

@@ -209,6 +209,7 @@ export function CellRow(props: { spec: CellSpec }) {
               }
             >
               <select
+                class="section-select"
                 aria-label={`Section of ${name()}`}
                 title="Move to section"
                 value={sectionOf(props.spec)}
