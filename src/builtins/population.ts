@@ -9,7 +9,7 @@ import { GYR_S, MPC_M, M_SUN_KG } from '../physics/constants';
 import { chirpMassFromTotal, symmetricMassRatio } from '../physics/binaryMasses';
 import { phenomenologicalPopulation } from '../physics/phenomenologicalPopulation';
 import { customMassRatio, powerLawMassRatio, redshiftShape, type MassRatioDistribution } from '../physics/populationShapes';
-import { doubleSchechterPerDex, schechterPerDex } from '../physics/massFunctions';
+import { doubleSchechterPerDex, massDensityOf, schechterPerDex } from '../physics/massFunctions';
 import { KORMENDY_HO_2013, MCCONNELL_MA_2013, medianLog10BlackHoleMass, type BlackHoleBulgeRelation } from '../physics/blackHoleBulgeRelation';
 import { galaxyMergerPopulation, type StellarMassFunctionParams } from '../physics/galaxyMergerPopulation';
 import { mergedMassDensity, mergedNumberDensity, mergerRateDensity } from '../physics/populationSanity';
@@ -334,6 +334,29 @@ export const populationBuiltins: Builtin[] = [
         if (!(m > 0)) throw new BuiltinError(`${where(fn, arg)} must be positive`);
         return quantity(doubleSchechterPerDex(m / M_SUN_KG, p1, a1, p2, a2, ms) / TO_PER_MPC3, 'Mpc^-3');
       });
+    },
+  },
+  {
+    name: 'schechterMassDensity',
+    category: 'population',
+    summary: 'Mass density Int M phi(M) dlog10M of a Schechter mass function per dex between two masses (e.g. a black-hole mass function, to compare with the local black-hole mass density).',
+    args: [
+      { name: 'phiStar', unit: 'Mpc^-3', description: 'normalisation Phi*, >= 0' },
+      { name: 'breakMass', unit: 'Msun', description: 'break mass M*, > 0' },
+      { name: 'alpha', unit: 'dimensionless', description: 'low-mass slope' },
+      { name: 'minMass', unit: 'Msun', description: `lowest mass (default ${DEFAULT_MIN_MASS.toExponential(0)} Msun)`, optional: true },
+      { name: 'maxMass', unit: 'Msun', description: `highest mass (default ${DEFAULT_MAX_MASS.toExponential(0)} Msun)`, optional: true },
+    ],
+    returns: { unit: 'Msun/Mpc^3', description: 'mass density' },
+    source: 'Schechter 1976, ApJ 203, 297 (over all masses: Phi* M* Gamma(2 + alpha))',
+    example: 'schechterMassDensity(1e-3 Mpc^-3, 1e9 Msun, -1.2)',
+    fn: (phiStar: unknown, breakMass: unknown, alpha: unknown, minMass?: unknown, maxMass?: unknown) => {
+      const fn = 'schechterMassDensity';
+      const phi = nonNegativeSI(phiStar, 'numberDensity', fn, 'phiStar') * TO_PER_MPC3;
+      const ms = massMsun(breakMass, fn, 'breakMass');
+      const a = scalarSI(alpha, 'dimensionless', fn, 'alpha');
+      const [x0, x1] = massLimits(minMass, maxMass, fn);
+      return quantity((massDensityOf((m) => schechterPerDex(m, phi, ms, a), x0, x1) * M_SUN_KG) / TO_PER_MPC3, 'Msun/Mpc^3');
     },
   },
   {

@@ -11,7 +11,7 @@ import { galaxyMergerDensity, galaxyMergerPopulation, stellarMassFunctionPerDex,
 import { KORMENDY_HO_2013, MCCONNELL_MA_2013, medianLog10BlackHoleMass } from '../../src/physics/blackHoleBulgeRelation';
 import { compositeNodes } from '../../src/physics/gaussLegendre';
 import { powerLawMassRatio } from '../../src/physics/populationShapes';
-import { schechterPerDex } from '../../src/physics/massFunctions';
+import { massDensityOf, schechterPerDex } from '../../src/physics/massFunctions';
 
 const cosmo = new FlatLambdaCdm({ hubbleSI: 70 * KM_S_MPC_SI, omegaM: 0.3 });
 
@@ -84,6 +84,10 @@ describe('galaxy-merger route against a direct integral over galaxy variables', 
 describe('mass functions and relations', () => {
   it('Schechter per dex at M = M*: ln10 Phi* e^-1 (Schechter 1976, ApJ 203, 297)', () => {
     expect(Math.abs(schechterPerDex(1e11, 2e-3, 1e11, -1.3) / (Math.LN10 * 2e-3 * Math.exp(-1)) - 1)).toBeLessThan(1e-15);
+  });
+  it('mass density of a Schechter function over all masses is Phi* M* Gamma(2 + alpha) (Gamma(3/2) = sqrt(pi)/2)', () => {
+    const rho = massDensityOf((m) => schechterPerDex(m, 1e-3, 1e9, -0.5), 3, 12);
+    expect(Math.abs(rho / (1e-3 * 1e9 * (Math.sqrt(Math.PI) / 2)) - 1)).toBeLessThan(1e-6);
   });
   it('stellar mass function moves Phi* and alpha linearly in z', () => {
     const p = params(0).massFunction;

@@ -89,6 +89,11 @@ describe('conversions', () => {
     x_eta: 'symmetricMassRatio(0.5)',
     x_fisco: 'iscoFrequency(1e9 Msun)',
     x_age: 'cosmicAge(flatCosmology(70 km/s/Mpc, 0.3), 0)',
+    x_rho: 'schechterMassDensity(1e-3 Mpc^-3, 1e9 Msun, -0.5, 1e3 Msun, 1e12 Msun)',
+  });
+  it('schechterMassDensity over (nearly) all masses is Phi* M* Gamma(2 + alpha) (Schechter 1976)', () => {
+    const msunPerMpc3 = 1.3271244e20 / 6.6743e-11 / ((648000 / Math.PI) * 149597870700 * 1e6) ** 3;
+    expect(rel(siOf(valueOf(s, 'x_rho')), 1e-3 * 1e9 * (Math.sqrt(Math.PI) / 2) * msunPerMpc3)).toBeLessThan(1e-6);
   });
   const h0 = 70 * KM_S_MPC_SI;
   it('follow the formulas of PHYSICS.md (Phinney 2001; gamma = 3 - 2 alpha)', () => {
