@@ -156,7 +156,7 @@ export const populationBuiltins: Builtin[] = [
       { name: 'zMax', unit: 'dimensionless', description: 'largest redshift of the population, > 0' },
     ],
     returns: { unit: 'redshiftShape', description: 'a redshift shape for mergerPopulation' },
-    source: 'Middleton et al. 2016, MNRAS 455, L72, eq. 2',
+    source: 'Middleton et al. 2016, MNRAS 455, L72',
     example: 'redshiftPowerExp(2, 1.5, 5)',
     fn: (beta: unknown, z0: unknown, zMax: unknown) => {
       const fn = 'redshiftPowerExp';
@@ -321,7 +321,7 @@ export const populationBuiltins: Builtin[] = [
       { name: 'breakMass', unit: 'Msun', description: 'break mass M*, > 0' },
     ],
     returns: { unit: 'Mpc^-3', description: 'number density per dex of mass' },
-    source: 'Baldry et al. 2012, MNRAS 421, 621, eq. 6 (written per dex; citation from memory)',
+    source: 'Baldry et al. 2012, MNRAS 421, 621 (written per dex; citation from memory)',
     example: 'doubleSchechterPerDex(1e10 Msun, 4e-3 Mpc^-3, -0.35, 6e-4 Mpc^-3, -1.47, 5e10 Msun)',
     fn: (mass: unknown, phi1: unknown, alpha1: unknown, phi2: unknown, alpha2: unknown, breakMass: unknown) => {
       const fn = 'doubleSchechterPerDex';
@@ -397,7 +397,7 @@ export const populationBuiltins: Builtin[] = [
     summary: 'Preset black-hole-bulge relation: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.16, scatter 0.29 dex (scatter from memory).',
     args: [],
     returns: { unit: 'bulgeRelation', description: 'the preset relation' },
-    source: 'Kormendy & Ho 2013, ARA&A 51, 511, eq. 10',
+    source: 'Kormendy & Ho 2013, ARA&A 51, 511',
     example: 'kormendyHoRelation()',
     fn: () => new RelationValue(KORMENDY_HO_2013),
   },

@@ -144,7 +144,7 @@ export const spectrumBuiltins: Builtin[] = [
       emissionArgDoc,
     ],
     returns: { unit: 'spectrum', description: 'h_c on the grid; series omegaGw (if the population has a cosmology), residualPsd (s^3) and equivalentResidual (s)' },
-    source: `${PHINNEY}, eq. 5; circular kernel and ISCO cut c^3/(6^(3/2) pi G M)`,
+    source: `${PHINNEY}; circular kernel and ISCO cut c^3/(6^(3/2) pi G M)`,
     example: 'strainSpectrum(pop, freqs)',
     fn: (population: unknown, freqs: unknown, emission?: unknown) => {
       const fn = 'strainSpectrum';
@@ -182,7 +182,7 @@ export const spectrumBuiltins: Builtin[] = [
       { name: 'frequency', unit: 'nHz', description: 'observed GW frequency > 0 (or a list)' },
     ],
     returns: { unit: 'dimensionless', description: 'h_c' },
-    source: `${PHINNEY}, eq. 5`,
+    source: `${PHINNEY}`,
     example: 'strainAt(spectrum, 10 nHz)',
     fn: (spectrum: unknown, frequency: unknown) => {
       const s = spectrumArg(spectrum, 'strainAt');
@@ -201,7 +201,7 @@ export const spectrumBuiltins: Builtin[] = [
       emissionArgDoc,
     ],
     returns: { unit: 'dimensionless', description: 'A_yr' },
-    source: `${PHINNEY}, eq. 5 at f = 1/yr`,
+    source: `${PHINNEY}, at f = 1/yr`,
     example: 'amplitudeAtYear(spectrum)',
     fn: (source: unknown, emission?: unknown) => {
       const fn = 'amplitudeAtYear';
@@ -221,7 +221,7 @@ export const spectrumBuiltins: Builtin[] = [
     summary: 'The h_c values of a spectrum as a list (same order as its frequencies).',
     args: [{ name: 'spectrum', unit: 'spectrum', description: 'from strainSpectrum' }],
     returns: { unit: 'dimensionless', description: 'list of h_c' },
-    source: `${PHINNEY}, eq. 5`,
+    source: `${PHINNEY}`,
     example: 'strainValues(spectrum)',
     fn: (spectrum: unknown) => math.matrix(Array.from(spectrumArg(spectrum, 'strainValues').hc)),
   },
@@ -245,7 +245,7 @@ export const spectrumBuiltins: Builtin[] = [
       { name: 'H0', unit: 'km/s/Mpc', description: 'Hubble constant > 0' },
     ],
     returns: { unit: 'dimensionless', description: 'Omega_gw' },
-    source: `${PHINNEY}, eq. 1 with rho_c = 3 H0^2 / (8 pi G)`,
+    source: `${PHINNEY}, with rho_c = 3 H0^2 / (8 pi G)`,
     example: 'omegaGwOfStrain(2e-15, 31.7 nHz, 70 km/s/Mpc)',
     fn: (hc: unknown, frequency: unknown, H0: unknown) => {
       const fn = 'omegaGwOfStrain';
@@ -320,7 +320,7 @@ export const spectrumBuiltins: Builtin[] = [
     summary: 'Where in redshift h_c^2 at one frequency comes from: dh_c^2/dz on an even grid, its median and the z ranges holding the central 50% and 90%.',
     args: [{ name: 'population', unit: 'population', description: 'any population' }, frequencyArgDoc, emissionArgDoc],
     returns: { unit: 'origin', description: 'grid, density, cumulative fraction, median, range50, range90 (see originRange)' },
-    source: `${PHINNEY}, eq. 5 without the z integral`,
+    source: `${PHINNEY}, without the z integral`,
     example: 'redshiftOrigin(pop)',
     fn: (population: unknown, frequency?: unknown, emission?: unknown) => originOf('z', population, frequency, emission, 'redshiftOrigin'),
   },
@@ -330,7 +330,7 @@ export const spectrumBuiltins: Builtin[] = [
     summary: 'Where in chirp mass h_c^2 at one frequency comes from: dh_c^2/dlog10 M_c, its median and the ranges holding the central 50% and 90%.',
     args: [{ name: 'population', unit: 'population', description: 'any population' }, frequencyArgDoc, emissionArgDoc],
     returns: { unit: 'origin', description: 'grid in log10(M_c/Msun), density, cumulative fraction, median, range50, range90' },
-    source: `${PHINNEY}, eq. 5 with the mass integral taken at fixed chirp mass`,
+    source: `${PHINNEY}, with the mass integral taken at fixed chirp mass`,
     example: 'chirpMassOrigin(pop)',
     fn: (population: unknown, frequency?: unknown, emission?: unknown) => originOf('log10Mc', population, frequency, emission, 'chirpMassOrigin'),
   },

@@ -1,22 +1,22 @@
 // The characteristic-strain spectrum of a population of inspiralling binaries (Phinney 2001,
-// astro-ph/0108028, eq. 5):
+// astro-ph/0108028):
 //   h_c^2(f) = 4G / (pi c^2 f^2) Int dz dlog10M dq  n(z, log10M, q) / (1+z)  dE/dln f_r |_{f_r = (1+z) f}
 // with n = d^3n/(dz dlog10M dq) the comoving number density of remnants and dE/dln f_r an EmissionKernel.
 //
 // Scheme: composite Gauss-Legendre in z, log10M and q (panels x order points in each). The emission of
 // each binary ends where f_r reaches cutFactor x f_ISCO,gw(M); since f_ISCO falls with M, that is an
-// upper limit log10M_cut(f, z) on the mass integral, which is applied as the integration limit (the
-// mass nodes are laid on [log10MMin, min(log10MMax, log10M_cut)]), never as a step in the integrand.
-// The z integrand keeps a kink where log10M_cut crosses log10MMax; its weight is that of the heaviest
-// binaries, e^(-M/M*)-suppressed in the parametric populations, and the convergence tests bound it.
-// Only the mass panel that the cut falls in is laid anew; whole panels below it keep their nodes, so
-// their values are computed once per z node and shared by all frequencies.
+// upper limit log10M_cut(f, z) on the mass integral, applied as the integration limit, never as a step
+// in the integrand: the mass panels wholly below the cut keep their nodes (their values are computed
+// once per z node and shared by all frequencies), and the panel the cut falls in is laid anew on
+// [its lower edge, log10M_cut]. The z integrand keeps a kink where log10M_cut crosses log10MMax; its
+// weight is that of the heaviest binaries, e^(-M/M*)-suppressed in the parametric populations, and the
+// convergence tests bound it.
 // Error: for smooth integrands composite Gauss-Legendre converges geometrically with order; the default
 // resolution gives A_yr to better than 1e-4 relative for the demo and test populations (see
 // test/physics/convergence.test.ts).
 //
 // Circular kernel fast path: with M_c^(5/3) = M^(5/3) eta, h_c^2 = 4 G^(5/3) / (3 pi^(1/3) c^2) f^(-4/3)
-// Int dz (1+z)^(-1/3) Int dlog10M M^(5/3) Int dq n eta (Phinney 2001, eq. 7 form), so the q integral is
+// Int dz (1+z)^(-1/3) Int dlog10M M^(5/3) Int dq n eta (Phinney 2001), so the q integral is
 // done once per (z, M) node (once in all when the population declares itself separable in q), and
 // whole mass panels below the cut are computed once per z node and shared by all frequencies.
 import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';

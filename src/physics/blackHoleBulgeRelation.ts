@@ -19,7 +19,7 @@ export interface BlackHoleBulgeRelation {
 export const MCCONNELL_MA_2013: BlackHoleBulgeRelation = Object.freeze({ a: 8.46, b: 1.05, scatterDex: 0.34, source: 'McConnell & Ma 2013, ApJ 764, 184 (scatter from memory)' });
 
 /**
- * Kormendy & Ho 2013 (ARA&A 51, 511), eq. 10: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.16, so
+ * Kormendy & Ho 2013 (ARA&A 51, 511): M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.16, so
  * a = 9 + log10 0.49 = 8.690 and b = 1.16 (as in PHYSICS.md); intrinsic scatter 0.29 dex (PHYSICS.md, memory).
  */
 export const KORMENDY_HO_2013: BlackHoleBulgeRelation = Object.freeze({ a: 9 + Math.log10(0.49), b: 1.16, scatterDex: 0.29, source: 'Kormendy & Ho 2013, ARA&A 51, 511 (scatter from memory)' });

@@ -4,7 +4,7 @@ import type { EmissionKernel } from './populationTypes';
 
 const PREFACTOR = (Math.pow(Math.PI, 2 / 3) / 3) * Math.pow(G_SI, 2 / 3);
 
-/** dE/dln f_r = (pi^(2/3)/3) G^(2/3) M_c^(5/3) f_r^(2/3), J (Phinney 2001, astro-ph/0108028, eq. 6 form). */
+/** dE/dln f_r = (pi^(2/3)/3) G^(2/3) M_c^(5/3) f_r^(2/3), J (Phinney 2001, astro-ph/0108028). */
 export const circularGwKernel: EmissionKernel = (frHz, mcKg) => PREFACTOR * Math.pow(mcKg, 5 / 3) * Math.pow(frHz, 2 / 3);
 
 /** Rest-frame GW frequency at the innermost stable circular orbit, c^3 / (6^(3/2) pi G M), Hz (Schwarzschild ISCO at r = 6GM/c^2; Misner, Thorne & Wheeler 1973). */

@@ -55,7 +55,7 @@ export function stellarMassFunctionPerDex(p: StellarMassFunctionParams, mass: nu
   return schechterPerDex(mass, Math.pow(10, p.log10PhiStar0 + p.log10PhiStarSlope * z), p.mStar, p.alpha0 + p.alphaSlope * z);
 }
 
-/** Galaxy merger density d^3n_G/(dz dlog10M_G dq_G), Mpc^-3 (Sesana 2013, eq. 3 form; memory). */
+/** Galaxy merger density d^3n_G/(dz dlog10M_G dq_G), Mpc^-3 (Sesana 2013 form; memory). */
 export function galaxyMergerDensity(p: GalaxyMergerParams, z: number, log10Mg: number, qg: number): number {
   const phi = stellarMassFunctionPerDex(p.massFunction, Math.pow(10, log10Mg), z);
   const pair = p.pairFraction0 * Math.pow(1 + z, p.betaPair);

@@ -1,7 +1,7 @@
 // Shapes that build a merger density: redshift dependence and mass-ratio distribution.
 import { integrate } from './gaussLegendre';
 
-/** Redshift shape (1+z)^beta e^(-z/z0) (Middleton et al. 2016, MNRAS 455, L72, eq. 2). */
+/** Redshift shape (1+z)^beta e^(-z/z0) (Middleton et al. 2016, MNRAS 455, L72). */
 export function redshiftShape(z: number, beta: number, z0: number): number {
   return Math.pow(1 + z, beta) * Math.exp(-z / z0);
 }

@@ -1,5 +1,5 @@
 // Where a background comes from: the contributions to h_c^2(f) per unit redshift and per dex of chirp
-// mass, from the energy form of Phinney 2001 (astro-ph/0108028, eq. 5) with the integral over the other
+// mass, from the energy form of Phinney 2001 (astro-ph/0108028) with the integral over the other
 // variables left out, and the ranges that hold the central 50% and 90% of h_c^2.
 import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';
 import { symmetricMassRatio } from './binaryMasses';

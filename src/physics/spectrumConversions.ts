@@ -2,7 +2,7 @@
 import { F_YR_HZ } from './constants';
 import type { Spectrum } from './spectrum';
 
-/** Omega_gw(f) = 2 pi^2 f^2 h_c^2 / (3 H0^2) (Phinney 2001, astro-ph/0108028, eq. 1 with rho_c = 3H0^2/(8 pi G)). */
+/** Omega_gw(f) = 2 pi^2 f^2 h_c^2 / (3 H0^2) (Phinney 2001, astro-ph/0108028, with rho_c = 3H0^2/(8 pi G)). */
 export function omegaGw(fHz: number, hc: number, hubbleSI: number): number {
   return (2 * Math.PI * Math.PI * fHz * fHz * hc * hc) / (3 * hubbleSI * hubbleSI);
 }

@@ -33,7 +33,7 @@ describe('chirp mass and symmetric mass ratio (definitions: M_c = (m1 m2)^(3/5) 
   });
 });
 
-describe('delta-function population (Phinney 2001, eq. 5 with one chirp mass and one redshift)', () => {
+describe('delta-function population (Phinney 2001, with one chirp mass and one redshift)', () => {
   // h_c^2 = 4 G^(5/3) / (3 pi^(1/3) c^2) f^(-4/3) N M_c^(5/3) (1+z)^(-1/3), N per m^3.
   const cases = [
     { n: 1e-4, z: 0.5, x: 9, q: 0.4, f: F_YR_HZ },

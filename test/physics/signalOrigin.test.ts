@@ -9,7 +9,7 @@ import { chirpMassOrigin, redshiftOrigin } from '../../src/physics/signalOrigin'
 import type { BinaryPopulation } from '../../src/physics/populationTypes';
 import { buildPopulation, fixturePopulations } from './populations';
 
-describe('origin profiles integrate to h_c^2 (Phinney 2001, astro-ph/0108028, eq. 5)', () => {
+describe('origin profiles integrate to h_c^2 (Phinney 2001, astro-ph/0108028)', () => {
   for (const fp of fixturePopulations) {
     for (const f of [F_YR_HZ, 1e-7]) {
       it(`population ${fp.label}, f = ${f.toExponential(3)} Hz`, () => {

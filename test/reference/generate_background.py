@@ -2,7 +2,7 @@
 """Writes test/reference/background_scipy.json: h_c(f) of parametric merger populations by scipy's
 adaptive cubature, independent of the project's Gauss-Legendre integrator.
 
-Formula (Phinney 2001, astro-ph/0108028, strain form of eq. 5 with the circular kernel):
+Formula (Phinney 2001, astro-ph/0108028, strain form with the circular kernel):
   h_c^2(f) = 4 G^(5/3) / (3 pi^(1/3) c^2) f^(-4/3) Int dz (1+z)^(-1/3) Int dlog10M Int dq n M_c^(5/3),
 with the mass integral ending at the ISCO, M < c^3 / (6^(3/2) pi G (1+z) f).
 Density (Middleton et al. 2016, MNRAS 455, L72; mass-ratio term of Chen, Sesana & Del Pozzo 2017),
