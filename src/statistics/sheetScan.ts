@@ -46,14 +46,14 @@ export interface AxisResult {
 }
 
 /** Validated grid points of an axis. */
-export function axisValues(axis: ScanAxis): Float64Array {
+export function axisValues(axis: ScanAxis, show: (xSI: number) => string = String): Float64Array {
   const { cell, lo, hi, n, log } = axis;
   if (!Number.isInteger(n) || n < 2) throw new SheetJobError(`scan of ${cell}: the number of points must be a whole number of at least 2, got ${n}`);
   if (n > MAX_AXIS_POINTS) throw new SheetJobError(`scan of ${cell}: at most ${MAX_AXIS_POINTS} points per axis, got ${n}`);
   if (!Number.isFinite(lo) || !Number.isFinite(hi)) throw new SheetJobError(`scan of ${cell}: the range ends must be finite, got ${lo} to ${hi}`);
-  if (lo === hi) throw new SheetJobError(`scan of ${cell}: the range is empty (both ends are ${lo})`);
-  if (lo > hi) throw new SheetJobError(`scan of ${cell}: the range is reversed (${lo} to ${hi}); give the lower end first`);
-  if (log && !(lo > 0)) throw new SheetJobError(`scan of ${cell}: a log scan needs a positive lower end, got ${lo}`);
+  if (lo === hi) throw new SheetJobError(`scan of ${cell}: the range is empty (both ends are ${show(lo)})`);
+  if (lo > hi) throw new SheetJobError(`scan of ${cell}: the range is reversed (${show(lo)} to ${show(hi)}); give the lower end first`);
+  if (log && !(lo > 0)) throw new SheetJobError(`scan of ${cell}: a log scan needs a positive lower end, got ${show(lo)}`);
   const out = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const t = i / (n - 1);
@@ -66,7 +66,8 @@ export function axisValues(axis: ScanAxis): Float64Array {
 
 function axisResult(sheet: Sheet, axis: ScanAxis): { result: AxisResult; template: unknown; nominal: number } {
   const nom = nominalInput(sheet, axis.cell);
-  const valuesSI = axisValues(axis);
+  const unit = unitTextOf(nom.template);
+  const valuesSI = axisValues(axis, (x) => `${Number(inOwnUnit(nom.template, x).toPrecision(10))}${unit ? ` ${unit}` : ''}`);
   const values = valuesSI.map((x) => inOwnUnit(nom.template, x));
   const prior = axis.prior ?? (axis.log ? 'log-uniform' : 'uniform');
   if (prior === 'log-uniform' && !(axis.lo > 0)) throw new SheetJobError(`scan of ${axis.cell}: a log-uniform prior needs a positive range`);

@@ -68,7 +68,7 @@ export function numericState(cell: string, state: CellState | undefined): number
   if (state.status === 'error') throw new SheetJobError(`output ${cell} has an error: ${state.error.message}`);
   if (state.status !== 'value') throw new SheetJobError(`output ${cell} has no value yet`);
   const x = siNumber(state.value);
-  if (x === null) throw new SheetJobError(`output ${cell} is not a single number or quantity, so it cannot be scanned or solved for`);
+  if (x === null) throw new SheetJobError(`output ${cell} is not a single number or quantity, so it cannot be the output of a scan, Monte Carlo run or solve`);
   return x;
 }
 
