@@ -26,9 +26,9 @@ export function parseVaryOption(text: string): AxisSpec {
   return { cell, lo: bound(loText, 'lower'), hi: bound(hiText, 'upper'), n: Number(nText), log };
 }
 
-/** A number for CSV: full precision, no thousands separators. */
+/** A number for CSV: 15 significant digits (drops unit-conversion noise such as 1e-4 -> 0.00010000000000000002), empty when not finite. */
 export function csvNumber(x: number): string {
-  return Number.isFinite(x) ? String(x) : '';
+  return Number.isFinite(x) ? String(Number(x.toPrecision(15))) : '';
 }
 
 /** A CSV header field: name plus unit in brackets, quoted if needed. */
