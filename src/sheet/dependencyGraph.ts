@@ -57,6 +57,11 @@ export class DependencyGraph {
     return [...(this.reads.get(name) ?? [])];
   }
 
+  /** The cells reading `name`, without copying (do not change the graph while iterating). */
+  dependentsView(name: string): Iterable<string> {
+    return this.readBy.get(name) ?? [];
+  }
+
   dependents(name: string): string[] {
     return [...(this.readBy.get(name) ?? [])];
   }

@@ -6,6 +6,7 @@ import type { CellSpec, CellState, SheetObserver } from './types';
 import type { Builtin } from './builtin';
 import { compileFormula, makeCellFunction, type CompiledFormula } from './formulaCompiler';
 import { DependencyGraph, type CycleThrough } from './dependencyGraph';
+import { RankQueue } from './rankQueue';
 import { checkResult, errorFromException, nearestName } from './evaluationError';
 import { sameValue } from './valueEquality';
 import { checkCellName } from './cellName';
@@ -64,6 +65,8 @@ export class Sheet {
   private readonly graph = new DependencyGraph();
   private readonly observers = new Set<SheetObserver>();
   private readonly planCache = new Map<string, string[]>();
+  /** Topological ranks of the whole sheet, kept while the graph does not change. */
+  private ranked: { rank: Map<string, number>; order: string[]; cycles: ReadonlySet<string> } | null = null;
   private readonly builtinNames: ReadonlySet<string>;
   private _title: string;
   private _notes: string;
@@ -368,10 +371,57 @@ export class Sheet {
 
   private recompile(name: string): void {
     const rec = this.records.get(name)!;
+    const before = rec.compiled.deps;
     rec.compiled = this.compile(rec.spec);
-    this.graph.setDependencies(name, rec.compiled.deps);
+    const after = rec.compiled.deps;
+    const sameInputs = before.length === after.length && after.every((d) => before.includes(d));
     this.planCache.clear();
+    if (sameInputs) {
+      // The graph is as it was: recompute downstream in the cached topological order.
+      this.propagate(name);
+      return;
+    }
+    this.graph.setDependencies(name, after);
     this.recalculate([name]);
+  }
+
+  /** The topological rank of every cell outside cycles, and the cells on cycles (cached). */
+  private globalPlan(): { rank: Map<string, number>; order: string[]; cycles: ReadonlySet<string> } {
+    if (!this.ranked) {
+      const plan = this.graph.plan(new Set(this.order), this.positionMap());
+      this.ranked = { rank: new Map(plan.order.map((n, i) => [n, i])), order: plan.order, cycles: new Set(plan.cycles.keys()) };
+    }
+    return this.ranked;
+  }
+
+  /**
+   * Recomputes one edited cell whose inputs did not change, then, in topological rank, only the
+   * cells one of whose inputs changed value.
+   */
+  private propagate(edited: string): void {
+    const { rank, order, cycles } = this.globalPlan();
+    if (cycles.has(edited)) return; // still on its cycle: the cycle error stands
+    const queue = new RankQueue();
+    queue.push(rank.get(edited)!);
+    const lookup: Lookup = (n) => this.records.get(n)?.state;
+    const notify = this.observers.size > 0;
+    while (queue.size > 0) {
+      const name = order[queue.pop()];
+      const rec = this.records.get(name)!;
+      if (notify) this.emit((o) => o.pending?.(name));
+      const state = this.evaluateCompiled(name, rec.compiled, lookup);
+      const changed = !sameState(rec.state, state);
+      rec.state = state;
+      if (notify) {
+        if (state.status === 'value') this.emit((o) => o.value?.(name, state.value));
+        else if (state.status === 'error') this.emit((o) => o.error?.(name, state.error));
+      }
+      if (!changed) continue;
+      for (const reader of this.graph.dependentsView(name)) {
+        const r = rank.get(reader);
+        if (r !== undefined) queue.push(r);
+      }
+    }
   }
 
   private place(name: string, index: number): void {
@@ -380,6 +430,7 @@ export class Sheet {
     rest.splice(i, 0, name);
     this.order = rest;
     this.positions = null;
+    this.ranked = null; // ties between independent cells follow sheet order
   }
 
   private positionMap(): Map<string, number> {
@@ -393,6 +444,8 @@ export class Sheet {
    * the propagation there.
    */
   private recalculate(edited: Iterable<string>, notify = true, alwaysChanged: Iterable<string> = []): void {
+    this.ranked = null; // the graph or the set of cells changed
+    notify = notify && this.observers.size > 0;
     const editedSet = new Set(edited);
     const affected = new Set([...this.graph.downstream(editedSet)].filter((n) => this.records.has(n)));
     const plan = this.graph.plan(affected, this.positionMap());
