@@ -34,7 +34,7 @@ function shown(sheet: Sheet, name: string): string {
   return formatValue(s.value, sheet.get(name)?.unit);
 }
 
-describe.runIf(runSuite)('Strainsheet in the browser', () => {
+describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () => {
   let app: ServedApp;
   let chromium: LaunchedBrowser;
   let page: Page;
@@ -190,6 +190,25 @@ describe.runIf(runSuite)('Strainsheet in the browser', () => {
     await page.click('[data-action="undo"]');
     await page.waitForSelector('[data-cell="rate_norm"]');
     expect(await cellValueText(page, 'A_yr')).toBe(shown(headlessDemo(), 'A_yr'));
+  });
+
+  it('recalculates while typing, after a short pause, keeping focus and the typed text', async () => {
+    await freshDemo();
+    const before = await cellValueText(page, 'A_yr');
+    const rate = headlessDemo().get('rate_norm')!.formula;
+    const box = page.locator('input[data-formula="rate_norm"]');
+    await box.click();
+    await box.press('End');
+    await box.pressSequentially(' * 4', { delay: 40 });
+    // No Enter, no blur: the pause after typing commits the edit.
+    await page.waitForFunction((b) => document.querySelector('[data-value="A_yr"]')?.getAttribute('data-raw') !== b, before);
+    expect(await cellValueText(page, 'A_yr')).toBe(shown(headlessDemo({ rate_norm: `${rate} * 4` }), 'A_yr'));
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('data-formula'))).toBe('rate_norm');
+    expect(await box.inputValue()).toBe(`${rate} * 4`);
+    await box.pressSequentially(' +', { delay: 40 }); // now broken: the text stays, the row shows the error
+    await page.waitForSelector('[data-cell="rate_norm"] .cell-error');
+    expect(await box.inputValue()).toBe(`${rate} * 4 +`);
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('data-formula'))).toBe('rate_norm');
   });
 
   it('moves between rows with the arrow keys', async () => {

@@ -13,7 +13,11 @@ export function SheetPanel() {
     for (const c of session.cells()) map.set(c.name, c);
     return map;
   });
-  const groups = createMemo(() => groupBySection(session.cells()).map((g) => ({ name: g.name, names: g.cells.map((c) => c.name) })));
+  // Sections and rows are keyed by name (plain strings), so an edit that changes the structure
+  // keeps every row that is still there, with its focus and the text being typed.
+  const groups = createMemo(() => groupBySection(session.cells()));
+  const sectionNames = createMemo(() => groups().map((g) => g.name), undefined, { equals: sameList });
+  const namesIn = (section: string) => groups().find((g) => g.name === section)?.cells.map((c) => c.name) ?? [];
 
   return (
     <div class="sheet" role="table" aria-label="Sheet">
@@ -24,20 +28,24 @@ export function SheetPanel() {
         <span role="columnheader">status</span>
         <span role="columnheader">note · source</span>
       </div>
-      <Show when={groups().length === 0}>
+      <Show when={sectionNames().length === 0}>
         <p class="empty-sheet">This sheet has no cells yet. Add one below.</p>
       </Show>
-      <For each={groups()}>
-        {(g) => (
-          <section class="sheet-section" data-section={g.name} role="rowgroup">
-            <h2 class="section-title">{g.name}</h2>
-            <For each={g.names}>{(n) => <Show when={specs().get(n)}>{(spec) => <CellRow spec={spec()} />}</Show>}</For>
+      <For each={sectionNames()}>
+        {(section) => (
+          <section class="sheet-section" data-section={section} role="rowgroup">
+            <h2 class="section-title">{section}</h2>
+            <For each={namesIn(section)}>{(n) => <Show when={specs().get(n)}>{(spec) => <CellRow spec={spec()} />}</Show>}</For>
           </section>
         )}
       </For>
       <AddCellForm />
     </div>
   );
+}
+
+function sameList(a: string[], b: string[]): boolean {
+  return a.length === b.length && a.every((x, i) => x === b[i]);
 }
 
 function AddCellForm() {
