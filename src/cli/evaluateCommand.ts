@@ -16,6 +16,9 @@ Evaluates every cell of the sheet FILE and prints name, value and unit.
 Exit status: 0 all cells evaluate, 1 some cell has an error (each listed on stderr as
 "name: message"), 2 the file cannot be read or is invalid, or the command line is wrong.`;
 
+/** Widest value text that sets the width of the value column. */
+const MAX_VALUE_WIDTH = 48;
+
 function pad(text: string, width: number): string {
   return text + ' '.repeat(Math.max(0, width - text.length));
 }
@@ -30,7 +33,8 @@ function table(sheet: Sheet): string {
     } else rows.push([c.name, st.status === 'error' ? `error (${st.error.kind})` : 'pending', '']);
   }
   const w0 = Math.max(...rows.map((r) => r[0].length));
-  const w1 = Math.max(...rows.map((r) => r[1].length));
+  // Long descriptions (sheet objects) do not widen the column for everyone else.
+  const w1 = Math.max(...rows.map((r) => (r[1].length <= MAX_VALUE_WIDTH ? r[1].length : 0)));
   return rows.map((r) => `${pad(r[0], w0)}  ${pad(r[1], w1)}  ${r[2]}`.trimEnd()).join('\n') + '\n';
 }
 
