@@ -39,7 +39,7 @@ export type JobResult =
   | { kind: 'scan1d'; result: Scan1DResult }
   | { kind: 'scan2d'; result: Scan2DResult }
   | { kind: 'sample'; result: MonteCarloResult }
-  | { kind: 'goalSeek'; result: GoalSeekResult }
+  | { kind: 'goalSeek'; result: Omit<GoalSeekResult, 'cellValue'> }
   | { kind: 'rate'; result: RateSolveResult };
 
 /** The measurement held by a cell (a 'measurement' SheetObject from measuredAmplitude and friends). */
@@ -117,16 +117,15 @@ export async function runJob(sheet: Sheet, spec: JobSpec, control?: JobControl):
     }
     case 'goalSeek': {
       const targetState = boundSI(sheet, spec.output, spec.target, 'the target');
-      return {
-        kind: 'goalSeek',
-        result: goalSeek(sheet, {
-          input: spec.input,
-          output: spec.output,
-          target: targetState,
-          lo: spec.lo === undefined ? undefined : boundSI(sheet, spec.input, spec.lo, 'the lower search limit'),
-          hi: spec.hi === undefined ? undefined : boundSI(sheet, spec.input, spec.hi, 'the upper search limit'),
-        }),
-      };
+      // Plain data only (a worker posts it): the mathjs cellValue stays behind.
+      const { cellValue: _cellValue, ...plain } = goalSeek(sheet, {
+        input: spec.input,
+        output: spec.output,
+        target: targetState,
+        lo: spec.lo === undefined ? undefined : boundSI(sheet, spec.input, spec.lo, 'the lower search limit'),
+        hi: spec.hi === undefined ? undefined : boundSI(sheet, spec.input, spec.hi, 'the upper search limit'),
+      });
+      return { kind: 'goalSeek', result: plain };
     }
     case 'rate':
       return {

@@ -56,6 +56,20 @@ describe('one-input scans', () => {
   });
 });
 
+describe('job results are plain data a worker can post', () => {
+  it('structuredClone keeps every job result whole', async () => {
+    const sheet = toySheet({ rate_norm: { uncertainty: 'lognormalDist(1e-3 Mpc^-3 Gyr^-1, 0.3)' } });
+    const jobs = [
+      await runJob(sheet, { kind: 'scan', vary: [{ cell: 'slope', lo: 0, hi: 1, n: 3 }], outputs: ['A_yr'], measurementCell: 'measured' }),
+      await runJob(sheet, { kind: 'scan', vary: [{ cell: 'slope', lo: 0, hi: 1, n: 3 }, { cell: 'rate_norm', lo: '1e-4 Mpc^-3 Gyr^-1', hi: '1e-2 Mpc^-3 Gyr^-1', n: 3, log: true }], outputs: ['A_yr'], measurementCell: 'measured' }),
+      await runJob(sheet, { kind: 'sample', samples: 20, seed: 1, outputs: ['A_yr'], measurementCell: 'measured' }),
+      await runJob(sheet, { kind: 'goalSeek', input: 'slope', output: 'A_yr', target: '3e-15' }),
+      await runJob(sheet, { kind: 'rate', measurementCell: 'measured', densityCell: 'local_rate' }),
+    ];
+    for (const j of jobs) expect(structuredClone(j)).toEqual(j);
+  });
+});
+
 describe('two-input likelihood maps', () => {
   it('the sqrt scaling along rate_norm gives the same grid as evaluating every point (brute force through the sheet)', async () => {
     const sheet = toySheet();
