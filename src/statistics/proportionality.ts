@@ -2,7 +2,7 @@
 // merger-rate normalisation, Phinney 2001, astro-ph/0108028), so that scans and solves can
 // scale one evaluation instead of repeating it.
 import type { Sheet } from '../sheet/sheet';
-import { SheetJobError, nominalInput, probe, numericState, valueLike } from './sheetValues';
+import { SheetJobError, nominalInput, numericState, valueLike } from './sheetValues';
 
 export interface ProportionalityCheck {
   proportional: boolean;
@@ -46,4 +46,3 @@ export function checkSqrtProportional(sheet: Sheet, input: string, output: strin
   return { proportional, outputAtNominal: y0, inputNominal: nom.si, measuredExponents: exps, message };
 }
 
-export { probe };
