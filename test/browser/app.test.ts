@@ -304,6 +304,19 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     expect(lines.length - 1).toBe(sheet.cells().length);
   });
 
+  it('saves the sheet file as the engine writes it, and starts a new sheet that undo takes back', async () => {
+    await freshDemo();
+    const saved = await download(page, () => page.click('[data-action="save-sheet"]'));
+    expect(saved.name.endsWith('.strainsheet.json')).toBe(true);
+    expect(saved.bytes.toString('utf8')).toBe(headlessDemo().toFileText());
+    await page.click('text=New');
+    await page.waitForSelector('.empty-sheet');
+    expect(await page.$$eval('[data-cell]', (r) => r.length)).toBe(0);
+    await page.click('[data-action="undo"]');
+    await page.waitForSelector('[data-cell="A_yr"]');
+    expect(await cellValueText(page, 'A_yr')).toBe(shown(headlessDemo(), 'A_yr'));
+  });
+
   it('keeps the sheet after a reload (autosave) and keeps an unreadable autosave aside', async () => {
     await freshDemo();
     const rate = headlessDemo().get('rate_norm')!.formula;

@@ -9,7 +9,7 @@ import { axisTicks } from '../../web/plots/axisTicks';
 import { cellEdges, dataRange, type PlotModel } from '../../web/plots/plotModel';
 import { scientificPieces } from '../../web/sheet/ScientificText';
 import { spectrumPlotModel } from '../../web/plots/spectrumPlotModel';
-import { measuredFromJson, frequencyList } from '../../web/plots/sheetPlotData';
+import { binsFromJson, measuredFromJson, frequencyList } from '../../web/plots/sheetPlotData';
 import { groupBySection, freshName, STANDARD_SECTIONS } from '../../web/sheet/sections';
 import { scan2Model } from '../../web/jobs/scanPlotModels';
 import { axisSpecFor, runJob, JobCancelled } from '../../web/jobs/jobRunner';
@@ -144,6 +144,26 @@ describe('spectrum plot conversions', () => {
   });
 });
 
+describe('per-bin measured values', () => {
+  it('turns per-bin Omega_gw into h_c with the inverse of Omega_gw = 2 pi^2 f^2 h_c^2 / (3 H0^2) (Phinney 2001)', () => {
+    const H0 = 70 * KM_S_MPC_SI;
+    const f = 2e-9;
+    const hc = 3e-15;
+    const omega = (2 * Math.PI ** 2 * f ** 2 * hc ** 2) / (3 * H0 ** 2);
+    const b = binsFromJson('bins', { quantity: 'omegaGw', frequencyHz: [f], value: [omega], lower: [omega / 4], upper: [omega * 4] }, H0)!;
+    expect(b.hc[0] / hc).toBeCloseTo(1, 12);
+    expect(b.hcLower[0] / (hc / 2)).toBeCloseTo(1, 12); // h_c goes as sqrt(Omega_gw)
+    expect(b.hcUpper[0] / (hc * 2)).toBeCloseTo(1, 12);
+  });
+  it('turns per-bin residual power into h_c with the inverse of P = h_c^2 / (12 pi^2 f^3) (Thrane & Romano 2013)', () => {
+    const f = 5e-9;
+    const hc = 1e-15;
+    const p = hc ** 2 / (12 * Math.PI ** 2 * f ** 3);
+    const b = binsFromJson('bins', { quantity: 'residualPower', frequencyHz: [f], value: [p], lower: [p], upper: [p] }, null)!;
+    expect(b.hc[0] / hc).toBeCloseTo(1, 12);
+  });
+});
+
 describe('sections on screen', () => {
   it('orders the standard sections first and the user’s own after them, skipping empty ones', () => {
     const groups = groupBySection([
@@ -244,7 +264,7 @@ describe('opening a sheet file', () => {
     expect(r1.ok).toBe(false);
     if (!r1.ok) expect(r1.message).toMatch(/5 MB.*unchanged/);
     const r2 = await openSheetFile(Object.assign(new Blob(['{']), { name: 'x.json' }), () => {
-      throw new Error('the file is not JSON.');
+      throw new Error('the file is not JSON');
     });
     expect(r2).toEqual({ ok: false, message: '"x.json" was not opened: the file is not JSON. The sheet is unchanged.' });
   });

@@ -20,6 +20,12 @@ export async function openSheetFile<T>(file: Blob & { name?: string }, parse: (t
   try {
     return { ok: true, sheet: parse(text) };
   } catch (err) {
-    return { ok: false, message: `${label} was not opened: ${err instanceof Error ? err.message : String(err)} The sheet is unchanged.` };
+    return { ok: false, message: `${label} was not opened: ${sentence(err instanceof Error ? err.message : String(err))} The sheet is unchanged.` };
   }
+}
+
+/** Ends a message with a full stop unless it already ends with punctuation. */
+function sentence(text: string): string {
+  const t = text.trim();
+  return /[.!?]$/.test(t) ? t : `${t}.`;
 }
