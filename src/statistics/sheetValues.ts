@@ -90,12 +90,6 @@ export function nominalInput(sheet: Sheet, cell: string): { template: unknown; s
   return { template: st.value, si };
 }
 
-/** Evaluates one output with one input replaced by xSI (kept in the input's unit). */
-export function probe(sheet: Sheet, input: { cell: string; template: unknown }, xSI: number, output: string): number {
-  const r = sheet.evaluateWith({ [input.cell]: valueLike(input.template, xSI) }, [output]);
-  return numericOrNaN(r[output]);
-}
-
 /** Throws JobCancelledError when the signal has fired. */
 export function checkCancelled(control?: JobControl): void {
   if (control?.signal?.aborted) throw new JobCancelledError();
