@@ -79,6 +79,21 @@ function literalNumber(node: MathNode | undefined): number | undefined {
   return undefined;
 }
 
+// Unit names are fixed once the instance is locked (createUnit is refused), so answers can be kept.
+const unitNameMemo = new Map<string, boolean>();
+function isUnitName(name: string): boolean {
+  let known = unitNameMemo.get(name);
+  if (known === undefined) {
+    try {
+      known = math.Unit.isValuelessUnit(name);
+    } catch {
+      known = false;
+    }
+    if (unitNameMemo.size < 100_000) unitNameMemo.set(name, known);
+  }
+  return known;
+}
+
 interface WalkResult {
   deps: string[];
   problem?: { kind: CellError['kind']; detail: string };
@@ -112,13 +127,7 @@ function walk(root: MathNode, params: ReadonlySet<string>, builtinNames: Readonl
         if (name === 'end' && inIndex) break;
         if (ALLOWED_CONSTANTS.has(name) || isCallable(name)) break;
         if (forbiddenName(name)) return refuse(`${name} is not available in formulas`);
-        let unit = false;
-        try {
-          unit = math.Unit.isValuelessUnit(name);
-        } catch {
-          unit = false;
-        }
-        if (!unit) deps.add(name);
+        if (!isUnitName(name)) deps.add(name);
         break;
       }
       case 'ParenthesisNode':
