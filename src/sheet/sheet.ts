@@ -238,6 +238,11 @@ export class Sheet {
     if (this.records.has(newName)) throw new SheetEditError(`a cell named ${newName} already exists`, 'the name is taken');
     const readers = new Set(this.graph.dependents(oldName).filter((n) => this.records.has(n)));
     if (r.compiled.kind === 'function' || r.compiled.deps.includes(oldName)) readers.add(oldName);
+    // Formulas in error have no known inputs; their text follows the rename too, so that fixing
+    // them later finds the cell under its new name.
+    for (const [name, rec] of this.records) {
+      if (rec.compiled.kind === 'error' && identifierTokens(rec.spec.formula).some((t) => t.name === oldName)) readers.add(name);
+    }
     const rewrites = new Map<string, CellSpec>();
     for (const reader of readers) {
       const rec = this.records.get(reader)!;

@@ -99,6 +99,36 @@ describe('properties', () => {
     );
   });
 
+  it('any file text gives a sheet or a SheetFileError, never another exception', () => {
+    const cellLike = fc.dictionary(fc.constantFrom('name', 'formula', 'unit', 'note', 'extra', '__proto__', 'constructor'), fc.jsonValue(), { maxKeys: 4 });
+    const fileLike = fc.record(
+      {
+        format: fc.oneof(fc.constant('strainsheet'), fc.string()),
+        version: fc.oneof(fc.constantFrom(0, 1, 2), fc.jsonValue()),
+        title: fc.jsonValue(),
+        notes: fc.jsonValue(),
+        cells: fc.oneof(fc.array(cellLike, { maxLength: 4 }), fc.jsonValue()),
+      },
+      { requiredKeys: [] },
+    );
+    const texts = fc.oneof(
+      fileLike.map((f) => JSON.stringify(f)),
+      fileLike.map((f) => JSON.stringify(f).slice(0, 20)), // truncated
+      fc.string({ maxLength: 40 }),
+      fc.jsonValue().map((v) => JSON.stringify(v) ?? ''),
+    );
+    fc.assert(
+      fc.property(texts, (text) => {
+        try {
+          Sheet.fromFile(text);
+        } catch (e) {
+          expect((e as Error).name).toBe('SheetFileError');
+        }
+      }),
+      { numRuns: 400 },
+    );
+  });
+
   it('random formulas give values or cell errors, never exceptions or prototype changes', () => {
     const pieces = [
       '1', '2.5e3', 'cell1', 'cell2', '(', ')', '[', ']', ',', '+', '-', '*', '/', '^', '!', ' ', 'm', 'km', 'Mpc', ':',

@@ -73,6 +73,15 @@ describe('Sheet.renameCell', () => {
     expect(s.get('rate')?.uncertainty).toBe('lognormalSpread(1, sigma_log)');
   });
 
+  it('rewrites formulas in error too, so that fixing them finds the renamed cell', () => {
+    const s = sheetOf({ rate: '2', broken: 'rate * (3', refusedCell: 'x = rate' });
+    s.renameCell('rate', 'rate_norm');
+    expect(s.get('broken')?.formula).toBe('rate_norm * (3');
+    expect(s.get('refusedCell')?.formula).toBe('x = rate_norm');
+    s.updateCell('broken', { formula: 'rate_norm * (3)' });
+    expect(s.value('broken')).toBe(6);
+  });
+
   it('updateCell with a new name renames', () => {
     const s = sheetOf({ a: '1', bb: 'a + 1' });
     s.updateCell('a', { name: 'a_new', formula: '2' });
