@@ -33,27 +33,33 @@ export function KeyResultsBar() {
   const services = useServices();
   const { session } = services;
   const results = createMemo(() => pickKeyResults(session.cells(), (n) => session.value(n)));
+  // Keyed by role and name, so the bar's buttons are rebuilt only when a different cell is picked.
+  const keys = createMemo(() => results().map((r) => `${r.role}\u0000${r.cell.name}`), undefined, {
+    equals: (a, b) => a.length === b.length && a.every((x, i) => x === b[i]),
+  });
   return (
     <div class="key-results" role="status" aria-label="Key results">
-      <Show when={results().length} fallback={<span class="key-empty">No result cells yet (a cell named A_yr shows here).</span>}>
-        <For each={results()}>
-          {(r) => {
-            const st = () => session.state(r.cell.name);
+      <Show when={keys().length} fallback={<span class="key-empty">No result cells yet (a cell named A_yr shows here).</span>}>
+        <For each={keys()}>
+          {(key) => {
+            const [role, name] = key.split('\u0000');
+            const unit = () => results().find((x) => x.cell.name === name)?.cell.unit;
+            const st = () => session.state(name);
             const text = () => {
               const s = st();
               if (s.status === 'pending') return 'computing…';
               if (s.status === 'error') return `error: ${s.error.message}`;
               try {
-                return formatValue(s.value, r.cell.unit);
+                return formatValue(s.value, unit());
               } catch {
                 return String(s.value);
               }
             };
             return (
-              <button type="button" class={`key-result ${st().status}`} data-key-result={r.cell.name} onClick={() => services.focusCell(r.cell.name)}>
-                <span class="key-role">{r.role}</span>
-                <span class="key-name">{r.cell.name}</span>
-                <span class="key-value" data-key-value={r.cell.name} data-raw={text()} title={text()}>
+              <button type="button" class={`key-result ${st().status}`} data-key-result={name} onClick={() => services.focusCell(name)}>
+                <span class="key-role">{role}</span>
+                <span class="key-name">{name}</span>
+                <span class="key-value" data-key-value={name} data-raw={text()} title={text()}>
                   <ScientificText text={text()} />
                 </span>
               </button>

@@ -80,14 +80,15 @@ export function Workbench() {
 
   const rows = new Map<string, HTMLElement>();
   const [traced, setTraced] = createSignal<string | null>(null);
-  const builtins = createMemo(() => {
-    session.structure();
+  // The built-ins are the same for every sheet (one locked math instance): read them once.
+  const builtinList = (() => {
     try {
       return session.current.builtins();
     } catch {
       return [];
     }
-  });
+  })();
+  const builtins = () => builtinList;
   const completions = createMemo<Completion[]>(() => {
     const cells = session.cells().map<Completion>((c) => {
       const fn = /^\s*[A-Za-z_][A-Za-z0-9_]*\s*\(/.test(c.formula) && /\)\s*=(?!=)/.test(c.formula);

@@ -17,7 +17,11 @@ export function ReferencePanel() {
     }
     return [...byCategory].sort(([a], [b]) => a.localeCompare(b));
   });
-  const cellNames = createMemo(() => services.session.cells().map((c) => c.name).filter((n) => !filter() || matches(n)));
+  const categories = createMemo(() => groups().map(([c]) => c), undefined, { equals: (a, b) => a.length === b.length && a.every((x, i) => x === b[i]) });
+  const entriesOf = (category: string) => groups().find(([c]) => c === category)?.[1] ?? [];
+  const cellNames = createMemo(() => services.session.cells().map((c) => c.name).filter((n) => !filter() || matches(n)), undefined, {
+    equals: (a, b) => a.length === b.length && a.every((x, i) => x === b[i]),
+  });
   return (
     <div class="reference-panel">
       <input class="reference-filter" type="search" placeholder="Filter built-ins and names" aria-label="Filter the reference" value={filter()} onInput={(e) => setFilter(e.currentTarget.value)} />
@@ -31,12 +35,12 @@ export function ReferencePanel() {
           )}
         </For>
       </div>
-      <Show when={groups().length} fallback={<p class="trace-none">No built-in matches.</p>}>
-        <For each={groups()}>
-          {([category, list]) => (
+      <Show when={categories().length} fallback={<p class="trace-none">No built-in matches.</p>}>
+        <For each={categories()}>
+          {(category) => (
             <section class="reference-group">
               <h3>{category}</h3>
-              <For each={list}>
+              <For each={entriesOf(category)}>
                 {(b) => (
                   <article class="reference-entry" data-builtin={b.name}>
                     <BuiltinSignature builtin={b} />

@@ -2,7 +2,7 @@
 // cells (Monte Carlo). They run in the job worker on a copy of the sheet, with progress and cancel.
 import { createMemo, createSignal, For, Match, onCleanup, Show, Switch } from 'solid-js';
 import { useServices } from '../app/services';
-import { isSheetObject, type CellSpec } from '../engine/engine';
+import { isSheetObject } from '../engine/engine';
 import { math } from '../../src/sheet/mathInstance';
 import { JobClient } from './jobClient';
 import type { JobSpec, SampleResult, ScanAxisSpec } from './jobProtocol';
@@ -26,14 +26,14 @@ function scalarInUnit(v: unknown, unit: string | undefined): { value: number; un
   return null;
 }
 
-function AxisFields(props: { label: string; axis: ScanAxisSpec; choices: CellSpec[]; onChange: (a: ScanAxisSpec) => void; onPick: (cell: string) => void }) {
+function AxisFields(props: { label: string; axis: ScanAxisSpec; choices: string[]; onChange: (a: ScanAxisSpec) => void; onPick: (cell: string) => void }) {
   return (
     <fieldset class="axis-fields">
       <legend>{props.label}</legend>
       <label>
         cell
         <select value={props.axis.cell} onChange={(e) => props.onPick(e.currentTarget.value)} aria-label={`${props.label} cell`}>
-          <For each={props.choices}>{(c) => <option value={c.name}>{c.name}</option>}</For>
+          <For each={props.choices}>{(c) => <option value={c}>{c}</option>}</For>
         </select>
       </label>
       <label>
@@ -53,6 +53,10 @@ function AxisFields(props: { label: string; axis: ScanAxisSpec; choices: CellSpe
   );
 }
 
+function sameNames(a: string[], b: string[]): boolean {
+  return a.length === b.length && a.every((x, i) => x === b[i]);
+}
+
 export function ScanPanel() {
   const services = useServices();
   const { session } = services;
@@ -61,12 +65,20 @@ export function ScanPanel() {
   const [mode, setMode] = createSignal<Mode>('scan1');
   const [formError, setFormError] = createSignal<string | null>(null);
 
-  const scalarCells = createMemo(() => session.cells().filter((c) => scalarInUnit(session.value(c.name), c.unit) !== null));
-  const measurementCells = createMemo(() =>
-    session.cells().filter((c) => {
-      const v = session.value(c.name);
-      return isSheetObject(v) && v.kind === 'measurement';
-    }),
+  // Lists of names (strings, compared by content) so that the option lists are rebuilt only when
+  // the set of eligible cells changes, not on every recalculation.
+  const scalarCells = createMemo(() => session.cells().filter((c) => scalarInUnit(session.value(c.name), c.unit) !== null).map((c) => c.name), undefined, { equals: sameNames });
+  const measurementCells = createMemo(
+    () =>
+      session
+        .cells()
+        .filter((c) => {
+          const v = session.value(c.name);
+          return isSheetObject(v) && v.kind === 'measurement';
+        })
+        .map((c) => c.name),
+    undefined,
+    { equals: sameNames },
   );
   const defaultAxis = (cell: string | undefined): ScanAxisSpec => {
     const spec = session.cells().find((c) => c.name === cell);
@@ -76,11 +88,11 @@ export function ScanPanel() {
     const round = (x: number) => Number(x.toPrecision(3));
     return { cell: spec.name, lo: round(positive ? s.value / 10 : s.value - 1), hi: round(positive ? s.value * 10 : s.value + 1), n: 41, log: positive, unit: s.unit };
   };
-  const firstCell = (prefer: string) => scalarCells().find((c) => c.name === prefer)?.name ?? scalarCells()[0]?.name;
+  const firstCell = (prefer: string) => scalarCells().find((c) => c === prefer) ?? scalarCells()[0];
   const [axisX, setAxisX] = createSignal<ScanAxisSpec>(defaultAxis(firstCell('rate_norm')));
-  const [axisY, setAxisY] = createSignal<ScanAxisSpec>({ ...defaultAxis(scalarCells().find((c) => c.name !== axisX().cell)?.name), n: 31 });
-  const [output, setOutput] = createSignal(session.cells().some((c) => c.name === 'A_yr') ? 'A_yr' : (scalarCells()[0]?.name ?? ''));
-  const [measurement, setMeasurement] = createSignal<string>(measurementCells()[0]?.name ?? '');
+  const [axisY, setAxisY] = createSignal<ScanAxisSpec>({ ...defaultAxis(scalarCells().find((c) => c !== axisX().cell)), n: 31 });
+  const [output, setOutput] = createSignal(session.cells().some((c) => c.name === 'A_yr') ? 'A_yr' : (scalarCells()[0] ?? ''));
+  const [measurement, setMeasurement] = createSignal<string>(measurementCells()[0] ?? '');
   const [samples, setSamples] = createSignal(1000);
   const [seed, setSeed] = createSignal(1);
 
@@ -173,14 +185,14 @@ export function ScanPanel() {
           <label>
             output
             <select value={output()} onChange={(e) => setOutput(e.currentTarget.value)} aria-label="Output cell">
-              <For each={scalarCells()}>{(c) => <option value={c.name}>{c.name}</option>}</For>
+              <For each={scalarCells()}>{(c) => <option value={c}>{c}</option>}</For>
             </select>
           </label>
           <label>
             measurement
             <select value={measurement()} onChange={(e) => setMeasurement(e.currentTarget.value)} aria-label="Measurement cell">
               <option value="">none</option>
-              <For each={measurementCells()}>{(c) => <option value={c.name}>{c.name}</option>}</For>
+              <For each={measurementCells()}>{(c) => <option value={c}>{c}</option>}</For>
             </select>
           </label>
         </fieldset>

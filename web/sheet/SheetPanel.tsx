@@ -52,6 +52,7 @@ function AddCellForm() {
   const services = useServices();
   const { session } = services;
   const [error, setError] = createSignal<string | null>(null);
+  const choices = createMemo(() => sectionChoices(session.cells()), undefined, { equals: sameList });
   let nameEl!: HTMLInputElement;
   let formulaEl!: HTMLInputElement;
   let sectionEl!: HTMLInputElement;
@@ -94,7 +95,7 @@ function AddCellForm() {
           section <input ref={sectionEl} name="section" list="section-names" autocomplete="off" placeholder={LOOSE_SECTION} />
         </label>
         <datalist id="section-names">
-          <For each={sectionChoices(session.cells())}>{(s) => <option value={s} />}</For>
+          <For each={choices()}>{(s) => <option value={s} />}</For>
         </datalist>
         <button type="submit">Add</button>
       </div>
