@@ -473,9 +473,10 @@ export class Sheet {
     }
     for (const name of plan.order) {
       const rec = this.records.get(name)!;
-      if (!editedSet.has(name) && !rec.compiled.deps.some((d) => changed.has(d)) && !plan.cycles.has(name)) {
-        if (rec.state.status !== 'pending') continue;
-      }
+      // Skip a cell none of whose inputs changed, unless it has no value yet or its cycle error
+      // is stale (it is no longer on a cycle).
+      const stale = rec.state.status === 'pending' || (rec.state.status === 'error' && rec.state.error.kind === 'cycle');
+      if (!editedSet.has(name) && !stale && !rec.compiled.deps.some((d) => changed.has(d))) continue;
       if (notify) this.emit((o) => o.pending?.(name));
       store(name, this.evaluateCompiled(name, rec.compiled, lookup));
     }
