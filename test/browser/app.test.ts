@@ -480,6 +480,7 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     await openRowDetails(page, 'rate_norm_copy');
     await page.selectOption('[data-cell="rate_norm_copy"] select.section-select', 'my curves', { timeout: 8000 });
     await page.waitForSelector('[data-section="my curves"] [data-cell="rate_norm_copy"]', { timeout: 8000 });
+    await page.locator('[data-section="my curves"]').scrollIntoViewIfNeeded();
     await page.screenshot({ path: join(ARTIFACTS, '07-own-section.png') });
   });
 });

@@ -48,7 +48,7 @@ export function KeyResultsBar() {
             const text = () => {
               const s = st();
               if (s.status === 'pending') return 'computing…';
-              if (s.status === 'error') return `error: ${s.error.message}`;
+              if (s.status === 'error') return `error (${s.error.kind}): ${s.error.message}`;
               try {
                 return formatValue(s.value, unit());
               } catch {

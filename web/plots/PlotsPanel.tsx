@@ -78,6 +78,15 @@ export function PlotsPanel() {
         if (b) bins.push(b);
       }
     }
+    if (!spectra().length) {
+      // A spectrum cell in error shows nothing: say which one and why, instead of "no spectrum".
+      for (const c of cells) {
+        const st = session.state(c.name);
+        if (st.status === 'error' && (/spectrum/i.test(c.name) || /Spectrum\s*\(/.test(c.formula))) {
+          notes.push(`${c.name} has no value: ${st.error.message}`);
+        }
+      }
+    }
     return spectrumPlotModel({ quantity: quantity(), curves, measured, bins, h0PerS: h0, notes });
   });
 

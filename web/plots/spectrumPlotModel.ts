@@ -148,7 +148,7 @@ export function spectrumPlotModel(input: SpectrumPlotInput): PlotModel {
       width: 1.5,
     });
   }
-  if (!input.curves.length) notes.push('No spectrum cell yet: a cell whose value is a spectrum is drawn here.');
+  if (!input.curves.length && !notes.some((n) => / has no value: /.test(n))) notes.push('No spectrum cell yet: a cell whose value is a spectrum is drawn here.');
   return {
     id: 'spectrum',
     title: q === 'hc' ? 'Characteristic-strain spectrum' : q === 'omega' ? 'Energy-density spectrum' : 'Timing-residual power spectrum',
