@@ -131,7 +131,21 @@ function finiteBins(population: unknown, freqs: unknown, span: unknown, cosmolog
     if (!(x > 0)) throw new BuiltinError(`${where(fn, `freqs[${i + 1}]`)} must be a positive frequency, got ${x} Hz`);
   });
   const T = positiveSI(span, 'time', fn, 'span');
-  return guardedPhysics(fn, () => finiteBinaryBins(p.population, cosmo, f, T));
+  // binariesPerBin, thinnedSpectrum and loudestBinaryStrain of one population, grid and span share
+  // one computation (the last one is kept; populations and cosmologies are immutable values).
+  const last = lastFinite;
+  if (last && last.population === p.population && last.cosmology === cosmo && last.spanS === T && sameNumbers(last.freqsHz, f)) return last.result;
+  const result = guardedPhysics(fn, () => finiteBinaryBins(p.population, cosmo, f, T));
+  lastFinite = { population: p.population, cosmology: cosmo, spanS: T, freqsHz: Float64Array.from(f), result };
+  return result;
+}
+
+let lastFinite: { population: object; cosmology: object; spanS: number; freqsHz: Float64Array; result: FiniteBinaryResult } | undefined;
+
+function sameNumbers(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 const finiteArgs = [

@@ -19,10 +19,16 @@
 // Int dz (1+z)^(-1/3) Int dlog10M M^(5/3) Int dq n eta (Phinney 2001), so the q integral is
 // done once per (z, M) node (once in all when the population declares itself separable in q), and
 // whole mass panels below the cut are computed once per z node and shared by all frequencies.
+//
+// Factored kernels (factoredKernel.ts: circular x shape(f_r / scale)) use the same strain form. With
+// one scale for all binaries the factor depends on (f, z) only and multiplies the cached mass sums;
+// with a scale per (M, q) the weighted values w_M w_q n eta M^(5/3) are cached per z node, the scales
+// once per mass and mass-ratio node, and only shape(f_r / scale) is evaluated per frequency.
 import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';
 import { symmetricMassRatio } from './binaryMasses';
 import { circularGwKernel, iscoTotalMassKg } from './circularKernel';
 import { compositeNodes, gaussLegendreRule, type QuadratureRule } from './gaussLegendre';
+import { circularTimesShapeOf, type CircularTimesShape } from './factoredKernel';
 import type { BinaryPopulation, EmissionKernel } from './populationTypes';
 import type { Spectrum } from './spectrum';
 
@@ -106,9 +112,11 @@ export function characteristicStrainSquared(pop: BinaryPopulation, freqsHz: Arra
   const cutFactor = opts.cutFactor ?? 1;
   if (!(cutFactor > 0)) throw new RangeError(`cutFactor must be positive, got ${cutFactor}`);
   const res = resolved(opts.resolution);
-  return kernel === circularGwKernel
-    ? circularStrainForm(pop, freqsHz, cutFactor, res)
-    : energyForm(pop, freqsHz, kernel, cutFactor, res);
+  if (kernel === circularGwKernel) return circularStrainForm(pop, freqsHz, cutFactor, res);
+  const factored = circularTimesShapeOf(kernel);
+  if (factored && typeof factored.scaleHz === 'number') return circularStrainForm(pop, freqsHz, cutFactor, res, factored.shape, factored.scaleHz);
+  if (factored) return factoredStrainForm(pop, freqsHz, factored, cutFactor, res);
+  return energyForm(pop, freqsHz, kernel, cutFactor, res);
 }
 
 /** The spectrum h_c(f) on the given grid. */
@@ -166,8 +174,11 @@ class MassPanels {
 
 const EMPTY_RULE: QuadratureRule = { nodes: new Float64Array(0), weights: new Float64Array(0) };
 
-/** Strain form with the q integral folded into Q(z, M) = Int dq n eta (circular kernel only). */
-function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, cutFactor: number, res: IntegrationResolution): Float64Array {
+/**
+ * Strain form with the q integral folded into Q(z, M) = Int dq n eta: the circular kernel, or the
+ * circular kernel times shape(f_r / scaleHz) with one scale for all binaries.
+ */
+function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, cutFactor: number, res: IntegrationResolution, shape?: (ratio: number) => number, scaleHz = 1): Float64Array {
   const zr = compositeNodes(pop.zMin, pop.zMax, res.zPanels, res.order);
   const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
   const etaW = new Float64Array(qr.nodes.length);
@@ -205,14 +216,100 @@ function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, c
       const z = zr.nodes[iz];
       const xCut = log10CutMass((1 + z) * f, cutFactor);
       if (xCut <= pop.log10MMin) continue;
+      const factor = shape ? shape(((1 + z) * f) / scaleHz) : 1;
+      if (factor === 0) continue;
       const sums = (panelSums[iz] ??= cumulativeSums(z));
       let m = sums[mp.wholePanels(xCut)];
       const part = mp.partialPanel(xCut);
       if (part.nodes.length > 0) m += massIntegral(z, part, 0, part.nodes.length);
-      total += zr.weights[iz] * Math.pow(1 + z, -1 / 3) * m;
+      total += zr.weights[iz] * Math.pow(1 + z, -1 / 3) * m * factor;
     }
     out[k] = STRAIN_FORM * Math.pow(f, -4 / 3) * total * PER_MPC3;
-    if (!Number.isFinite(out[k])) throw new RangeError(`h_c^2 is not finite at f = ${f} Hz`);
+    if (!Number.isFinite(out[k])) throw new RangeError(`h_c^2 is not finite at f = ${f} Hz${shape ? ' (the emission factor returned a non-finite value?)' : ''}`);
+  }
+  return out;
+}
+
+/**
+ * Strain form for circular x shape(f_r / scale(M, q)): per z node the values w_M w_q n eta M^(5/3) on
+ * the whole mass panels are cached, the scales are computed once per (M, q) node, and each frequency
+ * sums those values times shape(f_r / scale) (Phinney 2001 strain form, as circularStrainForm).
+ */
+function factoredStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, desc: CircularTimesShape, cutFactor: number, res: IntegrationResolution): Float64Array {
+  const scaleOf = desc.scaleHz as (mKg: number, q: number) => number;
+  const shape = desc.shape;
+  const zr = compositeNodes(pop.zMin, pop.zMax, res.zPanels, res.order);
+  const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
+  const nq = qr.nodes.length;
+  const etaW = new Float64Array(nq);
+  for (let j = 0; j < nq; j++) etaW[j] = qr.weights[j] * symmetricMassRatio(qr.nodes[j]);
+  const mp = new MassPanels(pop.log10MMin, pop.log10MMax, res.log10MPanels, res.order);
+  const sep = pop.separable;
+  const qFactor = new Float64Array(nq);
+  if (sep) for (let j = 0; j < nq; j++) qFactor[j] = etaW[j] * checkedValue(sep.massRatio(qr.nodes[j]), 'mass-ratio factor', qr.nodes[j]);
+
+  // Per (mass node, q node) of mr: 1 / scale, or scale^kappa for a bend shape 1 / (1 + r^(-kappa)).
+  const kappa = desc.bendIndex;
+  const nodeScales = (mr: QuadratureRule, into: Float64Array): Float64Array => {
+    for (let i = 0; i < mr.nodes.length; i++) {
+      const mKg = M_SUN_KG * Math.pow(10, mr.nodes[i]);
+      for (let j = 0; j < nq; j++) {
+        const s = scaleOf(mKg, qr.nodes[j]);
+        if (!(s > 0) || s === Infinity) throw new RangeError(`emission scale frequency is ${s} Hz at log10M = ${mr.nodes[i]}, q = ${qr.nodes[j]}; it must be positive and finite`);
+        into[i * nq + j] = kappa === undefined ? 1 / s : Math.pow(s, kappa);
+      }
+    }
+    return into;
+  };
+  // w_M w_q n eta M^(5/3) (M in kg) at each (mass node, q node) of mr.
+  const weightedValues = (z: number, mr: QuadratureRule, into: Float64Array): Float64Array => {
+    for (let i = 0; i < mr.nodes.length; i++) {
+      const wm = mr.weights[i] * Math.pow(10, (5 / 3) * (mr.nodes[i] + LOG10_MSUN));
+      if (sep) {
+        const zm = wm * checkedValue(sep.zMass(z, mr.nodes[i]), 'density', z, mr.nodes[i]);
+        for (let j = 0; j < nq; j++) into[i * nq + j] = zm * qFactor[j];
+      } else {
+        for (let j = 0; j < nq; j++) into[i * nq + j] = wm * etaW[j] * densityAt(pop, z, mr.nodes[i], qr.nodes[j]);
+      }
+    }
+    return into;
+  };
+  // Sum of the values times shape(f_r / scale) over the first `count` entries.
+  const sum = (fr: number, wv: Float64Array, sc: Float64Array, count: number): number => {
+    let s = 0;
+    if (kappa !== undefined) {
+      const frPow = Math.pow(fr, -kappa);
+      for (let i = 0; i < count; i++) s += wv[i] / (1 + sc[i] * frPow);
+      return s;
+    }
+    for (let i = 0; i < count; i++) {
+      const w = wv[i];
+      if (w !== 0) s += w * shape(fr * sc[i]);
+    }
+    return s;
+  };
+
+  const baseScales = nodeScales(mp.base, new Float64Array(mp.base.nodes.length * nq));
+  const cache: (Float64Array | undefined)[] = new Array(zr.nodes.length);
+  const partScales = new Float64Array(res.order * nq);
+  const partValues = new Float64Array(res.order * nq);
+  const out = new Float64Array(freqsHz.length);
+  for (let k = 0; k < freqsHz.length; k++) {
+    const f = freqsHz[k];
+    let total = 0;
+    for (let iz = 0; iz < zr.nodes.length; iz++) {
+      const z = zr.nodes[iz];
+      const fr = (1 + z) * f;
+      const xCut = log10CutMass(fr, cutFactor);
+      if (xCut <= pop.log10MMin) continue;
+      const wv = (cache[iz] ??= weightedValues(z, mp.base, new Float64Array(mp.base.nodes.length * nq)));
+      let s = sum(fr, wv, baseScales, mp.wholePanels(xCut) * mp.order * nq);
+      const part = mp.partialPanel(xCut);
+      if (part.nodes.length > 0) s += sum(fr, weightedValues(z, part, partValues), nodeScales(part, partScales), part.nodes.length * nq);
+      total += zr.weights[iz] * Math.pow(1 + z, -1 / 3) * s;
+    }
+    out[k] = STRAIN_FORM * Math.pow(f, -4 / 3) * total * PER_MPC3;
+    if (!Number.isFinite(out[k])) throw new RangeError(`h_c^2 is not finite at f = ${f} Hz (the emission factor returned a non-finite value?)`);
   }
   return out;
 }

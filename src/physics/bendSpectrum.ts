@@ -3,6 +3,8 @@
 // kappa = 10/3 for stellar hardening (the exponent of the Quinlan 1996 residence time, see
 // stellarHardening.ts) and 7/3 for a circumbinary gas disc (the 7/3 value is from memory of that paper).
 import { F_YR_HZ } from './constants';
+import { circularGwKernel } from './circularKernel';
+import { bendShape, circularTimesShapeKernel } from './factoredKernel';
 import type { EmissionKernel } from './populationTypes';
 
 /** Bend indices kappa of the trade (see the header for their sources). */
@@ -30,5 +32,10 @@ export function bentPowerLawStrain(fHz: number, amplitude: number, fBendHz: numb
  */
 export function bendEmissionKernel(base: EmissionKernel, fBendRestHz: number, kappa: number): EmissionKernel {
   checkBend(fBendRestHz, kappa);
+  if (base === circularGwKernel) {
+    // circular x 1 / (1 + (f_r / f_bend)^(-kappa)): the integrator's fast path (factor 1 without a bend).
+    if (fBendRestHz === 0) return base;
+    return circularTimesShapeKernel({ scaleHz: fBendRestHz, shape: bendShape(kappa), bendIndex: kappa });
+  }
   return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * bendFactor(fr, fBendRestHz, kappa);
 }

@@ -4,6 +4,8 @@
 // with Phi the harmonic-sum factor of src/physics/eccentricHarmonicSum.ts.
 import { gaussLegendreRule } from './gaussLegendre';
 import { HarmonicSumTable, type HarmonicSumTableOptions } from './eccentricHarmonicSum';
+import { circularGwKernel } from './circularKernel';
+import { circularTimesShapeKernel } from './factoredKernel';
 import type { EmissionKernel } from './populationTypes';
 
 /**
@@ -120,6 +122,8 @@ export function eccentricEmissionKernel(base: EmissionKernel, start: EccentricSt
     for (let k = 0; k < tables.length; k++) s += weights[k] * tables[k].at(x);
     return s;
   };
+  // The circular base with one f0 is circular x Phi(f_r / f0): the integrator's fast path.
+  if (typeof f0 === 'number' && base === circularGwKernel) return circularTimesShapeKernel({ scaleHz: f0, shape: factor });
   if (typeof f0 === 'number') return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * factor(fr / f0);
   return (fr, mc, m, q, z) => {
     const start0 = f0(mc, m, q, z);

@@ -92,14 +92,18 @@ export function finiteBinaryBins(
     fIsco[im] = iscoGwFrequencyHz(mKg);
     for (let iq = 0; iq < nq; iq++) mc53[im * nq + iq] = Math.pow(chirpMassFromTotal(mKg, qr.nodes[iq]), 5 / 3);
   }
+  // A separable density (populationTypes.ts) gives its factors: one density call per (z, M) node.
+  const sep = pop.separable;
+  const qFactor = Float64Array.from(qr.nodes, (q) => (sep ? sep.massRatio(q) : 0));
   const dc = new Float64Array(nz);
   for (let iz = 0; iz < nz; iz++) {
     const z = zr.nodes[iz];
     dc[iz] = cosmo.comovingDistanceM(z);
     const volumePerTime = (cosmo.comovingVolumeElementM3(z) / cosmo.dtdzS(z)) * PER_MPC3;
     for (let im = 0; im < nm; im++) {
+      const zMass = sep ? sep.zMass(z, mr.nodes[im]) : 0;
       for (let iq = 0; iq < nq; iq++) {
-        const n = pop.density(z, mr.nodes[im], qr.nodes[iq]);
+        const n = sep ? zMass * qFactor[iq] : pop.density(z, mr.nodes[im], qr.nodes[iq]);
         if (!(n >= 0) || n === Infinity) throw new RangeError(`population density is ${n} at z = ${z}, log10M = ${mr.nodes[im]}, q = ${qr.nodes[iq]}; it must be finite and >= 0`);
         rate[(iz * nm + im) * nq + iq] = zr.weights[iz] * mr.weights[im] * qr.weights[iq] * n * volumePerTime;
       }
@@ -198,26 +202,37 @@ export function finiteBinaryBins(
 
 const HISTOGRAM_BINS = 4096;
 
+/** Index of the high 32-bit word of a float64 in a Uint32Array view of its buffer. */
+const HIGH_WORD = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 1 : 0;
+
 /**
  * The strain h* with one binary expected above it: nodes accumulated by decreasing strain until the
- * count reaches 1. Exactly what a full sort gives, in linear time: counts are first binned in ln h,
- * and only the nodes of the bin where the cumulative count crosses 1 are sorted.
+ * count reaches 1. Exactly what a full sort gives, in linear time: counts are first binned by the
+ * high 32 bits of each strain (for positive IEEE 754 doubles a non-decreasing function of the value,
+ * IEEE 754-2019 section 3.4, so the bins keep the order of a sort; exponent and top mantissa bits
+ * make the bins close to logarithmic), and only the nodes of the bin where the cumulative count
+ * crosses 1 are sorted.
  */
 export function loudestExpected(perLnF: Float64Array, strain: Float64Array, dlnf: number, histogram: Float64Array): number {
-  let lo = Infinity;
-  let hi = -Infinity;
+  const words = new Uint32Array(strain.buffer, strain.byteOffset, strain.length * 2);
+  let lo = 0xffffffff;
+  let hi = 0;
   for (let i = 0; i < strain.length; i++) {
     if (perLnF[i] === 0) continue;
-    if (strain[i] < lo) lo = strain[i];
-    if (strain[i] > hi) hi = strain[i];
+    const w = words[2 * i + HIGH_WORD];
+    if (w < lo) lo = w;
+    if (w > hi) hi = w;
   }
   if (!(hi >= lo)) return 0;
-  const lnLo = Math.log(lo);
-  const span = Math.log(hi) - lnLo;
   const bins = histogram.length;
-  const binOf = (h: number) => (span > 0 ? Math.min(bins - 1, Math.floor(((Math.log(h) - lnLo) / span) * bins)) : 0);
+  let shift = 0;
+  while ((hi - lo) / 2 ** shift >= bins) shift++;
+  const scale = 1 / 2 ** shift;
   histogram.fill(0);
-  for (let i = 0; i < strain.length; i++) if (perLnF[i] !== 0) histogram[binOf(strain[i])] += perLnF[i] * dlnf;
+  for (let i = 0; i < strain.length; i++) {
+    const n = perLnF[i];
+    if (n !== 0) histogram[Math.floor((words[2 * i + HIGH_WORD] - lo) * scale)] += n * dlnf;
+  }
   let cum = 0;
   let b = bins - 1;
   for (; b >= 0; b--) {
@@ -226,7 +241,7 @@ export function loudestExpected(perLnF: Float64Array, strain: Float64Array, dlnf
   }
   if (b < 0) return 0;
   const members: number[] = [];
-  for (let i = 0; i < strain.length; i++) if (perLnF[i] !== 0 && binOf(strain[i]) === b) members.push(i);
+  for (let i = 0; i < strain.length; i++) if (perLnF[i] !== 0 && Math.floor((words[2 * i + HIGH_WORD] - lo) * scale) === b) members.push(i);
   members.sort((x, y) => strain[y] - strain[x]);
   for (const i of members) {
     const n = perLnF[i] * dlnf;

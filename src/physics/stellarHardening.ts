@@ -8,6 +8,8 @@
 import { C_SI, G_SI } from './constants';
 import { eccentricityEnhancement } from './petersMathews';
 import { keplerOrbitalFrequency } from './petersEvolution';
+import { circularGwKernel } from './circularKernel';
+import { bendShape, circularTimesShapeKernel } from './factoredKernel';
 import type { EmissionKernel } from './populationTypes';
 import type { EccentricityDistribution } from './eccentricKernel';
 import { eccentricTables, type EccentricStart } from './eccentricKernel';
@@ -78,6 +80,8 @@ export function transitionFrequencyFunction(env: StellarEnvironment, e = 0): (mK
 export function stellarEmissionKernel(base: EmissionKernel, envOf: EnvironmentOf): EmissionKernel {
   if (typeof envOf !== 'function') {
     const ft = transitionFrequencyFunction(envOf);
+    // circular x 1 / (1 + (f_r / f_t)^(-10/3)) with f_t per (M, q): the integrator's fast path.
+    if (base === circularGwKernel) return circularTimesShapeKernel({ scaleHz: ft, shape: bendShape(10 / 3), bendIndex: 10 / 3 });
     return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * stellarSuppression(fr, ft(m, q));
   }
   return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * stellarSuppression(fr, stellarTransitionFrequency(m, q, envOf(m, q, z)));
@@ -94,6 +98,18 @@ export function stellarEccentricKernel(base: EmissionKernel, envOf: EnvironmentO
   if (typeof envOf !== 'function') checkEnvironment(envOf);
   const { tables, weights, e0: nodes } = eccentricTables({ ...opts, e0, f0OrbitalHz: 1 });
   if (typeof envOf !== 'function') {
+    if (base === circularGwKernel) {
+      // f0_k = f_t(e_k) / 2 and f_t(e) = f_t(0) F(e)^(-3/10) (a_t^5 is proportional to F(e), f_orb to
+      // a^(-3/2)), so f_r / f0_k = (f_r / f_t(0)) 2 F(e_k)^(3/10): one scale per (M, q), the fast path.
+      const ft0 = transitionFrequencyFunction(envOf);
+      const stretch = Array.from(nodes, (e) => 2 * Math.pow(eccentricityEnhancement(e), 0.3));
+      const shape = (r: number): number => {
+        let s = 0;
+        for (let k = 0; k < tables.length; k++) s += weights[k] * tables[k].at(r * stretch[k]);
+        return s;
+      };
+      return circularTimesShapeKernel({ scaleHz: ft0, shape });
+    }
     // f0 = f_t(e0) / 2 per e0 node, from the precomputed environment factor.
     const ftOf = Array.from(nodes, (e) => transitionFrequencyFunction(envOf, e));
     return (fr, mc, m, q, z) => {
