@@ -54,6 +54,9 @@ describe('properties', () => {
     const few = NAMES.slice(0, 4);
     const editArb = fc.oneof(
       fc.record({ op: fc.constant('set' as const), name: fc.constantFrom(...few), formula: formulaArb }),
+      fc.record({ op: fc.constant('function' as const), name: fc.constantFrom(...few), formula: formulaArb }),
+      fc.record({ op: fc.constant('call' as const), name: fc.constantFrom(...few), callee: fc.constantFrom(...few) }),
+      fc.record({ op: fc.constant('move' as const), name: fc.constantFrom(...few), to: fc.nat({ max: 4 }) }),
       fc.record({ op: fc.constant('remove' as const), name: fc.constantFrom(...few) }),
       fc.record({ op: fc.constant('rename' as const), name: fc.constantFrom(...few), to: fc.constantFrom(...few) }),
     );
@@ -62,6 +65,9 @@ describe('properties', () => {
         const s = new Sheet();
         for (const e of edits) {
           if (e.op === 'set') s.setCell({ name: e.name, formula: e.formula });
+          else if (e.op === 'function') s.setCell({ name: e.name, formula: `${e.name}(v) = v + ${e.formula}` });
+          else if (e.op === 'call') s.setCell({ name: e.name, formula: `${e.callee}(2) * 3` });
+          else if (e.op === 'move' && s.has(e.name)) s.moveCell(e.name, e.to);
           else if (e.op === 'remove' && s.has(e.name)) s.removeCell(e.name);
           else if (e.op === 'rename' && s.has(e.name) && !s.has(e.to)) s.renameCell(e.name, e.to);
           const rebuilt = new Sheet({ cells: s.cells() });
@@ -69,6 +75,31 @@ describe('properties', () => {
         }
       }),
       { numRuns: 400 },
+    );
+  });
+
+  it('evaluateWith equals a sheet where the overridden cells hold the values', () => {
+    const few = NAMES.slice(0, 5);
+    const sheetArb = fc.array(fc.tuple(fc.constantFrom(...few), formulaArb), { minLength: 1, maxLength: 6 });
+    fc.assert(
+      fc.property(sheetArb, fc.constantFrom(...few), fc.integer({ min: -3, max: 3 }), (specs, target, k) => {
+        const s = new Sheet();
+        for (const [name, formula] of specs) s.setCell({ name, formula });
+        if (!s.has(target)) return;
+        const before = snapshot(s);
+        const names = s.cells().map((c) => c.name);
+        const got = s.evaluateWith({ [target]: k }, names);
+        const oracle = new Sheet({ cells: s.cells().map((c) => (c.name === target ? { ...c, formula: String(k) } : c)) });
+        for (const n of names) {
+          const st = got[n];
+          const want = oracle.state(n);
+          expect(st.status, n).toBe(want.status);
+          if (st.status === 'value' && want.status === 'value') expect(valueToJSON(st.value)).toEqual(valueToJSON(want.value));
+          if (st.status === 'error' && want.status === 'error' && want.error.kind !== 'cycle') expect(st.error.kind, n).toBe(want.error.kind);
+        }
+        expect(snapshot(s)).toEqual(before); // the sheet itself is untouched
+      }),
+      { numRuns: 300 },
     );
   });
 
