@@ -211,6 +211,18 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     expect(await page.evaluate(() => document.activeElement?.getAttribute('data-formula'))).toBe('rate_norm');
   });
 
+  it('traces a row: its inputs and dependents are the engine’s, and clicking one goes there', async () => {
+    await freshDemo();
+    const sheet = headlessDemo();
+    await openRowDetails(page, 'A_yr');
+    const chips = await page.$$eval('[data-trace="A_yr"] .trace-chip', (xs) => xs.map((x) => x.textContent));
+    expect(chips).toEqual([...sheet.dependencies('A_yr'), ...sheet.dependents('A_yr')]);
+    const target = sheet.dependencies('A_yr')[0];
+    await page.click(`[data-trace="A_yr"] .trace-chip >> text="${target}"`);
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('data-formula'))).toBe(target);
+    await page.waitForSelector(`[data-trace="${target}"]`);
+  });
+
   it('moves between rows with the arrow keys', async () => {
     await freshDemo();
     const order = await page.$$eval('[data-cell]', (rows) => rows.map((r) => r.getAttribute('data-cell')!));
@@ -260,6 +272,13 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     });
     expect(lines.some((l) => /\(pinned\)/.test(l) || /^spectrum at /.test(l))).toBe(true);
     await page.screenshot({ path: join(ARTIFACTS, '03-pinned.png') });
+    // Hidden, the pinned curve leaves the plot (and its data export); shown again, it comes back.
+    await page.uncheck('.pin input[type="checkbox"]');
+    const hidden = await download(page, () => page.click('[data-plot="spectrum"] [data-action="export-csv"]'));
+    expect(hidden.bytes.toString('utf8')).not.toMatch(/\(pinned\)/);
+    await page.check('.pin input[type="checkbox"]');
+    const shownAgain = await download(page, () => page.click('[data-plot="spectrum"] [data-action="export-csv"]'));
+    expect(shownAgain.bytes.toString('utf8')).toMatch(/\(pinned\)/);
   });
 
   it('exports the plot as PNG at the chosen size (PNG signature and IHDR size) and as well-formed SVG', async () => {
