@@ -438,6 +438,28 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     await page.click('[data-tab="plots"]');
   });
 
+  it('solves the merger rate for a target A_yr and puts it into the cell (A_yr^2 proportional to the rate, Phinney 2001)', async () => {
+    await freshDemo();
+    const sheet = headlessDemo();
+    const a0 = sheet.value('A_yr') as number;
+    const rate0 = (sheet.value('rate_norm') as { toNumber(u: string): number }).toNumber('Mpc^-3 Gyr^-1');
+    const target = 2.9e-15;
+    await page.click('[data-tab="scan"]');
+    await page.click('[data-panel="scan"] input[name="mode"] >> nth=3');
+    await page.selectOption('select[aria-label="Goal-seek input cell"]', 'rate_norm');
+    await page.selectOption('select[aria-label="Output cell"]', 'A_yr');
+    await page.fill('input[aria-label="Target value"]', String(target));
+    await page.click('[data-action="run-job"]');
+    await page.waitForSelector('[data-goal-result]', { timeout: 60_000 });
+    const text = (await page.textContent('[data-goal-result] b')) ?? '';
+    const solved = firstNumber(text.split('=')[1]);
+    // Closed form of the sqrt law: rate = rate0 (A_target / A0)^2; 4 significant digits are shown.
+    expect(solved / (rate0 * (target / a0) ** 2)).toBeCloseTo(1, 3);
+    await page.click('[data-action="apply-goal"]');
+    await page.waitForFunction(() => document.querySelector('[data-key-value="A_yr"]')?.getAttribute('data-raw') === '2.9e-15');
+    await page.click('[data-tab="plots"]');
+  });
+
   it('opens a dropped file, refuses a dropped broken one, and reports a full storage', async () => {
     await freshDemo();
     const edited = DEMO_TEXT.replace(/"title": "[^"]*"/, '"title": "Dropped copy (invented)"');

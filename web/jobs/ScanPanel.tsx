@@ -5,11 +5,12 @@ import { useServices } from '../app/services';
 import { isSheetObject } from '../engine/engine';
 import { math } from '../../src/sheet/mathInstance';
 import { JobClient } from './jobClient';
-import type { JobSpec, SampleResult, ScanAxisSpec } from './jobProtocol';
+import type { GoalSeekJobResult, JobSpec, SampleResult, ScanAxisSpec } from './jobProtocol';
+import { formatNumber } from '../../src/sheet/formatValue';
 import { PlotView } from '../plots/PlotView';
 import { scan1Model, scan2Model, sampleModel } from './scanPlotModels';
 
-type Mode = 'scan1' | 'scan2' | 'sample';
+type Mode = 'scan1' | 'scan2' | 'sample' | 'goalSeek';
 
 /** A scalar cell's value as a number in its display unit (or SI when it has none). */
 function scalarInUnit(v: unknown, unit: string | undefined): { value: number; unit: string } | null {
@@ -95,6 +96,7 @@ export function ScanPanel() {
   const [measurement, setMeasurement] = createSignal<string>(measurementCells()[0] ?? '');
   const [samples, setSamples] = createSignal(1000);
   const [seed, setSeed] = createSignal(1);
+  const [target, setTarget] = createSignal('');
 
   const run = () => {
     setFormError(null);
@@ -119,6 +121,11 @@ export function ScanPanel() {
       if (axisX().cell === axisY().cell) return setFormError('The two inputs must be different cells.');
       if (!measurement()) return setFormError('A map needs a measurement cell to compare with.');
       job = { kind: 'scan2', x: axisX(), y: axisY(), output: output(), measurement: measurement() };
+    } else if (m === 'goalSeek') {
+      if (!axisX().cell) return setFormError('Choose the input cell to solve for.');
+      if (axisX().cell === output()) return setFormError('The input and the output must be different cells.');
+      if (!target().trim()) return setFormError(`Give the target value of ${output()} (a number, or a formula with its unit).`);
+      job = { kind: 'goalSeek', input: axisX().cell, output: output(), target: target() };
     } else {
       if (!(Number.isInteger(samples()) && samples() >= 10 && samples() <= 200_000)) return setFormError('Samples must be a whole number from 10 to 200000.');
       job = { kind: 'sample', samples: samples(), seed: seed(), output: output(), measurement: measurement() || null };
@@ -127,6 +134,12 @@ export function ScanPanel() {
   };
 
   const status = client.status;
+  const applyGoal = (g: GoalSeekJobResult) => {
+    const formula = g.unit ? `${g.value} ${g.unit}` : String(g.value);
+    const r = session.edit(`set ${g.input} by goal seek`, (sheet) => sheet.updateCell(g.input, { formula }));
+    if (!r.ok) services.notify(r.message, 'error');
+    else services.notify(`${g.input} is now ${formula}. Undo brings back its formula.`);
+  };
   const running = () => {
     const s = status();
     return s.state === 'running' ? s : null;
@@ -145,6 +158,7 @@ export function ScanPanel() {
     const r = s.result;
     if (r.kind === 'scan1') return scan1Model(r, measurement() || null);
     if (r.kind === 'scan2') return scan2Model(r);
+    if (r.kind === 'goalSeek') return null;
     return sampleModel(r, measurement() || null);
   });
 
@@ -160,9 +174,28 @@ export function ScanPanel() {
         <label>
           <input type="radio" name="mode" checked={mode() === 'sample'} onChange={() => setMode('sample')} /> sample uncertain cells
         </label>
+        <label>
+          <input type="radio" name="mode" checked={mode() === 'goalSeek'} onChange={() => setMode('goalSeek')} /> solve for a target
+        </label>
       </div>
       <div class="job-form no-print">
-        <Show when={mode() !== 'sample'}>
+        <Show when={mode() === 'goalSeek'}>
+          <fieldset class="axis-fields">
+            <legend>solve</legend>
+            <label>
+              input to change
+              <select value={axisX().cell} onChange={(e) => setAxisX(defaultAxis(e.currentTarget.value))} aria-label="Goal-seek input cell">
+                <For each={scalarCells()}>{(c) => <option value={c}>{c}</option>}</For>
+              </select>
+            </label>
+            <label>
+              target of the output
+              <input class="target-input" spellcheck={false} placeholder="e.g. 2.9e-15 or measured_A" value={target()} onInput={(e) => setTarget(e.currentTarget.value)} aria-label="Target value" />
+            </label>
+            <span class="axis-unit">Brent's method, widening the bracket as needed</span>
+          </fieldset>
+        </Show>
+        <Show when={mode() === 'scan1' || mode() === 'scan2'}>
           <AxisFields label={mode() === 'scan2' ? 'first input' : 'input'} axis={axisX()} choices={scalarCells()} onChange={setAxisX} onPick={(c) => setAxisX(defaultAxis(c))} />
         </Show>
         <Show when={mode() === 'scan2'}>
@@ -188,13 +221,15 @@ export function ScanPanel() {
               <For each={scalarCells()}>{(c) => <option value={c}>{c}</option>}</For>
             </select>
           </label>
-          <label>
-            measurement
-            <select value={measurement()} onChange={(e) => setMeasurement(e.currentTarget.value)} aria-label="Measurement cell">
-              <option value="">none</option>
-              <For each={measurementCells()}>{(c) => <option value={c}>{c}</option>}</For>
-            </select>
-          </label>
+          <Show when={mode() !== 'goalSeek'}>
+            <label>
+              measurement
+              <select value={measurement()} onChange={(e) => setMeasurement(e.currentTarget.value)} aria-label="Measurement cell">
+                <option value="">none</option>
+                <For each={measurementCells()}>{(c) => <option value={c}>{c}</option>}</For>
+              </select>
+            </label>
+          </Show>
         </fieldset>
         <div class="job-buttons">
           <button type="button" class="primary" data-action="run-job" disabled={status().state === 'running'} onClick={run}>
@@ -230,6 +265,22 @@ export function ScanPanel() {
           {(s) => (
             <div class="job-result" data-job-result={s().result.kind}>
               <div class="job-time">finished in {(s().elapsedMs / 1000).toFixed(2)} s</div>
+              <Show when={s().result.kind === 'goalSeek' ? (s().result as GoalSeekJobResult) : null}>
+                {(g) => (
+                  <div class="goal-result" data-goal-result>
+                    <p>
+                      <b>
+                        {g().input} = {formatNumber(g().value)}
+                        {g().unit ? ` ${g().unit}` : ''}
+                      </b>{' '}
+                      makes {g().output} = {formatNumber(g().achievedSI)} (target {g().target}; {g().evaluations} evaluations).
+                    </p>
+                    <button type="button" data-action="apply-goal" onClick={() => applyGoal(g())}>
+                      Put this value into {g().input}
+                    </button>
+                  </div>
+                )}
+              </Show>
               <Show when={s().result.kind === 'sample' ? (s().result as SampleResult).summary : null}>
                 {(rows) => (
                   <table class="summary-table">

@@ -15,7 +15,21 @@ export interface ScanAxisSpec {
 export type JobSpec =
   | { kind: 'scan1'; axis: ScanAxisSpec; output: string; measurement: string | null }
   | { kind: 'scan2'; x: ScanAxisSpec; y: ScanAxisSpec; output: string; measurement: string }
-  | { kind: 'sample'; samples: number; seed: number; output: string; measurement: string | null };
+  | { kind: 'sample'; samples: number; seed: number; output: string; measurement: string | null }
+  | { kind: 'goalSeek'; input: string; output: string; target: string };
+
+/** An input value that makes the output reach a target (Brent's method, src/statistics/goalSeek.ts). */
+export interface GoalSeekJobResult {
+  kind: 'goalSeek';
+  input: string;
+  output: string;
+  target: string;
+  /** The solution in the input cell's own unit ('' for a plain number). */
+  value: number;
+  unit: string;
+  achievedSI: number;
+  evaluations: number;
+}
 
 /** The measured amplitude's band at f_yr as the statistics code reports it. */
 export interface BandData {
@@ -68,7 +82,7 @@ export interface SampleResult {
   summary: { label: string; value: string }[];
 }
 
-export type JobResult = Scan1Result | Scan2Result | SampleResult;
+export type JobResult = Scan1Result | Scan2Result | SampleResult | GoalSeekJobResult;
 
 export type ToWorker = { type: 'start'; jobId: number; sheetText: string; job: JobSpec } | { type: 'cancel'; jobId: number };
 

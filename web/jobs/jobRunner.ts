@@ -96,6 +96,13 @@ export async function runJob(sheetText: string, job: JobSpec, ctl: JobControl): 
       if (r.kind !== 'scan2d') throw new Error(`unexpected result ${r.kind}`);
       return toScan2(job, r.result);
     }
+    if (job.kind === 'goalSeek') {
+      const target = job.target.trim();
+      const r = await runStatisticsJob(sheet, { kind: 'goalSeek', input: job.input, output: job.output, target: /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(target) ? Number(target) : target }, control);
+      if (r.kind !== 'goalSeek') throw new Error(`unexpected result ${r.kind}`);
+      const g = r.result;
+      return { kind: 'goalSeek', input: g.input, output: g.output, target: job.target, value: g.value, unit: g.unit, achievedSI: g.achievedSI, evaluations: g.evaluations };
+    }
     const r = await runStatisticsJob(sheet, { kind: 'sample', samples: job.samples, seed: job.seed, outputs: [job.output], measurementCell: job.measurement ?? undefined }, control);
     if (r.kind !== 'sample') throw new Error(`unexpected result ${r.kind}`);
     return toSample(job, r.result);
