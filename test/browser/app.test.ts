@@ -253,7 +253,13 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     await freshDemo();
     await page.click('[data-action="pin"]');
     await page.waitForSelector('.pin');
-    expect(await page.$$eval('.pin', (p) => p.length)).toBe(1);
+    // One pinned curve per spectrum cell of the sheet.
+    const headless = headlessDemo();
+    const spectra = headless.cells().filter((c) => {
+      const v = headless.value(c.name);
+      return isSheetObject(v) && v.kind === 'spectrum';
+    });
+    expect(await page.$$eval('.pin', (p) => p.length)).toBe(spectra.length);
     const csv = await download(page, () => page.click('[data-plot="spectrum"] [data-action="export-csv"]'));
     const lines = csv.bytes.toString('utf8').trim().split('\r\n');
     expect(lines[0].split(',')[0]).toBe('series');
@@ -273,10 +279,10 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     expect(lines.some((l) => /\(pinned\)/.test(l) || /^spectrum at /.test(l))).toBe(true);
     await page.screenshot({ path: join(ARTIFACTS, '03-pinned.png') });
     // Hidden, the pinned curve leaves the plot (and its data export); shown again, it comes back.
-    await page.uncheck('.pin input[type="checkbox"]');
+    for (const box of await page.locator('.pin input[type="checkbox"]').all()) await box.uncheck();
     const hidden = await download(page, () => page.click('[data-plot="spectrum"] [data-action="export-csv"]'));
     expect(hidden.bytes.toString('utf8')).not.toMatch(/\(pinned\)/);
-    await page.check('.pin input[type="checkbox"]');
+    await page.locator('.pin input[type="checkbox"]').first().check();
     const shownAgain = await download(page, () => page.click('[data-plot="spectrum"] [data-action="export-csv"]'));
     expect(shownAgain.bytes.toString('utf8')).toMatch(/\(pinned\)/);
   });
@@ -291,9 +297,10 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     expect(png.bytes.readUInt32BE(20)).toBe(1000);
     expect(png.bytes.length).toBeGreaterThan(10_000);
     // A hostile curve name must come out as text in the SVG, never as markup.
-    await page.fill('.pin-label', '<script>alert(1)</script> & more');
-    await page.press('.pin-label', 'Enter');
-    await page.locator('.pin-label').evaluate((el) => (el as HTMLInputElement).blur());
+    const label = page.locator('.pin-label').first();
+    await label.fill('<script>alert(1)</script> & more');
+    await label.press('Enter');
+    await label.evaluate((el) => (el as HTMLInputElement).blur());
     const svg = await download(page, () => page.click('[data-plot="spectrum"] [data-action="export-svg"]'));
     const text = svg.bytes.toString('utf8');
     expect(text).toContain('&lt;script&gt;alert(1)&lt;/script&gt; &amp; more');

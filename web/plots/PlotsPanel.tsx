@@ -123,7 +123,7 @@ export function PlotsPanel() {
           </For>
         </fieldset>
         <button type="button" data-action="pin" onClick={pinCurrent}>
-          Pin current spectrum
+          Pin current {spectra().length > 1 ? 'spectra' : 'spectrum'}
         </button>
       </div>
       <PlotView model={model} onMessage={(t) => services.notify(t, 'error')} />
