@@ -269,3 +269,63 @@ describe('opening a sheet file', () => {
     expect(r2).toEqual({ ok: false, message: '"x.json" was not opened: the file is not JSON. The sheet is unchanged.' });
   });
 });
+
+describe('autosave in local storage (failures reported, never thrown)', () => {
+  function fakeStorage(opts: { quota?: boolean } = {}) {
+    const data = new Map<string, string>();
+    return {
+      data,
+      getItem: (k: string) => data.get(k) ?? null,
+      setItem: (k: string, v: string) => {
+        if (opts.quota) throw new DOMException('full', 'QuotaExceededError');
+        data.set(k, v);
+      },
+    };
+  }
+  async function withWindow<T>(win: unknown, run: (m: typeof import('../../web/files/autosave')) => T): Promise<T> {
+    const g = globalThis as { window?: unknown };
+    const before = g.window;
+    g.window = win;
+    try {
+      return run(await import('../../web/files/autosave'));
+    } finally {
+      g.window = before;
+    }
+  }
+  it('reports storage switched off (the browser refuses access to localStorage)', async () => {
+    const win = {
+      get localStorage(): Storage {
+        throw new DOMException('denied', 'SecurityError');
+      },
+    };
+    await withWindow(win, (m) => {
+      const w = m.writeAutosave('x');
+      expect(w.ok).toBe(false);
+      if (!w.ok) expect(w.message).toMatch(/does not allow local storage/);
+      expect(m.restoreAutosave(() => 1).safeToWrite).toBe(false);
+    });
+  });
+  it('reports a full storage by name', async () => {
+    await withWindow({ localStorage: fakeStorage({ quota: true }) }, (m) => {
+      const w = m.writeAutosave('x'.repeat(3000));
+      expect(w.ok).toBe(false);
+      if (!w.ok) expect(w.message).toMatch(/local storage is full \(sheet is 3 kB\)/);
+    });
+  });
+  it('keeps an unreadable autosave under another key and leaves the original in place', async () => {
+    const storage = fakeStorage();
+    await withWindow({ localStorage: storage }, (m) => {
+      storage.data.set(m.AUTOSAVE_KEY, '{broken');
+      const r = m.restoreAutosave(() => {
+        throw new Error('not JSON');
+      });
+      expect(r.sheet).toBeUndefined();
+      expect(r.safeToWrite).toBe(true);
+      const aside = [...storage.data.keys()].filter((k) => k.startsWith(m.SET_ASIDE_PREFIX));
+      expect(aside.length).toBe(1);
+      expect(storage.data.get(aside[0])).toBe('{broken');
+      expect(storage.data.get(m.AUTOSAVE_KEY)).toBe('{broken');
+      expect(r.message).toContain(aside[0]);
+    });
+  });
+});
