@@ -1,6 +1,6 @@
 // Turns whatever a formula's evaluation threw into a CellError in plain language, and checks a
 // result for values the sheet flags (non-finite numbers, oversized lists).
-import type { Matrix, Unit } from 'mathjs';
+import type { MathNode, Matrix, Unit } from 'mathjs';
 import { BuiltinError, type CellError } from './cellError';
 import { math } from './mathInstance';
 import { MAX_ELEMENTS } from './formulaCompiler';
@@ -117,4 +117,55 @@ export function nearestName(name: string, candidates: Iterable<string>): string 
   }
   const allowed = Math.max(1, Math.min(3, Math.floor(name.length / 3)));
   return best !== undefined && bestDistance <= allowed ? best : undefined;
+}
+
+const COMBINING: Record<string, string> = {
+  add: 'add', subtract: 'subtract', larger: 'compare', smaller: 'compare', largerEq: 'compare',
+  smallerEq: 'compare', equal: 'compare', unequal: 'compare', to: 'convert',
+};
+
+function dimensionsOf(v: unknown): number[] | null | undefined {
+  if (typeof v === 'number') return null; // a plain number
+  if (math.isUnit(v)) return (v as Unit & { dimensions: number[] }).dimensions;
+  return undefined; // lists and others: not explained here
+}
+
+function describeOperand(v: unknown): string {
+  if (typeof v === 'number') return `the plain number ${v}`;
+  const u = v as Unit;
+  return u.toString();
+}
+
+/**
+ * For a unit mismatch, finds the first addition, subtraction, comparison or conversion whose two
+ * sides have different dimensions, and says which (evaluated again only on this error path).
+ */
+export function explainUnitMismatch(tree: MathNode, inputs: Map<string, unknown>): string | undefined {
+  const stack: MathNode[] = [tree];
+  const operators: Array<MathNode & { fn: string; args: MathNode[] }> = [];
+  while (stack.length > 0 && operators.length < 200) {
+    const node = stack.pop()! as MathNode & { fn?: unknown; args?: MathNode[] };
+    if (node.type === 'OperatorNode' && typeof node.fn === 'string' && COMBINING[node.fn] && node.args?.length === 2) {
+      operators.push(node as MathNode & { fn: string; args: MathNode[] });
+    }
+    node.forEach((child: MathNode) => void stack.push(child));
+  }
+  // innermost first: the deepest operators were found last
+  for (const op of operators.reverse()) {
+    try {
+      const [a, b] = op.args.map((arg) => arg.compile().evaluate(inputs));
+      if (op.fn === 'to') continue;
+      const da = dimensionsOf(a);
+      const db = dimensionsOf(b);
+      if (da === undefined || db === undefined) continue;
+      const same = da === null || db === null ? da === db || (da ?? db)!.every((d) => d === 0) : da.every((d, i) => d === db[i]);
+      if (!same) {
+        const why = da === null || db === null ? 'one has a unit and the other is a plain number' : 'their units have different dimensions';
+        return `cannot ${COMBINING[op.fn]} ${describeOperand(a)} and ${describeOperand(b)}: ${why}`;
+      }
+    } catch {
+      continue;
+    }
+  }
+  return undefined;
 }

@@ -25,7 +25,7 @@ export interface Evaluable {
 }
 
 export type CompiledFormula =
-  | { kind: 'expression'; deps: string[]; code: Evaluable }
+  | { kind: 'expression'; deps: string[]; code: Evaluable; tree: MathNode }
   | { kind: 'function'; deps: string[]; functionName: string; params: string[]; body: Evaluable }
   | { kind: 'error'; deps: string[]; error: CellError };
 
@@ -236,7 +236,7 @@ export function compileFormula(text: string, cell: string, builtinNames?: Readon
     if (t.type === 'FunctionAssignmentNode') return compileFunctionCell(t, cell, builtins);
     const result = walk(tree, new Set(), builtins);
     if (result.problem) return fail(cell, result.problem.kind, result.problem.detail);
-    return { kind: 'expression', deps: result.deps, code: tree.compile() as Evaluable };
+    return { kind: 'expression', deps: result.deps, code: tree.compile() as Evaluable, tree };
   } catch (e) {
     if (e instanceof RangeError) return fail(cell, 'limit', 'the formula is too complex to compile');
     return fail(cell, 'eval', `cannot compile the formula: ${(e as Error).message}`);

@@ -7,7 +7,7 @@ import type { Builtin } from './builtin';
 import { compileFormula, makeCellFunction, type CompiledFormula } from './formulaCompiler';
 import { DependencyGraph, type CycleThrough } from './dependencyGraph';
 import { RankQueue } from './rankQueue';
-import { checkResult, errorFromException, nearestName } from './evaluationError';
+import { checkResult, errorFromException, explainUnitMismatch, nearestName } from './evaluationError';
 import { sameValue } from './valueEquality';
 import { checkCellName } from './cellName';
 import { lockedMath } from './lockedMath';
@@ -519,7 +519,12 @@ export class Sheet {
     try {
       value = compiled.code.evaluate(inputs);
     } catch (e) {
-      return { status: 'error', error: errorFromException(name, e) };
+      const error = errorFromException(name, e);
+      if (error.kind === 'unit') {
+        const why = explainUnitMismatch(compiled.tree, inputs);
+        if (why) error.message = `${name}: ${why}`;
+      }
+      return { status: 'error', error };
     }
     const problem = checkResult(name, value);
     return problem ? { status: 'error', error: problem } : { status: 'value', value };

@@ -60,7 +60,14 @@ describe('parsing and evaluation', () => {
     const s = sheetOf({ a: '2 m + 3 s', bb: '3 m + 2', c: '(2 m) to s', d: 'sin(2 m)' });
     for (const n of ['a', 'bb', 'c', 'd']) expect(errorOf(s, n).kind).toBe('unit');
     expect(errorOf(s, 'c').message).toContain('cannot convert 2 m to s');
-    expect(errorOf(s, 'bb').message).toContain('plain number');
+    expect(errorOf(s, 'bb').message).toBe('bb: cannot add 3 m and the plain number 2: one has a unit and the other is a plain number');
+    expect(errorOf(s, 'a').message).toBe('a: cannot add 2 m and 3 s: their units have different dimensions');
+  });
+
+  it('names the innermost mismatched operands', () => {
+    const s = sheetOf({ span: '10 yr', mixed: 'sqrt(span^2 + (1 Mpc)^2) * 2', cmp: 'span > 3' });
+    expect(errorOf(s, 'mixed').message).toBe('mixed: cannot add 100 yr^2 and 1 Mpc^2: their units have different dimensions');
+    expect(errorOf(s, 'cmp').message).toMatch(/^cmp: cannot compare 10 yr and the plain number 3/);
   });
 
   it('flags non-finite results, also inside lists', () => {
@@ -82,7 +89,7 @@ describe('parsing and evaluation', () => {
     expect(errorOf(s, 'bb')).toMatchObject({ kind: 'input', inputs: ['a'] });
     const c = errorOf(s, 'c');
     expect(c).toMatchObject({ kind: 'input', inputs: ['bb'] });
-    expect(c.message).toContain('a: units do not match');
+    expect(c.message).toContain('(a: cannot add 1 m and 1 s: their units have different dimensions)');
     expect(s.value('ok')).toBe(5);
   });
 
