@@ -119,8 +119,23 @@ export function finiteBinaryBins(
     cutLog10M: new Float64Array(nf),
     loudestStrain: new Float64Array(nf),
   };
-  const perLnF = new Float64Array(size); // dN/dln f per node
-  const strain = new Float64Array(size);
+  // Sums over q per (z, mass node) for the counts and h^2: dN h^2 = rate tau_F h_F^2 M_c^(5/3).
+  const perMc53 = new Float64Array(nz * nm); // sum_q rate / M_c^(5/3)
+  const timesMc53 = new Float64Array(nz * nm); // sum_q rate x M_c^(5/3)
+  for (let iz = 0; iz < nz; iz++) {
+    for (let im = 0; im < nm; im++) {
+      let a = 0;
+      let b = 0;
+      for (let iq = 0; iq < nq; iq++) {
+        const r = rate[(iz * nm + im) * nq + iq];
+        a += r / mc53[im * nq + iq];
+        b += r * mc53[im * nq + iq];
+      }
+      perMc53[iz * nm + im] = a;
+      timesMc53[iz * nm + im] = b;
+    }
+  }
+  const loud = new LoudestSearch(rate, mc53, nz, nm, nq);
   const nodeCount = new Float64Array(nm); // per mass node, summed over z and q
   const nodeH2 = new Float64Array(nm);
   // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
@@ -129,7 +144,9 @@ export function finiteBinaryBins(
   const edges = new Float64Array(nm + 1);
   edges[0] = pop.log10MMin;
   for (let im = 0; im < nm; im++) edges[im + 1] = edges[im] + mr.weights[im];
-  const histogram = new Float64Array(HISTOGRAM_BINS);
+  const tauOf = new Float64Array(nz);
+  const hFOf = new Float64Array(nz);
+  const emitting = new Int32Array(nz);
   for (let k = 0; k < nf; k++) {
     const f = freqsHz[k];
     if (!(f > 0) || !Number.isFinite(f)) throw new RangeError(`frequency ${k + 1} must be positive and finite, got ${f} Hz`);
@@ -143,28 +160,19 @@ export function finiteBinaryBins(
       // The residence time and the strain above, factored into frequency and chirp-mass parts.
       const tauF = RESIDENCE * Math.pow(fr, -8 / 3);
       const hF = (STRAIN * Math.pow(fr, 2 / 3)) / dc[iz];
-      for (let im = 0; im < nm; im++) {
-        if (fr > fIsco[im]) {
-          // Past the ISCO: merged, no longer emitting.
-          for (let iq = 0; iq < nq; iq++) {
-            perLnF[(iz * nm + im) * nq + iq] = 0;
-            strain[(iz * nm + im) * nq + iq] = 0;
-          }
-          continue;
-        }
-        for (let iq = 0; iq < nq; iq++) {
-          const idx = (iz * nm + im) * nq + iq;
-          const m53 = mc53[im * nq + iq];
-          const dN = (rate[idx] * tauF) / m53;
-          const h = hF * m53;
-          perLnF[idx] = dN;
-          strain[idx] = dN === 0 ? 0 : h;
-          count += dN * dlnf;
-          h2Total += dN * h * h;
-          nodeCount[im] += dN * dlnf;
-          nodeH2[im] += dN * h * h;
-        }
+      tauOf[iz] = tauF;
+      hFOf[iz] = hF;
+      // Masses rise with the node index and f_ISCO falls: nodes from the first past the ISCO on have merged.
+      let im = 0;
+      for (; im < nm && !(fr > fIsco[im]); im++) {
+        const n = perMc53[iz * nm + im] * tauF * dlnf;
+        const h2 = timesMc53[iz * nm + im] * tauF * hF * hF;
+        count += n;
+        h2Total += h2;
+        nodeCount[im] += n;
+        nodeH2[im] += h2;
       }
+      emitting[iz] = im;
     }
     out.expectedPerBin[k] = count;
     out.smoothHc[k] = Math.sqrt(h2Total);
@@ -190,14 +198,152 @@ export function finiteBinaryBins(
     out.cutLog10M[k] = cut;
     out.thinnedHc[k] = Math.sqrt(Math.max(0, h2Total - h2AboveCut));
 
-    // Loudest expected binary: accumulate nodes by decreasing strain until one binary is expected.
-    if (count < 1) {
-      out.loudestStrain[k] = 0;
-      continue;
-    }
-    out.loudestStrain[k] = loudestExpected(perLnF, strain, dlnf, histogram);
+    // Loudest expected binary: nodes by decreasing strain until one binary is expected.
+    out.loudestStrain[k] = count < 1 ? 0 : loud.search(tauOf, hFOf, emitting, dlnf);
   }
   return out;
+}
+
+/**
+ * The loudest binary expected in a bin (the strain with one binary expected at or above it, as
+ * loudestExpected finds it) for strains h_F(z) x M_c^(5/3) and counts rate x tau_F(z) / M_c^(5/3):
+ * the (mass, q) nodes are put once in order of decreasing M_c^(5/3), which is the order of
+ * decreasing strain at every z, with per-z prefix sums of rate / M_c^(5/3). The count at or above a
+ * strain h is then a binary search per z; bisection in h narrows the nodes that hold the crossing
+ * to a few, which are sorted. Merged nodes (past the ISCO: mass index >= emitting[z]) are taken out
+ * of the prefix sums per frequency.
+ */
+class LoudestSearch {
+  private readonly order: Int32Array; // node (im * nq + iq) at each rank
+  private readonly rankedMc53: Float64Array;
+  private readonly massOfRank: Int32Array;
+  private readonly rankOfNode: Int32Array;
+  private readonly prefix: Float64Array; // per z: sum over ranks < j of rate / M_c^(5/3)
+  private readonly exRanks: Int32Array; // scratch: ranks of merged nodes of one z, ascending
+  private readonly exPrefix: Float64Array;
+  private readonly exStart: Int32Array; // per z: start of its merged ranks in the scratch
+  private readonly exCount: Int32Array;
+  private readonly members: number[] = [];
+  constructor(
+    private readonly rate: Float64Array,
+    private readonly mc53: Float64Array,
+    private readonly nz: number,
+    private readonly nm: number,
+    private readonly nq: number,
+  ) {
+    const p = nm * nq;
+    this.order = Int32Array.from(Array.from({ length: p }, (_, i) => i).sort((a, b) => mc53[b] - mc53[a] || a - b));
+    this.rankedMc53 = Float64Array.from(this.order, (i) => mc53[i]);
+    this.massOfRank = Int32Array.from(this.order, (i) => Math.floor(i / nq));
+    this.rankOfNode = new Int32Array(p);
+    for (let j = 0; j < p; j++) this.rankOfNode[this.order[j]] = j;
+    this.prefix = new Float64Array(nz * (p + 1));
+    for (let iz = 0; iz < nz; iz++) {
+      const base = iz * (p + 1);
+      for (let j = 0; j < p; j++) this.prefix[base + j + 1] = this.prefix[base + j] + rate[iz * p + this.order[j]] / this.rankedMc53[j];
+    }
+    this.exRanks = new Int32Array(nz * p);
+    this.exPrefix = new Float64Array(nz * (p + 1));
+    this.exStart = new Int32Array(nz);
+    this.exCount = new Int32Array(nz);
+  }
+
+  /** Ranks j with hF x M_c^(5/3)[j] >= h (a prefix of the ranks). */
+  private ranksAtOrAbove(hF: number, h: number): number {
+    let lo = 0;
+    let hi = this.rankedMc53.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (hF * this.rankedMc53[mid] >= h) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  }
+
+  /** Sum of rate / M_c^(5/3) over the first `ranks` ranks at z, merged nodes left out. */
+  private emittingSum(iz: number, ranks: number): number {
+    const p = this.rankedMc53.length;
+    let s = this.prefix[iz * (p + 1) + ranks];
+    const n = this.exCount[iz];
+    if (n > 0) {
+      const start = this.exStart[iz];
+      let lo = 0;
+      let hi = n;
+      while (lo < hi) {
+        const mid = (lo + hi) >>> 1;
+        if (this.exRanks[start + mid] < ranks) lo = mid + 1;
+        else hi = mid;
+      }
+      s -= this.exPrefix[iz * (p + 1) + lo];
+    }
+    return s;
+  }
+
+  /** Expected binaries with strain >= h. */
+  private countAtOrAbove(h: number, tau: Float64Array, hF: Float64Array, dlnf: number): number {
+    let c = 0;
+    for (let iz = 0; iz < this.nz; iz++) c += tau[iz] * dlnf * this.emittingSum(iz, this.ranksAtOrAbove(hF[iz], h));
+    return c;
+  }
+
+  search(tau: Float64Array, hF: Float64Array, emitting: Int32Array, dlnf: number): number {
+    const { nz, nm, nq } = this;
+    const p = nm * nq;
+    // Merged nodes of each z, by rank, with their prefix sums.
+    let used = 0;
+    for (let iz = 0; iz < nz; iz++) {
+      this.exStart[iz] = used;
+      const first = used;
+      for (let im = emitting[iz]; im < nm; im++) for (let iq = 0; iq < nq; iq++) this.exRanks[used++] = this.rankOfNode[im * nq + iq];
+      this.exCount[iz] = used - first;
+      if (used > first) {
+        const ranks = this.exRanks.subarray(first, used).sort();
+        const base = iz * (p + 1);
+        for (let j = 0; j < ranks.length; j++) this.exPrefix[base + j + 1] = this.exPrefix[base + j] + this.rate[iz * p + this.order[ranks[j]]] / this.rankedMc53[ranks[j]];
+      }
+    }
+    let hMin = Infinity;
+    let hMax = 0;
+    for (let iz = 0; iz < nz; iz++) {
+      hMin = Math.min(hMin, hF[iz] * this.rankedMc53[p - 1]);
+      hMax = Math.max(hMax, hF[iz] * this.rankedMc53[0]);
+    }
+    let lo = hMin; // count at or above lo >= 1
+    let hi = 2 * hMax; // count at or above hi = 0
+    if (this.countAtOrAbove(lo, tau, hF, dlnf) < 1) return 0;
+    for (let it = 0; it < 200; it++) {
+      let inside = 0;
+      for (let iz = 0; iz < nz; iz++) inside += this.ranksAtOrAbove(hF[iz], lo) - this.ranksAtOrAbove(hF[iz], hi);
+      if (inside <= 48) break;
+      const mid = Math.sqrt(lo * hi);
+      if (!(mid > lo && mid < hi)) break;
+      if (this.countAtOrAbove(mid, tau, hF, dlnf) >= 1) lo = mid;
+      else hi = mid;
+    }
+    // The nodes with lo <= strain < hi, by decreasing strain, from the count at or above hi.
+    let cum = this.countAtOrAbove(hi, tau, hF, dlnf);
+    const members = this.members;
+    members.length = 0;
+    for (let iz = 0; iz < nz; iz++) {
+      const from = this.ranksAtOrAbove(hF[iz], hi);
+      const to = this.ranksAtOrAbove(hF[iz], lo);
+      for (let j = from; j < to; j++) {
+        if (this.massOfRank[j] >= emitting[iz] || this.rate[iz * p + this.order[j]] === 0) continue;
+        members.push(iz * p + j);
+      }
+    }
+    const strainOf = (m: number) => hF[Math.floor(m / p)] * this.rankedMc53[m % p];
+    members.sort((x, y) => strainOf(y) - strainOf(x));
+    let last = 0;
+    for (const m of members) {
+      const iz = Math.floor(m / p);
+      const j = m % p;
+      last = strainOf(m);
+      cum += (this.rate[iz * p + this.order[j]] / this.rankedMc53[j]) * tau[iz] * dlnf;
+      if (cum >= 1) return last;
+    }
+    return last;
+  }
 }
 
 const HISTOGRAM_BINS = 4096;
@@ -214,34 +360,60 @@ const HIGH_WORD = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 1 : 0;
  * crosses 1 are sorted.
  */
 export function loudestExpected(perLnF: Float64Array, strain: Float64Array, dlnf: number, histogram: Float64Array): number {
-  const words = new Uint32Array(strain.buffer, strain.byteOffset, strain.length * 2);
-  let lo = 0xffffffff;
+  let lo = Infinity;
   let hi = 0;
   for (let i = 0; i < strain.length; i++) {
     if (perLnF[i] === 0) continue;
-    const w = words[2 * i + HIGH_WORD];
-    if (w < lo) lo = w;
-    if (w > hi) hi = w;
+    if (strain[i] < lo) lo = strain[i];
+    if (strain[i] > hi) hi = strain[i];
   }
   if (!(hi >= lo)) return 0;
-  const bins = histogram.length;
-  let shift = 0;
-  while ((hi - lo) / 2 ** shift >= bins) shift++;
-  const scale = 1 / 2 ** shift;
+  const words = new Uint32Array(strain.buffer, strain.byteOffset, strain.length * 2);
+  const bins = strainBins(lo, hi, histogram.length);
   histogram.fill(0);
   for (let i = 0; i < strain.length; i++) {
     const n = perLnF[i];
-    if (n !== 0) histogram[Math.floor((words[2 * i + HIGH_WORD] - lo) * scale)] += n * dlnf;
+    if (n !== 0) histogram[binOf(words[2 * i + HIGH_WORD], bins, histogram.length)] += n * dlnf;
   }
+  return loudestFromHistogram(perLnF, strain, words, dlnf, histogram, bins);
+}
+
+/** Histogram bins on the high words of positive strains in [lo, hi]: bin = floor((word - low word) x scale). */
+interface StrainBins {
+  lowWord: number;
+  scale: number;
+}
+
+const boundValue = new Float64Array(1);
+const boundWords = new Uint32Array(boundValue.buffer);
+
+function strainBins(lo: number, hi: number, count: number): StrainBins {
+  boundValue[0] = lo;
+  const lowWord = boundWords[HIGH_WORD];
+  boundValue[0] = hi;
+  const highWord = boundWords[HIGH_WORD];
+  let shift = 0;
+  while ((highWord - lowWord) / 2 ** shift >= count) shift++;
+  return { lowWord, scale: 1 / 2 ** shift };
+}
+
+/** The bin of a high word, clamped to the histogram (clamping keeps the order). */
+function binOf(word: number, bins: StrainBins, count: number): number {
+  const b = Math.floor((word - bins.lowWord) * bins.scale);
+  return b < 0 ? 0 : b >= count ? count - 1 : b;
+}
+
+/** From a filled histogram: the bin where the count from the top crosses 1, then its nodes sorted by strain. */
+function loudestFromHistogram(perLnF: Float64Array, strain: Float64Array, words: Uint32Array, dlnf: number, histogram: Float64Array, bins: StrainBins): number {
   let cum = 0;
-  let b = bins - 1;
+  let b = histogram.length - 1;
   for (; b >= 0; b--) {
     if (cum + histogram[b] >= 1) break;
     cum += histogram[b];
   }
   if (b < 0) return 0;
   const members: number[] = [];
-  for (let i = 0; i < strain.length; i++) if (perLnF[i] !== 0 && Math.floor((words[2 * i + HIGH_WORD] - lo) * scale) === b) members.push(i);
+  for (let i = 0; i < strain.length; i++) if (perLnF[i] !== 0 && binOf(words[2 * i + HIGH_WORD], bins, histogram.length) === b) members.push(i);
   members.sort((x, y) => strain[y] - strain[x]);
   for (const i of members) {
     const n = perLnF[i] * dlnf;
