@@ -211,6 +211,8 @@ export class Sheet {
     const current = this.records.get(target)!;
     const { name: _ignored, ...rest } = patch;
     void _ignored;
+    // An absent formula keeps the current one; absent optional fields are cleared.
+    if (rest.formula === undefined) delete rest.formula;
     const s = this.normalize({ ...current.spec, ...rest, name: target });
     const formulaChanged = s.formula !== current.spec.formula;
     current.spec = s;

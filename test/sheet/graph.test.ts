@@ -134,6 +134,16 @@ describe('evaluation order and counts', () => {
     expect(events).toEqual([]);
   });
 
+  it('updateCell changes display fields without recomputing, and keeps the formula when absent', () => {
+    const s = sheetOf({ a: '1000 m', bb: 'a * 2' });
+    const seen = countEvaluations(s);
+    s.updateCell('a', { unit: 'km', note: 'a length' });
+    expect(seen.count()).toBe(0);
+    expect(s.get('a')).toEqual({ name: 'a', formula: '1000 m', unit: 'km', note: 'a length' });
+    s.updateCell('a', { formula: undefined, note: undefined });
+    expect(s.get('a')).toEqual({ name: 'a', formula: '1000 m', unit: 'km' });
+  });
+
   it('lists direct dependencies and dependents', () => {
     const s = sheetOf({ a: '1', bb: 'a + missing_cell', c: 'a * bb' });
     expect(s.dependencies('c').sort()).toEqual(['a', 'bb']);
