@@ -44,7 +44,8 @@ export function PlotsPanel() {
         if (curve) out.push(curve);
       }
     }
-    return out;
+    // The sheet's main `spectrum` first, so it keeps the first colour whatever the cell order.
+    return out.sort((a, b) => Number(b.label === 'spectrum') - Number(a.label === 'spectrum'));
   });
 
   const model = createMemo(() => {
