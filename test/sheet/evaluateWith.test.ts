@@ -1,5 +1,5 @@
 // evaluateWith: outputs with some cells replaced, the sheet untouched, unrelated cells reused.
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { Sheet, SheetEditError } from '../../src/sheet/sheet';
 import { math } from '../../src/sheet/mathInstance';
 import { countEvaluations, sheetOf, si } from './helpers';
@@ -30,6 +30,21 @@ describe('evaluateWith', () => {
     const r2 = s.evaluateWith({ rate: 3 }, ['other', 'slow']);
     expect(r2.other).toEqual({ status: 'value', value: 4 });
     expect(r2.slow).toBe(s.state('slow')); // reused, the very same state object
+  });
+
+  it('evaluates exactly the cells between the overrides and the outputs', () => {
+    const s = build();
+    // Spy on the engine's per-cell evaluation (a private method) to list what is computed.
+    const spy = vi.spyOn(Sheet.prototype as unknown as { evaluateCompiled: (n: string) => unknown }, 'evaluateCompiled');
+    try {
+      s.evaluateWith({ rate: 8 }, ['ampl']);
+      expect(spy.mock.calls.map((c) => c[0])).toEqual(['amp2', 'ampl']); // not slow, not other
+      spy.mockClear();
+      s.evaluateWith({ slow: 1 }, ['other']);
+      expect(spy.mock.calls).toEqual([]); // other does not read slow
+    } finally {
+      spy.mockRestore();
+    }
   });
 
   it('accepts quantities and any value, and function cells see the override', () => {
