@@ -224,6 +224,9 @@ class LoudestSearch {
   private readonly exStart: Int32Array; // per z: start of its merged ranks in the scratch
   private readonly exCount: Int32Array;
   private readonly members: number[] = [];
+  private readonly rankLo: Int32Array;
+  private readonly rankHi: Int32Array;
+  private readonly rankMid: Int32Array;
   constructor(
     private readonly rate: Float64Array,
     private readonly mc53: Float64Array,
@@ -246,12 +249,15 @@ class LoudestSearch {
     this.exPrefix = new Float64Array(nz * (p + 1));
     this.exStart = new Int32Array(nz);
     this.exCount = new Int32Array(nz);
+    this.rankLo = new Int32Array(nz);
+    this.rankHi = new Int32Array(nz);
+    this.rankMid = new Int32Array(nz);
   }
 
-  /** Ranks j with hF x M_c^(5/3)[j] >= h (a prefix of the ranks). */
-  private ranksAtOrAbove(hF: number, h: number): number {
-    let lo = 0;
-    let hi = this.rankedMc53.length;
+  /** Ranks j with hF x M_c^(5/3)[j] >= h (a prefix of the ranks), known to lie in [from, to]. */
+  private ranksAtOrAbove(hF: number, h: number, from = 0, to = this.rankedMc53.length): number {
+    let lo = from;
+    let hi = to;
     while (lo < hi) {
       const mid = (lo + hi) >>> 1;
       if (hF * this.rankedMc53[mid] >= h) lo = mid + 1;
@@ -279,13 +285,6 @@ class LoudestSearch {
     return s;
   }
 
-  /** Expected binaries with strain >= h. */
-  private countAtOrAbove(h: number, tau: Float64Array, hF: Float64Array, dlnf: number): number {
-    let c = 0;
-    for (let iz = 0; iz < this.nz; iz++) c += tau[iz] * dlnf * this.emittingSum(iz, this.ranksAtOrAbove(hF[iz], h));
-    return c;
-  }
-
   search(tau: Float64Array, hF: Float64Array, emitting: Int32Array, dlnf: number): number {
     const { nz, nm, nq } = this;
     const p = nm * nq;
@@ -308,26 +307,44 @@ class LoudestSearch {
       hMin = Math.min(hMin, hF[iz] * this.rankedMc53[p - 1]);
       hMax = Math.max(hMax, hF[iz] * this.rankedMc53[0]);
     }
-    let lo = hMin; // count at or above lo >= 1
-    let hi = 2 * hMax; // count at or above hi = 0
-    if (this.countAtOrAbove(lo, tau, hF, dlnf) < 1) return 0;
-    for (let it = 0; it < 200; it++) {
-      let inside = 0;
-      for (let iz = 0; iz < nz; iz++) inside += this.ranksAtOrAbove(hF[iz], lo) - this.ranksAtOrAbove(hF[iz], hi);
-      if (inside <= 48) break;
+    // Bracket [lo, hi): count at or above lo >= 1, at or above hi < 1; ranks at each end per z.
+    let lo = hMin;
+    let hi = 2 * hMax;
+    const { rankLo, rankHi, rankMid } = this;
+    let inside = 0;
+    let countLo = 0;
+    let countHi = 0;
+    for (let iz = 0; iz < nz; iz++) {
+      rankLo[iz] = p;
+      rankHi[iz] = 0;
+      inside += p;
+      countLo += tau[iz] * dlnf * this.emittingSum(iz, p);
+    }
+    if (countLo < 1) return 0;
+    for (let it = 0; it < 200 && inside > 48; it++) {
       const mid = Math.sqrt(lo * hi);
       if (!(mid > lo && mid < hi)) break;
-      if (this.countAtOrAbove(mid, tau, hF, dlnf) >= 1) lo = mid;
-      else hi = mid;
+      let c = 0;
+      for (let iz = 0; iz < nz; iz++) {
+        rankMid[iz] = this.ranksAtOrAbove(hF[iz], mid, rankHi[iz], rankLo[iz]);
+        c += tau[iz] * dlnf * this.emittingSum(iz, rankMid[iz]);
+      }
+      inside = 0;
+      if (c >= 1) {
+        lo = mid;
+        for (let iz = 0; iz < nz; iz++) inside += (rankLo[iz] = rankMid[iz]) - rankHi[iz];
+      } else {
+        hi = mid;
+        countHi = c;
+        for (let iz = 0; iz < nz; iz++) inside += rankLo[iz] - (rankHi[iz] = rankMid[iz]);
+      }
     }
     // The nodes with lo <= strain < hi, by decreasing strain, from the count at or above hi.
-    let cum = this.countAtOrAbove(hi, tau, hF, dlnf);
+    let cum = countHi;
     const members = this.members;
     members.length = 0;
     for (let iz = 0; iz < nz; iz++) {
-      const from = this.ranksAtOrAbove(hF[iz], hi);
-      const to = this.ranksAtOrAbove(hF[iz], lo);
-      for (let j = from; j < to; j++) {
+      for (let j = rankHi[iz]; j < rankLo[iz]; j++) {
         if (this.massOfRank[j] >= emitting[iz] || this.rate[iz * p + this.order[j]] === 0) continue;
         members.push(iz * p + j);
       }
