@@ -249,13 +249,28 @@ function factoredStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, d
   if (sep) for (let j = 0; j < nq; j++) qFactor[j] = etaW[j] * checkedValue(sep.massRatio(qr.nodes[j]), 'mass-ratio factor', qr.nodes[j]);
 
   // Per (mass node, q node) of mr: 1 / scale, or scale^kappa for a bend shape 1 / (1 + r^(-kappa)).
+  // With scale = mass(M) x ratio(q) the q factors (and their powers) are computed once here.
   const kappa = desc.bendIndex;
+  const factors = desc.scaleFactors;
+  const ratioPart = new Float64Array(nq);
+  if (factors) for (let j = 0; j < nq; j++) ratioPart[j] = kappa === undefined ? 1 / factors.ratio(qr.nodes[j]) : Math.pow(factors.ratio(qr.nodes[j]), kappa);
+  const badScale = (s: number, x: number, q: number) => new RangeError(`emission scale frequency is ${s} Hz at log10M = ${x}, q = ${q}; it must be positive and finite`);
   const nodeScales = (mr: QuadratureRule, into: Float64Array): Float64Array => {
     for (let i = 0; i < mr.nodes.length; i++) {
       const mKg = M_SUN_KG * Math.pow(10, mr.nodes[i]);
+      if (factors) {
+        const sm = factors.mass(mKg);
+        const massPart = kappa === undefined ? 1 / sm : Math.pow(sm, kappa);
+        for (let j = 0; j < nq; j++) {
+          const v = massPart * ratioPart[j];
+          if (!(v > 0) || v === Infinity) throw badScale(sm * factors.ratio(qr.nodes[j]), mr.nodes[i], qr.nodes[j]);
+          into[i * nq + j] = v;
+        }
+        continue;
+      }
       for (let j = 0; j < nq; j++) {
         const s = scaleOf(mKg, qr.nodes[j]);
-        if (!(s > 0) || s === Infinity) throw new RangeError(`emission scale frequency is ${s} Hz at log10M = ${mr.nodes[i]}, q = ${qr.nodes[j]}; it must be positive and finite`);
+        if (!(s > 0) || s === Infinity) throw badScale(s, mr.nodes[i], qr.nodes[j]);
         into[i * nq + j] = kappa === undefined ? 1 / s : Math.pow(s, kappa);
       }
     }

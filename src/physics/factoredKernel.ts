@@ -18,6 +18,12 @@ export interface CircularTimesShape {
    * computes scale^bendIndex once per node and f_r^(-bendIndex) once per frequency and redshift.
    */
   bendIndex?: number;
+  /**
+   * Optional, when scaleHz(mKg, q) = mass(mKg) x ratio(q) (the stellar transition frequency): the
+   * integrator then evaluates one factor per mass node and one per mass-ratio node. The product must
+   * equal scaleHz to rounding.
+   */
+  scaleFactors?: { mass(mKg: number): number; ratio(q: number): number };
 }
 
 /** The shape 1 / (1 + r^(-kappa)) of a low-frequency bend (Sampson, Cornish & McWilliams 2015, PRD 91, 084055). */

@@ -66,6 +66,24 @@ export type EnvironmentOf = StellarEnvironment | ((mKg: number, q: number, z: nu
  * Same formula as stellarTransitionFrequency (a_t from equal rates, f_t = 2 f_orb(a_t)).
  */
 export function transitionFrequencyFunction(env: StellarEnvironment, e = 0): (mKg: number, q: number) => number {
+  return transitionFrequencyParts(env, e).of;
+}
+
+/**
+ * f_t and its factors: with m1 m2 = eta M^2, a_t = (k eta M^3)^(1/5) and f_t = sqrt(G M / a_t^3) / pi
+ * = [sqrt(G M) (k M^3)^(-3/10) / pi] x eta^(-3/10): a factor of the total mass times one of q.
+ */
+export function transitionFrequencyParts(env: StellarEnvironment, e = 0): { of: (mKg: number, q: number) => number; mass: (mKg: number) => number; ratio: (q: number) => number } {
+  const of = transitionFrequencyOf(env, e);
+  const k = ((64 / 5) * G_SI * G_SI * eccentricityEnhancement(e) * env.dispersionMS) / (C_SI ** 5 * env.densityKgM3 * env.hardeningRate);
+  return {
+    of,
+    mass: (mKg) => (Math.sqrt(G_SI * mKg) * Math.pow(k * mKg * mKg * mKg, -0.3)) / Math.PI,
+    ratio: (q) => Math.pow(q / ((1 + q) * (1 + q)), -0.3),
+  };
+}
+
+function transitionFrequencyOf(env: StellarEnvironment, e: number): (mKg: number, q: number) => number {
   checkEnvironment(env);
   const k = ((64 / 5) * G_SI * G_SI * eccentricityEnhancement(e) * env.dispersionMS) / (C_SI ** 5 * env.densityKgM3 * env.hardeningRate);
   const g = G_SI;
@@ -79,9 +97,10 @@ export function transitionFrequencyFunction(env: StellarEnvironment, e = 0): (mK
 /** Circular binaries hardened by stars then by GW emission: base kernel times the suppression. */
 export function stellarEmissionKernel(base: EmissionKernel, envOf: EnvironmentOf): EmissionKernel {
   if (typeof envOf !== 'function') {
-    const ft = transitionFrequencyFunction(envOf);
+    const parts = transitionFrequencyParts(envOf);
+    const ft = parts.of;
     // circular x 1 / (1 + (f_r / f_t)^(-10/3)) with f_t per (M, q): the integrator's fast path.
-    if (base === circularGwKernel) return circularTimesShapeKernel({ scaleHz: ft, shape: bendShape(10 / 3), bendIndex: 10 / 3 });
+    if (base === circularGwKernel) return circularTimesShapeKernel({ scaleHz: ft, shape: bendShape(10 / 3), bendIndex: 10 / 3, scaleFactors: parts });
     return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * stellarSuppression(fr, ft(m, q));
   }
   return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * stellarSuppression(fr, stellarTransitionFrequency(m, q, envOf(m, q, z)));
@@ -101,14 +120,15 @@ export function stellarEccentricKernel(base: EmissionKernel, envOf: EnvironmentO
     if (base === circularGwKernel) {
       // f0_k = f_t(e_k) / 2 and f_t(e) = f_t(0) F(e)^(-3/10) (a_t^5 is proportional to F(e), f_orb to
       // a^(-3/2)), so f_r / f0_k = (f_r / f_t(0)) 2 F(e_k)^(3/10): one scale per (M, q), the fast path.
-      const ft0 = transitionFrequencyFunction(envOf);
+      const parts = transitionFrequencyParts(envOf);
+      const ft0 = parts.of;
       const stretch = Array.from(nodes, (e) => 2 * Math.pow(eccentricityEnhancement(e), 0.3));
       const shape = (r: number): number => {
         let s = 0;
         for (let k = 0; k < tables.length; k++) s += weights[k] * tables[k].at(r * stretch[k]);
         return s;
       };
-      return circularTimesShapeKernel({ scaleHz: ft0, shape });
+      return circularTimesShapeKernel({ scaleHz: ft0, shape, scaleFactors: parts });
     }
     // f0 = f_t(e0) / 2 per e0 node, from the precomputed environment factor.
     const ftOf = Array.from(nodes, (e) => transitionFrequencyFunction(envOf, e));
