@@ -3,7 +3,7 @@
 import type { MathNode, Matrix, Unit } from 'mathjs';
 import { BuiltinError, type CellError } from './cellError';
 import { math } from './mathInstance';
-import { MAX_ELEMENTS } from './formulaCompiler';
+import { MAX_ELEMENTS } from './formulaLimits';
 
 function plainMathMessage(message: string): { kind: CellError['kind']; detail: string } {
   if (/^Units do not match/.test(message)) {

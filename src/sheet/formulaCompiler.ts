@@ -9,15 +9,9 @@ import { ALLOWED_CONSTANTS, ALLOWED_MATH_FUNCTIONS } from './allowedFunctions';
 import { checkCellName, FREE_NAMES } from './cellName';
 import { FunctionCellScope } from './functionCellScope';
 import { BuiltinError } from './cellError';
+import { MAX_ELEMENTS, MAX_FORMULA_LENGTH, MAX_NESTING, MAX_NODES } from './formulaLimits';
 
-/** Longest formula accepted, in characters (long enough for pasted CSV text in quotes). */
-export const MAX_FORMULA_LENGTH = 200_000;
-/** Deepest bracket nesting accepted before parsing (protects the recursive parser). */
-export const MAX_NESTING = 64;
-/** Most tree nodes in one formula. */
-export const MAX_NODES = 20_000;
-/** Most elements a range literal, a matrix literal or any cell value may have. */
-export const MAX_ELEMENTS = 1_000_000;
+export { MAX_ELEMENTS, MAX_FORMULA_LENGTH, MAX_NESTING, MAX_NODES } from './formulaLimits';
 
 /** Something compiled mathjs can evaluate with a Map-like scope. */
 export interface Evaluable {
@@ -155,6 +149,8 @@ function walk(root: MathNode, params: ReadonlySet<string>, builtinNames: Readonl
         if (fnNode.type !== 'SymbolNode') return refuse('only named functions can be called (no calls on results or properties)');
         const name = fnNode.name!;
         if (params.has(name)) return refuse(`${name} is a parameter and cannot be called`);
+        // Several lists at once would broadcast inside mathjs, past the size guards.
+        if ((name === 'map' || name === 'forEach') && n.args.length > 2) return refuse(`${name} takes one list and a function (several lists at once are not available)`);
         if (!isCallable(name)) {
           if (forbiddenName(name) || ALLOWED_CONSTANTS.has(name)) return refuse(`function ${name} is not available in formulas`);
           deps.add(name); // a function cell

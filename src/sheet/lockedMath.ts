@@ -7,6 +7,7 @@ import { math } from './mathInstance';
 import { allBuiltins } from '../builtins/index';
 import type { Builtin } from './builtin';
 import { ALLOWED_MATH_FUNCTIONS, LOCKED_FUNCTIONS } from './allowedFunctions';
+import { sizeGuardedFunctions, sizeGuardedTransforms } from './sizeGuards';
 
 export interface LockedMath {
   /** mathjs's parser, kept before the instance was locked. */
@@ -45,6 +46,11 @@ export function lockedMath(): LockedMath {
   const withTransform = (math as unknown as { expression: { mathWithTransform: Record<string, unknown> } }).expression
     .mathWithTransform;
   for (const name of ALLOWED_MATH_FUNCTIONS) void withTransform[name], void (math as unknown as Record<string, unknown>)[name];
+  // List arithmetic measures its operands before building a result (see sizeGuards.ts).
+  math.import(sizeGuardedFunctions(), { override: true });
+  for (const [name, transform] of Object.entries(sizeGuardedTransforms())) {
+    Object.defineProperty(withTransform, name, { value: transform, writable: true, configurable: true, enumerable: true });
+  }
   const stubs: Record<string, () => never> = {};
   for (const name of LOCKED_FUNCTIONS) {
     stubs[name] = () => {

@@ -84,6 +84,16 @@ const ATTACKS: string[] = [
   'kron(1:1000, 1:1000)',
   'combinations(1e9, 5e8)',
   'f(x) = f(x)',
+  // broadcasting and product bombs: [N,1] op [1,M] builds N x M inside one mathjs call
+  'transpose([1:100000]) + [1:100000]',
+  'transpose([1:100000]) * [1:100000]',
+  'transpose([1:100000]) .* [1:100000]',
+  'transpose([1:100000]) == [1:100000]',
+  'transpose([1:100000]) and [1:100000]',
+  'transpose([1:100000]) | [1:100000]',
+  'mod(transpose([1:100000]), [1:100000])',
+  'map(transpose([1:100000]), [1:100000], add)',
+  'inv(reshape(1:250000, [500, 500]))',
 ];
 
 // mathjs's typings require an argument; the locked instance reads the configuration without one.

@@ -116,6 +116,17 @@ describe('parsing and evaluation', () => {
     expect(errorOf(s, 'bb').kind).toBe('limit');
   });
 
+  it('list arithmetic within the limits still works under the size guards', () => {
+    // hand arithmetic: [[1,2],[3,4]] * [[1],[1]] = [[3],[7]]; a 300x1 plus a 1x300 broadcast
+    const s = sheetOf({ product1: '[[1,2],[3,4]] * [[1],[1]]', grid1: 'transpose([1:300]) + [1:300]', both: '[true, false] and [true, true]', shortcut: 'false and (1/0 > 0)' });
+    expect(String((s.value('product1') as { toArray(): unknown[] }).toArray())).toBe('3,7');
+    expect((s.value('grid1') as { size(): number[] }).size()).toEqual([300, 300]);
+    expect(String((s.value('both') as { toArray(): unknown[] }).toArray())).toBe('true,false');
+    expect(s.value('shortcut')).toBe(false);
+    const big = sheetOf({ outer: 'transpose([1:2000]) * [1:2000]' }); // 4e6 elements > 1e6
+    expect(big.state('outer')).toMatchObject({ status: 'error', error: { kind: 'limit' } });
+  });
+
   it('takes dependencies from the tree, not from called built-ins', () => {
     const s = sheetOf({ x: '2', y: 'sqrt(x) + logGrid(1, x, 2)[1] + pi' });
     expect(s.dependencies('y')).toEqual(['x']);
