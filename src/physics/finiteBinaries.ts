@@ -322,7 +322,13 @@ class LoudestSearch {
     }
     if (countLo < 1) return 0;
     for (let it = 0; it < 200 && inside > 48; it++) {
-      const mid = Math.sqrt(lo * hi);
+      // Odd steps interpolate ln(count) linearly in ln h towards count 1 (kept inside the bracket);
+      // even steps bisect in ln h, so the bracket at least halves every two steps.
+      let mid = Math.sqrt(lo * hi);
+      if (it % 2 === 1 && countHi > 0) {
+        const t = Math.min(0.9, Math.max(0.1, Math.log(countLo) / (Math.log(countLo) - Math.log(countHi))));
+        mid = lo * Math.pow(hi / lo, t);
+      }
       if (!(mid > lo && mid < hi)) break;
       let c = 0;
       for (let iz = 0; iz < nz; iz++) {
@@ -332,6 +338,7 @@ class LoudestSearch {
       inside = 0;
       if (c >= 1) {
         lo = mid;
+        countLo = c;
         for (let iz = 0; iz < nz; iz++) inside += (rankLo[iz] = rankMid[iz]) - rankHi[iz];
       } else {
         hi = mid;
