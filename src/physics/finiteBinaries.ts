@@ -223,6 +223,7 @@ class LoudestSearch {
   private readonly exPrefix: Float64Array;
   private readonly exStart: Int32Array; // per z: start of its merged ranks in the scratch
   private readonly exCount: Int32Array;
+  private readonly exCut: Int32Array; // per z: the first merged mass index the scratch holds (-1: none yet)
   private readonly members: number[] = [];
   private readonly rankLo: Int32Array;
   private readonly rankHi: Int32Array;
@@ -249,6 +250,7 @@ class LoudestSearch {
     this.exPrefix = new Float64Array(nz * (p + 1));
     this.exStart = new Int32Array(nz);
     this.exCount = new Int32Array(nz);
+    this.exCut = new Int32Array(nz).fill(-1);
     this.rankLo = new Int32Array(nz);
     this.rankHi = new Int32Array(nz);
     this.rankMid = new Int32Array(nz);
@@ -288,11 +290,13 @@ class LoudestSearch {
   search(tau: Float64Array, hF: Float64Array, emitting: Int32Array, dlnf: number): number {
     const { nz, nm, nq } = this;
     const p = nm * nq;
-    // Merged nodes of each z, by rank, with their prefix sums.
-    let used = 0;
+    // Merged nodes of each z, by rank, with their prefix sums (kept while the z's ISCO cut stays).
     for (let iz = 0; iz < nz; iz++) {
-      this.exStart[iz] = used;
-      const first = used;
+      if (this.exCut[iz] === emitting[iz]) continue;
+      this.exCut[iz] = emitting[iz];
+      const first = iz * p;
+      let used = first;
+      this.exStart[iz] = first;
       for (let im = emitting[iz]; im < nm; im++) for (let iq = 0; iq < nq; iq++) this.exRanks[used++] = this.rankOfNode[im * nq + iq];
       this.exCount[iz] = used - first;
       if (used > first) {
