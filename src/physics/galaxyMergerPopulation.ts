@@ -84,6 +84,8 @@ export function galaxyMergerPopulation(p: GalaxyMergerParams): BinaryPopulation 
     w.push(1);
   }
   const log10Fb = Math.log10(p.bulgeFraction);
+  const shift = Float64Array.from(eps, (e) => Math.pow(10, -e / b));
+  const weightedShift = new Float64Array(eps.length);
   let lastZ = NaN;
   let zPart = 0;
   let slope = 0;
@@ -99,6 +101,7 @@ export function galaxyMergerPopulation(p: GalaxyMergerParams): BinaryPopulation 
         const mf = p.massFunction;
         zPart = (Math.LN10 * Math.pow(10, mf.log10PhiStar0 + mf.log10PhiStarSlope * z) * p.pairFraction0 * Math.pow(1 + z, p.betaPair) * (p.cosmology.dtdzS(z) / GYR_S)) / (p.mergerTime0Gyr * Math.pow(1 + z, p.betaTau));
         slope = 1 + mf.alpha0 + mf.alphaSlope * z;
+        for (let i = 0; i < eps.length; i++) weightedShift[i] = w[i] * Math.pow(shift[i], slope);
         lastZ = z;
       }
       const qg = Math.pow(q, 1 / b);
@@ -107,12 +110,13 @@ export function galaxyMergerPopulation(p: GalaxyMergerParams): BinaryPopulation 
       const jacobian = b * b * Math.pow(qg, b - 1);
       const base = 11 - log10Fb + (log10M - a - Math.log10(1 + q)) / b;
       // Schechter per dex (as stellarMassFunctionPerDex) at each scatter node, z factors hoisted.
+      // r_i = R c_i with c_i = 10^(-eps_i / b), so r_i^slope = R^slope c_i^slope: one power per call,
+      // the c_i^slope (with the weights) once per z.
+      const R = Math.pow(10, base) / p.massFunction.mStar;
       let s = 0;
-      for (let i = 0; i < eps.length; i++) {
-        const r = Math.pow(10, base - eps[i] / b) / p.massFunction.mStar;
-        s += w[i] * Math.pow(r, slope) * Math.exp(-r);
-      }
-      return (zPart * pq * s) / jacobian;
+      for (let i = 0; i < eps.length; i++) s += weightedShift[i] * Math.exp(-R * shift[i]);
+      if (s === 0) return 0; // every node far past the break (keeps 0 x Infinity out)
+      return (zPart * pq * Math.pow(R, slope) * s) / jacobian;
     },
   };
 }
