@@ -1,0 +1,89 @@
+// The orbits and array sections of the demo sheet (examples/demo.json, an invented scenario) against
+// laws that hold whatever the invented numbers are.
+import { describe, expect, it } from 'vitest';
+import type { Matrix } from 'mathjs';
+import { C_SI, G_SI, M_SUN_KG, PC_M } from '../../src/physics/constants';
+import type { SpectrumValue } from '../../src/builtins/spectrumValue';
+import { loadDemo, siValues } from '../physics/demoSheet';
+import { siOf } from '../physics/sheetHelpers';
+
+const sheet = loadDemo();
+const value = (name: string): unknown => {
+  const s = sheet.state(name);
+  if (s.status !== 'value') throw new Error(`demo cell ${name} has no value: ${JSON.stringify(s)}`);
+  return s.value;
+};
+const plain = (name: string): number[] => ((value(name) as Matrix).toArray() as number[]).map(Number);
+
+describe('demo orbits section', () => {
+  it('binaries per bin of width 1/T fall as f^(-11/3) below every ISCO cut (dN/dln f proportional to f^(-8/3), Sesana, Vecchio & Colacino 2008, MNRAS 390, 192; dln f = 1/(f T)), to 1e-9', () => {
+    const n = plain('binaries_per_bin');
+    const f = siValues(value('freqs'));
+    // The three lowest bins: (1+z) f stays below f_ISCO of the heaviest binaries (z <= 5) up to 7.3 nHz.
+    expect(6 * f[2]).toBeLessThan(siOf(value('f_isco_heaviest')));
+    for (const k of [1, 2]) expect(Math.abs(n[k] / n[0] / Math.pow(f[k] / f[0], -11 / 3) - 1)).toBeLessThan(1e-9);
+  });
+
+  it('the stellar-hardened spectrum lies below the GW-only one and approaches it with frequency (factor 1/(1 + (f_t/f_r)^(10/3)), Quinlan 1996, New Astron. 1, 35)', () => {
+    const gw = (value('spectrum') as SpectrumValue).hc;
+    const st = (value('spectrum_stellar') as SpectrumValue).hc;
+    for (let k = 0; k < gw.length; k++) {
+      expect(st[k]).toBeLessThan(gw[k]);
+      if (k > 0) expect(st[k] / gw[k]).toBeGreaterThan(st[k - 1] / gw[k - 1]);
+    }
+  });
+
+  it('f_transition equals the closed form a_t^5 = (64/5) G^2 m1 m2 M sigma / (c^5 rho H), f_t = 2 f_orb(a_t) (Quinlan 1996; Peters 1964, Phys. Rev. 136, B1224), computed here from the cells, to 1e-12', () => {
+    const M = siOf(value('reference_mass'));
+    const q = 0.5;
+    const rho = siOf(value('stellar_density'));
+    const sigma = siOf(value('stellar_dispersion'));
+    const H = Number(value('hardening_H'));
+    expect(Math.abs(rho / ((1000 * M_SUN_KG) / PC_M ** 3) - 1)).toBeLessThan(1e-12); // units arrive in SI
+    const m1 = M / (1 + q);
+    const m2 = M - m1;
+    const a = Math.pow(((64 / 5) * G_SI ** 2 * m1 * m2 * M * sigma) / (C_SI ** 5 * rho * H), 1 / 5);
+    const ft = (2 * Math.sqrt((G_SI * M) / a ** 3)) / (2 * Math.PI);
+    expect(Math.abs(siOf(value('f_transition')) / ft - 1)).toBeLessThan(1e-12);
+  });
+
+  it('eccentric A_yr is within 1% of the circular one: at f_yr the orbits started at 0.3 nHz have circularised (e falls as f^(-19/18) at small e, Peters 1964)', () => {
+    const ratio = Number(value('A_yr_eccentric')) / Number(value('A_yr'));
+    expect(Math.abs(ratio - 1)).toBeLessThan(1e-2);
+    // while at the lowest bin, near the start frequency, power has moved to higher harmonics (Enoki & Nagashima 2007, PTP 117, 241)
+    const gw = (value('spectrum') as SpectrumValue).hc;
+    const ecc = (value('spectrum_eccentric') as SpectrumValue).hc;
+    expect(Math.abs(ecc[0] / gw[0] - 1)).toBeGreaterThan(1e-3);
+  });
+
+  it('the loudest single binary of each bin is weaker than the whole background there (sum of h^2 over the expected binaries, Sesana, Vecchio & Colacino 2008)', () => {
+    const h = plain('loudest_strain');
+    const gw = (value('spectrum') as SpectrumValue).hc;
+    for (let k = 0; k < h.length; k++) {
+      expect(h[k]).toBeGreaterThan(0);
+      expect(h[k]).toBeLessThan(gw[k]);
+    }
+  });
+});
+
+describe('demo array section', () => {
+  it('the span that reaches snr_threshold is shorter than the array span exactly when the S/N at that span exceeds the threshold (S/N grows with span: common practice, no source)', () => {
+    const snr = Number(value('snr'));
+    const threshold = Number(value('snr_threshold'));
+    const span = siOf(value('detection_span'));
+    const arraySpan = siOf(value('array_span'));
+    expect(snr > threshold).toBe(span < arraySpan);
+  });
+
+  it('an edit of rate_norm reaches snr, detection_span and the finite-number cells (h_c^2 and counts linear in the rate, Phinney 2001; Sesana, Vecchio & Colacino 2008)', () => {
+    const s = loadDemo();
+    const before = plain('binaries_per_bin')[0];
+    const snrBefore = Number(value('snr'));
+    s.updateCell('rate_norm', { formula: '2.4e-3 Mpc^-3 Gyr^-1' });
+    const after = (((s.state('binaries_per_bin') as { value: Matrix }).value.toArray() as number[]).map(Number))[0];
+    expect(Math.abs(after / before - 2)).toBeLessThan(1e-9);
+    const snrAfter = Number((s.state('snr') as { value: unknown }).value);
+    expect(snrAfter).toBeGreaterThan(snrBefore);
+    expect(s.state('detection_span').status).toBe('value');
+  });
+});
