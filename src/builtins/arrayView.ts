@@ -7,6 +7,7 @@ import { BuiltinError } from '../sheet/cellError';
 import { math, isUnit, quantity } from '../sheet/mathInstance';
 import { isSheetObject, type SheetObject } from '../sheet/sheetObject';
 import { DAY_S, YEAR_S } from '../physics/constants';
+import { binsBelowNyquist } from '../physics/frequencyGrid';
 import { hellingsDowns } from '../physics/hellingsDowns';
 import { MAX_FREQUENCY_BINS, shortestCadence, type PulsarArray, type PulsarNoise } from '../physics/pulsarArray';
 import { arraySensitivity, type SensitivityCurve } from '../physics/arraySensitivity';
@@ -127,7 +128,7 @@ function checkSpan(spanS: number, cadenceS: number, fn: string, arg: string): nu
         `the cadence is too long for the span to hold even one frequency bin 1/T below the Nyquist frequency 1/(2 cadence)`,
     );
   }
-  const bins = Math.floor(spanS / (2 * cadenceS));
+  const bins = binsBelowNyquist(spanS, cadenceS);
   if (bins > MAX_FREQUENCY_BINS) {
     throw new BuiltinError(`${where(fn, arg)} with this cadence gives ${bins} frequency bins, more than the limit of ${MAX_FREQUENCY_BINS}; use a shorter span or a longer cadence`, 'limit');
   }

@@ -1,6 +1,8 @@
 // The Hellings & Downs correlation of timing residuals between two pulsars induced by an isotropic,
 // unpolarised gravitational-wave background, and its expectation over isotropic pulsar positions.
 
+import { gaussLegendreRule } from './gaussLegendre';
+
 /**
  * Correlation for two distinct pulsars an angle `separationRad` apart (Earth terms only):
  * Gamma = (3/2) x ln x - x/4 + 1/2 with x = (1 - cos zeta)/2 (Hellings & Downs 1983, ApJ 265, L39),
@@ -47,7 +49,7 @@ let cachedRule: SkyAverageRule | null = null;
 export function skyAverageRule(): SkyAverageRule {
   if (cachedRule) return cachedRule;
   const n = 48;
-  const { nodes, weights } = legendreRule(n);
+  const { nodes, weights } = gaussLegendreRule(n);
   const gamma = new Float64Array(n);
   const weight = new Float64Array(n);
   for (let i = 0; i < n; i++) {
@@ -66,36 +68,4 @@ export function skyAverage(g: (gamma: number) => number): number {
   let s = 0;
   for (let i = 0; i < gamma.length; i++) s += weight[i] * g(gamma[i]);
   return s;
-}
-
-/**
- * Gauss-Legendre nodes and weights on [-1, 1] by Newton's method on the Legendre recurrence
- * (Abramowitz & Stegun 1964, Handbook of Mathematical Functions, 25.4.29). Private to this file.
- */
-function legendreRule(n: number): { nodes: Float64Array; weights: Float64Array } {
-  const nodes = new Float64Array(n);
-  const weights = new Float64Array(n);
-  for (let i = 0; i < Math.ceil(n / 2); i++) {
-    let x = Math.cos((Math.PI * (i + 0.75)) / (n + 0.5));
-    let dp = 1;
-    for (let iter = 0; iter < 100; iter++) {
-      let p0 = 1;
-      let p1 = x;
-      for (let k = 1; k < n; k++) {
-        const p2 = ((2 * k + 1) * x * p1 - k * p0) / (k + 1);
-        p0 = p1;
-        p1 = p2;
-      }
-      dp = (n * (x * p1 - p0)) / (x * x - 1);
-      const dx = p1 / dp;
-      x -= dx;
-      if (Math.abs(dx) < 1e-15) break;
-    }
-    nodes[i] = -x;
-    nodes[n - 1 - i] = x;
-    const w = 2 / ((1 - x * x) * dp * dp);
-    weights[i] = w;
-    weights[n - 1 - i] = w;
-  }
-  return { nodes, weights };
 }

@@ -1,6 +1,7 @@
 // A timing array as the detection outlook sees it: pulsars with their noise, a common observing span
 // and cadence, and optionally their sky positions. Plain numbers in SI; checks live in src/builtins.
 import { F_YR_HZ } from './constants';
+import { binsBelowNyquist, spanHarmonics } from './frequencyGrid';
 
 /** Noise of one pulsar's timing residuals. */
 export interface PulsarNoise {
@@ -73,19 +74,18 @@ export const MAX_FREQUENCY_BINS = 200_000;
 /**
  * Fourier frequency bins of a span T sampled every dt: f_k = k/T for k = 1 .. floor(T/(2 dt)), i.e.
  * up to the Nyquist frequency 1/(2 dt) (common practice, no source). The cadence used is the shortest
- * of the array's pulsars.
+ * of the array's pulsars. Unlike frequencyGridFromSpan, a span of exactly two cadences (one bin at the
+ * Nyquist frequency) is allowed, and the limit is MAX_FREQUENCY_BINS.
  */
 export function frequencyBins(spanS: number, cadenceS: number): Float64Array {
-  const count = Math.floor(spanS / (2 * cadenceS) + 1e-9);
+  const count = binsBelowNyquist(spanS, cadenceS);
   if (!(count >= 1)) {
     throw new RangeError(`span ${spanS} s holds no frequency bin below the Nyquist frequency of cadence ${cadenceS} s`);
   }
   if (count > MAX_FREQUENCY_BINS) {
     throw new RangeError(`span / (2 cadence) gives ${count} frequency bins, more than the limit of ${MAX_FREQUENCY_BINS}`);
   }
-  const f = new Float64Array(count);
-  for (let k = 0; k < count; k++) f[k] = (k + 1) / spanS;
-  return f;
+  return spanHarmonics(spanS, count);
 }
 
 /** Shortest cadence in the array, s (its Nyquist frequency bounds the bins). */
