@@ -4,9 +4,8 @@ import type { Command } from './commands';
 import { parseOptions, UsageError } from './optionParsing';
 import { applySetOptions, loadSheet } from './sheetLoading';
 import { EXIT_BAD_INPUT, EXIT_CELL_ERROR, EXIT_OK } from './exitCodes';
-import { runJob } from '../statistics/jobs';
-import { JobCancelledError, SheetJobError, inOwnUnit, unitTextOf } from '../statistics/sheetValues';
-import { csvField, csvNumber, g4, jobControls, writeCsv } from './statisticsCli';
+import { inOwnUnit, unitTextOf } from '../statistics/sheetValues';
+import { csvField, csvNumber, g4, runJobForCommand, writeCsv } from './statisticsCli';
 
 const USAGE = `strainsheet sample FILE --samples N --seed S --output name [options]
 
@@ -52,23 +51,8 @@ export const sampleCommand: Command = {
     const csvPath = opts.values.get('csv')?.at(-1);
     const sheet = loadSheet(opts.positional[0]);
     applySetOptions(sheet, opts.values.get('set') ?? []);
-    const { control, done } = jobControls(io, opts.flags.has('quiet'));
-    let job;
-    try {
-      job = await runJob(sheet, { kind: 'sample', samples, seed, outputs, measurementCell: opts.values.get('against')?.at(-1) }, control);
-    } catch (e) {
-      if (e instanceof SheetJobError) {
-        io.err(`strainsheet sample: ${e.message}\n`);
-        return EXIT_BAD_INPUT;
-      }
-      if (e instanceof JobCancelledError) {
-        io.err('strainsheet sample: cancelled\n');
-        return EXIT_BAD_INPUT;
-      }
-      throw e;
-    } finally {
-      done();
-    }
+    const job = await runJobForCommand('sample', sheet, { kind: 'sample', samples, seed, outputs, measurementCell: opts.values.get('against')?.at(-1) }, io, opts.flags.has('quiet'));
+    if (job === null) return EXIT_BAD_INPUT;
     if (job.kind !== 'sample') throw new Error('unexpected job result');
     const r = job.result;
     const inputs = r.inputs.map((i) => i.cell);

@@ -4,10 +4,10 @@ import type { Command } from './commands';
 import { parseOptions, UsageError } from './optionParsing';
 import { applySetOptions, loadSheet } from './sheetLoading';
 import { EXIT_BAD_INPUT, EXIT_CELL_ERROR, EXIT_OK } from './exitCodes';
-import { runJob, type JobSpec } from '../statistics/jobs';
-import { JobCancelledError, SheetJobError, inOwnUnit } from '../statistics/sheetValues';
+import type { JobSpec } from '../statistics/jobs';
+import { inOwnUnit } from '../statistics/sheetValues';
 import type { AxisPrior } from '../statistics/credibleRegion';
-import { csvField, csvNumber, g4, jobControls, parseVaryOption, writeCsv } from './statisticsCli';
+import { csvField, csvNumber, g4, parseVaryOption, runJobForCommand, writeCsv } from './statisticsCli';
 
 const USAGE = `strainsheet scan FILE --vary name=lo:hi:n[:log] [--vary name=lo:hi:n[:log]] --output name [options]
 
@@ -57,23 +57,8 @@ export const scanCommand: Command = {
     const sheet = loadSheet(opts.positional[0]);
     applySetOptions(sheet, opts.values.get('set') ?? []);
     const spec: JobSpec = { kind: 'scan', vary, outputs, measurementCell: against };
-    const { control, done } = jobControls(io, opts.flags.has('quiet'));
-    let job;
-    try {
-      job = await runJob(sheet, spec, control);
-    } catch (e) {
-      if (e instanceof SheetJobError) {
-        io.err(`strainsheet scan: ${e.message}\n`);
-        return EXIT_BAD_INPUT;
-      }
-      if (e instanceof JobCancelledError) {
-        io.err('strainsheet scan: cancelled\n');
-        return EXIT_BAD_INPUT;
-      }
-      throw e;
-    } finally {
-      done();
-    }
+    const job = await runJobForCommand('scan', sheet, spec, io, opts.flags.has('quiet'));
+    if (job === null) return EXIT_BAD_INPUT;
     const lines: string[] = [];
     let failures = 0;
     let firstError: string | undefined;

@@ -2,7 +2,9 @@
 import { writeFileSync } from 'node:fs';
 import type { CliIO } from './cliIO';
 import { UsageError } from './optionParsing';
-import type { AxisSpec } from '../statistics/jobs';
+import type { Sheet } from '../sheet/sheet';
+import { runJob, type AxisSpec, type JobResult, type JobSpec } from '../statistics/jobs';
+import { JobCancelledError, SheetJobError } from '../statistics/sheetValues';
 
 /** Parses `name=lo:hi:n[:log|:lin]`; lo and hi are numbers (in the cell's display unit) or formula text. */
 export function parseVaryOption(text: string): AxisSpec {
@@ -64,6 +66,30 @@ export function jobControls(io: CliIO, quiet: boolean): { control: { onProgress?
         }
       };
   return { control: { onProgress, signal: ctl.signal }, done: () => process.removeListener('SIGINT', onInt) };
+}
+
+/**
+ * Runs a sheet job with progress and Ctrl-C (see jobControls). A job that refuses its input or is
+ * cancelled is reported on standard error as `strainsheet <command>: ...` and gives null (the caller
+ * then exits with EXIT_BAD_INPUT); any other error is thrown on.
+ */
+export async function runJobForCommand(command: string, sheet: Sheet, spec: JobSpec, io: CliIO, quiet: boolean): Promise<JobResult | null> {
+  const { control, done } = jobControls(io, quiet);
+  try {
+    return await runJob(sheet, spec, control);
+  } catch (e) {
+    if (e instanceof SheetJobError) {
+      io.err(`strainsheet ${command}: ${e.message}\n`);
+      return null;
+    }
+    if (e instanceof JobCancelledError) {
+      io.err(`strainsheet ${command}: cancelled\n`);
+      return null;
+    }
+    throw e;
+  } finally {
+    done();
+  }
 }
 
 /** Formats a number for the summary lines (4 significant digits). */
