@@ -136,8 +136,15 @@ export function finiteBinaryBins(
     }
   }
   const loud = new LoudestSearch(rate, mc53, nz, nm, nq);
-  const nodeCount = new Float64Array(nm); // per mass node, summed over z and q
-  const nodeH2 = new Float64Array(nm);
+  // Their running sums over the mass nodes of each z: the totals below a z's ISCO cut in one lookup.
+  const perMc53Below = new Float64Array(nz * (nm + 1));
+  const timesMc53Below = new Float64Array(nz * (nm + 1));
+  for (let iz = 0; iz < nz; iz++) {
+    for (let im = 0; im < nm; im++) {
+      perMc53Below[iz * (nm + 1) + im + 1] = perMc53Below[iz * (nm + 1) + im] + perMc53[iz * nm + im];
+      timesMc53Below[iz * (nm + 1) + im + 1] = timesMc53Below[iz * (nm + 1) + im] + timesMc53[iz * nm + im];
+    }
+  }
   // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
   // its own cell: the separation theorem of Chebyshev, Markov and Stieltjes, Szego 1939, Orthogonal
   // Polynomials, 3.41; section from memory), so a node's count spread over its cell keeps the density it stands for.
@@ -151,8 +158,6 @@ export function finiteBinaryBins(
     const f = freqsHz[k];
     if (!(f > 0) || !Number.isFinite(f)) throw new RangeError(`frequency ${k + 1} must be positive and finite, got ${f} Hz`);
     const dlnf = 1 / (f * spanS);
-    nodeCount.fill(0);
-    nodeH2.fill(0);
     let count = 0;
     let h2Total = 0;
     for (let iz = 0; iz < nz; iz++) {
@@ -164,14 +169,9 @@ export function finiteBinaryBins(
       hFOf[iz] = hF;
       // Masses rise with the node index and f_ISCO falls: nodes from the first past the ISCO on have merged.
       let im = 0;
-      for (; im < nm && !(fr > fIsco[im]); im++) {
-        const n = perMc53[iz * nm + im] * tauF * dlnf;
-        const h2 = timesMc53[iz * nm + im] * tauF * hF * hF;
-        count += n;
-        h2Total += h2;
-        nodeCount[im] += n;
-        nodeH2[im] += h2;
-      }
+      while (im < nm && !(fr > fIsco[im])) im++;
+      count += perMc53Below[iz * (nm + 1) + im] * tauF * dlnf;
+      h2Total += timesMc53Below[iz * (nm + 1) + im] * tauF * hF * hF;
       emitting[iz] = im;
     }
     out.expectedPerBin[k] = count;
@@ -185,14 +185,22 @@ export function finiteBinaryBins(
       let above = 0;
       let h2Above = 0;
       for (let im = nm - 1; im >= 0; im--) {
-        if (above + nodeCount[im] >= 1) {
-          const frac = (1 - above) / nodeCount[im];
+        // This mass node's count and h^2, summed over the z where it still emits (only the nodes walked are summed).
+        let nodeCount = 0;
+        let nodeH2 = 0;
+        for (let iz = 0; iz < nz; iz++) {
+          if (im >= emitting[iz]) continue;
+          nodeCount += perMc53[iz * nm + im] * tauOf[iz] * dlnf;
+          nodeH2 += timesMc53[iz * nm + im] * tauOf[iz] * hFOf[iz] * hFOf[iz];
+        }
+        if (above + nodeCount >= 1) {
+          const frac = (1 - above) / nodeCount;
           cut = edges[im + 1] - frac * (edges[im + 1] - edges[im]);
-          h2AboveCut = h2Above + frac * nodeH2[im];
+          h2AboveCut = h2Above + frac * nodeH2;
           break;
         }
-        above += nodeCount[im];
-        h2Above += nodeH2[im];
+        above += nodeCount;
+        h2Above += nodeH2;
       }
     }
     out.cutLog10M[k] = cut;
