@@ -73,44 +73,65 @@ export function linGridValues(lo: number, hi: number, n: number): number[] {
   return out;
 }
 
+/** What sets one grid built-in apart from another; the arguments lo, hi, n and their checks are shared. */
+interface GridSpacing {
+  name: string;
+  summary: string;
+  /** Unit texts of lo and hi in the documentation. */
+  loUnit: string;
+  hiUnit: string;
+  example: string;
+  /** Checks of the ends that this spacing needs beyond finiteness and a common dimension. */
+  checkEnds?: (fn: string, ends: GridEnds) => void;
+  /** The n points from lo to hi, both included, SI. */
+  values: (lo: number, hi: number, n: number) => number[];
+}
+
+/** A grid built-in: n values from lo to hi keeping the unit of lo, placed by `spacing.values`. */
+function gridBuiltin(spacing: GridSpacing): Builtin {
+  const fn = spacing.name;
+  return {
+    name: fn,
+    category: 'utility',
+    summary: spacing.summary,
+    args: [
+      { name: 'lo', unit: spacing.loUnit, description: 'first value' },
+      { name: 'hi', unit: spacing.hiUnit, description: 'last value' },
+      { name: 'n', unit: 'dimensionless', description: `number of values, 2 to ${MAX_GRID_POINTS}` },
+    ],
+    returns: { unit: 'unit of lo', description: 'list of n values' },
+    source: 'common practice, no source',
+    example: spacing.example,
+    fn: (lo: unknown, hi: unknown, n: unknown) => {
+      const ends = gridEnds(fn, lo, hi);
+      const count = pointCount(fn, n);
+      spacing.checkEnds?.(fn, ends);
+      return withUnit(spacing.values(ends.lo, ends.hi, count), ends.unit);
+    },
+  };
+}
+
 export const utilityBuiltins: Builtin[] = [
-  {
+  gridBuiltin({
     name: 'logGrid',
-    category: 'utility',
     summary: 'n values from lo to hi (both included), evenly spaced in logarithm, keeping the unit of lo',
-    args: [
-      { name: 'lo', unit: 'any (positive)', description: 'first value' },
-      { name: 'hi', unit: 'same as lo (positive)', description: 'last value' },
-      { name: 'n', unit: 'dimensionless', description: `number of values, 2 to ${MAX_GRID_POINTS}` },
-    ],
-    returns: { unit: 'unit of lo', description: 'list of n values' },
-    source: 'common practice, no source',
+    loUnit: 'any (positive)',
+    hiUnit: 'same as lo (positive)',
     example: 'logGrid(1 nHz, 100 nHz, 3) gives [1, 10, 100] nHz',
-    fn: (lo: unknown, hi: unknown, n: unknown) => {
-      const ends = gridEnds('logGrid', lo, hi);
-      const count = pointCount('logGrid', n);
-      if (ends.lo <= 0) throw new BuiltinError(`${where('logGrid', 'lo')} must be positive for a logarithmic grid`);
-      if (ends.hi <= 0) throw new BuiltinError(`${where('logGrid', 'hi')} must be positive for a logarithmic grid`);
-      return withUnit(logGridValues(ends.lo, ends.hi, count), ends.unit);
+    checkEnds: (fn, ends) => {
+      if (ends.lo <= 0) throw new BuiltinError(`${where(fn, 'lo')} must be positive for a logarithmic grid`);
+      if (ends.hi <= 0) throw new BuiltinError(`${where(fn, 'hi')} must be positive for a logarithmic grid`);
     },
-  },
-  {
+    values: logGridValues,
+  }),
+  gridBuiltin({
     name: 'linGrid',
-    category: 'utility',
     summary: 'n values from lo to hi (both included), evenly spaced, keeping the unit of lo',
-    args: [
-      { name: 'lo', unit: 'any', description: 'first value' },
-      { name: 'hi', unit: 'same as lo', description: 'last value' },
-      { name: 'n', unit: 'dimensionless', description: `number of values, 2 to ${MAX_GRID_POINTS}` },
-    ],
-    returns: { unit: 'unit of lo', description: 'list of n values' },
-    source: 'common practice, no source',
+    loUnit: 'any',
+    hiUnit: 'same as lo',
     example: 'linGrid(0, 1, 5) gives [0, 0.25, 0.5, 0.75, 1]',
-    fn: (lo: unknown, hi: unknown, n: unknown) => {
-      const ends = gridEnds('linGrid', lo, hi);
-      return withUnit(linGridValues(ends.lo, ends.hi, pointCount('linGrid', n)), ends.unit);
-    },
-  },
+    values: linGridValues,
+  }),
   {
     name: 'inUnit',
     category: 'utility',
