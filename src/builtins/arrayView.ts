@@ -2,7 +2,7 @@
 // sensitivity curve, the expected S/N of the correlated background and the span that detects it.
 // Units and argument checks happen here; the physics is plain numbers in src/physics.
 import type { Matrix, Unit } from 'mathjs';
-import type { Builtin } from '../sheet/builtin';
+import type { Builtin, BuiltinArg } from '../sheet/builtin';
 import { BuiltinError } from '../sheet/cellError';
 import { math, isUnit, quantity } from '../sheet/mathInstance';
 import { isSheetObject, type SheetObject } from '../sheet/sheetObject';
@@ -17,6 +17,7 @@ import type { Spectrum } from '../physics/spectrum';
 import type { BinaryPopulation } from '../physics/populationTypes';
 import { backgroundSpectrum, type BackgroundOptions } from '../physics/backgroundIntegral';
 import { kindOf, objectOf, requireRange, scalarSI, vectorSI, where } from './args';
+import { threeSignificant as fmt } from './threeSignificant';
 
 /** Most pulsars an array may hold (pair layouts with positions grow as N^2). */
 export const MAX_PULSARS = 2000;
@@ -67,10 +68,6 @@ export class SensitivityCurveValue implements SheetObject, Spectrum {
       skyAveraged: this.curve.skyAveraged,
     };
   }
-}
-
-function fmt(x: number): string {
-  return Number(x.toPrecision(3)).toString();
 }
 
 // ---- argument helpers -----------------------------------------------------------------------
@@ -329,17 +326,22 @@ const hellingsDownsBuiltin: Builtin = {
   },
 };
 
+/** The arguments after the first that pulsarArray and pulsarArrayOnSky share (read by buildArray). */
+const NOISE_ARGS: BuiltinArg[] = [
+  { name: 'precision', unit: 'time (ns), or a list per pulsar', description: 'rms timing precision per observation (tens of ns are typical for millisecond pulsars)' },
+  { name: 'cadence', unit: 'time (d)', description: 'time between observations' },
+  { name: 'span', unit: 'time (yr)', description: 'observing span, at least two cadences' },
+  { name: 'redAmplitude', unit: 'dimensionless, or a list per pulsar', description: 'red-noise amplitude A_red of P = A_red^2/(12 pi^2) f_yr^-3 (f/f_yr)^-gamma', optional: true },
+  { name: 'redGamma', unit: 'dimensionless, or a list per pulsar', description: 'red-noise spectral index gamma (0 to 10); needed with redAmplitude', optional: true },
+];
+
 const pulsarArrayBuiltin: Builtin = {
   name: 'pulsarArray',
   category: 'array',
   summary: 'A timing array of pulsars with white (and optional red) noise, observed at a cadence over a span; sky positions unknown (pair sums use the isotropic-sky expectation).',
   args: [
     { name: 'count', unit: 'dimensionless', description: 'number of pulsars, at least 2' },
-    { name: 'precision', unit: 'time (ns), or a list per pulsar', description: 'rms timing precision per observation (tens of ns are typical for millisecond pulsars)' },
-    { name: 'cadence', unit: 'time (d)', description: 'time between observations' },
-    { name: 'span', unit: 'time (yr)', description: 'observing span, at least two cadences' },
-    { name: 'redAmplitude', unit: 'dimensionless, or a list per pulsar', description: 'red-noise amplitude A_red of P = A_red^2/(12 pi^2) f_yr^-3 (f/f_yr)^-gamma', optional: true },
-    { name: 'redGamma', unit: 'dimensionless, or a list per pulsar', description: 'red-noise spectral index gamma (0 to 10); needed with redAmplitude', optional: true },
+    ...NOISE_ARGS,
   ],
   returns: { unit: 'pulsarArray', description: 'the array, for arraySensitivity, detectionSnr and detectionSpan' },
   source: 'white-noise PSD 2 sigma^2 dt and power-law red noise as in Hazboun, Romano & Smith 2019, PRD 100, 104028 (memory)',
@@ -356,11 +358,7 @@ const pulsarArrayOnSkyBuiltin: Builtin = {
   summary: 'A timing array whose pulsars sit at given sky positions, so each pair carries its own Hellings & Downs factor.',
   args: [
     { name: 'positions', unit: 'list of [right ascension, declination] angles', description: 'one row per pulsar, e.g. [[10 deg, 20 deg], [200 deg, -35 deg]]' },
-    { name: 'precision', unit: 'time (ns), or a list per pulsar', description: 'rms timing precision per observation' },
-    { name: 'cadence', unit: 'time (d)', description: 'time between observations' },
-    { name: 'span', unit: 'time (yr)', description: 'observing span, at least two cadences' },
-    { name: 'redAmplitude', unit: 'dimensionless, or a list per pulsar', description: 'red-noise amplitude A_red', optional: true },
-    { name: 'redGamma', unit: 'dimensionless, or a list per pulsar', description: 'red-noise spectral index gamma (0 to 10)', optional: true },
+    ...NOISE_ARGS,
   ],
   returns: { unit: 'pulsarArray', description: 'the array, for arraySensitivity, detectionSnr and detectionSpan' },
   source: 'Hellings & Downs 1983, ApJ 265, L39 (pair factors); noise as in pulsarArray',

@@ -8,8 +8,7 @@ import type { UncertainDistribution } from '../statistics/distributions';
 import type { BinnedSpectrum } from '../statistics/binnedSpectrum';
 import type { AmplitudeComparison } from '../statistics/comparison';
 import type { RandomSource } from '../statistics/prng';
-
-const g = (x: number) => Number(x.toPrecision(3)).toString();
+import { threeSignificant as g } from './threeSignificant';
 
 function withValue(template: Unit | null, xSI: number): unknown {
   if (!template) return xSI;
