@@ -1,11 +1,11 @@
 // `strainsheet sample FILE --samples N --seed S --output name [--csv out.csv]`: Monte Carlo over every
 // cell with an uncertainty, writing one CSV row per sample and a summary.
 import type { Command } from './commands';
-import { parseOptions, UsageError } from './optionParsing';
+import { UsageError } from './optionParsing';
 import { applySetOptions, loadSheet } from './sheetLoading';
 import { EXIT_BAD_INPUT, EXIT_CELL_ERROR, EXIT_OK } from './exitCodes';
 import { inOwnUnit, unitTextOf } from '../statistics/sheetValues';
-import { csvField, csvNumber, g4, runJobForCommand, writeCsv } from './statisticsCli';
+import { csvField, csvNumber, g4, runJobForCommand, sheetCommandOptions, writeCsv } from './statisticsCli';
 
 const USAGE = `strainsheet sample FILE --samples N --seed S --output name [options]
 
@@ -38,12 +38,8 @@ export const sampleCommand: Command = {
   summary: 'Monte Carlo over the uncertain cells; write samples as CSV and a summary',
   usage: USAGE,
   async run(args, io) {
-    const opts = parseOptions(args, { flags: ['help', 'quiet'], values: ['samples', 'seed', 'output', 'csv', 'against', 'set'] });
-    if (opts.flags.has('help')) {
-      io.out(USAGE + '\n');
-      return EXIT_OK;
-    }
-    if (opts.positional.length !== 1) throw new UsageError(`expected one sheet file, got ${opts.positional.length}`);
+    const opts = sheetCommandOptions(args, ['samples', 'seed', 'output', 'csv', 'against', 'set'], USAGE, io);
+    if (opts === null) return EXIT_OK;
     const samples = wholeNumber(opts.values.get('samples')?.at(-1), '--samples', 1);
     const seed = wholeNumber(opts.values.get('seed')?.at(-1), '--seed', 0);
     const outputs = opts.values.get('output') ?? [];

@@ -1,13 +1,13 @@
 // `strainsheet scan FILE --vary name=lo:hi:n[:log] [--vary ...] --output name [--csv out.csv]`:
 // one input against outputs (with the measured band), or two inputs as a likelihood map.
 import type { Command } from './commands';
-import { parseOptions, UsageError } from './optionParsing';
+import { UsageError } from './optionParsing';
 import { applySetOptions, loadSheet } from './sheetLoading';
 import { EXIT_BAD_INPUT, EXIT_CELL_ERROR, EXIT_OK } from './exitCodes';
 import type { JobSpec } from '../statistics/jobs';
 import { inOwnUnit } from '../statistics/sheetValues';
 import type { AxisPrior } from '../statistics/credibleRegion';
-import { csvField, csvNumber, g4, parseVaryOption, runJobForCommand, writeCsv } from './statisticsCli';
+import { csvField, csvNumber, g4, parseVaryOption, runJobForCommand, sheetCommandOptions, writeCsv } from './statisticsCli';
 
 const USAGE = `strainsheet scan FILE --vary name=lo:hi:n[:log] [--vary name=lo:hi:n[:log]] --output name [options]
 
@@ -34,12 +34,8 @@ export const scanCommand: Command = {
   summary: 'scan one or two inputs and write outputs (or a likelihood map) as CSV',
   usage: USAGE,
   async run(args, io) {
-    const opts = parseOptions(args, { flags: ['help', 'quiet'], values: ['vary', 'output', 'csv', 'against', 'prior', 'set'] });
-    if (opts.flags.has('help')) {
-      io.out(USAGE + '\n');
-      return EXIT_OK;
-    }
-    if (opts.positional.length !== 1) throw new UsageError(`expected one sheet file, got ${opts.positional.length}`);
+    const opts = sheetCommandOptions(args, ['vary', 'output', 'csv', 'against', 'prior', 'set'], USAGE, io);
+    if (opts === null) return EXIT_OK;
     const vary = (opts.values.get('vary') ?? []).map(parseVaryOption);
     if (vary.length < 1 || vary.length > 2) throw new UsageError(`give one or two --vary options, got ${vary.length}`);
     const outputs = opts.values.get('output') ?? [];

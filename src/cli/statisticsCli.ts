@@ -1,10 +1,24 @@
 // Shared pieces of the `scan` and `sample` commands: range parsing, CSV writing, progress and Ctrl-C.
 import { writeFileSync } from 'node:fs';
 import type { CliIO } from './cliIO';
-import { UsageError } from './optionParsing';
+import { parseOptions, UsageError, type ParsedOptions } from './optionParsing';
 import type { Sheet } from '../sheet/sheet';
 import { runJob, type AxisSpec, type JobResult, type JobSpec } from '../statistics/jobs';
 import { JobCancelledError, SheetJobError } from '../statistics/sheetValues';
+
+/**
+ * Options of a command that reads one sheet file, with the flags --help and --quiet and the given
+ * value options. With --help the usage goes to standard output and the result is null.
+ */
+export function sheetCommandOptions(args: readonly string[], values: string[], usage: string, io: CliIO): ParsedOptions | null {
+  const opts = parseOptions(args, { flags: ['help', 'quiet'], values });
+  if (opts.flags.has('help')) {
+    io.out(usage + '\n');
+    return null;
+  }
+  if (opts.positional.length !== 1) throw new UsageError(`expected one sheet file, got ${opts.positional.length}`);
+  return opts;
+}
 
 /** Parses `name=lo:hi:n[:log|:lin]`; lo and hi are numbers (in the cell's display unit) or formula text. */
 export function parseVaryOption(text: string): AxisSpec {
