@@ -53,13 +53,11 @@ describe('two-input scan, demo circular model', () => {
 
 // rate_norm uncertain only: one evaluation serves every sample (the sqrt factor).
 const mcRateOnly = demo({ rate_norm: { uncertainty: 'lognormalDist(1.2e-3 Mpc^-3 Gyr^-1, 0.3)' }, mass_slope: { uncertainty: undefined } });
-// rate_norm and mass_slope uncertain: every sample evaluates the population again. A_yr is taken
-// at the one frequency f_yr from the population (amplitudeAtYear(pop)), the same number the demo
-// gets through its 40-frequency spectrum (which costs about 40 times more per sample).
+// rate_norm and mass_slope uncertain: every sample evaluates the population again; the demo's
+// A_yr is taken at the one frequency f_yr from the population (amplitudeAtYear(pop)).
 const mcTwo = demo({
   rate_norm: { uncertainty: 'lognormalDist(1.2e-3 Mpc^-3 Gyr^-1, 0.3)' },
   mass_slope: { uncertainty: 'normalDist(0.25, 0.1)' },
-  A_yr: { formula: 'amplitudeAtYear(pop)' },
 });
 
 describe('Monte Carlo, demo circular model', () => {
