@@ -22,7 +22,7 @@ import {
 import { finiteBinaryBins, type FiniteBinaryResult } from '../physics/finiteBinaries';
 import type { EmissionKernel } from '../physics/populationTypes';
 import { functionOf, objectOf, scalarSI, vectorSI, where } from './args';
-import { cosmologyArg, elementwise, populationArg, positiveSI } from './physicsArgs';
+import { cosmologyArg, elementwise, guardedPhysics, populationArg, positiveSI } from './physicsArgs';
 import { SpectrumValue, type EmissionValue } from './spectrumValue';
 import { spectrumBuiltins } from './spectrum';
 
@@ -30,17 +30,6 @@ const PETERS_MATHEWS = 'Peters & Mathews 1963, Phys. Rev. 131, 435';
 const PETERS = 'Peters 1964, Phys. Rev. 136, B1224';
 const ENOKI = 'Enoki & Nagashima 2007, Prog. Theor. Phys. 117, 241';
 const SVC = 'Sesana, Vecchio & Colacino 2008, MNRAS 390, 192';
-
-/** Runs a physics routine, turning its RangeError into a BuiltinError that names the built-in. */
-export function guardedPhysics<T>(fn: string, run: () => T): T {
-  try {
-    return run();
-  } catch (e) {
-    if (e instanceof BuiltinError) throw e;
-    if (e instanceof RangeError) throw new BuiltinError(`${fn}: ${e.message}`);
-    throw e;
-  }
-}
 
 /** An eccentricity in [0, limit) (limit 1 unless given), from a plain number or a dimensionless quantity. */
 export function eccentricityArg(v: unknown, fn: string, arg: string, limit = 1, closedAtLimit = false): number {

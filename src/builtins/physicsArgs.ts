@@ -69,3 +69,14 @@ function describeValue(v: unknown, dim: Dimension): string {
   }
   return kindOf(v).replace(/^the (number|quantity) /, '');
 }
+
+/** Runs a physics routine, turning its RangeError into a BuiltinError that names the built-in. */
+export function guardedPhysics<T>(fn: string, run: () => T): T {
+  try {
+    return run();
+  } catch (e) {
+    if (e instanceof BuiltinError) throw e;
+    if (e instanceof RangeError) throw new BuiltinError(`${fn}: ${e.message}`);
+    throw e;
+  }
+}

@@ -11,22 +11,11 @@ import { alphaFromGamma, equivalentResidual, gammaFromAlpha, localSpectralSlope,
 import { iscoGwFrequencyHz } from '../physics/circularKernel';
 import { chirpMassOrigin, redshiftOrigin, type OriginProfile } from '../physics/signalOrigin';
 import { objectOf, scalarSI, vectorSI, where } from './args';
-import { elementwise, countArg, isList, populationArg, positiveSI } from './physicsArgs';
+import { elementwise, countArg, guardedPhysics, isList, populationArg, positiveSI } from './physicsArgs';
 import { isEmissionValue, SpectrumValue, type SpectrumSeries } from './spectrumValue';
 import type { PopulationValue } from './populationValue';
 
 const PHINNEY = 'Phinney 2001, astro-ph/0108028';
-
-/** Runs a physics routine, turning its RangeError into a BuiltinError that names the built-in. */
-function guarded<T>(fn: string, run: () => T): T {
-  try {
-    return run();
-  } catch (e) {
-    if (e instanceof BuiltinError) throw e;
-    if (e instanceof RangeError) throw new BuiltinError(`${fn}: ${e.message}`);
-    throw e;
-  }
-}
 
 function emissionOptions(v: unknown, fn: string): { options: BackgroundOptions; label?: string } {
   if (v === undefined) return { options: {} };
@@ -54,8 +43,8 @@ function spectrumArg(v: unknown, fn: string): SpectrumValue {
 
 /** h_c^2 at frequency f for a spectrum: exact from its population when known, else interpolated. */
 function strainOfSpectrum(s: SpectrumValue, fHz: number, fn: string): number {
-  if (s.origin) return Math.sqrt(guarded(fn, () => characteristicStrainSquared(s.origin!.population, [fHz], s.origin!.options))[0]);
-  return guarded(fn, () => strainAtFrequency(s.spectrum, fHz));
+  if (s.origin) return Math.sqrt(guardedPhysics(fn, () => characteristicStrainSquared(s.origin!.population, [fHz], s.origin!.options))[0]);
+  return guardedPhysics(fn, () => strainAtFrequency(s.spectrum, fHz));
 }
 
 class OriginValue implements SheetObject {
@@ -82,7 +71,7 @@ function originOf(variable: 'z' | 'log10Mc', population: unknown, frequency: unk
   const f = frequency === undefined ? F_YR_HZ : positiveSI(frequency, 'frequency', fn, 'frequency');
   const { options } = emissionOptions(emission, fn);
   const opts = { kernel: options.kernel, cutFactor: options.cutFactor };
-  const profile = guarded(fn, () => (variable === 'z' ? redshiftOrigin(p.population, f, opts) : chirpMassOrigin(p.population, f, opts)));
+  const profile = guardedPhysics(fn, () => (variable === 'z' ? redshiftOrigin(p.population, f, opts) : chirpMassOrigin(p.population, f, opts)));
   if (!(profile.total > 0)) throw new BuiltinError(`${fn}: the population gives no signal at ${f} Hz`);
   return new OriginValue(variable, profile, f);
 }
@@ -109,7 +98,7 @@ export const spectrumBuiltins: Builtin[] = [
       const dt = positiveSI(cadence, 'time', fn, 'cadence');
       const n = maxCount === undefined ? Infinity : countArg(maxCount, fn, 'maxCount', 100_000);
       if (!(dt < t / 2)) throw new BuiltinError(`${where(fn, 'cadence')} must be shorter than half the span`);
-      return hzList(guarded(fn, () => frequencyGridFromSpan(t, dt, n)));
+      return hzList(guardedPhysics(fn, () => frequencyGridFromSpan(t, dt, n)));
     },
   },
   {
@@ -151,7 +140,7 @@ export const spectrumBuiltins: Builtin[] = [
       const p = populationArg(population, fn) as PopulationValue;
       const f = frequenciesArg(freqs, fn, 'freqs');
       const { options, label } = emissionOptions(emission, fn);
-      const s = guarded(fn, () => backgroundSpectrum(p.population, f, options));
+      const s = guardedPhysics(fn, () => backgroundSpectrum(p.population, f, options));
       const series: Record<string, SpectrumSeries> = {};
       if (p.cosmology) series.omegaGw = { unit: '', description: 'Omega_gw(f)', values: s.hc.map((h, i) => omegaGw(f[i], h, p.cosmology!.hubbleSI)) };
       series.residualPsd = { unit: 's^3', description: 'one-sided timing-residual PSD', values: s.hc.map((h, i) => residualPowerSpectralDensity(f[i], h)) };
@@ -208,7 +197,7 @@ export const spectrumBuiltins: Builtin[] = [
       if (typeof source === 'object' && source !== null && (source as SheetObject).kind === 'population') {
         const p = populationArg(source, fn, 'source');
         const { options } = emissionOptions(emission, fn);
-        return Math.sqrt(guarded(fn, () => characteristicStrainSquared(p.population, [F_YR_HZ], options))[0]);
+        return Math.sqrt(guardedPhysics(fn, () => characteristicStrainSquared(p.population, [F_YR_HZ], options))[0]);
       }
       if (emission !== undefined) throw new BuiltinError(`${where(fn, 'emission')} is only used with a population; a spectrum already has its emission`);
       const s = objectOf<SpectrumValue>(source, 'spectrum', fn, 'source');
