@@ -15,4 +15,7 @@ await build({
   outfile: `${root}dist-cli/strainsheet.mjs`,
   logLevel: 'warning',
   legalComments: 'none',
+  // Whitespace and syntax only: identifiers keep their names, so stack traces stay readable.
+  minifyWhitespace: true,
+  minifySyntax: true,
 });
