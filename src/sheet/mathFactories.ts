@@ -3,478 +3,689 @@
 // The mathjs factories the formula language needs (201 of the 402 names of the full
 // namespace), so that start-up builds and bundles only these.
 import {
-  AccessorNodeDependencies,
-  ArrayNodeDependencies,
-  AssignmentNodeDependencies,
-  BigNumberDependencies,
-  BlockNodeDependencies,
-  ComplexDependencies,
-  ConditionalNodeDependencies,
-  ConstantNodeDependencies,
-  DenseMatrixDependencies,
-  EDependencies,
-  FibonacciHeapDependencies,
-  FractionDependencies,
-  FunctionAssignmentNodeDependencies,
-  FunctionNodeDependencies,
-  ImmutableDenseMatrixDependencies,
-  IndexDependencies,
-  IndexNodeDependencies,
-  InfinityDependencies,
-  LN10Dependencies,
-  LN2Dependencies,
-  LOG10EDependencies,
-  LOG2EDependencies,
-  MatrixDependencies,
-  NaNDependencies,
-  NodeDependencies,
-  ObjectNodeDependencies,
-  OperatorNodeDependencies,
-  PIDependencies,
-  ParenthesisNodeDependencies,
-  RangeNodeDependencies,
-  RelationalNodeDependencies,
-  ResultSetDependencies,
-  SQRT1_2Dependencies,
-  SQRT2Dependencies,
-  SpaDependencies,
-  SparseMatrixDependencies,
-  SymbolNodeDependencies,
-  UnitDependencies,
-  absDependencies,
-  acosDependencies,
-  acoshDependencies,
-  acotDependencies,
-  acscDependencies,
-  addDependencies,
-  addScalarDependencies,
-  andDependencies,
-  andTransformDependencies,
-  argDependencies,
-  asecDependencies,
-  asinDependencies,
-  asinhDependencies,
-  atan2Dependencies,
-  atanDependencies,
-  atanhDependencies,
-  bignumberDependencies,
-  bitAndDependencies,
-  bitAndTransformDependencies,
-  bitNotDependencies,
-  bitOrDependencies,
-  bitOrTransformDependencies,
-  bitXorDependencies,
-  cbrtDependencies,
-  ceilDependencies,
-  columnDependencies,
-  columnTransformDependencies,
-  compareDependencies,
-  compareNaturalDependencies,
-  complexDependencies,
-  concatDependencies,
-  concatTransformDependencies,
-  conjDependencies,
-  cosDependencies,
-  coshDependencies,
-  cotDependencies,
-  countDependencies,
-  createUnitDependencies,
-  crossDependencies,
-  cscDependencies,
-  ctransposeDependencies,
-  cubeDependencies,
-  cumsumDependencies,
-  cumsumTransformDependencies,
-  deepEqualDependencies,
-  detDependencies,
-  diagDependencies,
-  diffDependencies,
-  diffTransformDependencies,
-  divideDependencies,
-  divideScalarDependencies,
-  dotDependencies,
-  dotDivideDependencies,
-  dotMultiplyDependencies,
-  dotPowDependencies,
-  eDependencies,
-  eigsDependencies,
-  equalDependencies,
-  equalScalarDependencies,
-  erfDependencies,
-  expDependencies,
-  expm1Dependencies,
-  factorialDependencies,
-  falseDependencies,
-  filterDependencies,
-  filterTransformDependencies,
-  fixDependencies,
-  flattenDependencies,
-  floorDependencies,
-  forEachDependencies,
-  forEachTransformDependencies,
-  formatDependencies,
-  fractionDependencies,
-  gammaDependencies,
-  gcdDependencies,
-  getMatrixDataTypeDependencies,
-  hypotDependencies,
-  iDependencies,
-  identityDependencies,
-  imDependencies,
-  indexDependencies,
-  indexTransformDependencies,
-  invDependencies,
-  isBoundedDependencies,
-  isFiniteDependencies,
-  isIntegerDependencies,
-  isNaNDependencies,
-  isNegativeDependencies,
-  isNumericDependencies,
-  isPositiveDependencies,
-  isZeroDependencies,
-  largerDependencies,
-  largerEqDependencies,
-  lcmDependencies,
-  leftShiftDependencies,
-  lgammaDependencies,
-  log10Dependencies,
-  log1pDependencies,
-  log2Dependencies,
-  logDependencies,
-  lsolveDependencies,
-  lupDependencies,
-  lusolveDependencies,
-  madDependencies,
-  mapDependencies,
-  mapSlicesDependencies,
-  mapSlicesTransformDependencies,
-  mapTransformDependencies,
-  matrixDependencies,
-  matrixFromColumnsDependencies,
-  maxDependencies,
-  maxTransformDependencies,
-  meanDependencies,
-  meanTransformDependencies,
-  medianDependencies,
-  minDependencies,
-  minTransformDependencies,
-  modDependencies,
-  multiplyDependencies,
-  multiplyScalarDependencies,
-  normDependencies,
-  notDependencies,
-  nthRootDependencies,
-  nullDependencies,
-  nullishDependencies,
-  nullishTransformDependencies,
-  numberDependencies,
-  numericDependencies,
-  orDependencies,
-  orTransformDependencies,
-  parseDependencies,
-  partitionSelectDependencies,
-  phiDependencies,
-  piDependencies,
-  powDependencies,
-  prodDependencies,
-  qrDependencies,
-  quantileSeqDependencies,
-  quantileSeqTransformDependencies,
-  rangeDependencies,
-  rangeTransformDependencies,
-  reDependencies,
-  reshapeDependencies,
-  rightArithShiftDependencies,
-  rightLogShiftDependencies,
-  roundDependencies,
-  rowDependencies,
-  rowTransformDependencies,
-  secDependencies,
-  signDependencies,
-  sinDependencies,
-  sinhDependencies,
-  sizeDependencies,
-  sluDependencies,
-  smallerDependencies,
-  smallerEqDependencies,
-  sortDependencies,
-  sqrtDependencies,
-  squareDependencies,
-  squeezeDependencies,
-  stdDependencies,
-  stdTransformDependencies,
-  subsetDependencies,
-  subsetTransformDependencies,
-  subtractDependencies,
-  subtractScalarDependencies,
-  sumDependencies,
-  sumTransformDependencies,
-  tanDependencies,
-  tanhDependencies,
-  tauDependencies,
-  toDependencies,
-  traceDependencies,
-  transposeDependencies,
-  trueDependencies,
-  typeOfDependencies,
-  typedDependencies,
-  unaryMinusDependencies,
-  unaryPlusDependencies,
-  unequalDependencies,
-  unitDependencies,
-  usolveAllDependencies,
-  usolveDependencies,
-  varianceDependencies,
-  varianceTransformDependencies,
-  xorDependencies,
-  zerosDependencies,
+  createAbs,
+  createAccessorNode,
+  createAcos,
+  createAcosh,
+  createAcot,
+  createAcsc,
+  createAdd,
+  createAddScalar,
+  createAnd,
+  createAndTransform,
+  createArg,
+  createArrayNode,
+  createAsec,
+  createAsin,
+  createAsinh,
+  createAssignmentNode,
+  createAtan,
+  createAtan2,
+  createAtanh,
+  createBigNumberClass,
+  createBignumber,
+  createBitAnd,
+  createBitAndTransform,
+  createBitNot,
+  createBitOr,
+  createBitOrTransform,
+  createBitXor,
+  createBlockNode,
+  createCbrt,
+  createCeil,
+  createColumn,
+  createColumnTransform,
+  createCompare,
+  createCompareNatural,
+  createComplex,
+  createComplexClass,
+  createConcat,
+  createConcatTransform,
+  createConditionalNode,
+  createConj,
+  createConstantNode,
+  createCos,
+  createCosh,
+  createCot,
+  createCount,
+  createCreateUnit,
+  createCross,
+  createCsc,
+  createCtranspose,
+  createCube,
+  createCumSum,
+  createCumSumTransform,
+  createDeepEqual,
+  createDenseMatrixClass,
+  createDet,
+  createDiag,
+  createDiff,
+  createDiffTransform,
+  createDivide,
+  createDivideScalar,
+  createDot,
+  createDotDivide,
+  createDotMultiply,
+  createDotPow,
+  createE,
+  createEigs,
+  createEqual,
+  createEqualScalar,
+  createErf,
+  createExp,
+  createExpm1,
+  createFactorial,
+  createFalse,
+  createFibonacciHeapClass,
+  createFilter,
+  createFilterTransform,
+  createFix,
+  createFlatten,
+  createFloor,
+  createForEach,
+  createForEachTransform,
+  createFormat,
+  createFraction,
+  createFractionClass,
+  createFunctionAssignmentNode,
+  createFunctionNode,
+  createGamma,
+  createGcd,
+  createGetMatrixDataType,
+  createHypot,
+  createI,
+  createIdentity,
+  createIm,
+  createImmutableDenseMatrixClass,
+  createIndex,
+  createIndexClass,
+  createIndexNode,
+  createIndexTransform,
+  createInfinity,
+  createInv,
+  createIsBounded,
+  createIsFinite,
+  createIsInteger,
+  createIsNaN,
+  createIsNegative,
+  createIsNumeric,
+  createIsPositive,
+  createIsZero,
+  createLN10,
+  createLN2,
+  createLOG10E,
+  createLOG2E,
+  createLarger,
+  createLargerEq,
+  createLcm,
+  createLeftShift,
+  createLgamma,
+  createLog,
+  createLog10,
+  createLog1p,
+  createLog2,
+  createLsolve,
+  createLup,
+  createLusolve,
+  createMad,
+  createMap,
+  createMapSlices,
+  createMapSlicesTransform,
+  createMapTransform,
+  createMatrix,
+  createMatrixClass,
+  createMatrixFromColumns,
+  createMax,
+  createMaxTransform,
+  createMean,
+  createMeanTransform,
+  createMedian,
+  createMin,
+  createMinTransform,
+  createMod,
+  createMultiply,
+  createMultiplyScalar,
+  createNaN,
+  createNode,
+  createNorm,
+  createNot,
+  createNthRoot,
+  createNull,
+  createNullish,
+  createNullishTransform,
+  createNumber,
+  createNumeric,
+  createObjectNode,
+  createOperatorNode,
+  createOr,
+  createOrTransform,
+  createParenthesisNode,
+  createParse,
+  createPartitionSelect,
+  createPhi,
+  createPi,
+  createPow,
+  createProd,
+  createQr,
+  createQuantileSeq,
+  createQuantileSeqTransform,
+  createRange,
+  createRangeNode,
+  createRangeTransform,
+  createRe,
+  createRelationalNode,
+  createReshape,
+  createResultSet,
+  createRightArithShift,
+  createRightLogShift,
+  createRound,
+  createRow,
+  createRowTransform,
+  createSQRT1_2,
+  createSQRT2,
+  createSec,
+  createSign,
+  createSin,
+  createSinh,
+  createSize,
+  createSlu,
+  createSmaller,
+  createSmallerEq,
+  createSort,
+  createSpaClass,
+  createSparseMatrixClass,
+  createSqrt,
+  createSquare,
+  createSqueeze,
+  createStd,
+  createStdTransform,
+  createSubset,
+  createSubsetTransform,
+  createSubtract,
+  createSubtractScalar,
+  createSum,
+  createSumTransform,
+  createSymbolNode,
+  createTan,
+  createTanh,
+  createTau,
+  createTo,
+  createTrace,
+  createTranspose,
+  createTrue,
+  createTypeOf,
+  createTyped,
+  createUnaryMinus,
+  createUnaryPlus,
+  createUnequal,
+  createUnitClass,
+  createUnitFunction,
+  createUppercaseE,
+  createUppercasePi,
+  createUsolve,
+  createUsolveAll,
+  createVariance,
+  createVarianceTransform,
+  createXor,
+  createZeros,
 } from 'mathjs';
-import type { FactoryFunctionMap } from 'mathjs';
+import type { FactoryFunction } from 'mathjs';
 
 // Exported by mathjs but missing from its type declarations.
 declare module 'mathjs' {
-  export const EDependencies: FactoryFunctionMap;
-  export const NaNDependencies: FactoryFunctionMap;
-  export const PIDependencies: FactoryFunctionMap;
-  export const bitAndTransformDependencies: FactoryFunctionMap;
-  export const bitOrTransformDependencies: FactoryFunctionMap;
-  export const cumsumTransformDependencies: FactoryFunctionMap;
-  export const diffTransformDependencies: FactoryFunctionMap;
-  export const falseDependencies: FactoryFunctionMap;
-  export const nullDependencies: FactoryFunctionMap;
-  export const nullishTransformDependencies: FactoryFunctionMap;
-  export const quantileSeqTransformDependencies: FactoryFunctionMap;
-  export const subtractScalarDependencies: FactoryFunctionMap;
-  export const trueDependencies: FactoryFunctionMap;
-  export const usolveAllDependencies: FactoryFunctionMap;
+  export const createAbs: FactoryFunction<unknown>;
+  export const createAccessorNode: FactoryFunction<unknown>;
+  export const createAcos: FactoryFunction<unknown>;
+  export const createAcosh: FactoryFunction<unknown>;
+  export const createAcot: FactoryFunction<unknown>;
+  export const createAcsc: FactoryFunction<unknown>;
+  export const createAdd: FactoryFunction<unknown>;
+  export const createAddScalar: FactoryFunction<unknown>;
+  export const createAnd: FactoryFunction<unknown>;
+  export const createAndTransform: FactoryFunction<unknown>;
+  export const createArg: FactoryFunction<unknown>;
+  export const createArrayNode: FactoryFunction<unknown>;
+  export const createAsec: FactoryFunction<unknown>;
+  export const createAsin: FactoryFunction<unknown>;
+  export const createAsinh: FactoryFunction<unknown>;
+  export const createAssignmentNode: FactoryFunction<unknown>;
+  export const createAtan: FactoryFunction<unknown>;
+  export const createAtan2: FactoryFunction<unknown>;
+  export const createAtanh: FactoryFunction<unknown>;
+  export const createBigNumberClass: FactoryFunction<unknown>;
+  export const createBignumber: FactoryFunction<unknown>;
+  export const createBitAnd: FactoryFunction<unknown>;
+  export const createBitAndTransform: FactoryFunction<unknown>;
+  export const createBitNot: FactoryFunction<unknown>;
+  export const createBitOr: FactoryFunction<unknown>;
+  export const createBitOrTransform: FactoryFunction<unknown>;
+  export const createBitXor: FactoryFunction<unknown>;
+  export const createBlockNode: FactoryFunction<unknown>;
+  export const createCbrt: FactoryFunction<unknown>;
+  export const createCeil: FactoryFunction<unknown>;
+  export const createColumn: FactoryFunction<unknown>;
+  export const createColumnTransform: FactoryFunction<unknown>;
+  export const createCompare: FactoryFunction<unknown>;
+  export const createCompareNatural: FactoryFunction<unknown>;
+  export const createComplex: FactoryFunction<unknown>;
+  export const createComplexClass: FactoryFunction<unknown>;
+  export const createConcat: FactoryFunction<unknown>;
+  export const createConcatTransform: FactoryFunction<unknown>;
+  export const createConditionalNode: FactoryFunction<unknown>;
+  export const createConj: FactoryFunction<unknown>;
+  export const createConstantNode: FactoryFunction<unknown>;
+  export const createCos: FactoryFunction<unknown>;
+  export const createCosh: FactoryFunction<unknown>;
+  export const createCot: FactoryFunction<unknown>;
+  export const createCount: FactoryFunction<unknown>;
+  export const createCreateUnit: FactoryFunction<unknown>;
+  export const createCross: FactoryFunction<unknown>;
+  export const createCsc: FactoryFunction<unknown>;
+  export const createCtranspose: FactoryFunction<unknown>;
+  export const createCube: FactoryFunction<unknown>;
+  export const createCumSum: FactoryFunction<unknown>;
+  export const createCumSumTransform: FactoryFunction<unknown>;
+  export const createDeepEqual: FactoryFunction<unknown>;
+  export const createDenseMatrixClass: FactoryFunction<unknown>;
+  export const createDet: FactoryFunction<unknown>;
+  export const createDiag: FactoryFunction<unknown>;
+  export const createDiff: FactoryFunction<unknown>;
+  export const createDiffTransform: FactoryFunction<unknown>;
+  export const createDivide: FactoryFunction<unknown>;
+  export const createDivideScalar: FactoryFunction<unknown>;
+  export const createDot: FactoryFunction<unknown>;
+  export const createDotDivide: FactoryFunction<unknown>;
+  export const createDotMultiply: FactoryFunction<unknown>;
+  export const createDotPow: FactoryFunction<unknown>;
+  export const createE: FactoryFunction<unknown>;
+  export const createEigs: FactoryFunction<unknown>;
+  export const createEqual: FactoryFunction<unknown>;
+  export const createEqualScalar: FactoryFunction<unknown>;
+  export const createErf: FactoryFunction<unknown>;
+  export const createExp: FactoryFunction<unknown>;
+  export const createExpm1: FactoryFunction<unknown>;
+  export const createFactorial: FactoryFunction<unknown>;
+  export const createFalse: FactoryFunction<unknown>;
+  export const createFibonacciHeapClass: FactoryFunction<unknown>;
+  export const createFilter: FactoryFunction<unknown>;
+  export const createFilterTransform: FactoryFunction<unknown>;
+  export const createFix: FactoryFunction<unknown>;
+  export const createFlatten: FactoryFunction<unknown>;
+  export const createFloor: FactoryFunction<unknown>;
+  export const createForEach: FactoryFunction<unknown>;
+  export const createForEachTransform: FactoryFunction<unknown>;
+  export const createFormat: FactoryFunction<unknown>;
+  export const createFraction: FactoryFunction<unknown>;
+  export const createFractionClass: FactoryFunction<unknown>;
+  export const createFunctionAssignmentNode: FactoryFunction<unknown>;
+  export const createFunctionNode: FactoryFunction<unknown>;
+  export const createGamma: FactoryFunction<unknown>;
+  export const createGcd: FactoryFunction<unknown>;
+  export const createGetMatrixDataType: FactoryFunction<unknown>;
+  export const createHypot: FactoryFunction<unknown>;
+  export const createI: FactoryFunction<unknown>;
+  export const createIdentity: FactoryFunction<unknown>;
+  export const createIm: FactoryFunction<unknown>;
+  export const createImmutableDenseMatrixClass: FactoryFunction<unknown>;
+  export const createIndex: FactoryFunction<unknown>;
+  export const createIndexClass: FactoryFunction<unknown>;
+  export const createIndexNode: FactoryFunction<unknown>;
+  export const createIndexTransform: FactoryFunction<unknown>;
+  export const createInfinity: FactoryFunction<unknown>;
+  export const createInv: FactoryFunction<unknown>;
+  export const createIsBounded: FactoryFunction<unknown>;
+  export const createIsFinite: FactoryFunction<unknown>;
+  export const createIsInteger: FactoryFunction<unknown>;
+  export const createIsNaN: FactoryFunction<unknown>;
+  export const createIsNegative: FactoryFunction<unknown>;
+  export const createIsNumeric: FactoryFunction<unknown>;
+  export const createIsPositive: FactoryFunction<unknown>;
+  export const createIsZero: FactoryFunction<unknown>;
+  export const createLN10: FactoryFunction<unknown>;
+  export const createLN2: FactoryFunction<unknown>;
+  export const createLOG10E: FactoryFunction<unknown>;
+  export const createLOG2E: FactoryFunction<unknown>;
+  export const createLarger: FactoryFunction<unknown>;
+  export const createLargerEq: FactoryFunction<unknown>;
+  export const createLcm: FactoryFunction<unknown>;
+  export const createLeftShift: FactoryFunction<unknown>;
+  export const createLgamma: FactoryFunction<unknown>;
+  export const createLog: FactoryFunction<unknown>;
+  export const createLog10: FactoryFunction<unknown>;
+  export const createLog1p: FactoryFunction<unknown>;
+  export const createLog2: FactoryFunction<unknown>;
+  export const createLsolve: FactoryFunction<unknown>;
+  export const createLup: FactoryFunction<unknown>;
+  export const createLusolve: FactoryFunction<unknown>;
+  export const createMad: FactoryFunction<unknown>;
+  export const createMap: FactoryFunction<unknown>;
+  export const createMapSlices: FactoryFunction<unknown>;
+  export const createMapSlicesTransform: FactoryFunction<unknown>;
+  export const createMapTransform: FactoryFunction<unknown>;
+  export const createMatrix: FactoryFunction<unknown>;
+  export const createMatrixClass: FactoryFunction<unknown>;
+  export const createMatrixFromColumns: FactoryFunction<unknown>;
+  export const createMax: FactoryFunction<unknown>;
+  export const createMaxTransform: FactoryFunction<unknown>;
+  export const createMean: FactoryFunction<unknown>;
+  export const createMeanTransform: FactoryFunction<unknown>;
+  export const createMedian: FactoryFunction<unknown>;
+  export const createMin: FactoryFunction<unknown>;
+  export const createMinTransform: FactoryFunction<unknown>;
+  export const createMod: FactoryFunction<unknown>;
+  export const createMultiply: FactoryFunction<unknown>;
+  export const createMultiplyScalar: FactoryFunction<unknown>;
+  export const createNaN: FactoryFunction<unknown>;
+  export const createNode: FactoryFunction<unknown>;
+  export const createNorm: FactoryFunction<unknown>;
+  export const createNot: FactoryFunction<unknown>;
+  export const createNthRoot: FactoryFunction<unknown>;
+  export const createNull: FactoryFunction<unknown>;
+  export const createNullish: FactoryFunction<unknown>;
+  export const createNullishTransform: FactoryFunction<unknown>;
+  export const createNumber: FactoryFunction<unknown>;
+  export const createNumeric: FactoryFunction<unknown>;
+  export const createObjectNode: FactoryFunction<unknown>;
+  export const createOperatorNode: FactoryFunction<unknown>;
+  export const createOr: FactoryFunction<unknown>;
+  export const createOrTransform: FactoryFunction<unknown>;
+  export const createParenthesisNode: FactoryFunction<unknown>;
+  export const createParse: FactoryFunction<unknown>;
+  export const createPartitionSelect: FactoryFunction<unknown>;
+  export const createPhi: FactoryFunction<unknown>;
+  export const createPi: FactoryFunction<unknown>;
+  export const createPow: FactoryFunction<unknown>;
+  export const createProd: FactoryFunction<unknown>;
+  export const createQr: FactoryFunction<unknown>;
+  export const createQuantileSeq: FactoryFunction<unknown>;
+  export const createQuantileSeqTransform: FactoryFunction<unknown>;
+  export const createRange: FactoryFunction<unknown>;
+  export const createRangeNode: FactoryFunction<unknown>;
+  export const createRangeTransform: FactoryFunction<unknown>;
+  export const createRe: FactoryFunction<unknown>;
+  export const createRelationalNode: FactoryFunction<unknown>;
+  export const createReshape: FactoryFunction<unknown>;
+  export const createResultSet: FactoryFunction<unknown>;
+  export const createRightArithShift: FactoryFunction<unknown>;
+  export const createRightLogShift: FactoryFunction<unknown>;
+  export const createRound: FactoryFunction<unknown>;
+  export const createRow: FactoryFunction<unknown>;
+  export const createRowTransform: FactoryFunction<unknown>;
+  export const createSQRT1_2: FactoryFunction<unknown>;
+  export const createSQRT2: FactoryFunction<unknown>;
+  export const createSec: FactoryFunction<unknown>;
+  export const createSign: FactoryFunction<unknown>;
+  export const createSin: FactoryFunction<unknown>;
+  export const createSinh: FactoryFunction<unknown>;
+  export const createSize: FactoryFunction<unknown>;
+  export const createSlu: FactoryFunction<unknown>;
+  export const createSmaller: FactoryFunction<unknown>;
+  export const createSmallerEq: FactoryFunction<unknown>;
+  export const createSort: FactoryFunction<unknown>;
+  export const createSpaClass: FactoryFunction<unknown>;
+  export const createSparseMatrixClass: FactoryFunction<unknown>;
+  export const createSqrt: FactoryFunction<unknown>;
+  export const createSquare: FactoryFunction<unknown>;
+  export const createSqueeze: FactoryFunction<unknown>;
+  export const createStd: FactoryFunction<unknown>;
+  export const createStdTransform: FactoryFunction<unknown>;
+  export const createSubset: FactoryFunction<unknown>;
+  export const createSubsetTransform: FactoryFunction<unknown>;
+  export const createSubtract: FactoryFunction<unknown>;
+  export const createSubtractScalar: FactoryFunction<unknown>;
+  export const createSum: FactoryFunction<unknown>;
+  export const createSumTransform: FactoryFunction<unknown>;
+  export const createSymbolNode: FactoryFunction<unknown>;
+  export const createTan: FactoryFunction<unknown>;
+  export const createTanh: FactoryFunction<unknown>;
+  export const createTau: FactoryFunction<unknown>;
+  export const createTo: FactoryFunction<unknown>;
+  export const createTrace: FactoryFunction<unknown>;
+  export const createTranspose: FactoryFunction<unknown>;
+  export const createTrue: FactoryFunction<unknown>;
+  export const createTypeOf: FactoryFunction<unknown>;
+  export const createTyped: FactoryFunction<unknown>;
+  export const createUnaryMinus: FactoryFunction<unknown>;
+  export const createUnaryPlus: FactoryFunction<unknown>;
+  export const createUnequal: FactoryFunction<unknown>;
+  export const createUnitClass: FactoryFunction<unknown>;
+  export const createUnitFunction: FactoryFunction<unknown>;
+  export const createUppercaseE: FactoryFunction<unknown>;
+  export const createUppercasePi: FactoryFunction<unknown>;
+  export const createUsolve: FactoryFunction<unknown>;
+  export const createUsolveAll: FactoryFunction<unknown>;
+  export const createVariance: FactoryFunction<unknown>;
+  export const createVarianceTransform: FactoryFunction<unknown>;
+  export const createXor: FactoryFunction<unknown>;
+  export const createZeros: FactoryFunction<unknown>;
 }
 
 export const MATH_FACTORIES = {
-  AccessorNodeDependencies,
-  ArrayNodeDependencies,
-  AssignmentNodeDependencies,
-  BigNumberDependencies,
-  BlockNodeDependencies,
-  ComplexDependencies,
-  ConditionalNodeDependencies,
-  ConstantNodeDependencies,
-  DenseMatrixDependencies,
-  EDependencies,
-  FibonacciHeapDependencies,
-  FractionDependencies,
-  FunctionAssignmentNodeDependencies,
-  FunctionNodeDependencies,
-  ImmutableDenseMatrixDependencies,
-  IndexDependencies,
-  IndexNodeDependencies,
-  InfinityDependencies,
-  LN10Dependencies,
-  LN2Dependencies,
-  LOG10EDependencies,
-  LOG2EDependencies,
-  MatrixDependencies,
-  NaNDependencies,
-  NodeDependencies,
-  ObjectNodeDependencies,
-  OperatorNodeDependencies,
-  PIDependencies,
-  ParenthesisNodeDependencies,
-  RangeNodeDependencies,
-  RelationalNodeDependencies,
-  ResultSetDependencies,
-  SQRT1_2Dependencies,
-  SQRT2Dependencies,
-  SpaDependencies,
-  SparseMatrixDependencies,
-  SymbolNodeDependencies,
-  UnitDependencies,
-  absDependencies,
-  acosDependencies,
-  acoshDependencies,
-  acotDependencies,
-  acscDependencies,
-  addDependencies,
-  addScalarDependencies,
-  andDependencies,
-  andTransformDependencies,
-  argDependencies,
-  asecDependencies,
-  asinDependencies,
-  asinhDependencies,
-  atan2Dependencies,
-  atanDependencies,
-  atanhDependencies,
-  bignumberDependencies,
-  bitAndDependencies,
-  bitAndTransformDependencies,
-  bitNotDependencies,
-  bitOrDependencies,
-  bitOrTransformDependencies,
-  bitXorDependencies,
-  cbrtDependencies,
-  ceilDependencies,
-  columnDependencies,
-  columnTransformDependencies,
-  compareDependencies,
-  compareNaturalDependencies,
-  complexDependencies,
-  concatDependencies,
-  concatTransformDependencies,
-  conjDependencies,
-  cosDependencies,
-  coshDependencies,
-  cotDependencies,
-  countDependencies,
-  createUnitDependencies,
-  crossDependencies,
-  cscDependencies,
-  ctransposeDependencies,
-  cubeDependencies,
-  cumsumDependencies,
-  cumsumTransformDependencies,
-  deepEqualDependencies,
-  detDependencies,
-  diagDependencies,
-  diffDependencies,
-  diffTransformDependencies,
-  divideDependencies,
-  divideScalarDependencies,
-  dotDependencies,
-  dotDivideDependencies,
-  dotMultiplyDependencies,
-  dotPowDependencies,
-  eDependencies,
-  eigsDependencies,
-  equalDependencies,
-  equalScalarDependencies,
-  erfDependencies,
-  expDependencies,
-  expm1Dependencies,
-  factorialDependencies,
-  falseDependencies,
-  filterDependencies,
-  filterTransformDependencies,
-  fixDependencies,
-  flattenDependencies,
-  floorDependencies,
-  forEachDependencies,
-  forEachTransformDependencies,
-  formatDependencies,
-  fractionDependencies,
-  gammaDependencies,
-  gcdDependencies,
-  getMatrixDataTypeDependencies,
-  hypotDependencies,
-  iDependencies,
-  identityDependencies,
-  imDependencies,
-  indexDependencies,
-  indexTransformDependencies,
-  invDependencies,
-  isBoundedDependencies,
-  isFiniteDependencies,
-  isIntegerDependencies,
-  isNaNDependencies,
-  isNegativeDependencies,
-  isNumericDependencies,
-  isPositiveDependencies,
-  isZeroDependencies,
-  largerDependencies,
-  largerEqDependencies,
-  lcmDependencies,
-  leftShiftDependencies,
-  lgammaDependencies,
-  log10Dependencies,
-  log1pDependencies,
-  log2Dependencies,
-  logDependencies,
-  lsolveDependencies,
-  lupDependencies,
-  lusolveDependencies,
-  madDependencies,
-  mapDependencies,
-  mapSlicesDependencies,
-  mapSlicesTransformDependencies,
-  mapTransformDependencies,
-  matrixDependencies,
-  matrixFromColumnsDependencies,
-  maxDependencies,
-  maxTransformDependencies,
-  meanDependencies,
-  meanTransformDependencies,
-  medianDependencies,
-  minDependencies,
-  minTransformDependencies,
-  modDependencies,
-  multiplyDependencies,
-  multiplyScalarDependencies,
-  normDependencies,
-  notDependencies,
-  nthRootDependencies,
-  nullDependencies,
-  nullishDependencies,
-  nullishTransformDependencies,
-  numberDependencies,
-  numericDependencies,
-  orDependencies,
-  orTransformDependencies,
-  parseDependencies,
-  partitionSelectDependencies,
-  phiDependencies,
-  piDependencies,
-  powDependencies,
-  prodDependencies,
-  qrDependencies,
-  quantileSeqDependencies,
-  quantileSeqTransformDependencies,
-  rangeDependencies,
-  rangeTransformDependencies,
-  reDependencies,
-  reshapeDependencies,
-  rightArithShiftDependencies,
-  rightLogShiftDependencies,
-  roundDependencies,
-  rowDependencies,
-  rowTransformDependencies,
-  secDependencies,
-  signDependencies,
-  sinDependencies,
-  sinhDependencies,
-  sizeDependencies,
-  sluDependencies,
-  smallerDependencies,
-  smallerEqDependencies,
-  sortDependencies,
-  sqrtDependencies,
-  squareDependencies,
-  squeezeDependencies,
-  stdDependencies,
-  stdTransformDependencies,
-  subsetDependencies,
-  subsetTransformDependencies,
-  subtractDependencies,
-  subtractScalarDependencies,
-  sumDependencies,
-  sumTransformDependencies,
-  tanDependencies,
-  tanhDependencies,
-  tauDependencies,
-  toDependencies,
-  traceDependencies,
-  transposeDependencies,
-  trueDependencies,
-  typeOfDependencies,
-  typedDependencies,
-  unaryMinusDependencies,
-  unaryPlusDependencies,
-  unequalDependencies,
-  unitDependencies,
-  usolveAllDependencies,
-  usolveDependencies,
-  varianceDependencies,
-  varianceTransformDependencies,
-  xorDependencies,
-  zerosDependencies,
+  createAbs,
+  createAccessorNode,
+  createAcos,
+  createAcosh,
+  createAcot,
+  createAcsc,
+  createAdd,
+  createAddScalar,
+  createAnd,
+  createAndTransform,
+  createArg,
+  createArrayNode,
+  createAsec,
+  createAsin,
+  createAsinh,
+  createAssignmentNode,
+  createAtan,
+  createAtan2,
+  createAtanh,
+  createBigNumberClass,
+  createBignumber,
+  createBitAnd,
+  createBitAndTransform,
+  createBitNot,
+  createBitOr,
+  createBitOrTransform,
+  createBitXor,
+  createBlockNode,
+  createCbrt,
+  createCeil,
+  createColumn,
+  createColumnTransform,
+  createCompare,
+  createCompareNatural,
+  createComplex,
+  createComplexClass,
+  createConcat,
+  createConcatTransform,
+  createConditionalNode,
+  createConj,
+  createConstantNode,
+  createCos,
+  createCosh,
+  createCot,
+  createCount,
+  createCreateUnit,
+  createCross,
+  createCsc,
+  createCtranspose,
+  createCube,
+  createCumSum,
+  createCumSumTransform,
+  createDeepEqual,
+  createDenseMatrixClass,
+  createDet,
+  createDiag,
+  createDiff,
+  createDiffTransform,
+  createDivide,
+  createDivideScalar,
+  createDot,
+  createDotDivide,
+  createDotMultiply,
+  createDotPow,
+  createE,
+  createEigs,
+  createEqual,
+  createEqualScalar,
+  createErf,
+  createExp,
+  createExpm1,
+  createFactorial,
+  createFalse,
+  createFibonacciHeapClass,
+  createFilter,
+  createFilterTransform,
+  createFix,
+  createFlatten,
+  createFloor,
+  createForEach,
+  createForEachTransform,
+  createFormat,
+  createFraction,
+  createFractionClass,
+  createFunctionAssignmentNode,
+  createFunctionNode,
+  createGamma,
+  createGcd,
+  createGetMatrixDataType,
+  createHypot,
+  createI,
+  createIdentity,
+  createIm,
+  createImmutableDenseMatrixClass,
+  createIndex,
+  createIndexClass,
+  createIndexNode,
+  createIndexTransform,
+  createInfinity,
+  createInv,
+  createIsBounded,
+  createIsFinite,
+  createIsInteger,
+  createIsNaN,
+  createIsNegative,
+  createIsNumeric,
+  createIsPositive,
+  createIsZero,
+  createLN10,
+  createLN2,
+  createLOG10E,
+  createLOG2E,
+  createLarger,
+  createLargerEq,
+  createLcm,
+  createLeftShift,
+  createLgamma,
+  createLog,
+  createLog10,
+  createLog1p,
+  createLog2,
+  createLsolve,
+  createLup,
+  createLusolve,
+  createMad,
+  createMap,
+  createMapSlices,
+  createMapSlicesTransform,
+  createMapTransform,
+  createMatrix,
+  createMatrixClass,
+  createMatrixFromColumns,
+  createMax,
+  createMaxTransform,
+  createMean,
+  createMeanTransform,
+  createMedian,
+  createMin,
+  createMinTransform,
+  createMod,
+  createMultiply,
+  createMultiplyScalar,
+  createNaN,
+  createNode,
+  createNorm,
+  createNot,
+  createNthRoot,
+  createNull,
+  createNullish,
+  createNullishTransform,
+  createNumber,
+  createNumeric,
+  createObjectNode,
+  createOperatorNode,
+  createOr,
+  createOrTransform,
+  createParenthesisNode,
+  createParse,
+  createPartitionSelect,
+  createPhi,
+  createPi,
+  createPow,
+  createProd,
+  createQr,
+  createQuantileSeq,
+  createQuantileSeqTransform,
+  createRange,
+  createRangeNode,
+  createRangeTransform,
+  createRe,
+  createRelationalNode,
+  createReshape,
+  createResultSet,
+  createRightArithShift,
+  createRightLogShift,
+  createRound,
+  createRow,
+  createRowTransform,
+  createSQRT1_2,
+  createSQRT2,
+  createSec,
+  createSign,
+  createSin,
+  createSinh,
+  createSize,
+  createSlu,
+  createSmaller,
+  createSmallerEq,
+  createSort,
+  createSpaClass,
+  createSparseMatrixClass,
+  createSqrt,
+  createSquare,
+  createSqueeze,
+  createStd,
+  createStdTransform,
+  createSubset,
+  createSubsetTransform,
+  createSubtract,
+  createSubtractScalar,
+  createSum,
+  createSumTransform,
+  createSymbolNode,
+  createTan,
+  createTanh,
+  createTau,
+  createTo,
+  createTrace,
+  createTranspose,
+  createTrue,
+  createTypeOf,
+  createTyped,
+  createUnaryMinus,
+  createUnaryPlus,
+  createUnequal,
+  createUnitClass,
+  createUnitFunction,
+  createUppercaseE,
+  createUppercasePi,
+  createUsolve,
+  createUsolveAll,
+  createVariance,
+  createVarianceTransform,
+  createXor,
+  createZeros,
 };
 
 /** Names of the full mathjs namespace that this instance leaves out. */
