@@ -3,11 +3,11 @@
 //
 // Bandwidth rules as scipy.stats.gaussian_kde (checked against it in test/statistics/kde.test.ts):
 // kernel sd h = s * factor with s the sample standard deviation (n - 1 in the denominator) and
-//   Scott:     factor = n^(-1/5)            (Scott 1992, Multivariate Density Estimation, eq. 6.42, d = 1)
-//   Silverman: factor = (3n/4)^(-1/5)       (Silverman 1986, Density Estimation, eq. 3.31 in scipy's d-form)
+//   Scott:     factor = n^(-1/5)            (Scott 1992, Multivariate Density Estimation, Wiley; the rule scipy uses, d = 1)
+//   Silverman: factor = (3n/4)^(-1/5)       (Silverman 1986, Density Estimation, Chapman & Hall; scipy's d-form)
 // Tabulation: linear binning of the samples onto a grid of spacing at most h/TABLE_STEPS_PER_H, then
 // a discrete convolution with the kernel truncated at KERNEL_REACH_H kernel widths (Wand & Jones 1995,
-// Kernel Smoothing, appendix D: binned kernel estimators); relative error about (delta/h)^2 / 8.
+// Kernel Smoothing, Chapman & Hall: binned kernel estimators); relative error about (delta/h)^2 / 8.
 
 export type BandwidthRule = 'scott' | 'silverman';
 
@@ -80,7 +80,7 @@ export interface KdeTableOptions {
 /**
  * Tabulates the KDE of the samples. With edges, samples within reach of a finite edge are mirrored
  * about it so the estimate keeps its mass inside (reflection method, Silverman 1986, Density
- * Estimation, sec. 2.10) and the density is zero beyond the edge; without edges the result is scipy's
+ * Estimation, Chapman & Hall) and the density is zero beyond the edge; without edges the result is scipy's
  * gaussian_kde on the table.
  */
 export function tabulateKde(x: ArrayLike<number>, opts: KdeTableOptions = {}): KdeTable {

@@ -1,8 +1,8 @@
 // Two-dimensional Gaussian KDE as scipy.stats.gaussian_kde: kernel covariance = sample covariance
 // (n - 1) times factor^2, Scott's factor n^(-1/6) for d = 2 (Scott 1992, Multivariate Density
-// Estimation, eq. 6.42). Samples are whitened by the Cholesky factor L of the sample covariance
+// Estimation, Wiley). Samples are whitened by the Cholesky factor L of the sample covariance
 // (z = L^-1 (x - mean)), where the kernel is isotropic with sd = factor and separable, then binned
-// bilinearly onto a grid and convolved along each axis (binned KDE, Wand & Jones 1995, appendix D).
+// bilinearly onto a grid and convolved along each axis (binned KDE, Wand & Jones 1995, Kernel Smoothing).
 // The density in x is the density in z divided by det L.
 
 export interface Kde2dTable {

@@ -28,7 +28,7 @@ describe('1-D KDE against scipy.stats.gaussian_kde (kde_reference.json)', () => 
       c.points.forEach((p: number, i: number) => {
         const got = tableLogDensity(t, p);
         const tail = p < c.sampleMin || p > c.sampleMax;
-        // Binned-KDE error grows as ((x - x_i)/h)^2 (delta/h)^2 / 8 away from the samples (Wand & Jones 1995, app. D).
+        // Binned-KDE error grows as ((x - x_i)/h)^2 (delta/h)^2 / 8 away from the samples (Wand & Jones 1995, Kernel Smoothing).
         const tol = tail ? 2e-2 : 2e-3;
         expect(Math.abs(got - c.logpdf[i]), `at ${p}: ${got} vs scipy ${c.logpdf[i]}`).toBeLessThan(tol);
       });
@@ -45,7 +45,7 @@ describe('1-D KDE against scipy.stats.gaussian_kde (kde_reference.json)', () => 
     expect(tableLogDensity(t, t.x0 - 1e-9)).toBe(-Infinity);
     expect(tableLogDensity(t, t.x0 + (t.size - 1) * t.dx + 1e-9)).toBe(-Infinity);
   });
-  it('with a reflecting edge the table keeps unit mass inside and is zero beyond the edge (Silverman 1986, sec. 2.10)', () => {
+  it('with a reflecting edge the table keeps unit mass inside and is zero beyond the edge (reflection method, Silverman 1986, Density Estimation)', () => {
     const lower = Math.min(...x) - 0.01;
     const t = tabulateKde(x, { lowerEdge: lower });
     expect(tableLogDensity(t, lower - 0.05)).toBe(-Infinity);
