@@ -8,6 +8,7 @@ import { environmentBuiltins } from './environment';
 import { statisticsBuiltins } from './statistics';
 import { arrayViewBuiltins } from './arrayView';
 import { utilityBuiltins } from './utility';
+import { realisationBuiltins } from './realisations';
 
 export function allBuiltins(): Builtin[] {
   return [
@@ -19,5 +20,6 @@ export function allBuiltins(): Builtin[] {
     ...environmentBuiltins,
     ...statisticsBuiltins,
     ...arrayViewBuiltins,
+    ...realisationBuiltins,
   ];
 }
