@@ -7,8 +7,10 @@ import { orbitBuiltins } from './orbits';
 import { environmentBuiltins } from './environment';
 import { statisticsBuiltins } from './statistics';
 import { freeSpectrumBuiltins } from './freeSpectrum';
+import { inferenceBuiltins } from './inference';
 import { arrayViewBuiltins } from './arrayView';
 import { utilityBuiltins } from './utility';
+import { realisationBuiltins } from './realisations';
 
 export function allBuiltins(): Builtin[] {
   return [
@@ -20,6 +22,8 @@ export function allBuiltins(): Builtin[] {
     ...environmentBuiltins,
     ...statisticsBuiltins,
     ...freeSpectrumBuiltins,
+    ...inferenceBuiltins,
     ...arrayViewBuiltins,
+    ...realisationBuiltins,
   ];
 }
