@@ -5,6 +5,7 @@ import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
 import { mergeCommand } from './mergeCommand';
 import { inferCommand } from './inferCommand';
+import { realiseCommand } from './realiseCommand';
 
 export interface Command {
   /** One line for the command list. */
@@ -21,4 +22,5 @@ export const commands: Record<string, Command> = {
   sample: sampleCommand,
   merge: mergeCommand,
   infer: inferCommand,
+  realise: realiseCommand,
 };
