@@ -5,6 +5,7 @@ import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
 import { importCommand } from './importCommand';
 import { mergeCommand } from './mergeCommand';
+import { inferCommand } from './inferCommand';
 import { realiseCommand } from './realiseCommand';
 
 export interface Command {
@@ -22,5 +23,6 @@ export const commands: Record<string, Command> = {
   sample: sampleCommand,
   import: importCommand,
   merge: mergeCommand,
+  infer: inferCommand,
   realise: realiseCommand,
 };
