@@ -14,6 +14,9 @@ export function cliBuildOptions(outdir) {
     target: 'node20',
     outdir,
     outExtension: { '.js': '.mjs' },
+    // Prefer a package's ES module build: jsonc-parser's default (UMD) build requires its own files
+    // at run time, which a bundle cannot resolve; ES modules are also tree-shaken.
+    mainFields: ['module', 'main'],
     logLevel: 'warning',
     legalComments: 'none',
     // Whitespace and syntax only: identifiers keep their names, so stack traces stay readable.
