@@ -4,6 +4,8 @@ import { evaluateCommand } from './evaluateCommand';
 import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
 import { mergeCommand } from './mergeCommand';
+import { inferCommand } from './inferCommand';
+import { realiseCommand } from './realiseCommand';
 
 export interface Command {
   /** One line for the command list. */
@@ -19,4 +21,6 @@ export const commands: Record<string, Command> = {
   scan: scanCommand,
   sample: sampleCommand,
   merge: mergeCommand,
+  infer: inferCommand,
+  realise: realiseCommand,
 };
