@@ -7,7 +7,7 @@ import { math } from './mathInstance';
 import { allBuiltins } from '../builtins/index';
 import type { Builtin } from './builtin';
 import { ALLOWED_MATH_FUNCTIONS, LOCKED_FUNCTIONS } from './allowedFunctions';
-import { sizeGuardedFunctions, sizeGuardedTransforms } from './sizeGuards';
+import { guardedRangeTransform, sizeGuardedFunctions, sizeGuardedTransforms } from './sizeGuards';
 
 export interface LockedMath {
   /** mathjs's parser, kept before the instance was locked. */
@@ -46,9 +46,12 @@ export function lockedMath(): LockedMath {
   const withTransform = (math as unknown as { expression: { mathWithTransform: Record<string, unknown> } }).expression
     .mathWithTransform;
   for (const name of ALLOWED_MATH_FUNCTIONS) void withTransform[name], void (math as unknown as Record<string, unknown>)[name];
+  // Ranges are sized before they are built; made before the guarded `matrix` replaces mathjs's own.
+  const rangeGuard = guardedRangeTransform();
   // List arithmetic measures its operands before building a result (see sizeGuards.ts).
   math.import(sizeGuardedFunctions(), { override: true });
-  for (const [name, transform] of Object.entries(sizeGuardedTransforms())) {
+  const transforms: Record<string, unknown> = { ...sizeGuardedTransforms(), range: rangeGuard };
+  for (const [name, transform] of Object.entries(transforms)) {
     Object.defineProperty(withTransform, name, { value: transform, writable: true, configurable: true, enumerable: true });
   }
   const stubs: Record<string, () => never> = {};

@@ -360,6 +360,10 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     expect(kept.length).toBe(1);
     expect(await page.evaluate((k) => localStorage.getItem(k), kept[0])).toContain('"cells":[{"name":');
     expect(await page.textContent('.messages')).toContain('could not be read');
+    // set aside once: another start before any edit makes no second copy (issue 10)
+    await page.reload();
+    await page.waitForSelector('[data-key-value="A_yr"]');
+    expect(await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('strainsheet:autosave:unreadable:')).length)).toBe(1);
   });
 
   it('refuses broken and hostile files and leaves the sheet untouched', async () => {
