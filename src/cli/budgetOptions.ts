@@ -2,7 +2,7 @@
 // (the whole command). They are read before the command's own options and set the engine's
 // evaluation budget (src/sheet/evaluationBudget.ts); past the run budget every evaluation stops
 // with a 'limit' error, and a timer ends the process should an evaluation not reach a check.
-import { DEFAULT_CELL_SECONDS, setCellBudget, setRunBudget } from '../sheet/evaluationBudget';
+import { DEFAULT_CELL_SECONDS, exportBudgets, setCellBudget, setRunBudget } from '../sheet/evaluationBudget';
 import { UsageError } from './optionParsing';
 
 /** Default time budget of a whole command, in seconds. */
@@ -47,6 +47,7 @@ export function applyBudgetOptions(args: readonly string[], onOverrun: (message:
   }
   setCellBudget(cell);
   setRunBudget(run);
+  exportBudgets(process.env); // worker threads of parallel jobs start with these budgets
   // A backstop for work that never reaches a budget check (it fires once the event loop is free).
   const timer = setTimeout(() => onOverrun(`the run budget of ${run} s is used up; stopping`), (run + GRACE_SECONDS) * 1000);
   timer.unref();
@@ -56,6 +57,7 @@ export function applyBudgetOptions(args: readonly string[], onOverrun: (message:
       clearTimeout(timer);
       setCellBudget(DEFAULT_CELL_SECONDS);
       setRunBudget(Infinity);
+      exportBudgets(process.env);
     },
   };
 }

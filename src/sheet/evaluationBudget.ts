@@ -100,3 +100,27 @@ export function countBuilt(n: number, what: string): void {
     throw new BuiltinError(`${what}: the formula builds more than ${MAX_BUILT_ELEMENTS} list elements in all (at most ${MAX_BUILT_ELEMENTS} per cell)`, 'limit');
   }
 }
+
+/** Environment variables that carry the budgets to worker threads of the same command. */
+export const CELL_BUDGET_ENV = 'STRAINSHEET_CELL_BUDGET';
+export const RUN_DEADLINE_ENV = 'STRAINSHEET_RUN_DEADLINE';
+
+/** Puts the current budgets in the environment (seconds; the run deadline as epoch milliseconds), for worker threads started later. */
+export function exportBudgets(env: Record<string, string | undefined>): void {
+  env[CELL_BUDGET_ENV] = String(cellBudgetMs / 1000);
+  if (Number.isFinite(runDeadline)) env[RUN_DEADLINE_ENV] = `${Date.now() + (runDeadline - performance.now())}:${runBudgetSeconds}`;
+  else delete env[RUN_DEADLINE_ENV];
+}
+
+/** Takes the budgets a parent thread exported (see exportBudgets); nothing when there are none. */
+function importBudgets(): void {
+  const env = (globalThis as { process?: { env?: Record<string, string | undefined> } }).process?.env;
+  const cell = Number(env?.[CELL_BUDGET_ENV]);
+  if (cell > 0 && Number.isFinite(cell)) cellBudgetMs = cell * 1000;
+  const [deadline, seconds] = (env?.[RUN_DEADLINE_ENV] ?? '').split(':').map(Number);
+  if (Number.isFinite(deadline) && deadline > 0 && seconds > 0) {
+    runDeadline = performance.now() + (deadline - Date.now());
+    runBudgetSeconds = seconds;
+  }
+}
+importBudgets();
