@@ -78,6 +78,16 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     expect(pageErrors).toEqual([]);
   });
 
+  it('ships a Content-Security-Policy without WebSockets, with form-action none (issue 10)', async () => {
+    const html = readFileSync(join(app.outDir, 'index.html'), 'utf8');
+    const csp = /http-equiv="Content-Security-Policy"\s+content="([^"]*)"/.exec(html)?.[1] ?? '';
+    const directives = new Map(csp.split(';').map((d) => d.trim().split(/\s+/)).map(([k, ...v]) => [k, v]));
+    expect(directives.get('connect-src')).toEqual(["'self'"]);
+    expect(directives.get('form-action')).toEqual(["'none'"]);
+    expect(directives.get('object-src')).toEqual(["'none'"]);
+    expect(csp).not.toMatch(/ws:|wss:/);
+  });
+
   it('draws a spectrum that is not blank (pixel check)', async () => {
     await page.waitForSelector(SPECTRUM_CANVAS);
     const ink = await canvasInk(page, SPECTRUM_CANVAS);
