@@ -6,8 +6,10 @@ import { spectrumBuiltins } from './spectrum';
 import { orbitBuiltins } from './orbits';
 import { environmentBuiltins } from './environment';
 import { statisticsBuiltins } from './statistics';
+import { inferenceBuiltins } from './inference';
 import { arrayViewBuiltins } from './arrayView';
 import { utilityBuiltins } from './utility';
+import { realisationBuiltins } from './realisations';
 
 export function allBuiltins(): Builtin[] {
   return [
@@ -18,6 +20,8 @@ export function allBuiltins(): Builtin[] {
     ...orbitBuiltins,
     ...environmentBuiltins,
     ...statisticsBuiltins,
+    ...inferenceBuiltins,
     ...arrayViewBuiltins,
+    ...realisationBuiltins,
   ];
 }

@@ -14,7 +14,7 @@ export interface ChunkControl {
 export interface ChunkPlan {
   /** Number of chunks. Fixed by the job and its options, never by the number of workers. */
   chunks: number;
-  /** Units of work (evaluations, samples) in all chunks, for progress. */
+  /** Units of work (points, samples) of the job, for progress; a job with no chunks reports them done at once. */
   work: number;
 }
 

@@ -105,6 +105,8 @@ export async function runChunkedJob<O, P extends ChunkPlan, C, R>(
   parallel?: ParallelOptions & { sheetText?: string },
 ): Promise<R> {
   const plan = job.plan(sheet, options);
+  // A job whose work was all done in plan() (e.g. a scan fully scaled by the sqrt law) reports it done.
+  if (plan.chunks === 0) control?.onProgress?.(plan.work, plan.work);
   const indices = Array.from({ length: plan.chunks }, (_, i) => i);
   const chunks = await runChunks(job as AnyChunkedJob, sheet, plan, indices, control, parallel);
   return job.combine(sheet, plan, chunks as C[]);

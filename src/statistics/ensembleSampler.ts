@@ -12,8 +12,12 @@
 import type { RandomSource } from './prng';
 import { walkerStream } from './walkerStreams';
 
-/** Log-likelihoods of a batch of points (NaN or -Infinity: zero likelihood). */
-export type LogLikelihoodBatch = (points: Float64Array[]) => Float64Array | Promise<Float64Array>;
+/**
+ * Log-likelihoods of a batch of points (NaN or -Infinity: zero likelihood), optionally with
+ * `extras` values per point (derived quantities kept alongside the chain: extras[i * E + e]).
+ */
+export type LogLikelihoodBatch = (points: Float64Array[]) => BatchAnswer | Promise<BatchAnswer>;
+export type BatchAnswer = Float64Array | { logLikelihood: Float64Array; extras: Float64Array };
 
 export interface EnsembleOptions {
   /** Number of walkers: even and at least twice the dimension. */
@@ -29,6 +33,8 @@ export interface EnsembleOptions {
   beta?: number;
   /** Stretch scale a > 1 (default 2, Goodman & Weare 2010, sec. 3). */
   stretch?: number;
+  /** Number of extra values per point the likelihood batch returns (default 0). */
+  extras?: number;
   /** Stream key of this chain (tempered chains get their own), default 0. */
   chain?: number;
   /** Called after every step; return false to stop early (cancel). */
@@ -53,6 +59,9 @@ export interface EnsembleChain {
   positions: Float64Array;
   logLikelihood: Float64Array;
   logPrior: Float64Array;
+  /** Extra values per walker and step: extras[(step * walkers + walker) * nExtras + e]. */
+  extras: Float64Array;
+  nExtras: number;
   /** Accepted proposals per walker. */
   accepted: Float64Array;
   /** Likelihood evaluations that gave NaN (counted as zero likelihood), and the first such point. */
@@ -103,6 +112,7 @@ function checkOptions(o: EnsembleOptions): { dim: number; beta: number; a: numbe
 export async function runEnsemble(o: EnsembleOptions): Promise<EnsembleChain> {
   const { dim, beta, a } = checkOptions(o);
   const { walkers, steps, seed } = o;
+  const E = o.extras ?? 0;
   const half = walkers / 2;
   const rngs: RandomSource[] = Array.from({ length: walkers }, (_, k) => walkerStream(seed, o.chain ?? 0, k));
   const chain: EnsembleChain = {
@@ -112,6 +122,8 @@ export async function runEnsemble(o: EnsembleOptions): Promise<EnsembleChain> {
     positions: new Float64Array(steps * walkers * dim),
     logLikelihood: new Float64Array(steps * walkers),
     logPrior: new Float64Array(steps * walkers),
+    extras: new Float64Array(steps * walkers * E),
+    nExtras: E,
     accepted: new Float64Array(walkers),
     failures: 0,
     evaluations: 0,
@@ -121,14 +133,25 @@ export async function runEnsemble(o: EnsembleOptions): Promise<EnsembleChain> {
   const pos = o.start.map((p) => Float64Array.from(p));
   const lp = new Float64Array(walkers);
   const ll = new Float64Array(walkers);
+  const ex = new Float64Array(walkers * E).fill(NaN);
+  let answerExtras = new Float64Array(0);
 
-  // Likelihoods of the points with prior support; NaN -> -Infinity and counted.
+  // Likelihoods of the points with prior support; NaN -> -Infinity and counted. Extras of the
+  // batch are left in answerExtras (NaN for points not evaluated).
   const evaluate = async (points: Float64Array[], priors: Float64Array): Promise<Float64Array> => {
     const idx: number[] = [];
     for (let i = 0; i < points.length; i++) if (priors[i] > -Infinity) idx.push(i);
     const out = new Float64Array(points.length).fill(-Infinity);
+    answerExtras = new Float64Array(points.length * E).fill(NaN);
     if (idx.length === 0) return out;
-    const vals = await o.logLikelihood(idx.map((i) => points[i]));
+    const answer = await o.logLikelihood(idx.map((i) => points[i]));
+    const vals = answer instanceof Float64Array ? answer : answer.logLikelihood;
+    if (vals.length !== idx.length) throw new EnsembleError(`the likelihood gave ${vals.length} values for ${idx.length} points`);
+    if (E > 0) {
+      const xs = answer instanceof Float64Array ? null : answer.extras;
+      if (!xs || xs.length !== idx.length * E) throw new EnsembleError(`the likelihood gave no ${E} extra values per point`);
+      idx.forEach((i, j) => answerExtras.set(xs.subarray(j * E, (j + 1) * E), i * E));
+    }
     chain.evaluations += idx.length;
     idx.forEach((i, j) => {
       const v = vals[j];
@@ -145,6 +168,7 @@ export async function runEnsemble(o: EnsembleOptions): Promise<EnsembleChain> {
 
   for (let k = 0; k < walkers; k++) lp[k] = o.logPrior(pos[k]);
   ll.set(await evaluate(pos, lp));
+  ex.set(answerExtras);
   if (Array.from(lp).every((v, k) => logTarget(v, ll[k]) === -Infinity)) {
     throw new EnsembleError('every walker starts where the prior or the likelihood is zero');
   }
@@ -180,6 +204,7 @@ export async function runEnsemble(o: EnsembleOptions): Promise<EnsembleChain> {
           pos[k].set(proposal[i]);
           lp[k] = propPrior[i];
           ll[k] = propLike[i];
+          if (E > 0) ex.set(answerExtras.subarray(i * E, (i + 1) * E), k * E);
           chain.accepted[k]++;
         }
       }
@@ -189,6 +214,7 @@ export async function runEnsemble(o: EnsembleOptions): Promise<EnsembleChain> {
       chain.logLikelihood[t * walkers + k] = ll[k];
       chain.logPrior[t * walkers + k] = lp[k];
     }
+    if (E > 0) chain.extras.set(ex, t * walkers * E);
     chain.steps = t + 1;
     if (o.onStep) {
       let acc = 0;

@@ -60,7 +60,7 @@ export const scan1dJob: ChunkedJob<Scan1DOptions, Scan1DPlan, Scan1DChunk, Scan1
     }
     const n = ax.valuesSI.length;
     const chunks = direct.length ? Math.ceil(n / SCAN_CHUNK) : 0;
-    return { chunks, work: direct.length ? n : 0, axis: ax, outputs, direct, scaled, nominal, units, measurement };
+    return { chunks, work: n, axis: ax, outputs, direct, scaled, nominal, units, measurement };
   },
   chunkWork(plan, index) {
     const { start, end } = chunkRange(plan.axis.valuesSI.length, SCAN_CHUNK, index);
