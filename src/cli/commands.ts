@@ -4,6 +4,7 @@ import { evaluateCommand } from './evaluateCommand';
 import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
 import { mergeCommand } from './mergeCommand';
+import { realiseCommand } from './realiseCommand';
 
 export interface Command {
   /** One line for the command list. */
@@ -19,4 +20,5 @@ export const commands: Record<string, Command> = {
   scan: scanCommand,
   sample: sampleCommand,
   merge: mergeCommand,
+  realise: realiseCommand,
 };
