@@ -150,36 +150,33 @@ function resultCount(v: unknown): number {
   return s ? count(s) : 0;
 }
 
+/** Functions whose expression form is a transform (1-based dimensions); their guard calls the transform. */
+const TRANSFORMED = new Set(['concat', 'quantileSeq']);
+
 function guarded(name: string, check: (fn: string, args: readonly unknown[]) => void): ((...args: unknown[]) => unknown) | undefined {
-  const original = (math as unknown as Record<string, unknown>)[name];
-  if (typeof original !== 'function') return undefined;
-  const wrap = (fn: (...args: unknown[]) => unknown) => {
-    const wrapper = function (...args: unknown[]): unknown {
-      // plain numbers and quantities pass straight through; only lists are measured, timed and counted
-      if (args.length >= 1 && (listSize(args[0]) || listSize(args[1]))) {
-        checkTimeNow();
-        check(name, args);
-        const result = fn(...args);
-        countBuilt(resultCount(result), name);
-        return result;
-      }
-      return fn(...args);
-    };
-    Object.defineProperty(wrapper, 'name', { value: name });
-    return wrapper;
+  if (!(name in math)) return undefined;
+  // The mathjs function (or its expression transform) is looked up on the first call: mathjs
+  // builds each function on first use.
+  let fn: ((...args: unknown[]) => unknown) | undefined;
+  const wrapper = function (...args: unknown[]): unknown {
+    fn ??= TRANSFORMED.has(name) ? transforms()[name] : (math as unknown as Record<string, (...args: unknown[]) => unknown>)[name];
+    // plain numbers and quantities pass straight through; only lists are measured, timed and counted
+    if (args.length >= 1 && (listSize(args[0]) || listSize(args[1]))) {
+      checkTimeNow();
+      check(name, args);
+      const result = fn(...args);
+      countBuilt(resultCount(result), name);
+      return result;
+    }
+    return fn(...args);
   };
-  const wrapper = wrap(original as (...args: unknown[]) => unknown);
-  // A function with an expression transform (1-based dimensions, as in concat and quantileSeq)
-  // keeps it, guarded the same way.
-  const transform = withTransform()[name];
-  if (typeof transform === 'function' && transform !== original) {
-    Object.defineProperty(wrapper, 'transform', { value: wrap(transform as (...args: unknown[]) => unknown) });
-  }
+  Object.defineProperty(wrapper, 'name', { value: name });
   return wrapper;
 }
 
-function withTransform(): Record<string, unknown> {
-  return (math as unknown as { expression: { mathWithTransform: Record<string, unknown> } }).expression.mathWithTransform;
+/** mathjs's expression transforms by name (built on first use). */
+function transforms(): Record<string, (...args: unknown[]) => unknown> {
+  return (math as unknown as { expression: { transform: Record<string, (...args: unknown[]) => unknown> } }).expression.transform;
 }
 
 /** Guarded replacements for the instance's list-arithmetic functions, by name. */
@@ -202,10 +199,12 @@ export function sizeGuardedFunctions(): Record<string, (...args: unknown[]) => u
   put('norm', checkNorm);
   put('quantileSeq', checkQuantiles);
   put('concat', checkConcat);
-  const matrix = (math as unknown as Record<string, (...a: unknown[]) => unknown>).matrix;
+  // list literals [a, b, ...] (mathjs's ArrayNode calls the namespace's matrix)
+  let matrix: ((...a: unknown[]) => unknown) | undefined;
   out.matrix = function guardedMatrix(...args: unknown[]): unknown {
     const data = args[0];
     if (Array.isArray(data)) checkListContent('a list', data);
+    matrix ??= (math as unknown as Record<string, (...a: unknown[]) => unknown>).matrix;
     return matrix(...args);
   };
   return out;
@@ -228,11 +227,10 @@ export function checkListContent(what: string, data: readonly unknown[]): void {
  * where the plain one cannot decide; other ranges go to mathjs.
  */
 export function guardedRangeTransform(): (...args: unknown[]) => unknown {
-  const range = withTransform().range as (...a: unknown[]) => unknown;
   const plain = math as unknown as Record<string, (...a: unknown[]) => unknown>;
   const DenseMatrix = (math as unknown as { DenseMatrix: new (data: { data: number[]; size: number[] }) => unknown }).DenseMatrix;
-  const smallerEq = plain.smallerEq as (a: number, b: number) => boolean;
-  const largerEq = plain.largerEq as (a: number, b: number) => boolean;
+  const smallerEq = (a: number, b: number) => plain.smallerEq(a, b) as boolean;
+  const largerEq = (a: number, b: number) => plain.largerEq(a, b) as boolean;
   return function guardedRange(...args: unknown[]): unknown {
     checkTimeNow();
     const includeEnd = typeof args[args.length - 1] === 'boolean' ? (args.pop() as boolean) : true;
@@ -251,7 +249,7 @@ export function guardedRangeTransform(): (...args: unknown[]) => unknown {
       // the elements are plain numbers made here: the matrix takes them without copying
       return new DenseMatrix({ data: out, size: [out.length] });
     }
-    const result = range(...args, includeEnd);
+    const result = transforms().range(...args, includeEnd);
     const n = resultCount(result);
     if (n > MAX_ELEMENTS) tooLarge('range', `the range has ${n} elements (at most ${MAX_ELEMENTS})`);
     countBuilt(n, 'range');
@@ -268,7 +266,6 @@ export function sizeGuardedTransforms(): Record<string, RawTransform> {
   const plain = math as unknown as Record<string, (a: unknown, b: unknown) => unknown>;
   const isList = (v: unknown) => listSize(v) !== null;
   const make = (name: string, shortCut: (c1: unknown) => unknown): RawTransform => {
-    const f = plain[name];
     const t = ((args, _m, scope) => {
       const c1 = args[0].compile().evaluate(scope);
       if (!isList(c1)) {
@@ -277,7 +274,7 @@ export function sizeGuardedTransforms(): Record<string, RawTransform> {
       }
       const c2 = args[1].compile().evaluate(scope);
       checkBroadcast(name, [c1, c2]);
-      return f(c1, c2);
+      return plain[name](c1, c2);
     }) as RawTransform;
     t.rawArgs = true;
     return t;
