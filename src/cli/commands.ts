@@ -3,7 +3,9 @@ import type { CliIO } from './cliIO';
 import { evaluateCommand } from './evaluateCommand';
 import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
+import { importCommand } from './importCommand';
 import { mergeCommand } from './mergeCommand';
+import { inferCommand } from './inferCommand';
 import { realiseCommand } from './realiseCommand';
 
 export interface Command {
@@ -19,6 +21,8 @@ export const commands: Record<string, Command> = {
   evaluate: evaluateCommand,
   scan: scanCommand,
   sample: sampleCommand,
+  import: importCommand,
   merge: mergeCommand,
+  infer: inferCommand,
   realise: realiseCommand,
 };
