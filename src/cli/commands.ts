@@ -4,6 +4,7 @@ import { evaluateCommand } from './evaluateCommand';
 import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
 import { mergeCommand } from './mergeCommand';
+import { inferCommand } from './inferCommand';
 import { realiseCommand } from './realiseCommand';
 
 export interface Command {
@@ -20,5 +21,6 @@ export const commands: Record<string, Command> = {
   scan: scanCommand,
   sample: sampleCommand,
   merge: mergeCommand,
+  infer: inferCommand,
   realise: realiseCommand,
 };
