@@ -3,6 +3,7 @@ import type { CliIO } from './cliIO';
 import { evaluateCommand } from './evaluateCommand';
 import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
+import { importCommand } from './importCommand';
 import { mergeCommand } from './mergeCommand';
 import { inferCommand } from './inferCommand';
 import { realiseCommand } from './realiseCommand';
@@ -20,6 +21,7 @@ export const commands: Record<string, Command> = {
   evaluate: evaluateCommand,
   scan: scanCommand,
   sample: sampleCommand,
+  import: importCommand,
   merge: mergeCommand,
   infer: inferCommand,
   realise: realiseCommand,
