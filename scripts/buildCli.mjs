@@ -17,6 +17,9 @@ await build({
   outExtension: { '.js': '.mjs' },
   logLevel: 'warning',
   legalComments: 'none',
+  // Whitespace and syntax only: identifiers keep their names, so stack traces stay readable.
+  minifyWhitespace: true,
+  minifySyntax: true,
   // workerpool is CommonJS and requires node:worker_threads at run time: give the ESM bundle a require.
   banner: { js: "import { createRequire as __strainsheetCreateRequire } from 'node:module'; const require = __strainsheetCreateRequire(import.meta.url);" },
 });

@@ -3,7 +3,10 @@ import type { CliIO } from './cliIO';
 import { evaluateCommand } from './evaluateCommand';
 import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
+import { importCommand } from './importCommand';
 import { mergeCommand } from './mergeCommand';
+import { inferCommand } from './inferCommand';
+import { realiseCommand } from './realiseCommand';
 
 export interface Command {
   /** One line for the command list. */
@@ -18,5 +21,8 @@ export const commands: Record<string, Command> = {
   evaluate: evaluateCommand,
   scan: scanCommand,
   sample: sampleCommand,
+  import: importCommand,
   merge: mergeCommand,
+  infer: inferCommand,
+  realise: realiseCommand,
 };

@@ -29,8 +29,8 @@ export interface RealisationDraws {
   loudestChirpMassKg: Float64Array;
   loudestRedshift: Float64Array;
   loudestMassRatio: Float64Array;
-  /** 1 when the loudest binary's h^2 exceeds the sum of h^2 of all the other binaries of its bin. */
-  outshines: Uint8Array;
+  /** 1 when the loudest binary's h^2 exceeds the sum of h^2 of all the other binaries of its bin, else 0 (Float64Array: plain data for part files). */
+  outshines: Float64Array;
   /** Binaries drawn one by one (a measure of the work done). */
   drawnBinaries: number;
 }
@@ -54,7 +54,7 @@ export function drawRealisations(cells: RealisationCells, seed: number, first: n
     loudestChirpMassKg: new Float64Array(size),
     loudestRedshift: new Float64Array(size),
     loudestMassRatio: new Float64Array(size),
-    outshines: new Uint8Array(size),
+    outshines: new Float64Array(size),
     drawnBinaries: 0,
   };
   const { nm, nq, log10M, log10MLow, log10MHigh, q, qLow, qHigh, z } = cells;

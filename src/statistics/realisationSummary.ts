@@ -22,33 +22,33 @@ export interface RealisationSummary {
   medianLoudestStrain: Float64Array;
 }
 
-/** Joins chunks of one run (any order) into one set of draws, realisations in index order; chunks must tile 0 .. R-1. */
+/** Joins consecutive chunks of one run (given in any order) into one set of draws; they must tile a range of realisations. */
 export function joinDraws(chunks: RealisationDraws[]): RealisationDraws {
   if (chunks.length === 0) throw new RangeError('no realisations to join');
   const sorted = [...chunks].sort((a, b) => a.first - b.first);
   const nb = sorted[0].bins;
-  let next = 0;
+  const first = sorted[0].first;
+  let next = first;
   for (const c of sorted) {
     if (c.bins !== nb) throw new RangeError(`chunks disagree on the number of bins (${c.bins} vs ${nb})`);
     if (c.first !== next) throw new RangeError(`chunks do not tile the realisations: expected one starting at ${next}, got ${c.first}`);
     next += c.count;
   }
-  const join = <T extends Float64Array | Uint8Array>(pick: (c: RealisationDraws) => T, make: (n: number) => T): T => {
-    const out = make(next * nb);
-    for (const c of sorted) out.set(pick(c), c.first * nb);
+  const join = (pick: (c: RealisationDraws) => Float64Array): Float64Array => {
+    const out = new Float64Array((next - first) * nb);
+    for (const c of sorted) out.set(pick(c), (c.first - first) * nb);
     return out;
   };
-  const f64 = (n: number) => new Float64Array(n);
   return {
-    first: 0,
-    count: next,
+    first,
+    count: next - first,
     bins: nb,
-    hc: join((c) => c.hc, f64),
-    loudestStrain: join((c) => c.loudestStrain, f64),
-    loudestChirpMassKg: join((c) => c.loudestChirpMassKg, f64),
-    loudestRedshift: join((c) => c.loudestRedshift, f64),
-    loudestMassRatio: join((c) => c.loudestMassRatio, f64),
-    outshines: join((c) => c.outshines, (n) => new Uint8Array(n)),
+    hc: join((c) => c.hc),
+    loudestStrain: join((c) => c.loudestStrain),
+    loudestChirpMassKg: join((c) => c.loudestChirpMassKg),
+    loudestRedshift: join((c) => c.loudestRedshift),
+    loudestMassRatio: join((c) => c.loudestMassRatio),
+    outshines: join((c) => c.outshines),
     drawnBinaries: sorted.reduce((s, c) => s + c.drawnBinaries, 0),
   };
 }
