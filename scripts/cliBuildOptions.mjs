@@ -20,6 +20,9 @@ export function cliBuildOptions(outdir) {
     minifyWhitespace: true,
     minifySyntax: true,
     // workerpool is CommonJS and requires node:worker_threads at run time: give the ESM bundle a require.
+    // With a real require in scope, UMD builds (jsonc-parser's "main") would require their own files at
+    // run time, so packages are taken from their ES-module builds ("module") where they have one.
+    mainFields: ['module', 'main'],
     banner: { js: "import { createRequire as __strainsheetCreateRequire } from 'node:module'; const require = __strainsheetCreateRequire(import.meta.url);" },
   };
 }
