@@ -22,10 +22,8 @@ export function cliBuildOptions(outdir) {
     // Whitespace and syntax only: identifiers keep their names, so stack traces stay readable.
     minifyWhitespace: true,
     minifySyntax: true,
-    // workerpool is CommonJS and requires node:worker_threads at run time: give the ESM bundle a require.
-    // With a real require in scope, UMD builds (jsonc-parser's "main") would require their own files at
-    // run time, so packages are taken from their ES-module builds ("module") where they have one.
-    mainFields: ['module', 'main'],
+    // workerpool is CommonJS and requires node:worker_threads at run time: give the ESM bundle a require
+    // (this real require is also why UMD builds must be avoided, see mainFields above).
     banner: { js: "import { createRequire as __strainsheetCreateRequire } from 'node:module'; const require = __strainsheetCreateRequire(import.meta.url);" },
   };
 }
