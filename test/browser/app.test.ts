@@ -80,6 +80,16 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     expect(pageErrors).toEqual([]);
   });
 
+  it('ships a Content-Security-Policy without WebSockets, with form-action none (issue 10)', async () => {
+    const html = readFileSync(join(app.outDir, 'index.html'), 'utf8');
+    const csp = /http-equiv="Content-Security-Policy"\s+content="([^"]*)"/.exec(html)?.[1] ?? '';
+    const directives = new Map(csp.split(';').map((d) => d.trim().split(/\s+/)).map(([k, ...v]) => [k, v]));
+    expect(directives.get('connect-src')).toEqual(["'self'"]);
+    expect(directives.get('form-action')).toEqual(["'none'"]);
+    expect(directives.get('object-src')).toEqual(["'none'"]);
+    expect(csp).not.toMatch(/ws:|wss:/);
+  });
+
   it('draws a spectrum that is not blank (pixel check)', async () => {
     await page.waitForSelector(SPECTRUM_CANVAS);
     const ink = await canvasInk(page, SPECTRUM_CANVAS);
@@ -362,6 +372,10 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     expect(kept.length).toBe(1);
     expect(await page.evaluate((k) => localStorage.getItem(k), kept[0])).toContain('"cells":[{"name":');
     expect(await page.textContent('.messages')).toContain('could not be read');
+    // set aside once: another start before any edit makes no second copy (issue 10)
+    await page.reload();
+    await page.waitForSelector('[data-key-value="A_yr"]');
+    expect(await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('strainsheet:autosave:unreadable:')).length)).toBe(1);
   });
 
   it('refuses broken and hostile files and leaves the sheet untouched', async () => {
