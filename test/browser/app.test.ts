@@ -399,6 +399,20 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     await page.screenshot({ path: join(ARTIFACTS, '04-refused-file.png') });
   });
 
+  it('shows the comparison across the band first, and reads a data file into a cell (refusing a bad one untouched)', async () => {
+    await freshDemo();
+    // The key-results bar leads with the band verdict; the engine run headless gives the same text.
+    await page.waitForFunction(() => document.querySelector('[data-key-value="comparison"]')?.getAttribute('data-raw')?.includes('inconsistent'));
+    expect(await page.getAttribute('[data-key-value="comparison"]', 'data-raw')).toBe(shown(headlessDemo(), 'comparison'));
+    const before = await page.$$eval('input[data-formula]', (xs) => xs.map((x) => (x as HTMLInputElement).value));
+    await page.setInputFiles('input[data-action="open-data-file"]', { name: 'bad-bins.csv', mimeType: 'text/csv', buffer: Buffer.from('2.26 nHz,4.52 nHz\n-6.5,-7.0\n-6.6,oops\n') });
+    await page.waitForFunction(() => [...document.querySelectorAll('.message.error')].some((m) => m.textContent?.includes('bad-bins.csv, line 3, column 2')));
+    expect(await page.$$eval('input[data-formula]', (xs) => xs.map((x) => (x as HTMLInputElement).value))).toEqual(before);
+    await page.setInputFiles('input[data-action="open-data-file"]', { name: 'small-bins.csv', mimeType: 'text/csv', buffer: Buffer.from('2.26 nHz,4.52 nHz\n-6.5,-7.0\n-6.6,-7.1\n-6.4,-7.2\n') });
+    await page.waitForFunction(() => document.querySelector('[data-value="measured_free_spectrum"]')?.getAttribute('data-raw')?.includes('2 bins'));
+    expect(await page.textContent('.messages')).toContain('Prior kept: uniform -10 to -4');
+  });
+
   it('runs a one-input scan in the worker with progress, and cancels a long one leaving the sheet as it was', async () => {
     await freshDemo();
     await page.click('[data-tab="scan"]');

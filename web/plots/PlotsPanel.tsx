@@ -7,6 +7,7 @@ import { PlotView } from './PlotView';
 import { spectrumPlotModel, type StrainCurve, type VerticalQuantity } from './spectrumPlotModel';
 import {
   binsFromJson,
+  realisationBandsFromJson,
   curveFromSpectrumJson,
   drawingGrid,
   hubbleConstant,
@@ -67,6 +68,7 @@ export function PlotsPanel() {
     }
     const measured = [];
     const bins = [];
+    const realisations = [];
     for (const c of cells) {
       const v = valueOf(c.name);
       if (!isSheetObject(v)) continue;
@@ -74,6 +76,9 @@ export function PlotsPanel() {
         const m = measuredFromJson(c.name, v.toJSON());
         if (m) measured.push(m);
         else notes.push(`${c.name}: this measurement has no amplitude interval to draw.`);
+      } else if (v.kind === 'realisations') {
+        const r = realisationBandsFromJson(c.name, v.toJSON());
+        if (r) realisations.push(r);
       } else if (/bin|freeSpectrum/i.test(v.kind)) {
         const b = binsFromJson(c.name, v.toJSON(), h0);
         if (b) bins.push(b);
@@ -88,7 +93,7 @@ export function PlotsPanel() {
         }
       }
     }
-    return spectrumPlotModel({ quantity: quantity(), curves, measured, bins, h0PerS: h0, notes });
+    return spectrumPlotModel({ quantity: quantity(), curves, realisations, measured, bins, h0PerS: h0, notes });
   });
 
   const breakdowns = createMemo(() => breakdownModels(session.cells(), (n) => session.value(n)));
