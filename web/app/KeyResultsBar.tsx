@@ -29,16 +29,34 @@ export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unk
   return out;
 }
 
+/** The new picks, except that a role keeps its earlier cell as long as that cell is still in the sheet. */
+export function keepPicks(previous: KeyResult[], cells: CellSpec[], fresh: KeyResult[]): KeyResult[] {
+  const byName = new Map(cells.map((c) => [c.name, c]));
+  const out = fresh.map((r) => {
+    const kept = previous.find((p) => p.role === r.role);
+    const cell = kept && byName.get(kept.cell.name);
+    return cell ? { role: r.role, cell } : r;
+  });
+  for (const p of previous) {
+    const cell = byName.get(p.cell.name);
+    if (cell && !out.some((r) => r.role === p.role)) out.push({ role: p.role, cell });
+  }
+  const order = ['predicted A_yr', 'against the measurement', 'allowed merger rate'];
+  return out.sort((a, b) => order.indexOf(a.role) - order.indexOf(b.role));
+}
+
 export function KeyResultsBar() {
   const services = useServices();
   const { session } = services;
-  const results = createMemo(() => pickKeyResults(session.cells(), (n) => session.value(n)));
+  // A card keeps its cell while that cell exists: a cell in error or being edited (no value, so no
+  // kind to recognise) shows its own state instead of another cell taking its place.
+  const results = createMemo<KeyResult[]>((previous) => keepPicks(previous, session.cells(), pickKeyResults(session.cells(), (n) => session.value(n))), []);
   // Keyed by role and name, so the bar's buttons are rebuilt only when a different cell is picked.
   const keys = createMemo(() => results().map((r) => `${r.role}\u0000${r.cell.name}`), undefined, {
     equals: (a, b) => a.length === b.length && a.every((x, i) => x === b[i]),
   });
   return (
-    <div class="key-results" role="status" aria-label="Key results">
+    <section class="key-results" aria-label="Key results">
       <Show when={keys().length} fallback={<span class="key-empty">No result cells yet (a cell named A_yr shows here).</span>}>
         <For each={keys()}>
           {(key) => {
@@ -67,6 +85,6 @@ export function KeyResultsBar() {
           }}
         </For>
       </Show>
-    </div>
+    </section>
   );
 }

@@ -20,25 +20,31 @@ export function SheetPanel() {
   const namesIn = (section: string) => groups().find((g) => g.name === section)?.cells.map((c) => c.name) ?? [];
 
   return (
-    <div class="sheet" role="table" aria-label="Sheet">
-      <div class="sheet-head" role="row">
-        <span role="columnheader">name</span>
-        <span role="columnheader">formula</span>
-        <span role="columnheader">value</span>
-        <span role="columnheader">status</span>
-        <span role="columnheader">note · source</span>
+    <div class="sheet">
+      <div class="sheet-table" role="table" aria-label="Cells of the sheet">
+        <div class="sheet-head" role="row">
+          <span role="columnheader">name</span>
+          <span role="columnheader">formula</span>
+          <span role="columnheader">value</span>
+          <span role="columnheader">status</span>
+          <span role="columnheader">note · source</span>
+        </div>
+        <For each={sectionNames()}>
+          {(section) => (
+            <section class="sheet-section" data-section={section} role="rowgroup" aria-label={section}>
+              <div class="section-title-row" role="row">
+                <div role="cell">
+                  <h2 class="section-title">{section}</h2>
+                </div>
+              </div>
+              <For each={namesIn(section)}>{(n) => <Show when={specs().get(n)}>{(spec) => <CellRow spec={spec()} />}</Show>}</For>
+            </section>
+          )}
+        </For>
       </div>
       <Show when={sectionNames().length === 0}>
         <p class="empty-sheet">This sheet has no cells yet. Add one below.</p>
       </Show>
-      <For each={sectionNames()}>
-        {(section) => (
-          <section class="sheet-section" data-section={section} role="rowgroup">
-            <h2 class="section-title">{section}</h2>
-            <For each={namesIn(section)}>{(n) => <Show when={specs().get(n)}>{(spec) => <CellRow spec={spec()} />}</Show>}</For>
-          </section>
-        )}
-      </For>
       <AddCellForm />
     </div>
   );
