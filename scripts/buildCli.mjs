@@ -15,4 +15,6 @@ await build({
   outfile: `${root}dist-cli/strainsheet.mjs`,
   logLevel: 'warning',
   legalComments: 'none',
+  // Loaded from node_modules only by `strainsheet plot --pdf`, so other commands do not parse them.
+  external: ['jspdf', 'svg2pdf.js', 'linkedom', 'dejavu-fonts-ttf'],
 });

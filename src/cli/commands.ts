@@ -3,6 +3,7 @@ import type { CliIO } from './cliIO';
 import { evaluateCommand } from './evaluateCommand';
 import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
+import { plotCommand } from './plotCommand';
 
 export interface Command {
   /** One line for the command list. */
@@ -17,4 +18,5 @@ export const commands: Record<string, Command> = {
   evaluate: evaluateCommand,
   scan: scanCommand,
   sample: sampleCommand,
+  plot: plotCommand,
 };

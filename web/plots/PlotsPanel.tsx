@@ -2,18 +2,9 @@
 // vertical quantity, and the origin breakdowns (by redshift, by chirp mass) when the sheet has them.
 import { createMemo, createSignal, For, Show } from 'solid-js';
 import { useServices } from '../app/services';
-import { isSheetObject } from '../engine/engine';
 import { PlotView } from './PlotView';
-import { spectrumPlotModel, type StrainCurve, type VerticalQuantity } from './spectrumPlotModel';
-import {
-  binsFromJson,
-  curveFromSpectrumJson,
-  drawingGrid,
-  hubbleConstant,
-  isOneArgumentFunction,
-  measuredFromJson,
-  sampleFrequencyFunction,
-} from './sheetPlotData';
+import type { StrainCurve, VerticalQuantity } from './spectrumPlotModel';
+import { sheetSpectrumModel, spectrumCurves, type SheetReader } from './sheetSpectrumModel';
 import { breakdownModels } from './breakdownPlotModel';
 import { loadPins, savePins, type PinnedCurve } from './pins';
 
@@ -34,61 +25,15 @@ export function PlotsPanel() {
     if (!r.ok) services.notify(r.message, 'error');
   };
 
+  const reader = (): SheetReader => ({ cells: session.cells(), valueOf: (n) => session.value(n), stateOf: (n) => session.state(n) });
   /** Every spectrum cell's current curve. */
-  const spectra = createMemo<StrainCurve[]>(() => {
-    const out: StrainCurve[] = [];
-    for (const c of session.cells()) {
-      const v = session.value(c.name);
-      if (isSheetObject(v) && v.kind === 'spectrum') {
-        const curve = curveFromSpectrumJson(`cell:${c.name}`, c.name, v.toJSON());
-        if (curve) out.push(curve);
-      }
-    }
-    // The sheet's main `spectrum` first, so it keeps the first colour whatever the cell order.
-    return out.sort((a, b) => Number(b.label === 'spectrum') - Number(a.label === 'spectrum'));
-  });
+  const spectra = createMemo<StrainCurve[]>(() => spectrumCurves(reader()));
 
   const model = createMemo(() => {
-    const cells = session.cells();
-    const valueOf = (n: string) => session.value(n);
-    const notes: string[] = [];
-    const h0 = hubbleConstant(cells, valueOf);
-    const curves: StrainCurve[] = [...spectra()];
-    const grid = drawingGrid(curves[0]?.frequencyHz, cells, valueOf);
-    for (const c of cells) {
-      const v = valueOf(c.name);
-      if (!isOneArgumentFunction(v)) continue;
-      const r = sampleFrequencyFunction(v, grid);
-      if ('y' in r) curves.push({ id: `fn:${c.name}`, label: `${c.name}(f)`, frequencyHz: grid, hc: r.y, dashed: true });
-      else notes.push(`${c.name}(f) is not drawn: ${r.reason}.`);
-    }
-    for (const p of pins()) {
-      if (p.visible) curves.push({ id: `pin:${p.id}`, label: `${p.label} (pinned)`, frequencyHz: p.frequencyHz, hc: p.hc, dashed: true });
-    }
-    const measured = [];
-    const bins = [];
-    for (const c of cells) {
-      const v = valueOf(c.name);
-      if (!isSheetObject(v)) continue;
-      if (v.kind === 'measurement') {
-        const m = measuredFromJson(c.name, v.toJSON());
-        if (m) measured.push(m);
-        else notes.push(`${c.name}: this measurement has no amplitude interval to draw.`);
-      } else if (/bin|freeSpectrum/i.test(v.kind)) {
-        const b = binsFromJson(c.name, v.toJSON(), h0);
-        if (b) bins.push(b);
-      }
-    }
-    if (!spectra().length) {
-      // A spectrum cell in error shows nothing: say which one and why, instead of "no spectrum".
-      for (const c of cells) {
-        const st = session.state(c.name);
-        if (st.status === 'error' && (/spectrum/i.test(c.name) || /Spectrum\s*\(/.test(c.formula))) {
-          notes.push(`${c.name} has no value: ${st.error.message}`);
-        }
-      }
-    }
-    return spectrumPlotModel({ quantity: quantity(), curves, measured, bins, h0PerS: h0, notes });
+    const pinned = pins()
+      .filter((p) => p.visible)
+      .map<StrainCurve>((p) => ({ id: `pin:${p.id}`, label: `${p.label} (pinned)`, frequencyHz: p.frequencyHz, hc: p.hc, dashed: true }));
+    return sheetSpectrumModel(reader(), quantity(), pinned, spectra());
   });
 
   const breakdowns = createMemo(() => breakdownModels(session.cells(), (n) => session.value(n)));
