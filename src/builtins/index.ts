@@ -6,6 +6,7 @@ import { spectrumBuiltins } from './spectrum';
 import { orbitBuiltins } from './orbits';
 import { environmentBuiltins } from './environment';
 import { statisticsBuiltins } from './statistics';
+import { inferenceBuiltins } from './inference';
 import { arrayViewBuiltins } from './arrayView';
 import { utilityBuiltins } from './utility';
 
@@ -18,6 +19,7 @@ export function allBuiltins(): Builtin[] {
     ...orbitBuiltins,
     ...environmentBuiltins,
     ...statisticsBuiltins,
+    ...inferenceBuiltins,
     ...arrayViewBuiltins,
   ];
 }

@@ -7,7 +7,7 @@ import type { SheetObject } from '../sheet/sheetObject';
 import { F_YR_HZ, M_SUN_KG } from '../physics/constants';
 import { backgroundSpectrum, characteristicStrainSquared, type BackgroundOptions } from '../physics/backgroundIntegral';
 import { frequencyGridFromSpan, logFrequencyGrid } from '../physics/frequencyGrid';
-import { alphaFromGamma, equivalentResidual, gammaFromAlpha, localSpectralSlope, omegaGw, residualPowerSpectralDensity, strainAtFrequency } from '../physics/spectrumConversions';
+import { alphaFromGamma, equivalentResidual, gammaFromAlpha, rmsResidualInBand, localSpectralSlope, omegaGw, residualPowerSpectralDensity, strainAtFrequency } from '../physics/spectrumConversions';
 import { iscoGwFrequencyHz } from '../physics/circularKernel';
 import { chirpMassOrigin, redshiftOrigin, type OriginProfile } from '../physics/signalOrigin';
 import { objectOf, scalarSI, vectorSI, where } from './args';
@@ -258,7 +258,7 @@ export const spectrumBuiltins: Builtin[] = [
   {
     name: 'equivalentResidualOfStrain',
     category: 'spectrum',
-    summary: 'Order of the timing residual a background causes, h_c / (2 pi f).',
+    summary: 'Order of the timing residual a background causes, h_c / (2 pi f): a scale, not an rms (see rmsResidualOfStrain, sqrt(3) smaller at a bandwidth equal to f).',
     args: [
       { name: 'hc', unit: 'dimensionless', description: 'characteristic strain >= 0 (or a list matching frequency)' },
       { name: 'frequency', unit: 'nHz', description: 'frequency > 0 (or a list)' },
@@ -267,6 +267,24 @@ export const spectrumBuiltins: Builtin[] = [
     source: 'common practice, no source',
     example: 'equivalentResidualOfStrain(2e-15, 31.7 nHz) gives about 10 ns',
     fn: (hc: unknown, frequency: unknown) => pairwise(hc, frequency, 'equivalentResidualOfStrain', (h, f) => quantity(equivalentResidual(f, h), 'ns')),
+  },
+  {
+    name: 'rmsResidualOfStrain',
+    category: 'spectrum',
+    summary: 'rms timing residual of the background in a band of width bandwidth around f, sqrt(P(f) bandwidth) with P = h_c^2 / (12 pi^2 f^3); h_c / (2 sqrt(3) pi f) at bandwidth = f.',
+    args: [
+      { name: 'hc', unit: 'dimensionless', description: 'characteristic strain >= 0 (or a list matching frequency)' },
+      { name: 'frequency', unit: 'nHz', description: 'frequency > 0 (or a list)' },
+      { name: 'bandwidth', unit: 'nHz', description: 'width of the band > 0 (1/T for one bin of a span T; f for a band of one e-fold)' },
+    ],
+    returns: { unit: 'ns', description: 'rms residual' },
+    source: 'follows from the one-sided residual PSD P = h_c^2 / (12 pi^2 f^3) (Jenet et al. 2006, ApJ 653, 1571)',
+    example: 'rmsResidualOfStrain(2e-15, 31.7 nHz, 31.7 nHz) gives about 5.8 ns',
+    fn: (hc: unknown, frequency: unknown, bandwidth: unknown) => {
+      const fn = 'rmsResidualOfStrain';
+      const df = positiveSI(bandwidth, 'frequency', fn, 'bandwidth');
+      return pairwise(hc, frequency, fn, (h, f) => quantity(rmsResidualInBand(f, h, df), 'ns'));
+    },
   },
   {
     name: 'spectralSlope',

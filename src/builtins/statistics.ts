@@ -141,7 +141,7 @@ export const statisticsBuiltins: Builtin[] = [
   {
     name: 'measuredAmplitude',
     category: 'statistics',
-    summary: 'A measured amplitude A at the reference frequency: median and interval at a stated credibility',
+    summary: 'A measured amplitude A at the reference frequency: median and interval at a stated credibility (a value conditional on the assumed gamma, not marginalised over it)',
     args: [
       { name: 'median', unit: 'dimensionless', description: 'median amplitude A' },
       { name: 'lower', unit: 'dimensionless', description: 'lower end of the interval' },

@@ -61,6 +61,12 @@ export class DistributionObject implements SheetObject {
     const d = this.distribution;
     const u = this.unitTemplate ? ` ${this.unitTemplate.formatUnits()}` : '';
     const show = (x: number) => (this.unitTemplate ? g((this.valueOf(x) as Unit).toNumber(this.unitTemplate.formatUnits())) : g(x));
+    const t = d.truncation;
+    const cut = t ? `, truncated to ${Number.isFinite(t.lo) ? show(t.lo) : '-inf'} to ${Number.isFinite(t.hi) ? show(t.hi) : 'inf'}${u}` : '';
+    return this.describeFamily(show, u) + cut;
+  }
+  private describeFamily(show: (x: number) => string, u: string): string {
+    const d = this.distribution;
     switch (d.family) {
       case 'normal':
         return `normal, mean ${show(d.params.mean)}${u}, sd ${show(d.params.sd)}${u}`;
@@ -73,7 +79,8 @@ export class DistributionObject implements SheetObject {
     }
   }
   toJSON(): unknown {
-    return { family: this.distribution.family, params: this.distribution.params, unitSI: this.unitTemplate ? siUnitOf(this.unitTemplate) : '' };
+    const t = this.distribution.truncation;
+    return { family: this.distribution.family, params: this.distribution.params, ...(t ? { truncation: { lo: t.lo, hi: t.hi } } : {}), unitSI: this.unitTemplate ? siUnitOf(this.unitTemplate) : '' };
   }
 }
 

@@ -4,6 +4,7 @@ import { evaluateCommand } from './evaluateCommand';
 import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
 import { plotCommand } from './plotCommand';
+import { mergeCommand } from './mergeCommand';
 
 export interface Command {
   /** One line for the command list. */
@@ -19,4 +20,5 @@ export const commands: Record<string, Command> = {
   scan: scanCommand,
   sample: sampleCommand,
   plot: plotCommand,
+  merge: mergeCommand,
 };

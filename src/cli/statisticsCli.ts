@@ -4,7 +4,8 @@ import type { CliIO } from './cliIO';
 import { parseOptions, UsageError, type ParsedOptions } from './optionParsing';
 import type { Sheet } from '../sheet/sheet';
 import { runJob, type AxisSpec, type JobResult, type JobSpec } from '../statistics/jobs';
-import { JobCancelledError, SheetJobError } from '../statistics/sheetValues';
+import { JobCancelledError, SheetJobError, type JobControl } from '../statistics/sheetValues';
+import type { ParallelOptions } from '../jobs/runChunks';
 
 /**
  * Options of a command that reads one sheet file, with the flags --help and --quiet and the given
@@ -83,14 +84,14 @@ export function jobControls(io: CliIO, quiet: boolean): { control: { onProgress?
 }
 
 /**
- * Runs a sheet job with progress and Ctrl-C (see jobControls). A job that refuses its input or is
+ * Runs `work` with progress and Ctrl-C (see jobControls). A job that refuses its input or is
  * cancelled is reported on standard error as `strainsheet <command>: ...` and gives null (the caller
  * then exits with EXIT_BAD_INPUT); any other error is thrown on.
  */
-export async function runJobForCommand(command: string, sheet: Sheet, spec: JobSpec, io: CliIO, quiet: boolean): Promise<JobResult | null> {
+export async function withJobControls<T>(command: string, io: CliIO, quiet: boolean, work: (control: JobControl) => Promise<T>): Promise<T | null> {
   const { control, done } = jobControls(io, quiet);
   try {
-    return await runJob(sheet, spec, control);
+    return await work(control);
   } catch (e) {
     if (e instanceof SheetJobError) {
       io.err(`strainsheet ${command}: ${e.message}\n`);
@@ -104,6 +105,11 @@ export async function runJobForCommand(command: string, sheet: Sheet, spec: JobS
   } finally {
     done();
   }
+}
+
+/** Runs a sheet job with progress and Ctrl-C; null when it was refused or cancelled (see withJobControls). */
+export function runJobForCommand(command: string, sheet: Sheet, spec: JobSpec, io: CliIO, quiet: boolean, parallel?: ParallelOptions): Promise<JobResult | null> {
+  return withJobControls(command, io, quiet, (control) => runJob(sheet, spec, control, parallel));
 }
 
 /** Formats a number for the summary lines (4 significant digits). */

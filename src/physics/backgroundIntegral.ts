@@ -8,17 +8,17 @@
 // upper limit log10M_cut(f, z) on the mass integral, applied as the integration limit, never as a step
 // in the integrand: the mass panels wholly below the cut keep their nodes (their values are computed
 // once per z node and shared by all frequencies), and the panel the cut falls in is laid anew on
-// [its lower edge, log10M_cut]. The z integrand keeps a kink where log10M_cut crosses log10MMax; its
+// [its lower edge, log10M_cut] (massPanels.ts). log10M_cut is a sum of logarithms (iscoCut.ts). The z integrand keeps a kink where log10M_cut crosses log10MMax; its
 // weight is that of the heaviest binaries, e^(-M/M*)-suppressed in the parametric populations, and the
 // convergence tests bound it.
 // Error: for smooth integrands composite Gauss-Legendre converges geometrically with order; the default
 // resolution gives A_yr to better than 1e-4 relative for the demo and test populations (see
 // test/physics/convergence.test.ts).
 //
-// Circular kernel fast path: with M_c^(5/3) = M^(5/3) eta, h_c^2 = 4 G^(5/3) / (3 pi^(1/3) c^2) f^(-4/3)
-// Int dz (1+z)^(-1/3) Int dlog10M M^(5/3) Int dq n eta (Phinney 2001), so the q integral is
-// done once per (z, M) node (once in all when the population declares itself separable in q), and
-// whole mass panels below the cut are computed once per z node and shared by all frequencies.
+// Circular kernel fast path (circularStrainForm.ts): with M_c^(5/3) = M^(5/3) eta, h_c^2 =
+// 4 G^(5/3) / (3 pi^(1/3) c^2) f^(-4/3) Int dz (1+z)^(-1/3) Int dlog10M M^(5/3) Int dq n eta
+// (Phinney 2001); a separable population (separablePopulation.ts) has each factor's node values
+// computed once per spectrum.
 //
 // Factored kernels (factoredKernel.ts: circular x shape(f_r / scale)) use the same strain form. With
 // one scale for all binaries the factor depends on (f, z) only and multiplies the cached mass sums;
@@ -26,8 +26,12 @@
 // once per mass and mass-ratio node, and only shape(f_r / scale) is evaluated per frequency.
 import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';
 import { symmetricMassRatio } from './binaryMasses';
-import { circularGwKernel, iscoTotalMassKg } from './circularKernel';
-import { compositeNodes, gaussLegendreRule, type QuadratureRule } from './gaussLegendre';
+import { circularGwKernel } from './circularKernel';
+import { compositeNodes, type QuadratureRule } from './gaussLegendre';
+import { circularStrainForm } from './circularStrainForm';
+import { MassPanels } from './massPanels';
+import { checkedValue, densityAt } from './densityChecks';
+import { cutOffsetLog10 } from './iscoCut';
 import { circularTimesShapeOf, type CircularTimesShape } from './factoredKernel';
 import type { BinaryPopulation, EmissionKernel } from './populationTypes';
 import type { Spectrum } from './spectrum';
@@ -84,22 +88,9 @@ function resolved(r?: Partial<IntegrationResolution>): IntegrationResolution {
   return out;
 }
 
-/** Density at one node, checked: a negative or non-finite density is an error naming the point. */
-function densityAt(pop: BinaryPopulation, z: number, x: number, q: number): number {
-  const n = pop.density(z, x, q);
-  if (!(n >= 0) || n === Infinity) throw new RangeError(`population density is ${n} at z = ${z}, log10M = ${x}, q = ${q}; it must be finite and >= 0`);
-  return n;
-}
-
-/** A factor of a separable density, checked like densityAt. */
-function checkedValue(v: number, what: string, ...at: number[]): number {
-  if (!(v >= 0) || v === Infinity) throw new RangeError(`population ${what} is ${v} at (${at.join(', ')}); it must be finite and >= 0`);
-  return v;
-}
-
 /** log10 of the largest total mass (Msun) still emitting at rest-frame frequency frHz. */
 function log10CutMass(frHz: number, cutFactor: number): number {
-  return cutFactor === Infinity ? Infinity : Math.log10(iscoTotalMassKg(frHz / cutFactor)) - LOG10_MSUN;
+  return cutOffsetLog10(cutFactor) - Math.log10(frHz);
 }
 
 /** h_c^2 at each frequency (observed GW frequency, Hz). */
@@ -125,109 +116,6 @@ export function backgroundSpectrum(pop: BinaryPopulation, freqsHz: ArrayLike<num
   const hc = new Float64Array(hc2.length);
   for (let i = 0; i < hc2.length; i++) hc[i] = Math.sqrt(hc2[i]);
   return { frequencyHz: Float64Array.from(freqsHz), hc };
-}
-
-/**
- * The mass nodes of one z node, cut at xCut: the panels of the uncut rule that lie wholly below xCut
- * (their nodes are shared by every frequency, so values on them are cached), and one panel
- * [edge, xCut] laid anew for the panel that xCut falls in.
- */
-class MassPanels {
-  readonly base: QuadratureRule;
-  readonly width: number;
-  constructor(
-    readonly lo: number,
-    readonly hi: number,
-    readonly panels: number,
-    readonly order: number,
-  ) {
-    this.base = compositeNodes(lo, hi, panels, order);
-    this.width = (hi - lo) / panels;
-    this.unit = gaussLegendreRule(order);
-    this.scratch = { nodes: new Float64Array(order), weights: new Float64Array(order) };
-  }
-  /** Number of whole base panels below xCut. */
-  wholePanels(xCut: number): number {
-    if (xCut >= this.hi) return this.panels;
-    return Math.min(this.panels, Math.max(0, Math.floor((xCut - this.lo) / this.width)));
-  }
-  /**
-   * The partial panel from the last whole panel's edge up to xCut (empty if none). The rule returned
-   * is scratch space, overwritten by the next call.
-   */
-  partialPanel(xCut: number): QuadratureRule {
-    const p = this.wholePanels(xCut);
-    const a = this.lo + p * this.width;
-    const b = Math.min(xCut, this.hi);
-    if (p === this.panels || !(b > a)) return EMPTY_RULE;
-    const mid = 0.5 * (a + b);
-    const half = 0.5 * (b - a);
-    for (let i = 0; i < this.order; i++) {
-      this.scratch.nodes[i] = mid + half * this.unit.nodes[i];
-      this.scratch.weights[i] = half * this.unit.weights[i];
-    }
-    return this.scratch;
-  }
-  private readonly unit: QuadratureRule;
-  private readonly scratch: QuadratureRule;
-}
-
-const EMPTY_RULE: QuadratureRule = { nodes: new Float64Array(0), weights: new Float64Array(0) };
-
-/**
- * Strain form with the q integral folded into Q(z, M) = Int dq n eta: the circular kernel, or the
- * circular kernel times shape(f_r / scaleHz) with one scale for all binaries.
- */
-function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, cutFactor: number, res: IntegrationResolution, shape?: (ratio: number) => number, scaleHz = 1): Float64Array {
-  const zr = compositeNodes(pop.zMin, pop.zMax, res.zPanels, res.order);
-  const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
-  const etaW = new Float64Array(qr.nodes.length);
-  for (let j = 0; j < etaW.length; j++) etaW[j] = qr.weights[j] * symmetricMassRatio(qr.nodes[j]);
-  const mp = new MassPanels(pop.log10MMin, pop.log10MMax, res.log10MPanels, res.order);
-  // Per z node: cumulative sums over whole mass panels of w M^(5/3) Int dq n eta (M in kg).
-  const panelSums: (Float64Array | undefined)[] = new Array(zr.nodes.length);
-
-  // A separable density has its q integral Int dq p(q) eta done once here.
-  const sep = pop.separable;
-  let etaPdf = 0;
-  if (sep) for (let j = 0; j < etaW.length; j++) etaPdf += etaW[j] * checkedValue(sep.massRatio(qr.nodes[j]), 'mass-ratio factor', qr.nodes[j]);
-  const massIntegral = (z: number, mr: QuadratureRule, from: number, to: number): number => {
-    let s = 0;
-    for (let i = from; i < to; i++) {
-      const x = mr.nodes[i];
-      let inner = 0;
-      if (sep) inner = etaPdf * checkedValue(sep.zMass(z, x), 'density', z, x);
-      else for (let j = 0; j < etaW.length; j++) inner += etaW[j] * densityAt(pop, z, x, qr.nodes[j]);
-      s += mr.weights[i] * inner * Math.pow(10, (5 / 3) * (x + LOG10_MSUN));
-    }
-    return s;
-  };
-  const cumulativeSums = (z: number): Float64Array => {
-    const c = new Float64Array(mp.panels + 1);
-    for (let p = 0; p < mp.panels; p++) c[p + 1] = c[p] + massIntegral(z, mp.base, p * mp.order, (p + 1) * mp.order);
-    return c;
-  };
-
-  const out = new Float64Array(freqsHz.length);
-  for (let k = 0; k < freqsHz.length; k++) {
-    const f = freqsHz[k];
-    let total = 0;
-    for (let iz = 0; iz < zr.nodes.length; iz++) {
-      const z = zr.nodes[iz];
-      const xCut = log10CutMass((1 + z) * f, cutFactor);
-      if (xCut <= pop.log10MMin) continue;
-      const factor = shape ? shape(((1 + z) * f) / scaleHz) : 1;
-      if (factor === 0) continue;
-      const sums = (panelSums[iz] ??= cumulativeSums(z));
-      let m = sums[mp.wholePanels(xCut)];
-      const part = mp.partialPanel(xCut);
-      if (part.nodes.length > 0) m += massIntegral(z, part, 0, part.nodes.length);
-      total += zr.weights[iz] * Math.pow(1 + z, -1 / 3) * m * factor;
-    }
-    out[k] = STRAIN_FORM * Math.pow(f, -4 / 3) * total * PER_MPC3;
-    if (!Number.isFinite(out[k])) throw new RangeError(`h_c^2 is not finite at f = ${f} Hz${shape ? ' (the emission factor returned a non-finite value?)' : ''}`);
-  }
-  return out;
 }
 
 /**

@@ -13,16 +13,18 @@ export interface BlackHoleBulgeRelation {
 }
 
 /**
- * McConnell & Ma 2013 (ApJ 764, 184), M_BH-M_bulge fit: a = 8.46, b = 1.05 (as in PHYSICS.md);
- * intrinsic scatter 0.34 dex (memory: not verified against the paper).
+ * McConnell & Ma 2013 (ApJ 764, 184), M_BH-M_bulge fit: a = 8.46, b = 1.05 (the full-sample fit
+ * of their abstract); intrinsic scatter 0.34 dex (unverified: the scatter is in the paper's table of fits,
+ * which could not be checked here).
  */
-export const MCCONNELL_MA_2013: BlackHoleBulgeRelation = Object.freeze({ a: 8.46, b: 1.05, scatterDex: 0.34, source: 'McConnell & Ma 2013, ApJ 764, 184 (scatter from memory)' });
+export const MCCONNELL_MA_2013: BlackHoleBulgeRelation = Object.freeze({ a: 8.46, b: 1.05, scatterDex: 0.34, source: 'McConnell & Ma 2013, ApJ 764, 184 (scatter unverified)' });
 
 /**
  * Kormendy & Ho 2013 (ARA&A 51, 511): M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.16, so
- * a = 9 + log10 0.49 = 8.690 and b = 1.16 (as in PHYSICS.md); intrinsic scatter 0.29 dex (PHYSICS.md, memory).
+ * a = 9 + log10 0.49 = 8.690 and b = 1.16; intrinsic scatter 0.29 dex (unverified: coefficients and
+ * scatter as commonly quoted from the paper's M_BH-M_bulge fit; its text could not be checked here).
  */
-export const KORMENDY_HO_2013: BlackHoleBulgeRelation = Object.freeze({ a: 9 + Math.log10(0.49), b: 1.16, scatterDex: 0.29, source: 'Kormendy & Ho 2013, ARA&A 51, 511 (scatter from memory)' });
+export const KORMENDY_HO_2013: BlackHoleBulgeRelation = Object.freeze({ a: 9 + Math.log10(0.49), b: 1.16, scatterDex: 0.29, source: 'Kormendy & Ho 2013, ARA&A 51, 511 (scatter unverified)' });
 
 /** Median log10 M_BH for a bulge of the given stellar mass. */
 export function medianLog10BlackHoleMass(r: BlackHoleBulgeRelation, bulgeMass: number): number {

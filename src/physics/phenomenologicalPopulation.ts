@@ -8,6 +8,7 @@ import { GYR_S } from './constants';
 import type { FlatLambdaCdm } from './cosmology';
 import type { BinaryPopulation } from './populationTypes';
 import { redshiftShape, type MassRatioDistribution } from './populationShapes';
+import { separablePopulation } from './separablePopulation';
 
 export interface PhenomenologicalParams {
   /** ndot0: merger-rate normalisation, Mpc^-3 Gyr^-1 per unit z-shape, per dex of M, per unit p(q). */
@@ -35,32 +36,15 @@ export function phenomenologicalPopulation(p: PhenomenologicalParams): BinaryPop
   const zWeight = p.redshiftWeight ?? ((z: number) => redshiftShape(z, p.beta, p.z0));
   const cosmo = p.cosmology;
   const log10Pivot = Math.log10(PIVOT_MASS_MSUN);
-  // The integrators vary q fastest and z slowest, so the z and mass factors are kept from the last call.
-  let lastZ = NaN;
-  let zFactor = 0;
-  let lastX = NaN;
-  let massFactor = 0;
-  const zMass = (z: number, log10M: number): number => {
-    if (z !== lastZ) {
+  const slope = -p.alpha * Math.LN10;
+  return separablePopulation(
+    { zMin: 0, zMax: p.zMax, log10MMin: p.log10MMin, log10MMax: p.log10MMax, qMin: p.massRatio.qMin, qMax: 1 },
+    {
       // a rate per rest-frame time becomes n per unit z through |dt_r/dz| (Phinney 2001)
-      zFactor = p.rateNorm * zWeight(z) * (cosmo.dtdzS(z) / GYR_S);
-      lastZ = z;
-    }
-    if (log10M !== lastX) {
-      massFactor = Math.pow(10, -p.alpha * (log10M - log10Pivot)) * Math.exp(-Math.pow(10, log10M) / p.cutoffMass);
-      lastX = log10M;
-    }
-    return zFactor * massFactor;
-  };
-  const massRatio = (q: number) => p.massRatio.pdf(q);
-  return {
-    zMin: 0,
-    zMax: p.zMax,
-    log10MMin: p.log10MMin,
-    log10MMax: p.log10MMax,
-    qMin: p.massRatio.qMin,
-    qMax: 1,
-    density: (z, log10M, q) => zMass(z, log10M) * massRatio(q),
-    separable: { zMass, massRatio },
-  };
+      redshift: (z) => p.rateNorm * zWeight(z) * (cosmo.dtdzS(z) / GYR_S),
+      // ln[(M/M_pivot)^(-alpha) e^(-M/M*)], with M = 10^log10M = e^(ln10 log10M)
+      lnMass: (x) => slope * (x - log10Pivot) - Math.exp(Math.LN10 * x) / p.cutoffMass,
+      massRatio: (q) => p.massRatio.pdf(q),
+    },
+  );
 }

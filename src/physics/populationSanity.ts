@@ -8,7 +8,7 @@ import { compositeNodes } from './gaussLegendre';
 import { checkPopulation } from './backgroundIntegral';
 import type { BinaryPopulation } from './populationTypes';
 
-/** The local black-hole mass density range quoted by Marconi et al. 2004 and Shankar et al. 2009, Msun Mpc^-3 (the range as PHYSICS.md quotes it; journal references from memory). */
+/** The local black-hole mass density range quoted by Marconi et al. 2004 and Shankar et al. 2009, Msun Mpc^-3 (Marconi et al. 2004, MNRAS 351, 169; Shankar, Weinberg & Miralda-Escude 2009, ApJ 690, 20; the range spans both estimates, journal references unverified). */
 export const LOCAL_BLACK_HOLE_MASS_DENSITY_RANGE: readonly [number, number] = [3e5, 6e5];
 
 /** 4 panels of 8 Gauss-Legendre points in each of z, log10M and q (32^3 density evaluations). */

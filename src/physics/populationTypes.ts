@@ -20,7 +20,22 @@ export interface BinaryPopulation {
    * density(z, log10M, q) = zMass(z, log10M) * massRatio(q) may give its factors here, so that the q
    * integral is done once. The factors must multiply to `density` exactly.
    */
-  separable?: { zMass(z: number, log10M: number): number; massRatio(q: number): number };
+  separable?: SeparableFactors;
+}
+
+/**
+ * Factors of a separable density (see separablePopulation.ts, which builds a consistent population
+ * from them). zMass and massRatio are always given; a density that also factorises in z and M,
+ * zMass(z, log10M) = redshift(z) * exp(lnMass(log10M)), gives those two as well, and the circular
+ * spectrum then computes each factor's node values once per spectrum and one exp per mass node.
+ */
+export interface SeparableFactors {
+  zMass(z: number, log10M: number): number;
+  massRatio(q: number): number;
+  /** z factor, Mpc^-3 per unit z (finite, >= 0). */
+  redshift?: (z: number) => number;
+  /** Natural log of the mass factor per dex (finite, or -Infinity where the factor is 0). */
+  lnMass?: (log10M: number) => number;
 }
 
 /**

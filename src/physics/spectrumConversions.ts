@@ -12,9 +12,17 @@ export function residualPowerSpectralDensity(fHz: number, hc: number): number {
   return (hc * hc) / (12 * Math.PI * Math.PI * fHz * fHz * fHz);
 }
 
-/** Timing residual of order h_c / (2 pi f), s (common practice, no source). */
+/** Timing residual of order h_c / (2 pi f), s: an order-of-magnitude scale (common practice, no source). */
 export function equivalentResidual(fHz: number, hc: number): number {
   return hc / (2 * Math.PI * fHz);
+}
+
+/**
+ * rms timing residual in a band of width deltaF around f, sqrt(P(f) deltaF), s (follows from the
+ * one-sided PSD above). At deltaF = f it is h_c / (2 sqrt(3) pi f): sqrt(3) below equivalentResidual.
+ */
+export function rmsResidualInBand(fHz: number, hc: number, bandwidthHz: number): number {
+  return Math.sqrt(residualPowerSpectralDensity(fHz, hc) * bandwidthHz);
 }
 
 /** gamma = 3 - 2 alpha: slope of P(f) proportional to f^(-gamma) for h_c proportional to f^alpha (follows from P = h_c^2/(12 pi^2 f^3)). */

@@ -258,13 +258,15 @@ export class Sheet {
       if (formula === undefined) throw new SheetEditError(`cannot rename ${oldName} safely in the formula of ${reader}`);
       rewrites.set(reader, { ...rec.spec, formula });
     }
-    // Uncertainty formulas (read by the statistics code) follow the rename too.
+    // Uncertainty and prior formulas (read by the statistics code) follow the rename too.
     for (const [name, rec] of this.records) {
-      const u = rec.spec.uncertainty;
-      if (u && identifierTokens(u).some((t) => t.name === oldName)) {
-        const renamed = renameInFormula(u, oldName, newName);
-        if (renamed === undefined) throw new SheetEditError(`cannot rename ${oldName} safely in the uncertainty of ${name}`);
-        rewrites.set(name, { ...(rewrites.get(name) ?? rec.spec), uncertainty: renamed });
+      for (const key of ['uncertainty', 'prior'] as const) {
+        const u = rec.spec[key];
+        if (u && identifierTokens(u).some((t) => t.name === oldName)) {
+          const renamed = renameInFormula(u, oldName, newName);
+          if (renamed === undefined) throw new SheetEditError(`cannot rename ${oldName} safely in the ${key} of ${name}`);
+          rewrites.set(name, { ...(rewrites.get(name) ?? rec.spec), [key]: renamed });
+        }
       }
     }
     // Apply: move the record, then the rewritten formulas.
@@ -353,7 +355,7 @@ export class Sheet {
     if (typeof spec.formula !== 'string') {
       throw new SheetEditError(`the formula of cell ${String(spec.name)} must be text`);
     }
-    for (const key of ['unit', 'note', 'source', 'section', 'uncertainty'] as const) {
+    for (const key of ['unit', 'note', 'source', 'section', 'uncertainty', 'prior'] as const) {
       const v = spec[key];
       if (v !== undefined && typeof v !== 'string') throw new SheetEditError(`the ${key} of cell ${String(spec.name)} must be text`);
     }

@@ -1,6 +1,8 @@
 // The sheet file format (our own, JSON):
 //   { "format": "strainsheet", "version": 1, "title": "...", "notes": "...",
-//     "cells": [ { "name", "formula", "unit"?, "note"?, "source"?, "section"?, "uncertainty"? } ] }
+//     "cells": [ { "name", "formula", "unit"?, "note"?, "source"?, "section"?, "uncertainty"?, "prior"? } ] }
+// Version 2 added "prior"; a file is written as version 1 when no cell has a prior, so files
+// without priors stay readable by older versions and keep their bytes.
 // Keys are written in that order, empty optional cell fields are left out, 2-space indent and a
 // trailing newline, so saving what was loaded gives the same bytes. Loading validates everything
 // and refuses a bad file with a message that names the problem.
@@ -9,7 +11,9 @@ import type { CellSpec } from './types';
 import { migrateToCurrent } from './sheetMigrations';
 
 export const FILE_FORMAT = 'strainsheet';
-export const FILE_VERSION = 1;
+export const FILE_VERSION = 2;
+/** The version written for a sheet that uses no version-2 field. */
+export const FILE_VERSION_WITHOUT_PRIORS = 1;
 /** Largest file accepted, in bytes of UTF-8. */
 export const MAX_FILE_BYTES = 5 * 1024 * 1024;
 /** Most cells a file may hold. */
@@ -17,7 +21,7 @@ export const MAX_FILE_CELLS = 20_000;
 
 export interface SheetFile {
   format: typeof FILE_FORMAT;
-  version: typeof FILE_VERSION;
+  version: number;
   title: string;
   notes: string;
   cells: CellSpec[];
@@ -31,7 +35,7 @@ export class SheetFileError extends Error {
   }
 }
 
-const CELL_KEYS = ['name', 'formula', 'unit', 'note', 'source', 'section', 'uncertainty'] as const;
+const CELL_KEYS = ['name', 'formula', 'unit', 'note', 'source', 'section', 'uncertainty', 'prior'] as const;
 const HOSTILE_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
 
 const cellSchema = z.strictObject({
@@ -42,6 +46,7 @@ const cellSchema = z.strictObject({
   source: z.string().optional(),
   section: z.string().max(200).optional(),
   uncertainty: z.string().optional(),
+  prior: z.string().optional(),
 });
 
 const fileSchema = z.strictObject({
@@ -64,12 +69,13 @@ export function canonicalCell(spec: CellSpec): CellSpec {
 
 /** The canonical text of a sheet file. */
 export function serializeSheetFile(file: SheetFile): string {
+  const cells = file.cells.map(canonicalCell);
   const canonical = {
     format: FILE_FORMAT,
-    version: FILE_VERSION,
+    version: cells.some((c) => c.prior !== undefined) ? FILE_VERSION : FILE_VERSION_WITHOUT_PRIORS,
     title: file.title ?? '',
     notes: file.notes ?? '',
-    cells: file.cells.map(canonicalCell),
+    cells,
   };
   return JSON.stringify(canonical, null, 2) + '\n';
 }

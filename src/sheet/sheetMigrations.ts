@@ -23,8 +23,11 @@ export const migrate0to1: Migration = (data) => {
   return out;
 };
 
+/** Version 1 -> 2: cells may carry a "prior"; nothing in a version-1 file changes. */
+export const migrate1to2: Migration = (data) => ({ ...data, version: 2 });
+
 /** Migrations by the version they start from. */
-export const MIGRATIONS: ReadonlyArray<Migration> = [migrate0to1];
+export const MIGRATIONS: ReadonlyArray<Migration> = [migrate0to1, migrate1to2];
 
 /** Applies the migrations from `version` up to the current version. */
 export function migrateToCurrent(data: Record<string, unknown>, version: number): Record<string, unknown> {

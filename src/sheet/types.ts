@@ -19,6 +19,11 @@ export interface CellSpec {
    * e.g. `lognormalDist(1e-3, 0.3)`. The formula above stays the nominal value.
    */
   uncertainty?: string;
+  /**
+   * Optional prior for inference, as a formula giving a distribution (like `uncertainty`). A cell
+   * with a prior is a free parameter of `infer`. The engine stores the text and never reads it.
+   */
+  prior?: string;
 }
 
 /** Status of a cell as observers see it. */

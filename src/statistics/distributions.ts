@@ -10,6 +10,10 @@ export interface UncertainDistribution {
   /** Parameters in SI (lognormal: median and sigmaDex; normal: mean and sd; uniform: lo and hi). */
   params: Record<string, number>;
   median: number;
+  /** Where the density is positive: [lo, hi] (infinite ends allowed). */
+  support: readonly [number, number];
+  /** Bounds of a truncated form (truncatedDistribution), absent otherwise. */
+  truncation?: { lo: number; hi: number };
   cdf(x: number): number;
   quantile(p: number): number;
   density(x: number): number;
@@ -39,6 +43,7 @@ export function normalDistribution(mean: number, sd: number): UncertainDistribut
     family: 'normal',
     params: { mean, sd },
     median: mean,
+    support: [-Infinity, Infinity],
     cdf: (x) => normalCdf((x - mean) / sd),
     quantile: (p) => mean + sd * normalQuantile(p),
     density: (x) => normalDensity((x - mean) / sd) / sd,
@@ -60,6 +65,7 @@ export function lognormalDistribution(median: number, sigmaDex: number): Uncerta
     family: 'lognormal',
     params: { median, sigmaDex },
     median,
+    support: [0, Infinity],
     cdf: (x) => (x <= 0 ? 0 : normalCdf((Math.log10(x) - mu) / sigmaDex)),
     quantile: (p) => Math.pow(10, mu + sigmaDex * normalQuantile(p)),
     density: (x) => (x <= 0 ? 0 : normalDensity((Math.log10(x) - mu) / sigmaDex) / (sigmaDex * x * Math.LN10)),
@@ -77,6 +83,7 @@ export function uniformDistribution(lo: number, hi: number): UncertainDistributi
     family: 'uniform',
     params: { lo, hi },
     median: lo + w / 2,
+    support: [lo, hi],
     cdf: (x) => (x <= lo ? 0 : x >= hi ? 1 : (x - lo) / w),
     quantile: (p) => lo + p * w,
     density: (x) => (x < lo || x > hi ? 0 : 1 / w),
@@ -96,9 +103,41 @@ export function loguniformDistribution(lo: number, hi: number): UncertainDistrib
     family: 'loguniform',
     params: { lo, hi },
     median: Math.exp(a + w / 2),
+    support: [lo, hi],
     cdf: (x) => (x <= lo ? 0 : x >= hi ? 1 : (Math.log(x) - a) / w),
     quantile: (p) => Math.exp(a + p * w),
     density: (x) => (x < lo || x > hi ? 0 : 1 / (x * w)),
     sample: (rng) => Math.exp(a + rng.uniform() * w),
+  };
+}
+
+/**
+ * The distribution restricted to [lo, hi] and renormalised: density f(x)/(F(hi) - F(lo)) inside,
+ * sampled by inversion, F^-1(F(lo) + u (F(hi) - F(lo))) (e.g. Devroye 1986, Non-Uniform Random
+ * Variate Generation, sec. 2.1). Infinite ends are allowed. Far in a tail (F(hi) - F(lo) below
+ * about 1e-12) inversion loses precision, so such a truncation is refused.
+ */
+export function truncatedDistribution(d: UncertainDistribution, lo: number, hi: number): UncertainDistribution {
+  if (Number.isNaN(lo) || Number.isNaN(hi)) throw new DistributionError('lo', 'the truncation bounds must be numbers');
+  if (!(lo < hi)) throw new DistributionError('hi', `hi must be greater than lo, got lo = ${lo}, hi = ${hi}`);
+  const a = Math.max(lo, d.support[0]);
+  const b = Math.min(hi, d.support[1]);
+  const fa = a === -Infinity ? 0 : d.cdf(a);
+  const fb = b === Infinity ? 1 : d.cdf(b);
+  const mass = fb - fa;
+  if (!(a < b) || !(mass > 1e-12)) {
+    throw new DistributionError('lo', `the interval [${lo}, ${hi}] holds no probability of the distribution (its support is [${d.support[0]}, ${d.support[1]}])`);
+  }
+  const quantile = (p: number) => Math.min(b, Math.max(a, d.quantile(fa + p * mass)));
+  return {
+    family: d.family,
+    params: d.params,
+    median: quantile(0.5),
+    support: [a, b],
+    truncation: { lo: a, hi: b },
+    cdf: (x) => (x <= a ? 0 : x >= b ? 1 : (d.cdf(x) - fa) / mass),
+    quantile,
+    density: (x) => (x < a || x > b ? 0 : d.density(x) / mass),
+    sample: (rng) => quantile(rng.uniform()),
   };
 }

@@ -11,8 +11,13 @@ import type { Sheet } from '../sheet/sheet';
 import { isSheetObject } from '../sheet/sheetObject';
 import type { AmplitudeMeasurement } from './measurement';
 import type { AxisPrior } from './credibleRegion';
-import { scan1D, scan2D, type Scan1DResult, type Scan2DResult, type ScanAxis } from './sheetScan';
-import { monteCarlo, type MonteCarloResult } from './sheetMonteCarlo';
+import type { Scan1DResult, Scan2DResult, ScanAxis } from './sheetScan';
+import type { MonteCarloResult } from './sheetMonteCarlo';
+import { scan1dJob } from './scan1dJob';
+import { scan2dJob } from './scan2dJob';
+import { monteCarloJob } from './monteCarloJob';
+import type { AnyChunkedJob } from '../jobs/chunkedJob';
+import { runChunkedJob, type ParallelOptions } from '../jobs/runChunks';
 import { goalSeek, type GoalSeekResult } from './goalSeek';
 import { solveRateForMeasurement, type RateSolveResult } from './rateSolve';
 import { SheetJobError, nominalInput, siNumber, type JobControl } from './sheetValues';
@@ -95,26 +100,49 @@ function axis(sheet: Sheet, a: AxisSpec): ScanAxis {
   };
 }
 
-export async function runJob(sheet: Sheet, spec: JobSpec, control?: JobControl): Promise<JobResult> {
+/** A scan or sample spec as a chunked job (src/jobs/chunkedJob.ts) with its options, and how to wrap its result. */
+export interface PlannedJobSpec {
+  job: AnyChunkedJob;
+  options: unknown;
+  wrap(result: unknown): JobResult;
+}
+
+/** The chunked job behind a 'scan' or 'sample' spec (null for the other kinds, which are not split). */
+export function chunkedJobFor(sheet: Sheet, spec: JobSpec): PlannedJobSpec | null {
   switch (spec.kind) {
     case 'scan': {
-      const m = spec.measurementCell ? measurementOfCell(sheet, spec.measurementCell) : undefined;
+      const measurement = spec.measurementCell ? measurementOfCell(sheet, spec.measurementCell) : undefined;
       if (spec.vary.length === 1) {
-        return { kind: 'scan1d', result: await scan1D(sheet, axis(sheet, spec.vary[0]), spec.outputs, { measurement: m }, control) };
+        return { job: scan1dJob, options: { axis: axis(sheet, spec.vary[0]), outputs: spec.outputs, measurement }, wrap: (r) => ({ kind: 'scan1d', result: r as Scan1DResult }) };
       }
       if (spec.vary.length === 2) {
         if (spec.outputs.length !== 1) throw new SheetJobError('a two-input scan maps one output; name exactly one');
         return {
-          kind: 'scan2d',
-          result: await scan2D(sheet, axis(sheet, spec.vary[0]), axis(sheet, spec.vary[1]), spec.outputs[0], { measurement: m, levels: spec.levels }, control),
+          job: scan2dJob,
+          options: { x: axis(sheet, spec.vary[0]), y: axis(sheet, spec.vary[1]), output: spec.outputs[0], measurement, levels: spec.levels },
+          wrap: (r) => ({ kind: 'scan2d', result: r as Scan2DResult }),
         };
       }
       throw new SheetJobError(`a scan varies one or two inputs, got ${spec.vary.length}`);
     }
     case 'sample': {
-      const m = spec.measurementCell ? measurementOfCell(sheet, spec.measurementCell) : undefined;
-      return { kind: 'sample', result: await monteCarlo(sheet, { samples: spec.samples, seed: spec.seed, outputs: spec.outputs, measurement: m }, control) };
+      const measurement = spec.measurementCell ? measurementOfCell(sheet, spec.measurementCell) : undefined;
+      return {
+        job: monteCarloJob,
+        options: { samples: spec.samples, seed: spec.seed, outputs: spec.outputs, measurement },
+        wrap: (r) => ({ kind: 'sample', result: r as MonteCarloResult }),
+      };
     }
+    default:
+      return null;
+  }
+}
+
+/** Runs a job; scans and samples run their chunks in this thread or on workers (`parallel`). */
+export async function runJob(sheet: Sheet, spec: JobSpec, control?: JobControl, parallel?: ParallelOptions): Promise<JobResult> {
+  const chunked = chunkedJobFor(sheet, spec);
+  if (chunked) return chunked.wrap(await runChunkedJob(chunked.job, sheet, chunked.options, control, parallel));
+  switch (spec.kind) {
     case 'goalSeek': {
       const targetState = boundSI(sheet, spec.output, spec.target, 'the target');
       // Plain data only (a worker posts it): the mathjs cellValue stays behind.

@@ -32,18 +32,26 @@ function rotl(x: number, k: number): number {
   return ((x << k) | (x >>> (32 - k))) >>> 0;
 }
 
-/** A xoshiro128** generator seeded with a non-negative integer (any safe integer). */
-export function seededRandom(seed: number): RandomSource {
+/** The 128-bit starting state for a seed: two SplitMix64 outputs give the four 32-bit words (low word first). */
+export function seedState(seed: number): [number, number, number, number] {
   if (!Number.isSafeInteger(seed) || seed < 0) {
     throw new RangeError(`seed must be a non-negative whole number, got ${seed}`);
   }
-  // Two SplitMix64 outputs give the four 32-bit state words (low word first).
   const [w0, w1] = splitMix64(BigInt(seed), 2);
-  let s0 = Number(w0 & 0xffffffffn) >>> 0;
-  let s1 = Number(w0 >> 32n) >>> 0;
-  let s2 = Number(w1 & 0xffffffffn) >>> 0;
-  let s3 = Number(w1 >> 32n) >>> 0;
-  if ((s0 | s1 | s2 | s3) === 0) s0 = 1; // the all-zero state is forbidden (cannot happen from SplitMix64 in practice)
+  const s: [number, number, number, number] = [Number(w0 & 0xffffffffn) >>> 0, Number(w0 >> 32n) >>> 0, Number(w1 & 0xffffffffn) >>> 0, Number(w1 >> 32n) >>> 0];
+  if ((s[0] | s[1] | s[2] | s[3]) === 0) s[0] = 1; // the all-zero state is forbidden (cannot happen from SplitMix64 in practice)
+  return s;
+}
+
+/** A xoshiro128** generator seeded with a non-negative integer (any safe integer). */
+export function seededRandom(seed: number): RandomSource {
+  return xoshiroFromState(seedState(seed));
+}
+
+/** A xoshiro128** generator starting from the given state (four 32-bit words, not all zero). */
+export function xoshiroFromState(state: readonly number[]): RandomSource {
+  let [s0, s1, s2, s3] = state.map((w) => w >>> 0);
+  if ((s0 | s1 | s2 | s3) === 0) throw new RangeError('the all-zero state is not a valid xoshiro128** state');
 
   function nextUint32(): number {
     const result = Math.imul(rotl(Math.imul(s1, 5) >>> 0, 7), 9) >>> 0;

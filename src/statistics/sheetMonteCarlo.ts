@@ -1,18 +1,19 @@
 // Monte Carlo propagation through the sheet: every cell with an `uncertainty` formula (giving a
-// distribution) is drawn from it with a seeded generator (prng.ts) and the outputs are evaluated
-// with Sheet.evaluateWith, which leaves the sheet as it was.
+// distribution) is drawn from it with seeded generators (prng.ts, one stream per chunk of samples:
+// prngStreams.ts) and the outputs are evaluated with Sheet.evaluateWith, which leaves the sheet as
+// it was. The sampling loop itself is monteCarloJob.ts.
 import type { Sheet } from '../sheet/sheet';
 import { isSheetObject } from '../sheet/sheetObject';
 import { isUnit } from '../sheet/mathInstance';
 import type { Unit } from 'mathjs';
 import { seededRandom, type RandomSource } from './prng';
-import { fractionInside, summariseSamples, type SampleSummary } from './sampleSummary';
-import { relativeLikelihood, type AmplitudeMeasurement } from './measurement';
-import { measuredBand, requireNumericOutput, type MeasuredBand } from './sheetScan';
-import { F_YR_HZ } from '../physics/constants';
-import { atReferenceFrequency } from './measurement';
+import type { SampleSummary } from './sampleSummary';
+import type { AmplitudeMeasurement } from './measurement';
+import type { MeasuredBand } from './sheetScan';
 import { checkSqrtProportional } from './proportionality';
-import { SheetJobError, checkCancelled, numericOrNaN, siNumber, unitTextOf, yieldToEventLoop, type JobControl } from './sheetValues';
+import { SheetJobError, siNumber, type JobControl } from './sheetValues';
+import { runChunkedJob, type ParallelOptions } from '../jobs/runChunks';
+import { monteCarloJob } from './monteCarloJob';
 
 /** What the Monte Carlo needs of a distribution value (the 'distribution' SheetObject of the built-ins). */
 export interface SampleableDistribution {
@@ -114,7 +115,7 @@ export interface MonteCarloResult {
  * two draws of the other uncertain inputs (their own fixed seed, so the run's stream is unchanged).
  * Samples of such an input only need the factor sqrt(x/x0): A_yr and the normalisation, Phinney 2001.
  */
-function sqrtFactorInputs(sheet: Sheet, names: string[], dists: Map<string, SampleableDistribution>, outputs: string[]): string[] {
+export function sqrtFactorInputs(sheet: Sheet, names: string[], dists: Map<string, SampleableDistribution>, outputs: string[]): string[] {
   const found: string[] = [];
   const probeRng = seededRandom(0x5eed);
   const otherDraws = [0, 1].map(() => Object.fromEntries(names.map((n) => [n, dists.get(n)!.sample(probeRng)])));
@@ -137,99 +138,7 @@ function sqrtFactorInputs(sheet: Sheet, names: string[], dists: Map<string, Samp
   return found;
 }
 
-export async function monteCarlo(sheet: Sheet, opts: MonteCarloOptions, control?: JobControl): Promise<MonteCarloResult> {
-  const { samples, seed, outputs } = opts;
-  if (!Number.isInteger(samples) || samples < 1) throw new SheetJobError(`Monte Carlo: the number of samples must be a positive whole number, got ${samples}`);
-  if (samples > MAX_SAMPLES) throw new SheetJobError(`Monte Carlo: at most ${MAX_SAMPLES} samples, got ${samples}`);
-  if (!Number.isSafeInteger(seed) || seed < 0) throw new SheetJobError(`Monte Carlo: the seed must be a non-negative whole number, got ${seed}`);
-  if (outputs.length === 0) throw new SheetJobError('Monte Carlo: name at least one output cell');
-  for (const o of outputs) requireNumericOutput(sheet, o, 'Monte Carlo');
-  const dists = uncertainCells(sheet);
-  if (dists.size === 0) throw new SheetJobError('Monte Carlo: no cell has an uncertainty; give at least one input an uncertainty formula such as lognormalDist(...)');
-  for (const o of outputs) if (dists.has(o)) throw new SheetJobError(`Monte Carlo: ${o} is an uncertain input itself, not an output`);
-
-  const names = [...dists.keys()];
-  const scaled = opts.evaluateEverySample ? [] : sqrtFactorInputs(sheet, names, dists, outputs);
-  const direct = names.filter((n) => !scaled.includes(n));
-  const nominalSI = new Map(scaled.map((n) => [n, siNumber(sheet.value(n))!]));
-  const base = direct.length === 0 ? sheet.evaluateWith({}, outputs) : null;
-  const rng = seededRandom(seed);
-  let evaluations = base ? 1 : 0;
-  const keep = opts.keepInputs ?? true;
-  const inputDraws: Record<string, Float64Array> = {};
-  if (keep) for (const n of names) inputDraws[n] = new Float64Array(samples);
-  const res: Record<string, Float64Array> = {};
-  for (const o of outputs) res[o] = new Float64Array(samples);
-  let failures = 0;
-  let firstError: string | undefined;
-  let last = Date.now();
-  const overrides: Record<string, unknown> = {};
-  for (let s = 0; s < samples; s++) {
-    let factor = 1;
-    for (const n of names) {
-      const v = dists.get(n)!.sample(rng);
-      const x = siNumber(v) ?? NaN;
-      if (nominalSI.has(n)) factor *= Math.sqrt(x / nominalSI.get(n)!);
-      else overrides[n] = v;
-      if (keep) inputDraws[n][s] = x;
-    }
-    let r = base;
-    if (!r) {
-      r = sheet.evaluateWith(overrides, outputs);
-      evaluations++;
-    }
-    let failed = false;
-    for (const o of outputs) {
-      const v = numericOrNaN(r[o]) * factor;
-      res[o][s] = v;
-      if (Number.isNaN(v)) {
-        failed = true;
-        if (!firstError) firstError = r[o]?.status === 'error' ? (r[o] as { error: { message: string } }).error.message : `${o} is not a number`;
-      }
-    }
-    if (failed) failures++;
-    if (Date.now() - last >= 30) {
-      last = Date.now();
-      checkCancelled(control);
-      control?.onProgress?.(s + 1, samples);
-      await yieldToEventLoop();
-      checkCancelled(control);
-    }
-  }
-  control?.onProgress?.(samples, samples);
-  const units: Record<string, string> = {};
-  const summaries: Record<string, SampleSummary> = {};
-  for (const o of outputs) {
-    const st = sheet.state(o);
-    units[o] = st.status === 'value' ? unitTextOf(st.value) : '';
-    summaries[o] = summariseSamples(res[o]);
-  }
-  const result: MonteCarloResult = {
-    samples,
-    seed,
-    inputs: names.map((n) => ({ cell: n, distribution: dists.get(n)!.describe() })),
-    scaledInputs: scaled,
-    evaluations,
-    inputDraws: keep ? inputDraws : undefined,
-    outputs: res,
-    units,
-    summaries,
-    failures,
-    firstError,
-  };
-  if (opts.measurement) {
-    const band = measuredBand(opts.measurement);
-    const m = opts.measurement.fRefHz === F_YR_HZ ? opts.measurement : atReferenceFrequency(opts.measurement, F_YR_HZ);
-    const xs = res[outputs[0]];
-    const fi = fractionInside(xs, band.lower, band.upper);
-    let sumL = 0;
-    let n = 0;
-    for (const x of xs) {
-      if (!(Number.isFinite(x) && x > 0)) continue;
-      sumL += relativeLikelihood(m, x);
-      n++;
-    }
-    result.overlap = { band, fractionInside: fi.fraction, fractionInsideError: fi.error, meanRelativeLikelihood: n ? sumL / n : NaN };
-  }
-  return result;
+/** Monte Carlo over the uncertain cells (monteCarloJob.ts), in this thread or on workers (`parallel`). */
+export async function monteCarlo(sheet: Sheet, opts: MonteCarloOptions, control?: JobControl, parallel?: ParallelOptions): Promise<MonteCarloResult> {
+  return runChunkedJob(monteCarloJob, sheet, opts, control, parallel);
 }

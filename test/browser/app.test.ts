@@ -7,6 +7,8 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { Sheet } from '../../src/sheet/sheet';
+import { runJob as runJobInNode } from '../../web/jobs/jobRunner';
+import type { SampleResult } from '../../web/jobs/jobProtocol';
 import { formatValue } from '../../src/sheet/formatValue';
 import { isSheetObject } from '../../src/sheet/sheetObject';
 import { buildAndServe, PROJECT_ROOT, type ServedApp } from './appServer';
@@ -429,6 +431,25 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     await page.click('[data-action="run-job"]');
     await page.waitForSelector('[data-job-result="sample"] .summary-table', { timeout: 60_000 });
     expect(await page.textContent('[data-job-result="sample"] .summary-table')).toContain('median');
+    await page.click('[data-tab="plots"]');
+  });
+
+  it('samples on several Web Workers with the same result as one run in this process (same seed)', async () => {
+    await freshDemo();
+    await page.click('[data-tab="scan"]');
+    await page.click('[data-panel="scan"] input[name="mode"] >> nth=2');
+    await page.fill('[data-panel="scan"] fieldset:has-text("samples") input >> nth=0', '1200');
+    const measurement = await page.inputValue('[data-panel="scan"] select[aria-label="Measurement cell"]');
+    await page.click('[data-action="run-job"]');
+    await page.waitForSelector('[data-job-result="sample"] .summary-table', { timeout: 60_000 });
+    const rows = await page.$$eval('[data-job-result="sample"] .summary-table tr', (trs) => trs.map((tr) => [tr.querySelector('th')?.textContent ?? '', tr.querySelector('td')?.textContent ?? '']));
+    // The independent run: the same job in node, chunks one after another in this thread.
+    const ctl = { signal: new AbortController().signal, progress: () => {} };
+    const one = (await runJobInNode(DEMO_TEXT, { kind: 'sample', samples: 1200, seed: 1, output: 'A_yr', measurement: measurement || null }, ctl)) as SampleResult;
+    const inApp = new Map(rows.map(([k, v]) => [k, v]));
+    for (const { label, value } of one.summary) if (label !== 'workers') expect(inApp.get(label), label).toBe(value);
+    const cores = await page.evaluate(() => navigator.hardwareConcurrency);
+    expect(firstNumber(inApp.get('workers') ?? '')).toBe(Math.min(Math.max(1, cores), 16, 3)); // 1200 samples = 3 chunks
     await page.click('[data-tab="plots"]');
   });
 

@@ -47,13 +47,15 @@ describe('demo orbits section', () => {
     expect(Math.abs(siOf(value('f_transition')) / ft - 1)).toBeLessThan(1e-12);
   });
 
-  it('eccentric A_yr is within 1% of the circular one: at f_yr the orbits started at 0.3 nHz have circularised (e falls as f^(-19/18) at small e, Peters 1964)', () => {
+  it('eccentric A_yr is within 1% of the circular one: at f_yr the orbits started at 1 nHz have circularised (e falls as f^(-19/18) at small e, Peters 1964)', () => {
     const ratio = Number(value('A_yr_eccentric')) / Number(value('A_yr'));
     expect(Math.abs(ratio - 1)).toBeLessThan(1e-2);
-    // while at the lowest bin, near the start frequency, power has moved to higher harmonics (Enoki & Nagashima 2007, PTP 117, 241)
+  });
+
+  it('the lowest bin, near the start frequency, falls below the circular spectrum, as the demo note says: power moves to higher harmonics (Enoki & Nagashima 2007, PTP 117, 241)', () => {
     const gw = (value('spectrum') as SpectrumValue).hc;
     const ecc = (value('spectrum_eccentric') as SpectrumValue).hc;
-    expect(Math.abs(ecc[0] / gw[0] - 1)).toBeGreaterThan(1e-3);
+    expect(ecc[0] / gw[0]).toBeLessThan(0.9);
   });
 
   it('the loudest single binary of each bin is weaker than the whole background there (sum of h^2 over the expected binaries, Sesana, Vecchio & Colacino 2008)', () => {

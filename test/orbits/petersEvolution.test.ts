@@ -1,5 +1,5 @@
 // Peters 1964 (Phys. Rev. 136, B1224): closed-form a(e) against a direct integration of da/dt, de/dt.
-// Equation numbers of Peters 1964 cited here are from memory; the formulas are the ones in PHYSICS.md.
+// Equation numbers of Peters 1964 cited here are unverified; the formulas are eqs. 5.6, 5.7 and the a(e) closed form of that paper.
 import { describe, expect, it } from 'vitest';
 import {
   eccentricityAtOrbitalFrequency,

@@ -96,11 +96,11 @@ describe('mass functions and relations', () => {
     const expected = schechterPerDex(m, 10 ** (p.log10PhiStar0 + 2 * p.log10PhiStarSlope), p.mStar, p.alpha0 + 2 * p.alphaSlope);
     expect(Math.abs(stellarMassFunctionPerDex(p, m, z) / expected - 1)).toBeLessThan(1e-15);
   });
-  it('McConnell & Ma 2013 (ApJ 764, 184): log10 M_BH = 8.46 at M_bulge = 1e11 Msun, slope 1.05 (PHYSICS.md)', () => {
+  it('McConnell & Ma 2013 (ApJ 764, 184): log10 M_BH = 8.46 at M_bulge = 1e11 Msun, slope 1.05 (their abstract)', () => {
     expect(medianLog10BlackHoleMass(MCCONNELL_MA_2013, 1e11)).toBeCloseTo(8.46, 12);
     expect(medianLog10BlackHoleMass(MCCONNELL_MA_2013, 1e12) - medianLog10BlackHoleMass(MCCONNELL_MA_2013, 1e11)).toBeCloseTo(1.05, 12);
   });
-  it('Kormendy & Ho 2013 (ARA&A 51, 511): M_BH = 0.49e9 Msun at M_bulge = 1e11 Msun, slope 1.16 (PHYSICS.md)', () => {
+  it('Kormendy & Ho 2013 (ARA&A 51, 511): M_BH = 0.49e9 Msun at M_bulge = 1e11 Msun, slope 1.16 (their M_BH-M_bulge fit; unverified here)', () => {
     expect(10 ** medianLog10BlackHoleMass(KORMENDY_HO_2013, 1e11) / 0.49e9).toBeCloseTo(1, 12);
     expect(10 ** medianLog10BlackHoleMass(KORMENDY_HO_2013, 1e12) / (0.49e9 * 10 ** 1.16)).toBeCloseTo(1, 12);
   });

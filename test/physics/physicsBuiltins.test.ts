@@ -53,7 +53,7 @@ describe('spectrum object', () => {
     for (let i = 0; i < 12; i++) {
       const f = json.frequencyHz[i];
       const h = json.hc[i];
-      // Omega_gw = 2 pi^2 f^2 h_c^2 / (3 H0^2) and P = h_c^2 / (12 pi^2 f^3) (PHYSICS.md, Phinney 2001)
+      // Omega_gw = 2 pi^2 f^2 h_c^2 / (3 H0^2) and P = h_c^2 / (12 pi^2 f^3) (Phinney 2001; Jenet et al. 2006, ApJ 653, 1571)
       expect(rel(json.omegaGw[i], (2 * Math.PI ** 2 * f * f * h * h) / (3 * h0 * h0))).toBeLessThan(1e-14);
       expect(rel(json.residualPsd[i], (h * h) / (12 * Math.PI ** 2 * f ** 3))).toBeLessThan(1e-14);
     }
@@ -83,6 +83,8 @@ describe('conversions', () => {
     x_om: 'omegaGwOfStrain(1e-15, 1/(1 yr), 70 km/s/Mpc)',
     x_psd: 'residualPsdOfStrain(1e-15, 1/(1 yr))',
     x_res: 'equivalentResidualOfStrain(1e-15, 1/(1 yr))',
+    x_rms: 'rmsResidualOfStrain(1e-15, 1/(1 yr), 1/(1 yr))',
+    x_rms_bin: 'rmsResidualOfStrain(1e-15, 1/(1 yr), 1/(14 yr))',
     x_g: 'gammaOfSlope(-2/3)',
     x_al: 'slopeOfGamma(13/3)',
     x_mc: 'chirpMass(2e9 Msun, 1)',
@@ -96,11 +98,15 @@ describe('conversions', () => {
     expect(rel(siOf(valueOf(s, 'x_rho')), 1e-3 * 1e9 * (Math.sqrt(Math.PI) / 2) * msunPerMpc3)).toBeLessThan(1e-6);
   });
   const h0 = 70 * KM_S_MPC_SI;
-  it('follow the formulas of PHYSICS.md (Phinney 2001; gamma = 3 - 2 alpha)', () => {
+  it('follow the published conversions (Omega_gw: Phinney 2001; P = h_c^2/(12 pi^2 f^3): Jenet et al. 2006, ApJ 653, 1571; gamma = 3 - 2 alpha)', () => {
     expect(rel(siOf(valueOf(s, 'x_om')), (2 * Math.PI ** 2 * F_YR_HZ ** 2 * 1e-30) / (3 * h0 * h0))).toBeLessThan(1e-14);
     expect(rel(siOf(valueOf(s, 'x_psd')), 1e-30 / (12 * Math.PI ** 2 * F_YR_HZ ** 3))).toBeLessThan(1e-14);
     expect(rel(siOf(valueOf(s, 'x_res')), 1e-15 / (2 * Math.PI * F_YR_HZ))).toBeLessThan(1e-14);
     expect(siOf(valueOf(s, 'x_g'))).toBeCloseTo(13 / 3, 14);
+    // rms in a band: sqrt(P df); at df = f it is h_c / (2 sqrt(3) pi f), sqrt(3) below the h_c/(2 pi f) scale
+    expect(rel(siOf(valueOf(s, 'x_rms')), 1e-15 / (2 * Math.sqrt(3) * Math.PI * F_YR_HZ))).toBeLessThan(1e-14);
+    expect(rel(siOf(valueOf(s, 'x_res')) / siOf(valueOf(s, 'x_rms')), Math.sqrt(3))).toBeLessThan(1e-14);
+    expect(rel(siOf(valueOf(s, 'x_rms_bin')), Math.sqrt(1e-30 / (12 * Math.PI ** 2 * F_YR_HZ ** 3) / (14 * 365.25 * 86400)))).toBeLessThan(1e-14);
     expect(siOf(valueOf(s, 'x_al'))).toBeCloseTo(-2 / 3, 14);
   });
   it('mass combinations: M_c = 2^(-6/5) M for equal masses, eta(1/2) = 2/9', () => {

@@ -92,7 +92,23 @@ describe('migrations', () => {
       cells: [{ name: 'span', formula: '10 yr', unit: 'yr', note: 'observing span' }],
     });
     expect(JSON.stringify(v0)).toBe(before);
-    expect(migrateToCurrent(v0, 0)).toEqual(migrate0to1(v0));
+    expect(migrateToCurrent(v0, 0)).toEqual({ ...migrate0to1(v0), version: 2 });
+  });
+
+  it('1 -> 2 changes nothing but the version; a sheet is saved as version 2 only when a cell has a prior', () => {
+    const v1 = { format: 'strainsheet', version: 1, title: 't', notes: '', cells: [{ name: 'r', formula: '2', uncertainty: 'normalDist(2, 0.1)' }] };
+    expect(migrateToCurrent(v1, 1)).toEqual({ ...v1, version: 2 });
+    const s = Sheet.fromFile(JSON.stringify(v1));
+    expect(JSON.parse(s.toFileText()).version).toBe(1);
+    s.updateCell('r', { prior: 'uniformDist(1, 3)' });
+    const text = s.toFileText();
+    expect(JSON.parse(text).version).toBe(2);
+    expect(JSON.parse(text).cells[0]).toEqual({ name: 'r', formula: '2', uncertainty: 'normalDist(2, 0.1)', prior: 'uniformDist(1, 3)' });
+    expect(Sheet.fromFile(text).get('r')!.prior).toBe('uniformDist(1, 3)');
+  });
+
+  it('a file of a version after 2 is refused, naming both versions', () => {
+    expect(() => parseSheetFile(JSON.stringify({ ...v0, version: 3 }))).toThrow(/file version 3; this one reads versions up to 2/);
   });
 
   it('a version 0 file loads and saves as version 1', () => {

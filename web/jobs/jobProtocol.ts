@@ -84,7 +84,8 @@ export interface SampleResult {
 
 export type JobResult = Scan1Result | Scan2Result | SampleResult | GoalSeekJobResult;
 
-export type ToWorker = { type: 'start'; jobId: number; sheetText: string; job: JobSpec } | { type: 'cancel'; jobId: number };
+/** `workers`: Web Workers for the job's chunks (default: the browser's core count). */
+export type ToWorker = { type: 'start'; jobId: number; sheetText: string; job: JobSpec; workers?: number } | { type: 'cancel'; jobId: number };
 
 export type FromWorker =
   | { type: 'progress'; jobId: number; done: number; total: number }

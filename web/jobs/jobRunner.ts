@@ -6,6 +6,8 @@ import { Sheet } from '../../src/sheet/sheet';
 import { runJob as runStatisticsJob, type AxisSpec, type JobResult as StatisticsResult } from '../../src/statistics/jobs';
 import { JobCancelledError } from '../../src/statistics/sheetValues';
 import { formatNumber } from '../../src/sheet/formatValue';
+import type { ParallelOptions } from '../../src/jobs/runChunks';
+import { SAMPLE_CHUNK } from '../../src/statistics/monteCarloJob';
 import type { JobResult, JobSpec, Scan1Result, Scan2Result, SampleResult, ScanAxisSpec } from './jobProtocol';
 
 export interface JobControl {
@@ -55,7 +57,7 @@ function toScan2(job: Extract<JobSpec, { kind: 'scan2' }>, r: Extract<Statistics
   };
 }
 
-function toSample(job: Extract<JobSpec, { kind: 'sample' }>, r: Extract<StatisticsResult, { kind: 'sample' }>['result']): SampleResult {
+function toSample(job: Extract<JobSpec, { kind: 'sample' }>, r: Extract<StatisticsResult, { kind: 'sample' }>['result'], workers: number): SampleResult {
   const values = Float64Array.from(r.outputs[job.output].filter(Number.isFinite)).sort();
   const step = Math.max(1, Math.ceil(values.length / MAX_SORTED_SENT));
   const sorted: number[] = [];
@@ -66,6 +68,7 @@ function toSample(job: Extract<JobSpec, { kind: 'sample' }>, r: Extract<Statisti
   const summary: { label: string; value: string }[] = [
     { label: 'inputs drawn', value: r.inputs.map((i) => `${i.cell}: ${i.distribution}`).join('; ') || 'none (no cell has an uncertainty)' },
     { label: 'samples', value: `${r.samples} (seed ${r.seed}), ${r.evaluations} evaluations${r.failures ? `, ${r.failures} failed` : ''}` },
+    { label: 'workers', value: `${Math.min(workers, Math.max(1, Math.ceil(r.samples / SAMPLE_CHUNK)))} (chunks of ${SAMPLE_CHUNK} samples; the samples do not depend on the number of workers)` },
   ];
   if (s) {
     summary.push({ label: 'median', value: `${formatNumber(s.median)}${u} ± ${formatNumber(s.medianError)} (Monte Carlo error)` });
@@ -82,17 +85,23 @@ function toSample(job: Extract<JobSpec, { kind: 'sample' }>, r: Extract<Statisti
   return { kind: 'sample', output: job.output, outputUnit: unit, band: r.overlap?.band, samples: r.samples, seed: r.seed, sorted, summary };
 }
 
-export async function runJob(sheetText: string, job: JobSpec, ctl: JobControl): Promise<JobResult> {
+/**
+ * Runs a job on a sheet built from its file text. Scans and samples split into chunks; with
+ * `parallel` (the job worker passes a pool of Web Workers) the chunks run on several workers, with
+ * the same result as on one.
+ */
+export async function runJob(sheetText: string, job: JobSpec, ctl: JobControl, parallel?: ParallelOptions): Promise<JobResult> {
   const sheet = Sheet.fromFile(sheetText);
+  const par = parallel ? { ...parallel, sheetText } : undefined;
   const control = { signal: ctl.signal, onProgress: ctl.progress };
   try {
     if (job.kind === 'scan1') {
-      const r = await runStatisticsJob(sheet, { kind: 'scan', vary: [axisSpecFor(job.axis)], outputs: [job.output], measurementCell: job.measurement ?? undefined }, control);
+      const r = await runStatisticsJob(sheet, { kind: 'scan', vary: [axisSpecFor(job.axis)], outputs: [job.output], measurementCell: job.measurement ?? undefined }, control, par);
       if (r.kind !== 'scan1d') throw new Error(`unexpected result ${r.kind}`);
       return toScan1(job, r.result);
     }
     if (job.kind === 'scan2') {
-      const r = await runStatisticsJob(sheet, { kind: 'scan', vary: [axisSpecFor(job.x), axisSpecFor(job.y)], outputs: [job.output], measurementCell: job.measurement }, control);
+      const r = await runStatisticsJob(sheet, { kind: 'scan', vary: [axisSpecFor(job.x), axisSpecFor(job.y)], outputs: [job.output], measurementCell: job.measurement }, control, par);
       if (r.kind !== 'scan2d') throw new Error(`unexpected result ${r.kind}`);
       return toScan2(job, r.result);
     }
@@ -103,9 +112,9 @@ export async function runJob(sheetText: string, job: JobSpec, ctl: JobControl): 
       const g = r.result;
       return { kind: 'goalSeek', input: g.input, output: g.output, target: job.target, value: g.value, unit: g.unit, achievedSI: g.achievedSI, evaluations: g.evaluations };
     }
-    const r = await runStatisticsJob(sheet, { kind: 'sample', samples: job.samples, seed: job.seed, outputs: [job.output], measurementCell: job.measurement ?? undefined }, control);
+    const r = await runStatisticsJob(sheet, { kind: 'sample', samples: job.samples, seed: job.seed, outputs: [job.output], measurementCell: job.measurement ?? undefined }, control, par);
     if (r.kind !== 'sample') throw new Error(`unexpected result ${r.kind}`);
-    return toSample(job, r.result);
+    return toSample(job, r.result, parallel?.workers ?? 1);
   } catch (err) {
     if (err instanceof JobCancelledError) throw new JobCancelled();
     throw err;

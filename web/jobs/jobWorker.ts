@@ -1,8 +1,10 @@
 /// <reference lib="webworker" />
 // The job worker: runs scans and Monte Carlo samples away from the page, so the sheet stays live.
-// It builds its own Sheet from the file text; the page's sheet is never touched.
+// It builds its own Sheet from the file text; the page's sheet is never touched. Scans and samples
+// run their chunks on a pool of further Web Workers (webChunkPool.ts), one per core.
 import type { FromWorker, ToWorker } from './jobProtocol';
 import { runJob } from './jobRunner';
+import { webChunkPool, webWorkerCount } from './webChunkPool';
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 const running = new Map<number, AbortController>();
@@ -24,7 +26,7 @@ scope.onmessage = async (e: MessageEvent<ToWorker>) => {
     const result = await runJob(m.sheetText, m.job, {
       signal: controller.signal,
       progress: (done, total) => send({ type: 'progress', jobId: m.jobId, done, total }),
-    });
+    }, { workers: m.workers ?? webWorkerCount(), pool: webChunkPool });
     if (controller.signal.aborted) send({ type: 'cancelled', jobId: m.jobId });
     else send({ type: 'result', jobId: m.jobId, result, elapsedMs: performance.now() - t0 });
   } catch (err) {

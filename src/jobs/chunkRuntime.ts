@@ -1,0 +1,22 @@
+// The worker's side of a parallel job (worker threads and Web Workers alike): rebuild the sheet from
+// its file text (kept while the same text comes again) and run one chunk of a registered job kind.
+import { Sheet } from '../sheet/sheet';
+import { chunkedJobOf } from './chunkedJob';
+import type { ChunkPlan } from './chunkedJob';
+import { registerJobKinds } from './jobKinds';
+
+registerJobKinds();
+
+let cached: { text: string; sheet: Sheet } | null = null;
+
+function sheetFor(text: string): Sheet {
+  if (cached?.text !== text) cached = { text, sheet: Sheet.fromFile(text) };
+  return cached.sheet;
+}
+
+/** No progress or cancellation inside a chunk run by a worker: the pool ends the worker to cancel. */
+const NO_CONTROL = { tick: async () => {} };
+
+export async function runChunkInWorker(kind: string, sheetText: string, plan: ChunkPlan, index: number): Promise<unknown> {
+  return chunkedJobOf(kind).runChunk(sheetFor(sheetText), plan, index, NO_CONTROL);
+}

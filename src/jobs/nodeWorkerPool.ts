@@ -1,0 +1,44 @@
+// The command line's pool of worker threads (workerpool, see DEVELOPERS.md): each thread loads the
+// engine once (bin/strainsheet-worker.mjs) and runs chunks of parallel jobs.
+import { availableParallelism } from 'node:os';
+import { existsSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import workerpool from 'workerpool';
+import type { ChunkExecutor } from './runChunks';
+import { SheetJobError } from '../statistics/sheetValues';
+
+/** The number of cores Node may use (the default of --workers). */
+export function defaultWorkerCount(): number {
+  return availableParallelism();
+}
+
+/** bin/strainsheet-worker.mjs, found upwards from this module (the sources or the bundle in dist-cli/). */
+function workerScript(): string {
+  let dir = dirname(fileURLToPath(import.meta.url));
+  for (let i = 0; i < 5; i++) {
+    const candidate = join(dir, 'bin', 'strainsheet-worker.mjs');
+    if (existsSync(candidate)) return candidate;
+    dir = dirname(dir);
+  }
+  throw new Error('cannot find bin/strainsheet-worker.mjs next to the strainsheet sources');
+}
+
+/** A pool of `workers` worker threads running chunks. */
+export function nodeWorkerPool(workers: number): ChunkExecutor {
+  const pool = workerpool.pool(workerScript(), { workerType: 'thread', minWorkers: workers, maxWorkers: workers });
+  return {
+    async runChunk(kind, sheetText, plan, index) {
+      try {
+        return await pool.exec('runChunk', [kind, sheetText, plan, index]);
+      } catch (e) {
+        // Errors cross the thread boundary as plain objects: keep the job's own kind of error.
+        if ((e as Error)?.name === 'SheetJobError') throw new SheetJobError((e as Error).message);
+        throw e;
+      }
+    },
+    async close(force = false) {
+      await pool.terminate(force);
+    },
+  };
+}

@@ -1,0 +1,138 @@
+// Two-dimensional Gaussian KDE as scipy.stats.gaussian_kde: kernel covariance = sample covariance
+// (n - 1) times factor^2, Scott's factor n^(-1/6) for d = 2 (Scott 1992, Multivariate Density
+// Estimation, Wiley). Samples are whitened by the Cholesky factor L of the sample covariance
+// (z = L^-1 (x - mean)), where the kernel is isotropic with sd = factor and separable, then binned
+// bilinearly onto a grid and convolved along each axis (binned KDE, Wand & Jones 1995, Kernel Smoothing).
+// The density in x is the density in z divided by det L.
+
+export interface Kde2dTable {
+  mean: [number, number];
+  /** Lower-triangular Cholesky factor of the sample covariance: [l11, l21, l22]. */
+  chol: [number, number, number];
+  factor: number;
+  /** z grid: start, spacing, points per axis (the same for both axes). */
+  z0: [number, number];
+  dz: number;
+  size: number;
+  /** Density in z at grid point (i, j), stored [j * size + i] (i along z1). */
+  density: Float64Array;
+}
+
+export const KDE2D_GRID = 256;
+const REACH = 5;
+
+export function choleskyOfSamples(u: ArrayLike<number>, v: ArrayLike<number>) {
+  const n = u.length;
+  let mu = 0;
+  let mv = 0;
+  for (let i = 0; i < n; i++) {
+    mu += u[i];
+    mv += v[i];
+  }
+  mu /= n;
+  mv /= n;
+  let suu = 0;
+  let suv = 0;
+  let svv = 0;
+  for (let i = 0; i < n; i++) {
+    const a = u[i] - mu;
+    const b = v[i] - mv;
+    suu += a * a;
+    suv += a * b;
+    svv += b * b;
+  }
+  suu /= n - 1;
+  suv /= n - 1;
+  svv /= n - 1;
+  const l11 = Math.sqrt(suu);
+  const l21 = suv / l11;
+  const l22sq = svv - l21 * l21;
+  if (!(l11 > 0 && l22sq > 1e-14 * svv)) throw new RangeError('the samples lie on a line: a 2-D density needs spread in both directions');
+  return { mean: [mu, mv] as [number, number], chol: [l11, l21, Math.sqrt(l22sq)] as [number, number, number] };
+}
+
+/** Whitened coordinates of the point (u, v). */
+export function whiten(t: Pick<Kde2dTable, 'mean' | 'chol'>, u: number, v: number): [number, number] {
+  const [l11, l21, l22] = t.chol;
+  const z1 = (u - t.mean[0]) / l11;
+  const z2 = (v - t.mean[1] - l21 * z1) / l22;
+  return [z1, z2];
+}
+
+export function tabulateKde2d(u: ArrayLike<number>, v: ArrayLike<number>, size = KDE2D_GRID): Kde2dTable {
+  const n = u.length;
+  if (n < 3 || v.length !== n) throw new RangeError(`a 2-D KDE needs at least 3 pairs of samples, got ${Math.min(n, v.length)}`);
+  const { mean, chol } = choleskyOfSamples(u, v);
+  const factor = Math.pow(n, -1 / 6);
+  const zs1 = new Float64Array(n);
+  const zs2 = new Float64Array(n);
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < n; i++) {
+    const [a, b] = whiten({ mean, chol }, u[i], v[i]);
+    zs1[i] = a;
+    zs2[i] = b;
+    lo = Math.min(lo, a, b);
+    hi = Math.max(hi, a, b);
+  }
+  lo -= REACH * factor;
+  hi += REACH * factor;
+  const dz = (hi - lo) / (size - 1);
+  const counts = new Float64Array(size * size);
+  for (let i = 0; i < n; i++) {
+    const a = (zs1[i] - lo) / dz;
+    const b = (zs2[i] - lo) / dz;
+    const ia = Math.min(Math.floor(a), size - 2);
+    const ib = Math.min(Math.floor(b), size - 2);
+    const wa = a - ia;
+    const wb = b - ib;
+    counts[ib * size + ia] += (1 - wa) * (1 - wb);
+    counts[ib * size + ia + 1] += wa * (1 - wb);
+    counts[(ib + 1) * size + ia] += (1 - wa) * wb;
+    counts[(ib + 1) * size + ia + 1] += wa * wb;
+  }
+  const m = Math.min(Math.ceil((REACH * factor) / dz), size - 1);
+  const kern = new Float64Array(m + 1);
+  for (let j = 0; j <= m; j++) kern[j] = Math.exp(-0.5 * ((j * dz) / factor) ** 2);
+  const tmp = new Float64Array(size * size);
+  for (let r = 0; r < size; r++) {
+    for (let i = 0; i < size; i++) {
+      const c = counts[r * size + i];
+      if (c === 0) continue;
+      for (let j = Math.max(0, i - m); j <= Math.min(size - 1, i + m); j++) tmp[r * size + j] += c * kern[Math.abs(j - i)];
+    }
+  }
+  const density = new Float64Array(size * size);
+  const norm = 1 / (n * 2 * Math.PI * factor * factor);
+  for (let r = 0; r < size; r++) {
+    for (let i = 0; i < size; i++) {
+      const c = tmp[r * size + i];
+      if (c === 0) continue;
+      for (let j = Math.max(0, r - m); j <= Math.min(size - 1, r + m); j++) density[j * size + i] += norm * c * kern[Math.abs(j - r)];
+    }
+  }
+  return { mean, chol, factor, z0: [lo, lo], dz, size, density };
+}
+
+/** Density in z at whitened point (z1, z2) by bilinear interpolation; 0 off the grid. */
+export function densityAtZ(t: Kde2dTable, z1: number, z2: number): number {
+  const a = (z1 - t.z0[0]) / t.dz;
+  const b = (z2 - t.z0[1]) / t.dz;
+  const last = t.size - 1;
+  if (!(a >= 0 && a <= last && b >= 0 && b <= last)) return 0;
+  const ia = Math.min(a | 0, last - 1);
+  const ib = Math.min(b | 0, last - 1);
+  const wa = a - ia;
+  const wb = b - ib;
+  const d = t.density;
+  const s = t.size;
+  return (
+    (1 - wb) * ((1 - wa) * d[ib * s + ia] + wa * d[ib * s + ia + 1]) + wb * ((1 - wa) * d[(ib + 1) * s + ia] + wa * d[(ib + 1) * s + ia + 1])
+  );
+}
+
+/** Density in the original coordinates (u, v). */
+export function kde2dDensity(t: Kde2dTable, u: number, v: number): number {
+  const [z1, z2] = whiten(t, u, v);
+  return densityAtZ(t, z1, z2) / (t.chol[0] * t.chol[2]);
+}

@@ -1,0 +1,34 @@
+// The app's pool of Web Workers for the chunks of a job (workerpool, as the command line's worker
+// threads): started by the job worker (jobWorker.ts) when a job has more than one chunk.
+import workerpool from 'workerpool';
+import chunkWorkerUrl from './chunkWebWorker?worker&url';
+import type { ChunkExecutor } from '../../src/jobs/runChunks';
+import { SheetJobError } from '../../src/statistics/sheetValues';
+
+/** The number of logical cores the browser reports (at least 1, at most 16). */
+export function webWorkerCount(): number {
+  const n = (globalThis as { navigator?: { hardwareConcurrency?: number } }).navigator?.hardwareConcurrency ?? 1;
+  return Math.max(1, Math.min(16, Math.floor(n)));
+}
+
+export function webChunkPool(workers: number): ChunkExecutor {
+  const pool = workerpool.pool(chunkWorkerUrl, {
+    workerType: 'web',
+    minWorkers: workers,
+    maxWorkers: workers,
+    workerOpts: { type: 'module', name: 'strainsheet-chunks' },
+  });
+  return {
+    async runChunk(kind, sheetText, plan, index) {
+      try {
+        return await pool.exec('runChunk', [kind, sheetText, plan, index]);
+      } catch (e) {
+        if ((e as Error)?.name === 'SheetJobError') throw new SheetJobError((e as Error).message);
+        throw e;
+      }
+    },
+    async close(force = false) {
+      await pool.terminate(force);
+    },
+  };
+}
