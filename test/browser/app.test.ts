@@ -253,15 +253,22 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
 
   it('pins a curve, and the plot data export (CSV) holds the spectrum numbers and the pinned curve', async () => {
     await freshDemo();
+    // The sheet's main spectrum is pinned (one curve, the one chosen), named by what changed since.
     await page.click('[data-action="pin"]');
     await page.waitForSelector('.pin');
-    // One pinned curve per spectrum cell of the sheet.
-    const headless = headlessDemo();
-    const spectra = headless.cells().filter((c) => {
-      const v = headless.value(c.name);
-      return isSheetObject(v) && v.kind === 'spectrum';
-    });
-    expect(await page.$$eval('.pin', (p) => p.length)).toBe(spectra.length);
+    expect(await page.$$eval('.pin', (p) => p.length)).toBe(1);
+    expect(await page.inputValue('.pin-label')).toBe('spectrum: as now');
+    const rateFormula = headlessDemo().get('rate_norm')!.formula;
+    await setFormula(page, 'rate_norm', `2 * (${rateFormula})`);
+    await page.waitForFunction((f) => (document.querySelector('.pin-label') as HTMLInputElement | null)?.value === `spectrum: rate_norm = ${f}`, rateFormula);
+    await setFormula(page, 'rate_norm', rateFormula);
+    await page.waitForFunction(() => (document.querySelector('.pin-label') as HTMLInputElement | null)?.value === 'spectrum: as now');
+    const spectra = headlessDemo().cells().filter((c) => isSheetObject(headlessDemo().value(c.name)) && (headlessDemo().value(c.name) as { kind: string }).kind === 'spectrum');
+    expect(spectra.length).toBeGreaterThan(1);
+    await page.selectOption('select[data-pin-choice]', spectra[1].name);
+    await page.click('[data-action="pin"]');
+    await page.waitForFunction(() => document.querySelectorAll('.pin').length === 2);
+    expect(await page.inputValue('.pin >> nth=1 >> .pin-label')).toBe(`${spectra[1].name}: as now`);
     const csv = await download(page, () => page.click('[data-plot="spectrum"] [data-action="export-csv"]'));
     const lines = csv.bytes.toString('utf8').trim().split('\r\n');
     expect(lines[0].split(',')[0]).toBe('series');

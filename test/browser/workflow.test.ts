@@ -164,6 +164,103 @@ describe.runIf(runSuite)('what a researcher trips over', { timeout: 60_000 }, ()
     await page.click('[data-tab="plots"]');
   });
 
+  it('makes one undo step of one edit of a row, keeps half-typed text off the sheet, and Escape restores the text from before', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    const rate = demo().get('rate_norm')!.formula;
+    const box = page.locator('input[data-formula="rate_norm"]');
+    const ayr = () => page.getAttribute('[data-value="A_yr"]', 'data-raw');
+    const before = await ayr();
+    // Two pauses while typing recalculate twice; leaving the box ends the edit: one undo step.
+    await box.click();
+    await box.press('End');
+    await box.pressSequentially(' * 2', { delay: 30 });
+    await page.waitForFunction((b) => document.querySelector('[data-value="A_yr"]')?.getAttribute('data-raw') !== b, before);
+    const once = await ayr();
+    await box.pressSequentially(' * 2', { delay: 30 });
+    await page.waitForFunction((b) => document.querySelector('[data-value="A_yr"]')?.getAttribute('data-raw') !== b, once);
+    await box.evaluate((el) => (el as HTMLInputElement).blur());
+    expect(await page.getAttribute('[data-action="undo"]', 'title')).toBe('Undo edit rate_norm');
+    await page.click('[data-action="undo"]');
+    await page.waitForFunction((b) => document.querySelector('[data-value="A_yr"]')?.getAttribute('data-raw') === b, before);
+    expect(await box.inputValue()).toBe(rate);
+    expect(await page.isDisabled('[data-action="undo"]')).toBe(true);
+    // Half-typed text: the row says why it is not stored yet; nothing else turns red, the plot stays current.
+    await box.click();
+    await box.press('End');
+    await box.pressSequentially(' * (', { delay: 30 });
+    await page.waitForSelector('[data-cell="rate_norm"] [data-draft-error]');
+    await page.waitForTimeout(400); // longer than the recalculation pause
+    expect(await page.$$eval('.cell-row.status-error', (r) => r.length)).toBe(0);
+    expect(await ayr()).toBe(before);
+    expect(await page.getAttribute('[data-plot="spectrum"]', 'data-stale')).toBeNull();
+    // Escape brings back the text from before the edit.
+    await box.press('Escape');
+    expect(await box.inputValue()).toBe(rate);
+    // Escape after a stored pause undoes that too: the sheet is as before, and no undo step is left.
+    await box.pressSequentially(' * 3', { delay: 30 });
+    await page.waitForFunction((b) => document.querySelector('[data-value="A_yr"]')?.getAttribute('data-raw') !== b, before);
+    await box.press('Escape');
+    await page.waitForFunction((b) => document.querySelector('[data-value="A_yr"]')?.getAttribute('data-raw') === b, before);
+    expect(await box.inputValue()).toBe(rate);
+    await box.evaluate((el) => (el as HTMLInputElement).blur());
+    expect(await page.isDisabled('[data-action="undo"]')).toBe(true);
+  });
+
+  it('keeps the last good plot, marked stale, and each key-result card on its own cell, while an input is in error', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    const cards = await page.$$eval('[data-key-result]', (xs) => xs.map((x) => x.getAttribute('data-key-result')));
+    const rate = demo().get('rate_norm')!.formula;
+    const box = page.locator('input[data-formula="rate_norm"]');
+    await box.click();
+    await box.press('End');
+    await box.pressSequentially(' * (', { delay: 20 });
+    await box.press('Enter'); // stored as typed
+    await page.waitForSelector('[data-cell="rate_norm"].status-error');
+    await page.waitForSelector('[data-plot="spectrum"][data-stale="true"]');
+    expect(await page.textContent('[data-plot="spectrum"] .stale-note')).toContain('rate_norm');
+    expect(await page.$$eval('[data-key-result]', (xs) => xs.map((x) => x.getAttribute('data-key-result')))).toEqual(cards);
+    expect(await page.getAttribute('[data-key-result="A_yr"]', 'class')).toContain('error');
+    await setFormula(page, 'rate_norm', rate);
+    await page.waitForSelector('[data-plot="spectrum"]:not([data-stale])');
+    expect(await page.$$eval('[data-key-result]', (xs) => xs.map((x) => x.getAttribute('data-key-result')))).toEqual(cards);
+  });
+
+  it('completes names in the add-a-cell form, never doubles a parenthesis, and names a function cell from its formula', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    const formula = page.locator('form.add-cell input[name="formula"]');
+    await formula.click();
+    await formula.pressSequentially('hc_two(f) = A_y', { delay: 20 });
+    await page.waitForSelector('form.add-cell .completions');
+    expect(await page.textContent('form.add-cell .completions')).toContain('A_yr');
+    await formula.press('Tab');
+    expect(await formula.inputValue()).toBe('hc_two(f) = A_yr');
+    await formula.pressSequentially(' * (f * 1 yr)^(-2/3)', { delay: 10 });
+    // A different name in the name field is refused, naming both; an empty one is taken from the formula.
+    await page.fill('form.add-cell input[name="name"]', 'other_name');
+    await formula.press('Enter');
+    await page.waitForFunction(() => /defines the function hc_two/.test(document.querySelector('form.add-cell .form-error')?.textContent ?? ''));
+    await page.fill('form.add-cell input[name="name"]', '');
+    await formula.press('Enter');
+    await page.waitForSelector('[data-cell="hc_two"]');
+    expect(await page.inputValue('input[data-formula="hc_two"]')).toBe('hc_two(f) = A_yr * (f * 1 yr)^(-2/3)');
+    // Accepting a built-in before an existing parenthesis keeps one parenthesis.
+    const box = page.locator('input[data-formula="snr_threshold"]');
+    await box.click();
+    await box.fill('logGr(1 nHz, 100 nHz, 5)');
+    await box.press('Home');
+    for (let i = 0; i < 5; i++) await box.press('ArrowRight');
+    await page.waitForSelector('[data-cell="snr_threshold"] .completions');
+    await box.press('Tab');
+    expect(await box.inputValue()).toBe('logGrid(1 nHz, 100 nHz, 5)');
+    await box.press('Escape');
+    await box.press('Escape');
+    expect(await box.inputValue()).toBe(demo().get('snr_threshold')!.formula);
+    await box.evaluate((el) => (el as HTMLInputElement).blur());
+  });
+
   it('at 1000 px shows the sheet or the plots, one click apart, with a short key-results bar', async () => {
     const { page } = s;
     await page.setViewportSize({ width: 1000, height: 800 });

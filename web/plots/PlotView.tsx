@@ -9,7 +9,7 @@ import { FIGURE_SIZE_IDS, FIGURE_SIZES, type FigureSizeId } from './figureSizes'
 import { plotToCsv } from '../files/csvText';
 import { downloadBlob, downloadText, fileStem } from '../files/download';
 
-export function PlotView(props: { model: Accessor<PlotModel>; onMessage?: (text: string) => void; height?: number }) {
+export function PlotView(props: { model: Accessor<PlotModel>; onMessage?: (text: string) => void; height?: number; stale?: string | null }) {
   let canvas!: HTMLCanvasElement;
   let chart: Chart | undefined;
   let figureEl!: HTMLElement;
@@ -56,7 +56,14 @@ export function PlotView(props: { model: Accessor<PlotModel>; onMessage?: (text:
   };
 
   return (
-    <figure class="plot" data-plot={props.model().id} ref={figureEl}>
+    <figure class="plot" classList={{ stale: !!props.stale }} data-plot={props.model().id} data-stale={props.stale ? 'true' : undefined} ref={figureEl}>
+      <Show when={props.stale}>
+        {(why) => (
+          <div class="stale-note" role="status">
+            last computed curves, not current: {why()}
+          </div>
+        )}
+      </Show>
       <div class="plot-canvas" style={{ height: `${props.height ?? 380}px` }}>
         <canvas ref={canvas} aria-label={props.model().title} role="img" />
       </div>

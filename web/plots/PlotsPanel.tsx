@@ -4,9 +4,10 @@ import { createMemo, createSignal, For, Show } from 'solid-js';
 import { useServices } from '../app/services';
 import { PlotView } from './PlotView';
 import type { StrainCurve, VerticalQuantity } from './spectrumPlotModel';
+import type { PlotModel } from './plotModel';
 import { sheetSpectrumModel, spectrumCurves, type SheetReader } from './sheetSpectrumModel';
 import { breakdownModels } from './breakdownPlotModel';
-import { loadPins, savePins, type PinnedCurve } from './pins';
+import { loadPins, pinLabel, savePins, type PinnedCurve } from './pins';
 
 const QUANTITIES: { id: VerticalQuantity; label: string }[] = [
   { id: 'hc', label: 'h_c' },
@@ -25,6 +26,8 @@ export function PlotsPanel() {
     if (!r.ok) services.notify(r.message, 'error');
   };
 
+  /** Every cell's formula now, for naming pinned curves by what changed. */
+  const formulas = createMemo(() => Object.fromEntries(session.cells().map((c) => [c.name, c.formula])));
   const reader = (): SheetReader => ({ cells: session.cells(), valueOf: (n) => session.value(n), stateOf: (n) => session.state(n) });
   /** Every spectrum cell's current curve. */
   const spectra = createMemo<StrainCurve[]>(() => spectrumCurves(reader()));
@@ -32,27 +35,40 @@ export function PlotsPanel() {
   const model = createMemo(() => {
     const pinned = pins()
       .filter((p) => p.visible)
-      .map<StrainCurve>((p) => ({ id: `pin:${p.id}`, label: `${p.label} (pinned)`, frequencyHz: p.frequencyHz, hc: p.hc, dashed: true }));
+      .map<StrainCurve>((p) => ({ id: `pin:${p.id}`, label: `${pinLabel(p, formulas())} (pinned)`, frequencyHz: p.frequencyHz, hc: p.hc, dashed: true }));
     return sheetSpectrumModel(reader(), quantity(), pinned, spectra());
+  });
+  // While the sheet's spectra have no value (an input in error, a recalculation under way), the
+  // last drawn curves stay, marked as stale, instead of an empty plot.
+  let prevQuantity = quantity();
+  const shown = createMemo<{ model: PlotModel; stale: string | null }>((prev) => {
+    const m = model();
+    const why = spectra().length === 0 ? m.notes.find((n) => / has no value: /.test(n)) : undefined;
+    if (why && prev && prev.model.series.length && quantity() === prevQuantity) return { model: prev.model, stale: why };
+    prevQuantity = quantity();
+    return { model: m, stale: null };
   });
 
   const breakdowns = createMemo(() => breakdownModels(session.cells(), (n) => session.value(n)));
 
+  const [pinChoice, setPinChoice] = createSignal('spectrum');
   const pinCurrent = () => {
     const list = spectra();
-    if (!list.length) {
+    const c = list.find((x) => x.label === pinChoice()) ?? list[0];
+    if (!c) {
       services.notify('There is no spectrum to pin yet.', 'error');
       return;
     }
-    const stamp = new Date().toLocaleTimeString([], { hour: '2-digit', minute: '2-digit', second: '2-digit' });
-    const added = list.map<PinnedCurve>((c) => ({
+    const pin: PinnedCurve = {
       id: `${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 7)}`,
-      label: `${c.label} at ${stamp}`,
+      label: `${c.label} pinned at ${new Date().toLocaleTimeString([], { hour: '2-digit', minute: '2-digit', second: '2-digit' })}`,
+      curve: c.label,
+      formulas: formulas(),
       frequencyHz: c.frequencyHz,
       hc: c.hc,
       visible: true,
-    }));
-    setPins([...pins(), ...added]);
+    };
+    setPins([...pins(), pin]);
   };
 
   return (
@@ -68,11 +84,18 @@ export function PlotsPanel() {
             )}
           </For>
         </fieldset>
-        <button type="button" data-action="pin" onClick={pinCurrent}>
-          Pin current {spectra().length > 1 ? 'spectra' : 'spectrum'}
-        </button>
+        <div class="pin-controls">
+          <Show when={spectra().length > 1}>
+            <select aria-label="Curve to pin" data-pin-choice onChange={(e) => setPinChoice(e.currentTarget.value)}>
+              <For each={spectra().map((c) => c.label)}>{(n) => <option value={n} selected={n === pinChoice()}>{n}</option>}</For>
+            </select>
+          </Show>
+          <button type="button" data-action="pin" onClick={pinCurrent}>
+            Pin this curve
+          </button>
+        </div>
       </div>
-      <PlotView model={model} onMessage={(t) => services.notify(t, 'error')} />
+      <PlotView model={() => shown().model} stale={shown().stale} onMessage={(t) => services.notify(t, 'error')} />
       <Show when={pins().length}>
         <div class="pins no-print" aria-label="Pinned curves">
           <h3>pinned curves</h3>
@@ -82,16 +105,17 @@ export function PlotsPanel() {
                 <input
                   type="checkbox"
                   checked={p.visible}
-                  aria-label={`Show ${p.label}`}
+                  aria-label={`Show ${pinLabel(p, formulas())}`}
                   onChange={(e) => setPins(pins().map((x) => (x.id === p.id ? { ...x, visible: e.currentTarget.checked } : x)))}
                 />
                 <input
                   class="pin-label"
-                  value={p.label}
+                  value={pinLabel(p, formulas())}
+                  title={pinLabel(p, formulas())}
                   aria-label="Name of pinned curve"
                   onChange={(e) => {
-                    const label = e.currentTarget.value.trim() || p.label;
-                    setPins(pins().map((x) => (x.id === p.id ? { ...x, label } : x)));
+                    const label = e.currentTarget.value.trim();
+                    setPins(pins().map((x) => (x.id === p.id ? (label ? { ...x, label, named: true } : { ...x, named: false }) : x)));
                   }}
                 />
                 <button type="button" class="danger" onClick={() => setPins(pins().filter((x) => x.id !== p.id))}>

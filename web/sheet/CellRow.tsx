@@ -30,8 +30,8 @@ export function CellRow(props: { spec: CellSpec }) {
     }
   });
 
-  const commitFormula = (formula: string) => {
-    const r = session.edit(`edit ${name()}`, (sheet) => sheet.updateCell(name(), { formula }));
+  const commitFormula = (formula: string, group?: string) => {
+    const r = session.edit(`edit ${name()}`, (sheet) => sheet.updateCell(name(), { formula }), { group });
     if (!r.ok) services.notify(`${name()}: ${r.message}`, 'error');
   };
 
