@@ -9,6 +9,7 @@ import { statisticsBuiltins } from './statistics';
 import { inferenceBuiltins } from './inference';
 import { arrayViewBuiltins } from './arrayView';
 import { utilityBuiltins } from './utility';
+import { realisationBuiltins } from './realisations';
 
 export function allBuiltins(): Builtin[] {
   return [
@@ -21,5 +22,6 @@ export function allBuiltins(): Builtin[] {
     ...statisticsBuiltins,
     ...inferenceBuiltins,
     ...arrayViewBuiltins,
+    ...realisationBuiltins,
   ];
 }

@@ -5,6 +5,7 @@ import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
 import { plotCommand } from './plotCommand';
 import { mergeCommand } from './mergeCommand';
+import { realiseCommand } from './realiseCommand';
 
 export interface Command {
   /** One line for the command list. */
@@ -21,4 +22,5 @@ export const commands: Record<string, Command> = {
   sample: sampleCommand,
   plot: plotCommand,
   merge: mergeCommand,
+  realise: realiseCommand,
 };

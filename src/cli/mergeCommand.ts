@@ -10,11 +10,12 @@ import { chunkedJobFor, type JobSpec } from '../statistics/jobs';
 import { parsePartFile, type PartFile } from './partFile';
 import { reportScan } from './scanCommand';
 import { reportSample } from './sampleCommand';
+import { reportRealise } from './realiseCommand';
 import { withJobControls } from './statisticsCli';
 
 const USAGE = `strainsheet merge PART... [--csv FILE]
 
-Joins the part files written by "strainsheet scan|sample ... --shard K/N" (one per shard, K = 1..N)
+Joins the part files written by "strainsheet scan|sample|realise ... --shard K/N" (one per shard, K = 1..N)
 into the CSV and summary of the same run without --shard, identical to it byte for byte.
 It refuses parts from different sheets, commands, options or seeds, and missing or repeated shards.
   --csv FILE   write the CSV to FILE instead of standard output
@@ -111,6 +112,7 @@ export const mergeCommand: Command = {
     const csvPath = opts.values.get('csv')?.at(-1);
     if (spec.kind === 'scan') return reportScan(sheet, spec.outputs, result, csvPath, io);
     if (spec.kind === 'sample') return reportSample(sheet, spec, result, csvPath, io);
+    if (spec.kind === 'realise') return reportRealise(result, csvPath, undefined, io);
     throw new SheetLoadError(`${paths[0]}: cannot merge parts of a ${first.kind} job`);
   },
 };

@@ -3,9 +3,11 @@ import { registerChunkedJob } from './chunkedJob';
 import { scan1dJob } from '../statistics/scan1dJob';
 import { scan2dJob } from '../statistics/scan2dJob';
 import { monteCarloJob } from '../statistics/monteCarloJob';
+import { realiseJob } from '../statistics/realiseJob';
 
 export function registerJobKinds(): void {
   registerChunkedJob(scan1dJob);
   registerChunkedJob(scan2dJob);
   registerChunkedJob(monteCarloJob);
+  registerChunkedJob(realiseJob);
 }

@@ -25,9 +25,11 @@ function workerScript(): string {
 }
 
 /** A pool of `workers` worker threads running chunks. */
-export function nodeWorkerPool(workers: number): ChunkExecutor {
+export function nodeWorkerPool(workers: number): ChunkExecutor & { loadSheet(sheetText: string): Promise<number> } {
   const pool = workerpool.pool(workerScript(), { workerType: 'thread', minWorkers: workers, maxWorkers: workers });
   return {
+    /** Starts a worker (if none is idle) and builds the sheet there: the start-up cost of a worker. */
+    loadSheet: (sheetText) => pool.exec('loadSheet', [sheetText]),
     async runChunk(kind, sheetText, plan, index) {
       try {
         return await pool.exec('runChunk', [kind, sheetText, plan, index]);

@@ -1,7 +1,7 @@
 // Which names a cell may have, and why a refused name is refused (the UI shows the reason and a
 // suggested alternative). A cell name must never shadow a unit, constant or function, nor reach
 // a JavaScript prototype property.
-import { math } from './mathInstance';
+import { isMathjsName, math } from './mathInstance';
 import { ALLOWED_CONSTANTS, ALLOWED_MATH_FUNCTIONS, LOCKED_FUNCTIONS } from './allowedFunctions';
 
 export interface NameVerdict {
@@ -78,7 +78,7 @@ export function checkCellName(name: unknown, builtinNames: ReadonlySet<string> =
     if (isUnitName(n)) return `${n} is a unit name (formulas read ${n} as a unit)`;
     if (ALLOWED_MATH_FUNCTIONS.has(n)) return `${n} is the name of a function formulas can call`;
     if (builtinNames.has(n)) return `${n} is the name of a built-in function`;
-    if (LOCKED_FUNCTIONS.includes(n) || (n in math && !FREE_NAMES.has(n))) return `${n} is a name of the formula language`;
+    if (LOCKED_FUNCTIONS.includes(n) || (isMathjsName(n) && !FREE_NAMES.has(n))) return `${n} is a name of the formula language`;
     return undefined;
   };
   if (typeof name !== 'string') return { ok: false, reason: 'a cell name must be text', suggestion: 'cell_1' };

@@ -4,7 +4,7 @@
 import type { MathNode } from 'mathjs';
 import type { CellError } from './cellError';
 import { lockedMath } from './lockedMath';
-import { math } from './mathInstance';
+import { isMathjsName, math } from './mathInstance';
 import { ALLOWED_CONSTANTS, ALLOWED_MATH_FUNCTIONS } from './allowedFunctions';
 import { checkCellName, FREE_NAMES } from './cellName';
 import { FunctionCellScope } from './functionCellScope';
@@ -105,7 +105,7 @@ function walk(root: MathNode, params: ReadonlySet<string>, builtinNames: Readonl
   const refuse = (detail: string): WalkResult => ({ deps: [], problem: { kind: 'refused', detail } });
   const isCallable = (name: string) => ALLOWED_MATH_FUNCTIONS.has(name) || builtinNames.has(name);
   // Anything else the mathjs namespace holds (inherited prototype names included) is out of reach.
-  const forbiddenName = (name: string) => name in math && !isCallable(name) && !ALLOWED_CONSTANTS.has(name) && !FREE_NAMES.has(name);
+  const forbiddenName = (name: string) => isMathjsName(name) && !isCallable(name) && !ALLOWED_CONSTANTS.has(name) && !FREE_NAMES.has(name);
   while (stack.length > 0) {
     const [node, depth, inIndex] = stack.pop()!;
     if (++count > MAX_NODES) return { deps: [], problem: { kind: 'limit', detail: `the formula has more than ${MAX_NODES} parts` } };

@@ -1,12 +1,14 @@
 // Prepares the shared mathjs instance for formulas, once: imports every built-in as a raw
-// function, keeps private references to the parser, then replaces the functions that could
-// change the instance or evaluate text with stubs that throw. Done lazily on first use so that
-// built-in modules (which import the instance) finish loading first.
+// function, keeps private references to the parser, puts the size guards where formulas look
+// names up, then replaces the functions that could change the instance or evaluate text with
+// stubs that throw. Done lazily on first use so that built-in modules (which import the
+// instance) finish loading first. mathjs functions are still built on first use, so start-up
+// pays only for the ones a sheet calls.
 import type { MathNode } from 'mathjs';
 import { math } from './mathInstance';
 import { allBuiltins } from '../builtins/index';
 import type { Builtin } from './builtin';
-import { ALLOWED_MATH_FUNCTIONS, LOCKED_FUNCTIONS } from './allowedFunctions';
+import { LOCKED_FUNCTIONS } from './allowedFunctions';
 import { sizeGuardedFunctions, sizeGuardedTransforms } from './sizeGuards';
 
 export interface LockedMath {
@@ -42,14 +44,14 @@ export function lockedMath(): LockedMath {
       importProblems.push(`built-in ${b.name} could not be added: ${(e as Error).message}`);
     }
   }
-  // Resolve mathjs's lazily built functions now, while their dependencies are intact.
+  // mathjs builds each function on first use. The size guards replace list arithmetic only where
+  // formulas look names up (the expression namespace); mathjs functions built later still get the
+  // plain functions they depend on, as they would have before the guards were put in place.
   const withTransform = (math as unknown as { expression: { mathWithTransform: Record<string, unknown> } }).expression
     .mathWithTransform;
-  for (const name of ALLOWED_MATH_FUNCTIONS) void withTransform[name], void (math as unknown as Record<string, unknown>)[name];
-  // List arithmetic measures its operands before building a result (see sizeGuards.ts).
-  math.import(sizeGuardedFunctions(), { override: true });
-  for (const [name, transform] of Object.entries(sizeGuardedTransforms())) {
-    Object.defineProperty(withTransform, name, { value: transform, writable: true, configurable: true, enumerable: true });
+  const guards: Record<string, unknown> = { ...sizeGuardedFunctions(), ...sizeGuardedTransforms() };
+  for (const [name, guard] of Object.entries(guards)) {
+    Object.defineProperty(withTransform, name, { value: guard, writable: true, configurable: true, enumerable: true });
   }
   const stubs: Record<string, () => never> = {};
   for (const name of LOCKED_FUNCTIONS) {
@@ -61,12 +63,18 @@ export function lockedMath(): LockedMath {
   const { import: importStub, ...others } = stubs;
   math.import(others, { override: true });
   math.import({ import: importStub }, { override: true });
-  // config() may still be read (returns a copy) but never changed.
-  const readConfig = math.config.bind(math) as unknown as () => unknown;
-  (math as unknown as { config: unknown }).config = (options?: unknown) => {
+  // config() may still be read (returns a copy) but never changed. Its read-only properties
+  // (config.relTol, ...) stay, for the mathjs functions built after the lock.
+  const original = math.config as unknown as (() => unknown) & object;
+  const readConfig = original.bind(math) as () => unknown;
+  const lockedConfig = (options?: unknown) => {
     if (options !== undefined) throw new Error(lockedMessage('config'));
     return readConfig();
   };
+  for (const [key, descriptor] of Object.entries(Object.getOwnPropertyDescriptors(original))) {
+    if (!(key in lockedConfig)) Object.defineProperty(lockedConfig, key, descriptor);
+  }
+  (math as unknown as { config: unknown }).config = lockedConfig;
   // Units are fixed from here on (createUnit is refused), so mathjs's unit-name lookup, which
   // scans every unit and prefix and runs for each name a formula mentions, can remember answers.
   const unitClass = math.Unit as unknown as { isValuelessUnit(name: string): boolean };

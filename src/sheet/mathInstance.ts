@@ -1,11 +1,13 @@
-// The private mathjs instance every formula is evaluated with. Astronomers' units are defined
-// here before the instance is locked (see formulaCompiler for the allow-list that guards it).
-import { create, all, type MathJsInstance, type Unit } from 'mathjs';
+// The private mathjs instance every formula is evaluated with, built from only the factories the
+// formula language needs (mathFactories.ts), so that start-up and bundles stay small. Astronomers'
+// units are defined here before the instance is locked (see formulaCompiler for the allow-list).
+import { create, type MathJsInstance, type Unit } from 'mathjs';
 import { M_SUN_KG, AU_M, PC_M, YEAR_S } from '../physics/constants';
+import { MATH_FACTORIES, OMITTED_MATHJS_NAMES } from './mathFactories';
 
 function buildInstance(): MathJsInstance {
   // absTol 0: mathjs's default absolute tolerance would make 1e-15 == 0 true.
-  const m = create(all, { absTol: 0, relTol: 1e-12 });
+  const m = create(MATH_FACTORIES, { absTol: 0, relTol: 1e-12 });
   // Units of the trade (values from src/physics/constants.ts, each with its source there).
   m.createUnit('Msun', { definition: `${M_SUN_KG} kg` });
   m.createUnit('au', { definition: `${AU_M} m` });
@@ -29,6 +31,14 @@ export function quantity(valueSI: number, unitText: string): Unit {
   const q = u.clone() as Unit & { value: number; fixPrefix: boolean };
   q.value = valueSI;
   return q;
+}
+
+/**
+ * Whether a name belongs to mathjs's full namespace (inherited object properties included), also
+ * when this instance leaves it out: such names stay refused in formulas and as cell names.
+ */
+export function isMathjsName(name: string): boolean {
+  return name in math || OMITTED_MATHJS_NAMES.has(name);
 }
 
 export function isUnit(v: unknown): v is Unit {

@@ -6,7 +6,8 @@
 // Keys are written in that order, empty optional cell fields are left out, 2-space indent and a
 // trailing newline, so saving what was loaded gives the same bytes. Loading validates everything
 // and refuses a bad file with a message that names the problem.
-import { z } from 'zod';
+// zod/v4 as a namespace import lets bundlers keep only the schemas used (the CLI bundle drops the locales).
+import * as z from 'zod/v4';
 import type { CellSpec } from './types';
 import { migrateToCurrent } from './sheetMigrations';
 

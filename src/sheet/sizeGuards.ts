@@ -91,12 +91,13 @@ export function checkCubic(fn: string, args: readonly unknown[]): void {
 }
 
 function guarded(name: string, check: (fn: string, args: readonly unknown[]) => void): ((...args: unknown[]) => unknown) | undefined {
-  const original = (math as unknown as Record<string, unknown>)[name];
-  if (typeof original !== 'function') return undefined;
-  const fn = original as (...args: unknown[]) => unknown;
+  if (!(name in math)) return undefined;
+  // The mathjs function is looked up on the first call (mathjs builds it on first use).
+  let fn: ((...args: unknown[]) => unknown) | undefined;
   const wrapper = function (...args: unknown[]): unknown {
     // plain numbers pass straight through; only lists are measured
     if (args.length >= 1 && (typeof args[0] === 'object' || typeof args[1] === 'object')) check(name, args);
+    fn ??= (math as unknown as Record<string, (...args: unknown[]) => unknown>)[name];
     return fn(...args);
   };
   Object.defineProperty(wrapper, 'name', { value: name });
@@ -133,7 +134,6 @@ export function sizeGuardedTransforms(): Record<string, RawTransform> {
   const plain = math as unknown as Record<string, (a: unknown, b: unknown) => unknown>;
   const isList = (v: unknown) => listSize(v) !== null;
   const make = (name: string, shortCut: (c1: unknown) => unknown): RawTransform => {
-    const f = plain[name];
     const t = ((args, _m, scope) => {
       const c1 = args[0].compile().evaluate(scope);
       if (!isList(c1)) {
@@ -142,7 +142,7 @@ export function sizeGuardedTransforms(): Record<string, RawTransform> {
       }
       const c2 = args[1].compile().evaluate(scope);
       checkBroadcast(name, [c1, c2]);
-      return f(c1, c2);
+      return plain[name](c1, c2);
     }) as RawTransform;
     t.rawArgs = true;
     return t;

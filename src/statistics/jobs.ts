@@ -7,6 +7,7 @@
 //   const result = await runJob(sheet, { kind: 'scan', vary: [{ cell: 'rate_norm', lo: '1e-4 Mpc^-3 Gyr^-1',
 //     hi: '1e-2 Mpc^-3 Gyr^-1', n: 100, log: true }], outputs: ['A_yr'], measurementCell: 'measured' },
 //     { onProgress: (done, total) => post({ done, total }), signal: ctl.signal });
+import { realiseJob, type RealiseOptions, type RealiseResult } from './realiseJob';
 import type { Sheet } from '../sheet/sheet';
 import { isSheetObject } from '../sheet/sheetObject';
 import type { AmplitudeMeasurement } from './measurement';
@@ -38,14 +39,16 @@ export type JobSpec =
   | { kind: 'scan'; vary: AxisSpec[]; outputs: string[]; measurementCell?: string; levels?: number[] }
   | { kind: 'sample'; samples: number; seed: number; outputs: string[]; measurementCell?: string }
   | { kind: 'goalSeek'; input: string; output: string; target: Bound; lo?: Bound; hi?: Bound }
-  | { kind: 'rate'; measurementCell: string; rateCell?: string; output?: string; densityCell?: string };
+  | { kind: 'rate'; measurementCell: string; rateCell?: string; output?: string; densityCell?: string }
+  | ({ kind: 'realise' } & RealiseOptions);
 
 export type JobResult =
   | { kind: 'scan1d'; result: Scan1DResult }
   | { kind: 'scan2d'; result: Scan2DResult }
   | { kind: 'sample'; result: MonteCarloResult }
   | { kind: 'goalSeek'; result: Omit<GoalSeekResult, 'cellValue'> }
-  | { kind: 'rate'; result: RateSolveResult };
+  | { kind: 'rate'; result: RateSolveResult }
+  | { kind: 'realise'; result: RealiseResult };
 
 /** The measurement held by a cell (a 'measurement' SheetObject from measuredAmplitude and friends). */
 export function measurementOfCell(sheet: Sheet, cell: string): AmplitudeMeasurement {
@@ -132,6 +135,10 @@ export function chunkedJobFor(sheet: Sheet, spec: JobSpec): PlannedJobSpec | nul
         options: { samples: spec.samples, seed: spec.seed, outputs: spec.outputs, measurement },
         wrap: (r) => ({ kind: 'sample', result: r as MonteCarloResult }),
       };
+    }
+    case 'realise': {
+      const { kind: _kind, ...options } = spec;
+      return { job: realiseJob, options, wrap: (r) => ({ kind: 'realise', result: r as RealiseResult }) };
     }
     default:
       return null;

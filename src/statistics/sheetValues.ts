@@ -4,7 +4,7 @@
 import type { Unit } from 'mathjs';
 import type { Sheet } from '../sheet/sheet';
 import type { CellState } from '../sheet/types';
-import { isUnit } from '../sheet/mathInstance';
+import { isUnit, math } from '../sheet/mathInstance';
 
 /** A problem with a statistics job on a sheet: the message names the cell and what was wrong. */
 export class SheetJobError extends Error {
@@ -54,12 +54,34 @@ export function unitTextOf(value: unknown): string {
   return isUnit(value) ? (value as Unit).formatUnits() : '';
 }
 
+/** Converters from SI to a template's own unit, kept per template (values are never changed). */
+const ownUnitConverters = new WeakMap<object, (xSI: number) => number>();
+
+/**
+ * Converts SI numbers to the template's unit: the unit text is read and parsed once, then each
+ * call sets the value of one scratch copy and converts it (Unit.toNumber with the parsed unit
+ * gives the same number as with its text), so CSV rows create no Unit per value.
+ */
+function ownUnitConverter(template: Unit): (xSI: number) => number {
+  const scratch = template.clone() as Unit & { value: number };
+  const units = scratch.formatUnits();
+  if (!units) return (xSI) => xSI;
+  const target = (math.Unit as unknown as { parse(text: string): Unit }).parse(units);
+  return (xSI) => {
+    scratch.value = xSI;
+    return scratch.toNumber(target as unknown as string);
+  };
+}
+
 /** A value shown in its own unit (for messages and CSV): number in that unit. */
 export function inOwnUnit(template: unknown, xSI: number): number {
   if (!isUnit(template)) return xSI;
-  const u = valueLike(template, xSI) as Unit;
-  const units = u.formatUnits();
-  return units ? u.toNumber(units) : xSI;
+  let convert = ownUnitConverters.get(template as object);
+  if (!convert) {
+    convert = ownUnitConverter(template as Unit);
+    ownUnitConverters.set(template as object, convert);
+  }
+  return convert(xSI);
 }
 
 /** The numeric value of an output state, or a clear message saying why there is none. */

@@ -1,11 +1,14 @@
 // The panel beside the sheet: plots, scans and the built-in reference, one shown at a time
-// (all stay mounted, so plot settings and scan results survive a change of tab). The tab list
+// (once shown, a panel stays mounted, so plot settings and scan results survive a change of tab).
+// Each panel's code (and the plotting library) is loaded on its own, after the sheet: the first
+// results never wait for it, and a panel that is never opened is never loaded. The tab list
 // follows the WAI-ARIA Authoring Practices tabs pattern: one tab in the Tab order, arrow keys,
 // Home and End move between tabs.
-import { createSignal, For, type Accessor } from 'solid-js';
-import { PlotsPanel } from '../plots/PlotsPanel';
-import { ScanPanel } from '../jobs/ScanPanel';
-import { ReferencePanel } from '../help/ReferencePanel';
+import { createSignal, For, lazy, Show, Suspense, type Accessor } from 'solid-js';
+
+const PlotsPanel = lazy(() => import('../plots/PlotsPanel').then((m) => ({ default: m.PlotsPanel })));
+const ScanPanel = lazy(() => import('../jobs/ScanPanel').then((m) => ({ default: m.ScanPanel })));
+const ReferencePanel = lazy(() => import('../help/ReferencePanel').then((m) => ({ default: m.ReferencePanel })));
 
 export type SideTab = 'plots' | 'scan' | 'reference';
 const TABS: { id: SideTab; label: string }[] = [
@@ -20,15 +23,25 @@ export const PLOTS_REGION_ID = 'plots-region';
 export interface SidePanelControl {
   tab: Accessor<SideTab>;
   showTab(tab: SideTab): void;
+  /** Tabs shown at least once (their panels stay mounted). */
+  opened: Accessor<ReadonlySet<SideTab>>;
 }
 
 export function createSidePanelControl(): SidePanelControl {
   const [tab, setTab] = createSignal<SideTab>('plots');
-  return { tab, showTab: setTab };
+  const [opened, setOpened] = createSignal<ReadonlySet<SideTab>>(new Set<SideTab>(['plots']));
+  return {
+    tab,
+    opened,
+    showTab(t) {
+      setTab(t);
+      if (!opened().has(t)) setOpened(new Set([...opened(), t]));
+    },
+  };
 }
 
 export function SidePanel(props: { control: SidePanelControl }) {
-  const { tab, showTab } = props.control;
+  const { tab, showTab, opened } = props.control;
   const buttons: HTMLButtonElement[] = [];
   const onKey = (e: KeyboardEvent, i: number) => {
     const last = TABS.length - 1;
@@ -38,6 +51,7 @@ export function SidePanel(props: { control: SidePanelControl }) {
     showTab(TABS[next].id);
     buttons[next]?.focus();
   };
+  const loading = <p class="panel-loading">Loading…</p>;
   return (
     <aside class="side-panel" aria-label="Plots and tools">
       <div class="tabs no-print" role="tablist" aria-label="Side panel">
@@ -61,16 +75,28 @@ export function SidePanel(props: { control: SidePanelControl }) {
           )}
         </For>
       </div>
-      <div class="tab-body" role="tabpanel" id={`panel-plots`} aria-labelledby="tab-plots" data-panel="plots" hidden={tab() !== 'plots'}>
+      <div class="tab-body" role="tabpanel" id="panel-plots" aria-labelledby="tab-plots" data-panel="plots" hidden={tab() !== 'plots'}>
         <section id={PLOTS_REGION_ID} class="plots-region" aria-label="Plots" tabindex="-1">
-          <PlotsPanel />
+          <Show when={opened().has('plots')}>
+            <Suspense fallback={loading}>
+              <PlotsPanel />
+            </Suspense>
+          </Show>
         </section>
       </div>
       <div class="tab-body" role="tabpanel" id="panel-scan" aria-labelledby="tab-scan" data-panel="scan" hidden={tab() !== 'scan'}>
-        <ScanPanel />
+        <Show when={opened().has('scan')}>
+          <Suspense fallback={loading}>
+            <ScanPanel />
+          </Suspense>
+        </Show>
       </div>
       <div class="tab-body" role="tabpanel" id="panel-reference" aria-labelledby="tab-reference" data-panel="reference" hidden={tab() !== 'reference'}>
-        <ReferencePanel />
+        <Show when={opened().has('reference')}>
+          <Suspense fallback={loading}>
+            <ReferencePanel />
+          </Suspense>
+        </Show>
       </div>
     </aside>
   );
