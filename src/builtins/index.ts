@@ -6,6 +6,7 @@ import { spectrumBuiltins } from './spectrum';
 import { orbitBuiltins } from './orbits';
 import { environmentBuiltins } from './environment';
 import { statisticsBuiltins } from './statistics';
+import { freeSpectrumBuiltins } from './freeSpectrum';
 import { inferenceBuiltins } from './inference';
 import { arrayViewBuiltins } from './arrayView';
 import { utilityBuiltins } from './utility';
@@ -20,6 +21,7 @@ export function allBuiltins(): Builtin[] {
     ...orbitBuiltins,
     ...environmentBuiltins,
     ...statisticsBuiltins,
+    ...freeSpectrumBuiltins,
     ...inferenceBuiltins,
     ...arrayViewBuiltins,
     ...realisationBuiltins,

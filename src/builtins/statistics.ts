@@ -28,7 +28,13 @@ import {
   type UncertainDistribution,
 } from '../statistics/distributions';
 import { BinnedSpectrumError, binsFromCsv, binsFromRows, type BinQuantity } from '../statistics/binnedSpectrum';
-import { AllowedRateObject, BinnedSpectrumObject, ComparisonObject, DistributionObject, MeasurementObject } from './statisticsObjects';
+import { AllowedRateObject, BinnedSpectrumObject, ComparisonObject, DistributionObject, MeasurementObject, type SlopeCheck } from './statisticsObjects';
+import { fitEffectivePowerLaw } from '../statistics/effectivePowerLaw';
+
+/** The f_yr comparison warns when the model's slope over its lowest SLOPE_CHECK_BINS frequencies departs from
+ * the measurement's assumed gamma by more than this (our threshold; common practice, no source). */
+const SLOPE_WARNING_LIMIT = 0.5;
+const SLOPE_CHECK_BINS = 5;
 import { ONE_SIGMA_LEVEL } from '../statistics/sampleSummary';
 import { binTensions } from '../statistics/binnedComparison';
 import type { SheetObject } from '../sheet/sheetObject';
@@ -294,14 +300,31 @@ export const statisticsBuiltins: Builtin[] = [
     args: [
       { name: 'predicted', unit: 'dimensionless', description: 'predicted A_yr = h_c(1/yr)' },
       { name: 'measured', unit: 'measurement', description: 'the measurement' },
+      {
+        name: 'spectrum',
+        unit: 'spectrum',
+        description: `the model spectrum: warns when its slope over the lowest ${SLOPE_CHECK_BINS} frequencies departs from the measurement's gamma by more than ${SLOPE_WARNING_LIMIT}`,
+        optional: true,
+      },
     ],
-    returns: { unit: 'comparison', description: 'ratio, tension in sigma of log10 A (side-dependent), likelihood per dex, percentile, inside' },
+    returns: { unit: 'comparison', description: 'ratio, tension in sigma of log10 A (side-dependent), likelihood per dex, percentile, inside (and the slope warning)' },
     source: 'common practice, no source',
-    example: 'compareToMeasured(A_yr, measured)',
-    fn: (p: unknown, m: unknown) => {
+    example: 'compareToMeasured(A_yr, measured, spectrum)',
+    fn: (p: unknown, m: unknown, spectrum?: unknown) => {
       const fn = 'compareToMeasured';
       const A = amplitude(p, fn, 'predicted');
-      return new ComparisonObject(guarded(fn, () => compareAmplitude(A, measurementArg(m, fn, 'measured'))));
+      const meas = measurementArg(m, fn, 'measured');
+      let check: SlopeCheck | null = null;
+      if (spectrum !== undefined) {
+        const o = spectrum as { frequencyHz?: unknown; hc?: unknown };
+        if (!isSheetObject(spectrum) || !(o.frequencyHz instanceof Float64Array) || !(o.hc instanceof Float64Array)) {
+          throw new BuiltinError(`${where(fn, 'spectrum')} must be a spectrum, got ${kindOf(spectrum)}`);
+        }
+        const n = Math.min(SLOPE_CHECK_BINS, o.frequencyHz.length);
+        const fit = guarded(fn, () => fitEffectivePowerLaw(o.frequencyHz as Float64Array, o.hc as Float64Array, F_YR_HZ, n));
+        check = { modelGamma: fit.gamma, assumedGamma: meas.gamma, bins: n, limit: SLOPE_WARNING_LIMIT, warn: Math.abs(fit.gamma - meas.gamma) > SLOPE_WARNING_LIMIT };
+      }
+      return new ComparisonObject(guarded(fn, () => compareAmplitude(A, meas)), check);
     },
   },
   {

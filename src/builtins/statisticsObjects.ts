@@ -108,16 +108,31 @@ export class BinnedSpectrumObject implements SheetObject {
   }
 }
 
+export interface SlopeCheck {
+  modelGamma: number;
+  assumedGamma: number;
+  bins: number;
+  limit: number;
+  warn: boolean;
+}
+
 export class ComparisonObject implements SheetObject {
   readonly kind = 'comparison';
-  constructor(readonly comparison: AmplitudeComparison) {}
+  constructor(
+    readonly comparison: AmplitudeComparison,
+    /** The model's slope over the lowest bins against the measurement's assumed gamma, when a spectrum was given. */
+    readonly slopeCheck: SlopeCheck | null = null,
+  ) {}
   describe(): string {
     const c = this.comparison;
     const t = c.tensionSigma;
-    return `predicted/measured = ${g(c.ratio)}, ${g(Math.abs(t))} sigma ${t >= 0 ? 'high' : 'low'}, ${c.inside ? 'inside' : 'outside'} the ${g(100 * c.level)}% interval`;
+    const base = `predicted/measured = ${g(c.ratio)}, ${g(Math.abs(t))} sigma ${t >= 0 ? 'high' : 'low'}, ${c.inside ? 'inside' : 'outside'} the ${g(100 * c.level)}% interval`;
+    const s = this.slopeCheck;
+    if (!s || !s.warn) return base;
+    return `${base}; warning: the model's slope over its lowest ${s.bins} frequencies is gamma = ${g(s.modelGamma)}, not the ${g(s.assumedGamma)} the measurement assumed (differs by more than ${s.limit}): compare across the band instead`;
   }
   toJSON(): unknown {
-    return { ...this.comparison };
+    return { ...this.comparison, slopeCheck: this.slopeCheck };
   }
 }
 

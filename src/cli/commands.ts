@@ -4,7 +4,9 @@ import { evaluateCommand } from './evaluateCommand';
 import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
 import { plotCommand } from './plotCommand';
+import { importCommand } from './importCommand';
 import { mergeCommand } from './mergeCommand';
+import { inferCommand } from './inferCommand';
 import { realiseCommand } from './realiseCommand';
 
 export interface Command {
@@ -21,6 +23,8 @@ export const commands: Record<string, Command> = {
   scan: scanCommand,
   sample: sampleCommand,
   plot: plotCommand,
+  import: importCommand,
   merge: mergeCommand,
+  infer: inferCommand,
   realise: realiseCommand,
 };

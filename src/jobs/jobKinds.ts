@@ -3,11 +3,13 @@ import { registerChunkedJob } from './chunkedJob';
 import { scan1dJob } from '../statistics/scan1dJob';
 import { scan2dJob } from '../statistics/scan2dJob';
 import { monteCarloJob } from '../statistics/monteCarloJob';
+import { inferBatchJob } from '../statistics/inferBatchJob';
 import { realiseJob } from '../statistics/realiseJob';
 
 export function registerJobKinds(): void {
   registerChunkedJob(scan1dJob);
   registerChunkedJob(scan2dJob);
   registerChunkedJob(monteCarloJob);
+  registerChunkedJob(inferBatchJob);
   registerChunkedJob(realiseJob);
 }

@@ -24,9 +24,16 @@ function buildInstance(): MathJsInstance {
 /** The shared instance. Built-ins are imported and the instance is locked by the formula compiler. */
 export const math: MathJsInstance = buildInstance();
 
+/** Parsed unit texts of quantity(), kept (units are fixed once the instance is locked; never handed out). */
+const parsedUnits = new Map<string, Unit>();
+
 /** A quantity in SI with the given unit text, e.g. quantity(3.1e22, 'm'). */
 export function quantity(valueSI: number, unitText: string): Unit {
-  const u = math.unit(unitText);
+  let u = parsedUnits.get(unitText);
+  if (!u) {
+    u = math.unit(unitText);
+    if (parsedUnits.size < 1000) parsedUnits.set(unitText, u);
+  }
   // mathjs stores a unit's value in SI base units; set it directly to avoid rounding twice.
   const q = u.clone() as Unit & { value: number; fixPrefix: boolean };
   q.value = valueSI;

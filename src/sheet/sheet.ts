@@ -65,6 +65,7 @@ export class Sheet {
   private readonly graph = new DependencyGraph();
   private readonly observers = new Set<SheetObserver>();
   private readonly planCache = new Map<string, string[]>();
+  private lastPlan: { names: string[]; outputs: string[]; key: string } | null = null;
   /** Topological ranks of the whole sheet, kept while the graph does not change. */
   private ranked: { rank: Map<string, number>; order: string[]; cycles: ReadonlySet<string> } | null = null;
   private readonly builtinNames: ReadonlySet<string>;
@@ -308,8 +309,16 @@ export class Sheet {
     for (const [name] of entries) {
       if (!this.records.has(name)) throw new SheetEditError(`cannot override ${name}: there is no cell of that name`);
     }
-    const key = `${entries.map(([n]) => n).sort().join(',')}|${outputs.join(',')}`;
-    let plan = this.planCache.get(key);
+    // Scans and samples ask with the same names again and again: compare with the last request
+    // before building the cache key.
+    const last = this.lastPlan;
+    let plan: string[] | undefined;
+    if (last && last.outputs.length === outputs.length && last.names.length === entries.length &&
+      last.outputs.every((o, i) => o === outputs[i]) && last.names.every((n, i) => n === entries[i][0])) {
+      plan = this.planCache.get(last.key);
+    }
+    const key = plan ? '' : `${entries.map(([n]) => n).sort().join(',')}|${outputs.join(',')}`;
+    if (!plan) plan = this.planCache.get(key);
     if (!plan) {
       const overridden = new Set(entries.map(([n]) => n));
       const down = this.graph.downstream(overridden);
@@ -318,6 +327,7 @@ export class Sheet {
       plan = this.graph.plan(subset, this.positionMap()).order;
       this.planCache.set(key, plan);
     }
+    if (key) this.lastPlan = { names: entries.map(([n]) => n), outputs: [...outputs], key };
     const local = new Map<string, CellState>();
     for (const [name, value] of entries) local.set(name, { status: 'value', value });
     const lookup: Lookup = (n) => local.get(n) ?? this.records.get(n)?.state;

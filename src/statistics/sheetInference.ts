@@ -14,6 +14,8 @@ import { seededRandom } from './prng';
 import { streamSeed } from './walkerStreams';
 import { SheetJobError, checkCancelled, inOwnUnit, siNumber, unitTextOf, yieldToEventLoop, type JobControl } from './sheetValues';
 import { integratedAutocorrelationTime } from './autocorrelation';
+import type { ParallelOptions } from '../jobs/runChunks';
+import { pooledEvaluator } from './inferBatchJob';
 
 export interface InferenceSpec {
   /** The cell holding ln L (a plain number). */
@@ -153,30 +155,32 @@ export function sheetEvaluator(sheet: Sheet, params: FreeParameter[], likelihood
   };
 }
 
-export async function runInference(sheet: Sheet, spec: InferenceSpec, control?: JobControl & { onStep?(p: InferenceProgress): void }, evaluator?: InferenceEvaluator): Promise<InferenceResult> {
-  checkSpec(sheet, spec);
-  const params = freeParameters(sheet, spec.free);
-  const names = params.map((p) => p.cell);
-  for (const n of names) {
-    if (n === spec.likelihood) throw new SheetJobError(`${n} is the likelihood cell; it cannot be free`);
-  }
-  const derived = (spec.derived ?? []).filter((d) => !names.includes(d));
-  if (spec.walkers < 2 * params.length) {
-    throw new SheetJobError(`infer: use at least twice as many walkers as free cells (${2 * params.length} for ${params.length}), got ${spec.walkers}`);
-  }
-  let failureExample: { point: Float64Array; message: string } | undefined;
-  const onFailure = (u: Float64Array, message: string) => {
-    failureExample ??= { point: Float64Array.from(u), message };
-  };
-  const evaluate = evaluator ?? sheetEvaluator(sheet, params, spec.likelihood, derived, onFailure);
-  const logPrior = (u: Float64Array) => logPriorDensity(params, u);
+export interface InferenceRunOptions {
+  /** Workers for the likelihood evaluations (src/jobs): the result is the same for any number. */
+  parallel?: ParallelOptions;
+}
 
-  // Start: each walker drawn from the prior with its own stream, redrawn where the likelihood is zero.
+/**
+ * Start positions (sampler coordinates): each walker drawn from the priors with its own stream
+ * (seed, chain key, walker), redrawn up to MAX_START_TRIES times where the likelihood is zero.
+ * Walkers that found no likelihood start next to one that did. All failing is an error naming the
+ * likelihood cell and the free cells.
+ */
+export async function startingPoints(
+  spec: { likelihood: string; walkers: number; seed: number },
+  params: FreeParameter[],
+  evaluate: InferenceEvaluator,
+  logPrior: (u: Float64Array) => number,
+  takeFailure: () => { point: Float64Array; message: string } | undefined,
+  control?: JobControl,
+  chainKey = 0,
+): Promise<Float64Array[]> {
+  const names = params.map((p) => p.cell);
   const W = spec.walkers;
   const dim = params.length;
   const tries: Float64Array[][] = [];
   for (let k = 0; k < W; k++) {
-    const rng = seededRandom(streamSeed(spec.seed, [0, k, 1]));
+    const rng = seededRandom(streamSeed(spec.seed, [chainKey, k, 1]));
     tries.push(Array.from({ length: MAX_START_TRIES }, () => Float64Array.from(params, (p) => toSamplerCoordinate(p, p.prior.sample(rng)))));
   }
   const start = tries.map((t) => t[0]);
@@ -193,7 +197,7 @@ export async function runInference(sheet: Sheet, spec: InferenceSpec, control?: 
         start[k] = pts[j];
       }
     });
-    firstMessage ??= failureExample?.message;
+    firstMessage ??= takeFailure()?.message;
     checkCancelled(control);
   }
   if (!ok.some((x) => x)) {
@@ -205,7 +209,55 @@ export async function runInference(sheet: Sheet, spec: InferenceSpec, control?: 
   // Walkers that found no likelihood start at a good walker's point nudged by a tiny amount (deterministic).
   const good = start.filter((_, k) => ok[k]);
   for (let k = 0; k < W; k++) if (!ok[k]) start[k] = good[k % good.length].map((x, i) => x + 1e-6 * (1 + Math.abs(x)) * ((k + i) % 2 ? 1 : -1));
-  failureExample = undefined;
+  takeFailure();
+  return start;
+}
+
+export async function runInference(sheet: Sheet, spec: InferenceSpec, control?: JobControl & { onStep?(p: InferenceProgress): void }, run: InferenceRunOptions = {}): Promise<InferenceResult> {
+  checkSpec(sheet, spec);
+  const params = freeParameters(sheet, spec.free);
+  const names = params.map((p) => p.cell);
+  for (const n of names) {
+    if (n === spec.likelihood) throw new SheetJobError(`${n} is the likelihood cell; it cannot be free`);
+  }
+  const derived = (spec.derived ?? []).filter((d) => !names.includes(d));
+  if (spec.walkers < 2 * params.length) {
+    throw new SheetJobError(`infer: use at least twice as many walkers as free cells (${2 * params.length} for ${params.length}), got ${spec.walkers}`);
+  }
+  let failureExample: { point: Float64Array; message: string } | undefined;
+  const onFailure = (u: Float64Array, message: string) => {
+    failureExample ??= { point: Float64Array.from(u), message };
+  };
+  const pooled =
+    run.parallel && run.parallel.workers > 1 && run.parallel.pool
+      ? pooledEvaluator(sheet, { free: names, likelihood: spec.likelihood, derived }, run.parallel, onFailure)
+      : null;
+  try {
+    return await sample(sheet, spec, params, derived, pooled ? pooled.evaluate : sheetEvaluator(sheet, params, spec.likelihood, derived, onFailure), control, () => {
+      const f = failureExample;
+      failureExample = undefined;
+      return f;
+    });
+  } finally {
+    await pooled?.close();
+  }
+}
+
+async function sample(
+  sheet: Sheet,
+  spec: InferenceSpec,
+  params: FreeParameter[],
+  derived: string[],
+  evaluate: InferenceEvaluator,
+  control: (JobControl & { onStep?(p: InferenceProgress): void }) | undefined,
+  takeFailure: () => { point: Float64Array; message: string } | undefined,
+): Promise<InferenceResult> {
+  const names = params.map((p) => p.cell);
+  const logPrior = (u: Float64Array) => logPriorDensity(params, u);
+
+  const start = await startingPoints(spec, params, evaluate, logPrior, takeFailure, control);
+  const W = spec.walkers;
+  const dim = params.length;
 
   let last = Date.now();
   const chain: EnsembleChain = await runEnsemble({
@@ -244,8 +296,8 @@ export async function runInference(sheet: Sheet, spec: InferenceSpec, control?: 
   if (burnIn >= chain.steps) throw new SheetJobError(`infer: only ${chain.steps} steps were taken, not more than the burn-in of ${burnIn}`);
   const diagnostics = diagnoseRun(chain, names, burnIn, thin);
   const result = summarise(sheet, spec, params, derived, chain, burnIn, thin, diagnostics);
-  if (failureExample) {
-    const fe = failureExample as { point: Float64Array; message: string };
+  const fe = takeFailure();
+  if (fe) {
     result.failureExample = {
       point: Object.fromEntries(params.map((p, i) => [p.cell, p.toDisplay(fromSamplerCoordinate(p, fe.point[i]))])),
       message: fe.message,

@@ -1,5 +1,5 @@
-// The always-visible bar of key results: A_yr, the comparison with the measurement, and the merger
-// rate the measurement allows — whichever of these the sheet has.
+// The always-visible bar of key results: A_yr, the comparison with the measurement across the band
+// and at f_yr, and the merger rate the measurement allows — whichever of these the sheet has.
 import { createMemo, For, Show } from 'solid-js';
 import { useServices } from './services';
 import { formatValue, isSheetObject, type CellSpec } from '../engine/engine';
@@ -20,8 +20,12 @@ export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unk
     const v = valueOf(c.name);
     return isSheetObject(v) && re.test(v.kind);
   };
-  const comparison = cells.find((c) => kindIs(c, /^comparison$/i)) ?? cells.find((c) => /compar|tension|ratio.*meas|meas.*ratio/i.test(c.name));
-  if (comparison) out.push({ role: 'against the measurement', cell: comparison });
+  // The headline is the comparison across the band (free spectrum and (A, gamma)); the single number at f_yr follows.
+  const band = cells.find((c) => kindIs(c, /^bandComparison$/));
+  if (band) out.push({ role: 'across the band', cell: band });
+  const comparison =
+    cells.find((c) => kindIs(c, /^comparison$/i)) ?? (band ? undefined : cells.find((c) => /compar|tension|ratio.*meas|meas.*ratio/i.test(c.name)));
+  if (comparison) out.push({ role: band ? 'at f_yr' : 'against the measurement', cell: comparison });
   const allowed =
     cells.find((c) => kindIs(c, /allowed|rateSolution|rateRange/i)) ??
     cells.find((c) => /allowed/i.test(c.name) && sectionOf(c) !== 'population');

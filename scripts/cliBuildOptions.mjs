@@ -1,0 +1,27 @@
+// esbuild options of the command-line bundle (scripts/buildCli.mjs writes it to dist-cli/; the
+// bundle-size test builds the same into a temporary folder).
+import { fileURLToPath } from 'node:url';
+
+const root = fileURLToPath(new URL('..', import.meta.url));
+
+/** Options for esbuild's build(), writing into `outdir`. */
+export function cliBuildOptions(outdir) {
+  return {
+    entryPoints: { strainsheet: `${root}src/cli/main.ts`, chunkWorker: `${root}src/jobs/nodeChunkWorker.ts` },
+    bundle: true,
+    platform: 'node',
+    format: 'esm',
+    target: 'node20',
+    outdir,
+    outExtension: { '.js': '.mjs' },
+    logLevel: 'warning',
+    legalComments: 'none',
+    // Loaded from node_modules only by `strainsheet plot --pdf`, so other commands do not parse them.
+    external: ['jspdf', 'svg2pdf.js', 'linkedom', 'dejavu-fonts-ttf'],
+    // Whitespace and syntax only: identifiers keep their names, so stack traces stay readable.
+    minifyWhitespace: true,
+    minifySyntax: true,
+    // workerpool is CommonJS and requires node:worker_threads at run time: give the ESM bundle a require.
+    banner: { js: "import { createRequire as __strainsheetCreateRequire } from 'node:module'; const require = __strainsheetCreateRequire(import.meta.url);" },
+  };
+}
