@@ -33,20 +33,16 @@ export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unk
   return out;
 }
 
-/** The new picks, except that a role keeps its earlier cell as long as that cell is still in the sheet. */
-export function keepPicks(previous: KeyResult[], cells: CellSpec[], fresh: KeyResult[]): KeyResult[] {
+/**
+ * The new picks, except while a card's cell has no value (an error, a recalculation, an edit under
+ * way): then every card keeps its cell, so no other cell is swapped in (picks by kind need values).
+ */
+export function keepPicks(previous: KeyResult[], cells: CellSpec[], fresh: KeyResult[], noValue: (name: string) => boolean): KeyResult[] {
   const byName = new Map(cells.map((c) => [c.name, c]));
-  const out = fresh.map((r) => {
-    const kept = previous.find((p) => p.role === r.role);
-    const cell = kept && byName.get(kept.cell.name);
-    return cell ? { role: r.role, cell } : r;
-  });
-  for (const p of previous) {
-    const cell = byName.get(p.cell.name);
-    if (cell && !out.some((r) => r.role === p.role)) out.push({ role: p.role, cell });
+  if (previous.length && previous.every((p) => byName.has(p.cell.name)) && previous.some((p) => noValue(p.cell.name))) {
+    return previous.map((p) => ({ role: p.role, cell: byName.get(p.cell.name)! }));
   }
-  const order = ['predicted A_yr', 'against the measurement', 'allowed merger rate'];
-  return out.sort((a, b) => order.indexOf(a.role) - order.indexOf(b.role));
+  return fresh;
 }
 
 export function KeyResultsBar() {
@@ -54,7 +50,7 @@ export function KeyResultsBar() {
   const { session } = services;
   // A card keeps its cell while that cell exists: a cell in error or being edited (no value, so no
   // kind to recognise) shows its own state instead of another cell taking its place.
-  const results = createMemo<KeyResult[]>((previous) => keepPicks(previous, session.cells(), pickKeyResults(session.cells(), (n) => session.value(n))), []);
+  const results = createMemo<KeyResult[]>((previous) => keepPicks(previous, session.cells(), pickKeyResults(session.cells(), (n) => session.value(n)), (n) => session.state(n).status !== 'value'), []);
   // Keyed by role and name, so the bar's buttons are rebuilt only when a different cell is picked.
   const keys = createMemo(() => results().map((r) => `${r.role}\u0000${r.cell.name}`), undefined, {
     equals: (a, b) => a.length === b.length && a.every((x, i) => x === b[i]),
