@@ -10,6 +10,9 @@ export function cliBuildOptions(outdir) {
     entryPoints: { strainsheet: `${root}src/cli/main.ts`, chunkWorker: `${root}src/jobs/nodeChunkWorker.ts` },
     bundle: true,
     platform: 'node',
+    // ESM builds first: jsonc-parser's CommonJS (UMD) build requires its own files at run time,
+    // which a bundle cannot resolve ("Cannot find module './impl/format'").
+    mainFields: ['module', 'main'],
     format: 'esm',
     target: 'node20',
     outdir,

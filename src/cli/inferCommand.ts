@@ -15,6 +15,8 @@ import { chainsCsv, evidenceLines, inferenceSummary, inferenceSummaryLines } fro
 import { logBayesFactor } from '../statistics/thermodynamicEvidence';
 import { JobCancelledError, SheetJobError } from '../statistics/sheetValues';
 import type { Sheet } from '../sheet/sheet';
+import { cornerModel } from '../statistics/cornerPlot';
+import { cornerSvg } from './cornerSvg';
 import { SheetEditError } from '../sheet/sheet';
 
 const USAGE = `strainsheet infer FILE --likelihood CELL --steps N --walkers W --seed S [options]
@@ -38,6 +40,7 @@ The sheet itself is not changed; the same seed gives the same chains for any num
   --csv FILE         write the chains (every walker and step, burn-in marked) to FILE; without it the
                      CSV goes to standard output and the summary to standard error
   --json FILE        write the summary (posteriors, diagnostics, verdict) as JSON
+  --corner FILE      write a corner plot (SVG) of the kept draws of the free and derived cells
   --evidence         instead of one run: ln Z by thermodynamic integration over --rungs tempered runs
   --rungs N          rungs of the temperature ladder (odd, default 17)
   --compare FILE     with --evidence: the same for another sheet and the Bayes factor ln B = ln Z1 - ln Z2
@@ -84,7 +87,7 @@ export const inferCommand: Command = {
   async run(args, io) {
     const opts = parseOptions(args, {
       flags: ['help', 'quiet', 'evidence'],
-      values: ['likelihood', 'steps', 'walkers', 'seed', 'free', 'prior', 'burn-in', 'thin', 'derived', 'spectrum', 'csv', 'json', 'rungs', 'compare', 'set', 'workers'],
+      values: ['likelihood', 'steps', 'walkers', 'seed', 'free', 'prior', 'burn-in', 'thin', 'derived', 'spectrum', 'csv', 'json', 'corner', 'rungs', 'compare', 'set', 'workers'],
     });
     if (opts.flags.has('help')) {
       io.out(USAGE + '\n');
@@ -162,7 +165,16 @@ export const inferCommand: Command = {
       clear();
       writeCsv(chainsCsv(r), csvPath, io);
       if (jsonPath) writeFile(jsonPath, JSON.stringify(inferenceSummary(r), null, 2) + '\n');
-      const text = inferenceSummaryLines(r).join('\n') + '\n' + (csvPath ? `wrote ${csvPath}\n` : '') + (jsonPath ? `wrote ${jsonPath}\n` : '');
+      const cornerPath = opts.values.get('corner')?.at(-1);
+      if (cornerPath) {
+        const model = cornerModel([
+          ...r.parameters.map((p) => ({ name: p.cell, unit: p.unit, log: p.logScale, draws: r.samples[p.cell] })),
+          ...r.derived.map((d) => ({ name: d.cell, unit: d.unit, log: r.samples[d.cell].every((x) => !(x <= 0)), draws: r.samples[d.cell] })),
+        ]);
+        writeFile(cornerPath, cornerSvg(model, `${opts.positional[0]}: ${r.walkers} walkers x ${r.steps} steps, seed ${r.seed}, burn-in ${r.burnIn}`));
+      }
+      const wrote = [csvPath, jsonPath, opts.values.get('corner')?.at(-1)].filter(Boolean).map((p) => `wrote ${p}\n`).join('');
+      const text = inferenceSummaryLines(r).join('\n') + '\n' + wrote;
       if (csvPath) io.out(text);
       else io.err(text);
       return EXIT_OK;

@@ -4,6 +4,7 @@ import { processIO, type CliIO } from './cliIO';
 import { EXIT_BAD_INPUT, EXIT_OK } from './exitCodes';
 import { UsageError } from './optionParsing';
 import { SheetLoadError } from './sheetLoading';
+import { applyBudgetOptions, BUDGET_HELP } from './budgetOptions';
 
 function overview(): string {
   const names = Object.keys(commands).sort();
@@ -17,6 +18,9 @@ Commands:
 ${lines.join('\n')}
 
 Run "strainsheet COMMAND --help" for a command's options.
+
+Options of every command:
+${BUDGET_HELP}
 `;
 }
 
@@ -33,8 +37,10 @@ export async function main(argv: string[], io: CliIO = processIO): Promise<numbe
     return EXIT_BAD_INPUT;
   }
   const command = commands[name];
+  let budget: ReturnType<typeof applyBudgetOptions> | undefined;
   try {
-    return await command.run(rest, io);
+    budget = applyBudgetOptions(rest);
+    return await command.run(budget.args, io);
   } catch (e) {
     if (e instanceof UsageError) {
       io.err(`strainsheet ${name}: ${e.message}\n\n${command.usage}\n`);
@@ -46,5 +52,7 @@ export async function main(argv: string[], io: CliIO = processIO): Promise<numbe
     }
     io.err(`strainsheet ${name}: unexpected failure: ${(e as Error)?.stack ?? String(e)}\n`);
     return EXIT_BAD_INPUT;
+  } finally {
+    budget?.done();
   }
 }

@@ -1,6 +1,7 @@
 // Reading a sheet file for a command and applying `--set` edits, shared by every command.
 import { readFileSync } from 'node:fs';
 import { Sheet, SheetEditError, SheetFileError } from '../sheet/sheet';
+import { sheetTextFromBytes } from '../sheet/sheetFile';
 import { UsageError } from './optionParsing';
 
 /** Thrown when the sheet file cannot be read or is invalid (exit code 2). */
@@ -13,16 +14,16 @@ export class SheetLoadError extends Error {
 
 /** Reads and parses a sheet file; throws SheetLoadError with a readable message. */
 export function loadSheet(path: string): Sheet {
-  let text: string;
+  let bytes: Uint8Array;
   try {
-    text = readFileSync(path, 'utf8');
+    bytes = readFileSync(path);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a directory' : code === 'EACCES' ? 'permission denied' : (e as Error).message;
     throw new SheetLoadError(`cannot read ${path}: ${why}`);
   }
   try {
-    return Sheet.fromFile(text);
+    return Sheet.fromFile(sheetTextFromBytes(bytes));
   } catch (e) {
     if (e instanceof SheetFileError) throw new SheetLoadError(`${path}: ${e.message}`);
     throw e;

@@ -8,12 +8,13 @@
 // upper limit log10M_cut(f, z) on the mass integral, applied as the integration limit, never as a step
 // in the integrand: the mass panels wholly below the cut keep their nodes (their values are computed
 // once per z node and shared by all frequencies), and the panel the cut falls in is laid anew on
-// [its lower edge, log10M_cut] (massPanels.ts). log10M_cut is a sum of logarithms (iscoCut.ts). The z integrand keeps a kink where log10M_cut crosses log10MMax; its
-// weight is that of the heaviest binaries, e^(-M/M*)-suppressed in the parametric populations, and the
-// convergence tests bound it.
+// [its lower edge, log10M_cut] (massPanels.ts). log10M_cut is a sum of logarithms (iscoCut.ts).
+// The z panels are refined by error control where the z integrand is not smooth (adaptiveZRule.ts),
+// and the kinks where log10M_cut crosses the mass limits become break points where they matter
+// (zKinks.ts); all forms below share that z rule.
 // Error: for smooth integrands composite Gauss-Legendre converges geometrically with order; the default
 // resolution gives A_yr to better than 1e-4 relative for the demo and test populations (see
-// test/physics/convergence.test.ts).
+// test/physics/convergence.test.ts) and for kinked densities (test/physics/kinkedDensities.test.ts).
 //
 // Circular kernel fast path (circularStrainForm.ts): with M_c^(5/3) = M^(5/3) eta, h_c^2 =
 // 4 G^(5/3) / (3 pi^(1/3) c^2) f^(-4/3) Int dz (1+z)^(-1/3) Int dlog10M M^(5/3) Int dq n eta
@@ -28,7 +29,9 @@ import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';
 import { symmetricMassRatio } from './binaryMasses';
 import { circularGwKernel } from './circularKernel';
 import { compositeNodes, type QuadratureRule } from './gaussLegendre';
-import { circularStrainForm } from './circularStrainForm';
+import { circularStrainForm, spectrumZRule } from './circularStrainForm';
+import type { PanelledRule } from './adaptiveZRule';
+import { kinkRedshifts, withKinkBreaks } from './zKinks';
 import { MassPanels } from './massPanels';
 import { checkedValue, densityAt } from './densityChecks';
 import { cutOffsetLog10 } from './iscoCut';
@@ -126,7 +129,7 @@ export function backgroundSpectrum(pop: BinaryPopulation, freqsHz: ArrayLike<num
 function factoredStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, desc: CircularTimesShape, cutFactor: number, res: IntegrationResolution): Float64Array {
   const scaleOf = desc.scaleHz as (mKg: number, q: number) => number;
   const shape = desc.shape;
-  const zr = compositeNodes(pop.zMin, pop.zMax, res.zPanels, res.order);
+  const zr = spectrumZRule(pop, res);
   const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
   const nq = qr.nodes.length;
   const etaW = new Float64Array(nq);
@@ -196,30 +199,53 @@ function factoredStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, d
   const cache: (Float64Array | undefined)[] = new Array(zr.nodes.length);
   const partScales = new Float64Array(res.order * nq);
   const partValues = new Float64Array(res.order * nq);
+  // The z integrand (1+z)^(-1/3) Int dlog10M Int dq ... at z (iz: its node, or -1), frequency f.
+  const zValue = (z: number, iz: number, f: number): number => {
+    const fr = (1 + z) * f;
+    const xCut = log10CutMass(fr, cutFactor);
+    if (xCut <= pop.log10MMin) return 0;
+    const wv = iz >= 0 ? (cache[iz] ??= weightedValues(z, mp.base, new Float64Array(mp.base.nodes.length * nq))) : weightedValues(z, mp.base, new Float64Array(mp.base.nodes.length * nq));
+    let s = sum(fr, wv, baseScales, mp.wholePanels(xCut) * mp.order * nq);
+    const part = mp.partialPanel(xCut);
+    if (part.nodes.length > 0) s += sum(fr, weightedValues(z, part, partValues), nodeScales(part, partScales), part.nodes.length * nq);
+    return Math.pow(1 + z, -1 / 3) * s;
+  };
+  // The same integrand per unit log10M at log10M = x (for the kinks of the cut).
+  const edgeValue = (z: number, x: number, f: number): number => {
+    const one: QuadratureRule = { nodes: Float64Array.of(x), weights: Float64Array.of(1) };
+    return Math.pow(1 + z, -1 / 3) * sum((1 + z) * f, weightedValues(z, one, new Float64Array(nq)), nodeScales(one, new Float64Array(nq)), nq);
+  };
   const out = new Float64Array(freqsHz.length);
   for (let k = 0; k < freqsHz.length; k++) {
     const f = freqsHz[k];
-    let total = 0;
-    for (let iz = 0; iz < zr.nodes.length; iz++) {
-      const z = zr.nodes[iz];
-      const fr = (1 + z) * f;
-      const xCut = log10CutMass(fr, cutFactor);
-      if (xCut <= pop.log10MMin) continue;
-      const wv = (cache[iz] ??= weightedValues(z, mp.base, new Float64Array(mp.base.nodes.length * nq)));
-      let s = sum(fr, wv, baseScales, mp.wholePanels(xCut) * mp.order * nq);
-      const part = mp.partialPanel(xCut);
-      if (part.nodes.length > 0) s += sum(fr, weightedValues(z, part, partValues), nodeScales(part, partScales), part.nodes.length * nq);
-      total += zr.weights[iz] * Math.pow(1 + z, -1 / 3) * s;
-    }
+    const total = zIntegral(zr, res.order, (z, iz) => zValue(z, iz, f), (z, x) => edgeValue(z, x, f), kinksAt(pop, f, cutFactor));
     out[k] = STRAIN_FORM * Math.pow(f, -4 / 3) * total * PER_MPC3;
     if (!Number.isFinite(out[k])) throw new RangeError(`h_c^2 is not finite at f = ${f} Hz (the emission factor returned a non-finite value?)`);
   }
   return out;
 }
 
+/** The kinks of the cut inside the population's z range at frequency f (zKinks.ts). */
+function kinksAt(pop: BinaryPopulation, f: number, cutFactor: number): [number, number][] {
+  return cutFactor === Infinity ? [] : kinkRedshifts(cutOffsetLog10(cutFactor) - Math.log10(f), pop.log10MMin, pop.log10MMax, pop.zMin, pop.zMax);
+}
+
+/** Int dz value(z) on rule zr, with the kinks as break points where they matter (zKinks.ts). */
+function zIntegral(zr: PanelledRule, order: number, value: (z: number, iz: number) => number, edge: (z: number, x: number) => number, kinks: [number, number][]): number {
+  let total = 0;
+  for (let iz = 0; iz < zr.nodes.length; iz++) total += zr.weights[iz] * value(zr.nodes[iz], iz);
+  if (kinks.length === 0) return total;
+  const panelSum = (p: number): number => {
+    let s = 0;
+    for (let iz = zr.starts[p]; iz < zr.starts[p + 1]; iz++) s += zr.weights[iz] * value(zr.nodes[iz], iz);
+    return s;
+  };
+  return withKinkBreaks(total, zr, order, kinks, { at: (z) => value(z, -1), edge, panelSum });
+}
+
 /** Energy form with an arbitrary kernel; weighted densities and masses on the whole mass panels are cached per z node. */
 function energyForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, kernel: EmissionKernel, cutFactor: number, res: IntegrationResolution): Float64Array {
-  const zr = compositeNodes(pop.zMin, pop.zMax, res.zPanels, res.order);
+  const zr = spectrumZRule(pop, res);
   const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
   const nq = qr.nodes.length;
   const eta06 = new Float64Array(nq);
@@ -267,27 +293,33 @@ function energyForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, kernel: E
     return s;
   };
 
+  // The z integrand Int dlog10M Int dq n K / (1+z) at z (iz: its node, or -1), frequency f.
+  const zValue = (z: number, iz: number, f: number): number => {
+    const fr = (1 + z) * f;
+    const xCut = log10CutMass(fr, cutFactor);
+    if (xCut <= pop.log10MMin) return 0;
+    const wd = iz >= 0 ? (cache[iz] ??= weightedDensities(z, mp.base)) : weightedDensities(z, mp.base);
+    let s = sum(fr, z, wd, baseM, baseMc, mp.wholePanels(xCut) * mp.order);
+    const part = mp.partialPanel(xCut);
+    if (part.nodes.length > 0) {
+      for (let i = 0; i < part.nodes.length; i++) {
+        partM[i] = M_SUN_KG * Math.pow(10, part.nodes[i]);
+        for (let j = 0; j < nq; j++) partMc[i * nq + j] = partM[i] * eta06[j];
+      }
+      s += sum(fr, z, weightedDensities(z, part), partM, partMc, part.nodes.length);
+    }
+    return s / (1 + z);
+  };
+  // The same integrand per unit log10M at log10M = x (for the kinks of the cut).
+  const edgeValue = (z: number, x: number, f: number): number => {
+    const one: QuadratureRule = { nodes: Float64Array.of(x), weights: Float64Array.of(1) };
+    const m = Float64Array.of(M_SUN_KG * Math.pow(10, x));
+    return sum((1 + z) * f, z, weightedDensities(z, one), m, Float64Array.from(eta06, (e) => m[0] * e), 1) / (1 + z);
+  };
   const out = new Float64Array(freqsHz.length);
   for (let k = 0; k < freqsHz.length; k++) {
     const f = freqsHz[k];
-    let total = 0;
-    for (let iz = 0; iz < zr.nodes.length; iz++) {
-      const z = zr.nodes[iz];
-      const fr = (1 + z) * f;
-      const xCut = log10CutMass(fr, cutFactor);
-      if (xCut <= pop.log10MMin) continue;
-      const wd = (cache[iz] ??= weightedDensities(z, mp.base));
-      let s = sum(fr, z, wd, baseM, baseMc, mp.wholePanels(xCut) * mp.order);
-      const part = mp.partialPanel(xCut);
-      if (part.nodes.length > 0) {
-        for (let i = 0; i < part.nodes.length; i++) {
-          partM[i] = M_SUN_KG * Math.pow(10, part.nodes[i]);
-          for (let j = 0; j < nq; j++) partMc[i * nq + j] = partM[i] * eta06[j];
-        }
-        s += sum(fr, z, weightedDensities(z, part), partM, partMc, part.nodes.length);
-      }
-      total += (zr.weights[iz] / (1 + z)) * s;
-    }
+    const total = zIntegral(zr, res.order, (z, iz) => zValue(z, iz, f), (z, x) => edgeValue(z, x, f), kinksAt(pop, f, cutFactor));
     out[k] = (ENERGY_FORM / (f * f)) * total * PER_MPC3;
     if (!Number.isFinite(out[k])) throw new RangeError(`h_c^2 is not finite at f = ${f} Hz (kernel returned a non-finite value?)`);
   }

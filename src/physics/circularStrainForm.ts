@@ -4,33 +4,35 @@
 //   h_c^2(f) = 4 G^(5/3) / (3 pi^(1/3) c^2) f^(-4/3) Int dz (1+z)^(-1/3) shape((1+z) f / scaleHz)
 //              Int^{x_cut(f, z)} dlog10M M^(5/3) Int dq n eta,
 // with the composite Gauss-Legendre nodes of backgroundIntegral.ts. x_cut is a sum of logarithms
-// (iscoCut.ts). Work per spectrum:
-// - every density: the q integral folded into the mass integrand; per z node the cumulative sums over
-//   the whole mass panels (shared by all frequencies); per (f, z) pair one partial panel at the cut.
-// - a density factorised as redshift(z) exp(lnMass(log10M)) massRatio(q) (separablePopulation.ts):
-//   each factor's node values once per spectrum, the whole-panel mass sums once for all z, and per
-//   node of a partial panel one exp(lnMass + (5/3) ln10 log10M).
+// (iscoCut.ts). The mass side (circularMassModels.ts) computes a separable density's factors once
+// per spectrum. Accuracy where the z integrand is not smooth:
+// - the z panels are refined by error control (adaptiveZRule.ts) on the integrand without the cut,
+//   which finds powers z^a (a < 2) at z = 0 and other irregular z factors; smooth ones keep the
+//   plain nodes;
+// - at each frequency the z integrand has a kink where x_cut crosses log10MMax (and log10MMin), at a
+//   known redshift; where it can cost more than KINK_TOL of h_c^2 it becomes a break point (zKinks.ts).
 import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';
-import { symmetricMassRatio } from './binaryMasses';
-import { compositeNodes } from './gaussLegendre';
-import { MassPanels } from './massPanels';
-import { checkedLog, checkedValue, densityAt } from './densityChecks';
+import { adaptiveZRule, type PanelledRule } from './adaptiveZRule';
+import { massModelOf, type MassModel } from './circularMassModels';
+import { KINK_TOL, kinkRedshifts, withKinkBreaks } from './zKinks';
 import { cutOffsetLog10 } from './iscoCut';
 import type { BinaryPopulation } from './populationTypes';
 import type { IntegrationResolution } from './backgroundIntegral';
 
-
 /** 4 G^(5/3) / (3 pi^(1/3) c^2) Msun^(5/3) Mpc^-3: the strain form with M in Msun and n in Mpc^-3. */
-const STRAIN_FORM_MSUN_MPC = ((4 * Math.pow(G_SI, 5 / 3)) / (3 * Math.pow(Math.PI, 1 / 3) * C_SI * C_SI)) * Math.pow(M_SUN_KG, 5 / 3) / (MPC_M * MPC_M * MPC_M);
-/** (M / Msun)^(5/3) = exp(FIVE_THIRDS_LN10 log10M). */
-const FIVE_THIRDS_LN10 = (5 / 3) * Math.LN10;
+const STRAIN_FORM_MSUN_MPC = (((4 * Math.pow(G_SI, 5 / 3)) / (3 * Math.pow(Math.PI, 1 / 3) * C_SI * C_SI)) * Math.pow(M_SUN_KG, 5 / 3)) / (MPC_M * MPC_M * MPC_M);
+/** Error control of the z panels: a panel's estimated error relative to the whole z integral. */
+const Z_TOL = 1e-6;
 
-/** Mass integral up to the cut at z node iz: Int^{min(xCut, log10MMax)} dlog10M M^(5/3) Int dq n eta, times the node's z factor. */
-type MassUpTo = (iz: number, xCut: number) => number;
+/** The z rule of every form of the spectrum integral: the composite rule refined by error control on the model's indicator. */
+export function spectrumZRule(pop: BinaryPopulation, res: IntegrationResolution, model: MassModel = massModelOf(pop, res)): PanelledRule {
+  return adaptiveZRule(pop.zMin, pop.zMax, res.zPanels, res.order, model.indicator, Z_TOL);
+}
 
 /** h_c^2 at each frequency (Hz); see the file comment. */
 export function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, cutFactor: number, res: IntegrationResolution, shape?: (ratio: number) => number, scaleHz = 1): Float64Array {
-  const zr = compositeNodes(pop.zMin, pop.zMax, res.zPanels, res.order);
+  const model = massModelOf(pop, res);
+  const zr = spectrumZRule(pop, res, model);
   const nz = zr.nodes.length;
   const log1pz = new Float64Array(nz);
   const zWeight = new Float64Array(nz); // w_z (1+z)^(-1/3)
@@ -38,10 +40,21 @@ export function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<num
     log1pz[iz] = Math.log10(1 + zr.nodes[iz]);
     zWeight[iz] = zr.weights[iz] * Math.pow(1 + zr.nodes[iz], -1 / 3);
   }
-  const mp = new MassPanels(pop.log10MMin, pop.log10MMax, res.log10MPanels, res.order);
-  const sep = pop.separable;
-  const massUpTo = sep?.redshift && sep.lnMass ? factoredMass(pop, zr.nodes, mp, res) : generalMass(pop, zr.nodes, mp, res);
+  const lo = pop.log10MMin;
+  const nodeMass = model.nodeMass(zr.nodes, zr.values);
+  const hi = pop.log10MMax;
   const x0 = cutOffsetLog10(cutFactor);
+
+  // The kinks of the cut (zKinks.ts) and cheap bounds on J h^2 / 2 there, with (1+z)^(-4/3) <= 1 and
+  // at(z, x) <= atMost(x), so that kinks that cannot matter cost no evaluation.
+  let widest = 0;
+  for (let p = 0; p + 1 < zr.edges.length; p++) widest = Math.max(widest, zr.edges[p + 1] - zr.edges[p]);
+  const kinks = {
+    uMin: Math.log10(1 + pop.zMin),
+    uMax: Math.log10(1 + pop.zMax),
+    hiBound: (0.5 * widest * widest * model.atMost(hi, zr.values)) / Math.LN10,
+    loBound: (0.5 * widest * widest * model.atMost(lo, zr.values)) / Math.LN10,
+  };
 
   const out = new Float64Array(freqsHz.length);
   for (let k = 0; k < freqsHz.length; k++) {
@@ -50,10 +63,27 @@ export function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<num
     let total = 0;
     for (let iz = 0; iz < nz; iz++) {
       const xCut = xf - log1pz[iz];
-      if (xCut <= mp.lo) continue;
-      const factor = shape ? shape(((1 + zr.nodes[iz]) * f) / scaleHz) : 1;
-      if (factor === 0) continue;
-      total += zWeight[iz] * factor * massUpTo(iz, xCut);
+      if (xCut <= lo) continue;
+      if (shape) {
+        const factor = shape(((1 + zr.nodes[iz]) * f) / scaleHz);
+        if (factor !== 0) total += zWeight[iz] * factor * nodeMass(iz, xCut);
+      } else total += zWeight[iz] * nodeMass(iz, xCut);
+    }
+    // a kink inside the z range whose bound is not negligible (any kink with an emission factor)
+    const uHi = xf - hi;
+    const uLo = xf - lo;
+    const bar = KINK_TOL * Math.abs(total);
+    const check = (uHi > kinks.uMin && uHi < kinks.uMax && (shape || kinks.hiBound > bar)) || (uLo > kinks.uMin && uLo < kinks.uMax && (shape || kinks.loBound > bar));
+    if (check) {
+      const factorAt = (z: number) => (shape ? shape(((1 + z) * f) / scaleHz) : 1);
+      total = withKinkBreaks(total, zr, res.order, kinkRedshifts(xf, lo, hi, pop.zMin, pop.zMax), {
+        at: (z) => {
+          const xCut = xf - Math.log10(1 + z);
+          return xCut <= lo ? 0 : Math.pow(1 + z, -1 / 3) * factorAt(z) * model.massAt(z, xCut);
+        },
+        edge: (z, x) => Math.pow(1 + z, -1 / 3) * factorAt(z) * model.at(z, x),
+        panelSum: (p) => panelSum(p, zr, zWeight, log1pz, nodeMass, f, xf, lo, shape, scaleHz),
+      });
     }
     out[k] = STRAIN_FORM_MSUN_MPC * Math.pow(f, -4 / 3) * total;
     if (!Number.isFinite(out[k])) throw new RangeError(`h_c^2 is not finite at f = ${f} Hz${shape ? ' (the emission factor returned a non-finite value?)' : ''}`);
@@ -61,86 +91,18 @@ export function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<num
   return out;
 }
 
-/** Int dq p(q) eta(q) on the q rule (the q factor of a separable density, once per spectrum). */
-function etaIntegral(pop: BinaryPopulation, massRatio: (q: number) => number, res: IntegrationResolution): number {
-  const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
+/** Panel p's share of the z integral at one frequency (the sum of circularStrainForm's loop over its nodes). */
+function panelSum(p: number, zr: PanelledRule, zWeight: Float64Array, log1pz: Float64Array, nodeMass: (iz: number, xCut: number) => number, f: number, xf: number, lo: number, shape: ((r: number) => number) | undefined, scaleHz: number): number {
   let s = 0;
-  for (let j = 0; j < qr.nodes.length; j++) s += qr.weights[j] * symmetricMassRatio(qr.nodes[j]) * checkedValue(massRatio(qr.nodes[j]), 'mass-ratio factor', qr.nodes[j]);
+  for (let iz = zr.starts[p]; iz < zr.starts[p + 1]; iz++) {
+    const xCut = xf - log1pz[iz];
+    const factor = shape ? shape(((1 + zr.nodes[iz]) * f) / scaleHz) : 1;
+    if (xCut > lo && factor !== 0) s += zWeight[iz] * factor * nodeMass(iz, xCut);
+  }
   return s;
 }
 
-/** redshift(z) exp(lnMass(x)) massRatio(q): z factors per z node, mass sums once for all z. */
-function factoredMass(pop: BinaryPopulation, zNodes: Float64Array, mp: MassPanels, res: IntegrationResolution): MassUpTo {
-  const sep = pop.separable!;
-  const redshift = sep.redshift!;
-  const lnMass = sep.lnMass!;
-  const etaPdf = etaIntegral(pop, sep.massRatio, res);
-  const zFactor = Float64Array.from(zNodes, (z) => etaPdf * checkedValue(redshift(z), 'redshift factor', z));
-  // w M^(5/3) exp(lnMass) summed over whole panels, cumulatively.
-  const cumulative = new Float64Array(mp.panels + 1);
-  for (let p = 0; p < mp.panels; p++) {
-    let s = 0;
-    for (let i = p * mp.order; i < (p + 1) * mp.order; i++) {
-      const x = mp.base.nodes[i];
-      s += mp.base.weights[i] * Math.exp(checkedLog(lnMass(x), x) + FIVE_THIRDS_LN10 * x);
-    }
-    cumulative[p + 1] = cumulative[p] + s;
-  }
-  const { lo, hi, width, panels, order } = mp;
-  const u = mp.unit.nodes;
-  const w = mp.unit.weights;
-  return (iz, xCut) => {
-    if (xCut >= hi) return zFactor[iz] * cumulative[panels];
-    const p = Math.min(panels, Math.max(0, Math.floor((xCut - lo) / width)));
-    let m = cumulative[p];
-    const a = lo + p * width;
-    if (p < panels && xCut > a) {
-      // the partial panel [a, xCut]: one exp per node
-      const mid = 0.5 * (a + xCut);
-      const half = 0.5 * (xCut - a);
-      let s = 0;
-      for (let i = 0; i < order; i++) {
-        const x = mid + half * u[i];
-        s += w[i] * Math.exp(lnMass(x) + FIVE_THIRDS_LN10 * x);
-      }
-      // NaN or +Infinity from lnMass: find the node for the message (checked here, not per node)
-      if (!(s < Infinity)) for (let i = 0; i < order; i++) checkedLog(lnMass(mid + half * u[i]), mid + half * u[i]);
-      m += half * s;
-    }
-    return zFactor[iz] * m;
-  };
-}
-
-/** Any density: the q integral per (z, M) node (once per z node for zMass x massRatio), whole-panel sums cached per z node. */
-function generalMass(pop: BinaryPopulation, zNodes: Float64Array, mp: MassPanels, res: IntegrationResolution): MassUpTo {
-  const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
-  const etaW = Float64Array.from(qr.nodes, (q, j) => qr.weights[j] * symmetricMassRatio(q));
-  const sep = pop.separable;
-  const etaPdf = sep ? etaIntegral(pop, sep.massRatio, res) : 0;
-  // M^(5/3) exp-free q-folded integrand at (z, x)
-  const inner = (z: number, x: number): number => {
-    if (sep) return etaPdf * checkedValue(sep.zMass(z, x), 'density', z, x);
-    let s = 0;
-    for (let j = 0; j < etaW.length; j++) s += etaW[j] * densityAt(pop, z, x, qr.nodes[j]);
-    return s;
-  };
-  const m53 = Float64Array.from(mp.base.nodes, (x) => Math.exp(FIVE_THIRDS_LN10 * x));
-  const panelSums: (Float64Array | undefined)[] = new Array(zNodes.length);
-  const cumulativeSums = (z: number): Float64Array => {
-    const c = new Float64Array(mp.panels + 1);
-    for (let p = 0; p < mp.panels; p++) {
-      let s = 0;
-      for (let i = p * mp.order; i < (p + 1) * mp.order; i++) s += mp.base.weights[i] * inner(z, mp.base.nodes[i]) * m53[i];
-      c[p + 1] = c[p] + s;
-    }
-    return c;
-  };
-  return (iz, xCut) => {
-    const z = zNodes[iz];
-    const sums = (panelSums[iz] ??= cumulativeSums(z));
-    let m = sums[mp.wholePanels(xCut)];
-    const part = mp.partialPanel(xCut);
-    for (let i = 0; i < part.nodes.length; i++) m += part.weights[i] * inner(z, part.nodes[i]) * Math.exp(FIVE_THIRDS_LN10 * part.nodes[i]);
-    return m;
-  };
-}
+/**
+ * The z integral `total` at frequency f with each panel that holds a significant kink of the cut,
+ * x_cut(z) = xf - log10(1+z) = log10MMax or log10MMin, integrated again with the kinks as break points.
+ */

@@ -4,6 +4,7 @@ import type { MathNode, Matrix, Unit } from 'mathjs';
 import { BuiltinError, type CellError } from './cellError';
 import { math } from './mathInstance';
 import { MAX_ELEMENTS } from './formulaLimits';
+import { isSheetObject } from './sheetObject';
 
 function plainMathMessage(message: string): { kind: CellError['kind']; detail: string } {
   if (/^Units do not match/.test(message)) {
@@ -54,16 +55,33 @@ function nonFiniteNumber(x: number): string | undefined {
   return undefined;
 }
 
-/** Describes a non-finite scalar, or undefined when the scalar is fine. */
-function scalarProblem(v: unknown): string | undefined {
-  if (typeof v === 'number') return nonFiniteNumber(v);
+/** Describes a scalar the sheet cannot hold (non-finite, a complex quantity), or undefined when it is fine. */
+function scalarProblem(v: unknown): { kind: CellError['kind']; text: string } | undefined {
+  if (typeof v === 'number') {
+    const p = nonFiniteNumber(v);
+    return p ? { kind: 'nonfinite', text: p } : undefined;
+  }
   if (math.isUnit(v)) {
-    const value = (v as Unit & { value: number | null }).value;
-    return typeof value === 'number' ? nonFiniteNumber(value) : undefined;
+    const u = v as Unit & { value: unknown; dimensions: number[]; units: Array<{ power: number }> };
+    if (u.dimensions.some((d) => !Number.isFinite(d)) || u.units.some((x) => !Number.isFinite(x.power))) {
+      return { kind: 'nonfinite', text: 'has a unit raised to an infinite or undefined power' };
+    }
+    const value = u.value;
+    if (value === null || value === undefined) return undefined;
+    if (typeof value === 'number') {
+      const p = nonFiniteNumber(value);
+      return p ? { kind: 'nonfinite', text: p } : undefined;
+    }
+    if (math.isComplex(value)) return { kind: 'unit', text: 'is a complex quantity (a unit with an imaginary part), which the sheet cannot hold; take re(), im() or abs() of it, or of the plain number before adding the unit' };
+    return { kind: 'unit', text: 'is a quantity whose value is not a plain number' };
   }
   if (math.isComplex(v)) {
     const c = v as unknown as { re: number; im: number };
-    return nonFiniteNumber(c.re) ?? nonFiniteNumber(c.im);
+    const p = nonFiniteNumber(c.re) ?? nonFiniteNumber(c.im);
+    return p ? { kind: 'nonfinite', text: p.replace(/^is/, 'has a part that is') } : undefined;
+  }
+  if (typeof v === 'function' || (typeof v === 'object' && v !== null && !math.isBigNumber(v) && !math.isFraction(v))) {
+    return { kind: 'eval', text: `is ${isSheetObject(v) ? `a ${v.kind}` : 'a value'} inside a list; a list can hold numbers, quantities, text and lists` };
   }
   return undefined;
 }
@@ -71,51 +89,93 @@ function scalarProblem(v: unknown): string | undefined {
 /** Checks a computed value; returns the CellError to store instead, if any. */
 export function checkResult(cell: string, value: unknown): CellError | undefined {
   if (value === undefined) return { kind: 'eval', message: `${cell}: the formula gives no value` };
-  const problem = scalarProblem(value);
-  if (problem) return { kind: 'nonfinite', message: `${cell}: the result ${problem}` };
   const isMatrix = math.isMatrix(value);
-  if (isMatrix || Array.isArray(value)) {
-    const size = isMatrix ? (value as Matrix).size() : [value.length];
-    const total = size.reduce((a, b) => a * b, 1);
-    if (total > MAX_ELEMENTS) return { kind: 'limit', message: `${cell}: the result has ${total} elements (at most ${MAX_ELEMENTS})` };
-    const flat = (isMatrix ? ((value as Matrix).toArray() as unknown[]) : value).flat(Infinity as 1) as unknown[];
-    for (let i = 0; i < flat.length; i++) {
-      const p = scalarProblem(flat[i]);
-      if (p) return { kind: 'nonfinite', message: `${cell}: element ${i + 1} of the result ${p}` };
+  if (!isMatrix && !Array.isArray(value)) {
+    if (typeof value === 'object' && value !== null && !math.isUnit(value) && !math.isComplex(value)) return undefined; // sheet objects
+    if (typeof value === 'function') return undefined; // function cells
+    const problem = scalarProblem(value);
+    return problem ? { kind: problem.kind, message: `${cell}: the result ${problem.text}` } : undefined;
+  }
+  const size = isMatrix ? (value as Matrix).size() : [(value as unknown[]).length];
+  const total = size.reduce((a, b) => a * b, 1);
+  if (total > MAX_ELEMENTS) return { kind: 'limit', message: `${cell}: the result has ${total} elements (at most ${MAX_ELEMENTS})` };
+  // valueOf() gives the matrix's own data without copying it (a copy fails on objects mathjs cannot clone)
+  const data = (isMatrix ? (value as Matrix).valueOf() : value) as unknown[];
+  let index = 0;
+  const stack: unknown[][] = [data];
+  const positions: number[] = [0];
+  while (stack.length > 0) {
+    const list = stack[stack.length - 1];
+    const i = positions[positions.length - 1]++;
+    if (i >= list.length) {
+      stack.pop();
+      positions.pop();
+      continue;
     }
+    const x = list[i];
+    if (Array.isArray(x)) {
+      stack.push(x);
+      positions.push(0);
+      continue;
+    }
+    if (math.isMatrix(x)) {
+      stack.push((x as Matrix).valueOf() as unknown[]);
+      positions.push(0);
+      continue;
+    }
+    index++;
+    if (typeof x === 'number' && Number.isFinite(x)) continue;
+    if (typeof x === 'string' || typeof x === 'boolean' || x === null) continue;
+    const p = scalarProblem(x);
+    if (p) return { kind: p.kind, message: `${cell}: element ${index} of the result ${p.text}` };
   }
   return undefined;
 }
 
-/** Levenshtein distance, for "did you mean" suggestions. */
-export function editDistance(a: string, b: string): number {
+/** Levenshtein distance, for "did you mean" suggestions; stops early with `limit + 1` once it must exceed `limit`. */
+export function editDistance(a: string, b: string, limit = Infinity): number {
+  if (Math.abs(a.length - b.length) > limit) return limit + 1;
   const prev = new Array<number>(b.length + 1);
   for (let j = 0; j <= b.length; j++) prev[j] = j;
   for (let i = 1; i <= a.length; i++) {
     let diag = prev[0];
     prev[0] = i;
+    let rowMin = prev[0];
     for (let j = 1; j <= b.length; j++) {
       const tmp = prev[j];
       prev[j] = Math.min(prev[j] + 1, prev[j - 1] + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
       diag = tmp;
+      if (prev[j] < rowMin) rowMin = prev[j];
     }
+    if (rowMin > limit) return limit + 1;
   }
   return prev[b.length];
 }
 
+/** Longest name a "did you mean" suggestion is searched for (cell names have at most 64 characters). */
+const MAX_SUGGESTED_NAME = 64;
+/** Most candidates compared letter by letter in one search (a 20,000-cell sheet with every function fits). */
+const MAX_COMPARED = 50_000;
+
 /** The nearest of `candidates` to `name`, if it is close enough to be a likely typo. */
 export function nearestName(name: string, candidates: Iterable<string>): string | undefined {
+  if (name.length > MAX_SUGGESTED_NAME) return undefined;
+  const allowed = Math.max(1, Math.min(3, Math.floor(name.length / 3)));
   let best: string | undefined;
   let bestDistance = Infinity;
+  let compared = 0;
   const lower = name.toLowerCase();
   for (const c of candidates) {
-    const d = c.toLowerCase() === lower ? 0.5 : editDistance(name, c);
+    if (Math.abs(c.length - name.length) > allowed) continue;
+    if (c.toLowerCase() === lower) return c;
+    if (compared >= MAX_COMPARED) continue;
+    compared++;
+    const d = editDistance(name, c, Math.min(allowed, bestDistance - 1));
     if (d < bestDistance) {
       best = c;
       bestDistance = d;
     }
   }
-  const allowed = Math.max(1, Math.min(3, Math.floor(name.length / 3)));
   return best !== undefined && bestDistance <= allowed ? best : undefined;
 }
 

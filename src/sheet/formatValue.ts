@@ -129,10 +129,18 @@ function showList(items: unknown[], displayUnit?: string): string {
   return `[${head.join(', ')}, ..., ${tail.join(', ')}] (${items.length} values)`;
 }
 
-/** The value as the number and unit columns show it (lists and objects as one text). */
+/** The value as the number and unit columns show it (lists and objects as one text). Never throws. */
 export function formatValueParts(value: unknown, displayUnit?: string): ShownValue {
+  try {
+    return showValue(value, displayUnit);
+  } catch (e) {
+    return { number: `(this value cannot be shown: ${e instanceof Error ? e.message : String(e)})`, unit: '' };
+  }
+}
+
+function showValue(value: unknown, displayUnit?: string): ShownValue {
   if (math.isMatrix(value) || Array.isArray(value)) {
-    const items = math.isMatrix(value) ? ((value as Matrix).toArray() as unknown[]) : value;
+    const items = math.isMatrix(value) ? ((value as Matrix).valueOf() as unknown[]) : value;
     const size = math.isMatrix(value) ? (value as Matrix).size() : [items.length];
     const label = (text: string) => (size.length > 1 ? `${size.join('x')} matrix ${text}` : text);
     // A list of quantities of one dimension shows plain numbers with the unit once.
@@ -170,8 +178,16 @@ export function formatValue(value: unknown, displayUnit?: string): string {
   return shownText(formatValueParts(value, displayUnit));
 }
 
-/** A value as plain JSON: numbers as numbers, quantities in SI with their SI unit, lists as arrays. */
+/** A value as plain JSON: numbers as numbers, quantities in SI with their SI unit, lists as arrays. Never throws. */
 export function valueToJSON(value: unknown): unknown {
+  try {
+    return toJSONValue(value);
+  } catch (e) {
+    return `(this value cannot be written: ${e instanceof Error ? e.message : String(e)})`;
+  }
+}
+
+function toJSONValue(value: unknown): unknown {
   if (typeof value === 'number') return Number.isFinite(value) ? value : String(value);
   if (typeof value === 'string' || typeof value === 'boolean' || value === null) return value;
   if (value === undefined) return null;
@@ -180,8 +196,8 @@ export function valueToJSON(value: unknown): unknown {
     const c = value as unknown as { re: number; im: number };
     return { re: c.re, im: c.im };
   }
-  if (math.isMatrix(value)) return ((value as Matrix).toArray() as unknown[]).map(valueToJSON);
-  if (Array.isArray(value)) return value.map(valueToJSON);
+  if (math.isMatrix(value)) return ((value as Matrix).valueOf() as unknown[]).map(toJSONValue);
+  if (Array.isArray(value)) return value.map(toJSONValue);
   if (isSheetObject(value)) return value.toJSON();
   if (isCellFunction(value)) return value.syntax;
   if (typeof value === 'function') return `function ${(value as { name?: string }).name || ''}`.trim();

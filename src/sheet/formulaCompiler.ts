@@ -6,9 +6,10 @@ import type { CellError } from './cellError';
 import { lockedMath } from './lockedMath';
 import { isMathjsName, math } from './mathInstance';
 import { ALLOWED_CONSTANTS, ALLOWED_MATH_FUNCTIONS } from './allowedFunctions';
-import { checkCellName, FREE_NAMES } from './cellName';
+import { checkCellName, FREE_NAMES, MAX_NAME_LENGTH } from './cellName';
 import { FunctionCellScope } from './functionCellScope';
 import { BuiltinError } from './cellError';
+import { checkTime, countBuilt, MAX_BUILT_ELEMENTS } from './evaluationBudget';
 import { MAX_ELEMENTS, MAX_FORMULA_LENGTH, MAX_NESTING, MAX_NODES } from './formulaLimits';
 
 export { MAX_ELEMENTS, MAX_FORMULA_LENGTH, MAX_NESTING, MAX_NODES } from './formulaLimits';
@@ -88,6 +89,20 @@ function isUnitName(name: string): boolean {
   return known;
 }
 
+/** Elements of all the literal ranges a:b:c in a formula (for the message when they are too many). */
+function sumOfRanges(root: MathNode): number {
+  let total = 0;
+  root.traverse((node) => {
+    const n = node as MathNode & { start?: MathNode; end?: MathNode; step?: MathNode };
+    if (n.type !== 'RangeNode') return;
+    const start = literalNumber(n.start);
+    const end = literalNumber(n.end);
+    const step = n.step ? literalNumber(n.step) : 1;
+    if (start !== undefined && end !== undefined && step) total += Math.max(0, Math.floor((end - start) / step) + 1);
+  });
+  return total;
+}
+
 interface WalkResult {
   deps: string[];
   problem?: { kind: CellError['kind']; detail: string };
@@ -102,6 +117,7 @@ function walk(root: MathNode, params: ReadonlySet<string>, builtinNames: Readonl
   // Each entry: node, depth, whether inside an index (where `end` and free ranges are allowed).
   const stack: Array<[MathNode, number, boolean]> = [[root, 0, false]];
   let count = 0;
+  let rangeElements = 0;
   const refuse = (detail: string): WalkResult => ({ deps: [], problem: { kind: 'refused', detail } });
   const isCallable = (name: string) => ALLOWED_MATH_FUNCTIONS.has(name) || builtinNames.has(name);
   // Anything else the mathjs namespace holds (inherited prototype names included) is out of reach.
@@ -117,6 +133,9 @@ function walk(root: MathNode, params: ReadonlySet<string>, builtinNames: Readonl
         break;
       case 'SymbolNode': {
         const name: string = n.name;
+        if (name.length > MAX_NAME_LENGTH) {
+          return { deps: [], problem: { kind: 'name', detail: `the name ${name.slice(0, 20)}... has ${name.length} characters; names have at most ${MAX_NAME_LENGTH}` } };
+        }
         if (params.has(name)) break;
         if (name === 'end' && inIndex) break;
         if (ALLOWED_CONSTANTS.has(name) || isCallable(name)) break;
@@ -183,6 +202,10 @@ function walk(root: MathNode, params: ReadonlySet<string>, builtinNames: Readonl
           }
           const size = Math.floor((end - start) / step) + 1;
           if (size > MAX_ELEMENTS) return { deps: [], problem: { kind: 'limit', detail: `the range ${start}:${end} would have ${size} elements (at most ${MAX_ELEMENTS})` } };
+          rangeElements += Math.max(0, size);
+          if (rangeElements > MAX_BUILT_ELEMENTS) {
+            return { deps: [], problem: { kind: 'limit', detail: `the ranges in this formula would build ${sumOfRanges(root)} elements in all (at most ${MAX_BUILT_ELEMENTS})` } };
+          }
         }
         push(n.start);
         push(n.end);
@@ -278,7 +301,12 @@ export function makeCellFunction(
     if (args.length !== arity) {
       throw new BuiltinError(`${syntax} takes ${arity} argument${arity === 1 ? '' : 's'}, got ${args.length}`, 'eval');
     }
-    return body.evaluate(new FunctionCellScope(params, args, inputs) as unknown as Map<string, unknown>);
+    checkTime();
+    const result = body.evaluate(new FunctionCellScope(params, args, inputs) as unknown as Map<string, unknown>);
+    if (typeof result === 'object' && result !== null && (Array.isArray(result) || math.isMatrix(result))) {
+      countBuilt(math.isMatrix(result) ? (result as { size(): number[] }).size().reduce((a, b) => a * b, 1) : (result as unknown[]).length, syntax);
+    }
+    return result;
   };
   Object.defineProperty(fn, 'length', { value: arity });
   Object.defineProperty(fn, 'name', { value: functionName });

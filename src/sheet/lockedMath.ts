@@ -9,7 +9,7 @@ import { math } from './mathInstance';
 import { allBuiltins } from '../builtins/index';
 import type { Builtin } from './builtin';
 import { LOCKED_FUNCTIONS } from './allowedFunctions';
-import { sizeGuardedFunctions, sizeGuardedTransforms } from './sizeGuards';
+import { guardedRangeTransform, sizeGuardedFunctions, sizeGuardedTransforms } from './sizeGuards';
 
 export interface LockedMath {
   /** mathjs's parser, kept before the instance was locked. */
@@ -49,7 +49,7 @@ export function lockedMath(): LockedMath {
   // plain functions they depend on, as they would have before the guards were put in place.
   const withTransform = (math as unknown as { expression: { mathWithTransform: Record<string, unknown> } }).expression
     .mathWithTransform;
-  const guards: Record<string, unknown> = { ...sizeGuardedFunctions(), ...sizeGuardedTransforms() };
+  const guards: Record<string, unknown> = { ...sizeGuardedFunctions(), ...sizeGuardedTransforms(), range: guardedRangeTransform() };
   for (const [name, guard] of Object.entries(guards)) {
     Object.defineProperty(withTransform, name, { value: guard, writable: true, configurable: true, enumerable: true });
   }

@@ -9,6 +9,7 @@ import { DependencyGraph, type CycleThrough } from './dependencyGraph';
 import { RankQueue } from './rankQueue';
 import { checkResult, errorFromException, explainUnitMismatch, nearestName } from './evaluationError';
 import { sameValue } from './valueEquality';
+import { beginCell, endCell } from './evaluationBudget';
 import { checkCellName } from './cellName';
 import { lockedMath } from './lockedMath';
 import { SheetEditError } from './sheetEditError';
@@ -38,7 +39,11 @@ const PENDING: CellState = Object.freeze({ status: 'pending' }) as CellState;
 function sameState(a: CellState | undefined, b: CellState): boolean {
   if (!a || a.status !== b.status) return false;
   if (a.status === 'value' && b.status === 'value') return sameValue(a.value, b.value);
-  if (a.status === 'error' && b.status === 'error') return a.error.kind === b.error.kind && a.error.message === b.error.message;
+  if (a.status === 'error' && b.status === 'error') {
+    // An input error's text can stay the same while the problem it stands for changed (a cycle
+    // renamed): cells further down quote that problem, so compare it too.
+    return a.error.kind === b.error.kind && a.error.message === b.error.message && rootCause.get(a.error)?.message === rootCause.get(b.error)?.message;
+  }
   return a.status === 'pending';
 }
 
@@ -66,6 +71,8 @@ export class Sheet {
   private readonly observers = new Set<SheetObserver>();
   private readonly planCache = new Map<string, string[]>();
   private lastPlan: { names: string[]; outputs: string[]; key: string } | null = null;
+  /** Names "did you mean" suggestions are chosen from (cells, built-ins, functions), kept until a cell is added, removed or renamed. */
+  private pool: string[] | null = null;
   /** Topological ranks of the whole sheet, kept while the graph does not change. */
   private ranked: { rank: Map<string, number>; order: string[]; cycles: ReadonlySet<string> } | null = null;
   private readonly builtinNames: ReadonlySet<string>;
@@ -195,7 +202,7 @@ export class Sheet {
     this.order.push(s.name);
     this.positions = null;
     if (index !== undefined) this.place(s.name, index);
-    this.planCache.clear();
+    this.structureChanged();
     this.emitStructure();
     this.recalculate([s.name]);
   }
@@ -227,7 +234,7 @@ export class Sheet {
     this.order = this.order.filter((n) => n !== name);
     this.positions = null;
     this.graph.removeCell(name);
-    this.planCache.clear();
+    this.structureChanged();
     this.emitStructure();
     this.recalculate([name]);
   }
@@ -285,7 +292,7 @@ export class Sheet {
       rec.compiled = this.compile(rec.spec);
       this.graph.setDependencies(target, rec.compiled.deps);
     }
-    this.planCache.clear();
+    this.structureChanged();
     this.emitStructure();
     this.recalculate([oldName, newName, ...[...rewrites.keys()].map((n) => (n === oldName ? newName : n))], true, [newName]);
   }
@@ -394,7 +401,7 @@ export class Sheet {
     rec.compiled = this.compile(rec.spec);
     const after = rec.compiled.deps;
     const sameInputs = before.length === after.length && after.every((d) => before.includes(d));
-    this.planCache.clear();
+    this.structureChanged();
     if (sameInputs) {
       // The graph is as it was: recompute downstream in the cached topological order.
       this.propagate(name);
@@ -498,6 +505,16 @@ export class Sheet {
 
   /** Evaluates one compiled formula with inputs read through `lookup`. Never throws. */
   private evaluateCompiled(name: string, compiled: CompiledFormula, lookup: Lookup): CellState {
+    try {
+      return this.evaluateInputsAndFormula(name, compiled, lookup);
+    } catch (e) {
+      // A last line of defence: whatever escaped (a value mathjs cannot copy, a failing check)
+      // becomes the cell's error.
+      return { status: 'error', error: errorFromException(name, e) };
+    }
+  }
+
+  private evaluateInputsAndFormula(name: string, compiled: CompiledFormula, lookup: Lookup): CellState {
     if (compiled.kind === 'error') return { status: 'error', error: compiled.error };
     const inputs = new Map<string, unknown>();
     for (const dep of compiled.deps) {
@@ -529,9 +546,11 @@ export class Sheet {
     if (compiled.kind === 'function') {
       return { status: 'value', value: makeCellFunction(compiled.functionName, compiled.params, compiled.body, inputs) };
     }
-    let value: unknown;
+    const budget = beginCell();
     try {
-      value = compiled.code.evaluate(inputs);
+      const value = compiled.code.evaluate(inputs);
+      const problem = checkResult(name, value);
+      return problem ? { status: 'error', error: problem } : { status: 'value', value };
     } catch (e) {
       const error = errorFromException(name, e);
       if (error.kind === 'unit') {
@@ -539,13 +558,20 @@ export class Sheet {
         if (why) error.message = `${name}: ${why}`;
       }
       return { status: 'error', error };
+    } finally {
+      endCell(budget);
     }
-    const problem = checkResult(name, value);
-    return problem ? { status: 'error', error: problem } : { status: 'value', value };
   }
 
   private suggestionPool(): string[] {
-    return [...this.records.keys(), ...this.builtinNames, ...ALLOWED_MATH_FUNCTIONS];
+    this.pool ??= [...this.records.keys(), ...this.builtinNames, ...ALLOWED_MATH_FUNCTIONS];
+    return this.pool;
+  }
+
+  /** Forgets what depends on the set of cells and their inputs (cached plans, the name pool). */
+  private structureChanged(): void {
+    this.planCache.clear();
+    this.pool = null;
   }
 
   private emit(call: (o: SheetObserver) => void): void {

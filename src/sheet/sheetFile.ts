@@ -9,7 +9,9 @@
 // zod/v4 as a namespace import lets bundlers keep only the schemas used (the CLI bundle drops the locales).
 import * as z from 'zod/v4';
 import type { CellSpec } from './types';
-import { migrateToCurrent } from './sheetMigrations';
+import { fieldNameInVersion, migrateToCurrent } from './sheetMigrations';
+import { jsonStructure } from './jsonStructure';
+import { decodeFileBytes, FileEncodingError } from './fileEncoding';
 
 export const FILE_FORMAT = 'strainsheet';
 export const FILE_VERSION = 2;
@@ -19,6 +21,8 @@ export const FILE_VERSION_WITHOUT_PRIORS = 1;
 export const MAX_FILE_BYTES = 5 * 1024 * 1024;
 /** Most cells a file may hold. */
 export const MAX_FILE_CELLS = 20_000;
+/** Deepest nesting of objects and lists accepted (a sheet file has 3 levels). */
+export const MAX_FILE_DEPTH = 32;
 
 export interface SheetFile {
   format: typeof FILE_FORMAT;
@@ -81,16 +85,33 @@ export function serializeSheetFile(file: SheetFile): string {
   return JSON.stringify(canonical, null, 2) + '\n';
 }
 
-function where(path: ReadonlyArray<PropertyKey>): string {
+function where(path: ReadonlyArray<PropertyKey>, version = FILE_VERSION): string {
   if (path.length === 0) return 'the file';
   let out = '';
-  for (const p of path) out += typeof p === 'number' ? `[${p + 1}]` : out ? `.${String(p)}` : String(p);
+  path.forEach((p, i) => {
+    // name fields as the file's own version calls them
+    const field = typeof p === 'string' ? fieldNameInVersion(p, version, path[0] === 'cells' && i === 2 ? 'cell' : 'file') : p;
+    out += typeof field === 'number' ? `[${field + 1}]` : out ? `.${String(field)}` : String(field);
+  });
   return out.replace(/^cells\[(\d+)\]/, 'cell $1');
 }
 
 function utf8Length(text: string): number {
   if (text.length > MAX_FILE_BYTES) return text.length; // at least this many bytes
   return new TextEncoder().encode(text).length;
+}
+
+/** The text of a sheet file's bytes (UTF-8, with or without byte-order mark, or UTF-16); throws SheetFileError naming the encoding problem. */
+export function sheetTextFromBytes(bytes: Uint8Array): string {
+  if (bytes.length > MAX_FILE_BYTES) {
+    throw new SheetFileError(`the file is too large (${(bytes.length / 1048576).toFixed(1)} MB; a sheet file may be at most 5 MB)`);
+  }
+  try {
+    return decodeFileBytes(bytes).text;
+  } catch (e) {
+    if (e instanceof FileEncodingError) throw new SheetFileError(e.message);
+    throw e;
+  }
 }
 
 /** Parses and validates sheet file text (migrating older versions); throws SheetFileError. */
@@ -100,7 +121,12 @@ export function parseSheetFile(text: string): SheetFile {
   if (bytes > MAX_FILE_BYTES) {
     throw new SheetFileError(`the file is too large (${(bytes / 1048576).toFixed(1)} MB; a sheet file may be at most 5 MB)`);
   }
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1); // a byte-order mark left by the decoder
   if (text.trim() === '') throw new SheetFileError('the file is empty');
+  const structure = jsonStructure(text);
+  if (structure.depth > MAX_FILE_DEPTH) {
+    throw new SheetFileError(`the file nests objects and lists ${structure.depth} levels deep; a sheet file has 3 (at most ${MAX_FILE_DEPTH} are read)`);
+  }
   let data: unknown;
   let hostile: string | undefined;
   try {
@@ -113,6 +139,7 @@ export function parseSheetFile(text: string): SheetFile {
     throw new SheetFileError(`the file is not valid JSON (it may be truncated or damaged): ${detail}`);
   }
   if (hostile !== undefined) throw new SheetFileError(`the file contains the key "${hostile}", which sheet files never use; it was refused`);
+  if (structure.duplicate) throw new SheetFileError(duplicateMessage(structure.duplicate, data));
   if (typeof data !== 'object' || data === null || Array.isArray(data)) {
     throw new SheetFileError('the file is not a Strainsheet sheet (expected a JSON object)');
   }
@@ -137,7 +164,7 @@ export function parseSheetFile(text: string): SheetFile {
     let detail = issue.message;
     if (issue.code === 'unrecognized_keys') detail = `unknown field${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => `"${k}"`).join(', ')}`;
     else if (issue.code === 'invalid_type') detail = `expected ${issue.expected === 'string' ? 'text' : issue.expected}`;
-    throw new SheetFileError(`the sheet file is invalid at ${where(issue.path)}: ${detail}`);
+    throw new SheetFileError(`the sheet file is invalid at ${where(issue.path, version)}: ${detail}`);
   }
   const f = parsed.data;
   const seen = new Map<string, number>();
@@ -153,4 +180,16 @@ export function parseSheetFile(text: string): SheetFile {
     notes: f.notes ?? '',
     cells: f.cells.map((c) => canonicalCell(c as CellSpec)),
   };
+}
+
+/** Names a repeated key and where it is: the cell by number and name, or the field. */
+function duplicateMessage(dup: { key: string; path: Array<string | number> }, data: unknown): string {
+  const { key, path } = dup;
+  if (path[0] === 'cells' && typeof path[1] === 'number') {
+    const cell = (data as { cells?: unknown[] }).cells?.[path[1]] as { name?: unknown } | undefined;
+    const name = typeof cell?.name === 'string' ? ` (${cell.name})` : '';
+    const inside = path.length > 2 ? ` inside ${where(path)}` : '';
+    return `the key "${key}" appears twice in cell ${path[1] + 1}${name}${inside}; a file must give each field once`;
+  }
+  return `the key "${key}" appears twice in ${path.length ? where(path) : "the file's top level"}; a file must give each field once`;
 }

@@ -35,3 +35,15 @@ export function migrateToCurrent(data: Record<string, unknown>, version: number)
   for (let v = version; v < MIGRATIONS.length; v++) d = MIGRATIONS[v](d);
   return d;
 }
+
+/** Fields renamed by a migration, by the version that still used the old name: new name -> old name. */
+const RENAMED_FIELDS: Record<number, { file: Record<string, string>; cell: Record<string, string> }> = {
+  0: { file: { notes: 'description' }, cell: { unit: 'display', note: 'comment' } },
+};
+
+/** The name a field of the current version had in file version `version` (for messages about that file). */
+export function fieldNameInVersion(field: string, version: number, where: 'file' | 'cell'): string {
+  let name = field;
+  for (let v = MIGRATIONS.length - 1; v >= version; v--) name = RENAMED_FIELDS[v]?.[where][name] ?? name;
+  return name;
+}

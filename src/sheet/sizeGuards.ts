@@ -6,6 +6,8 @@ import type { Matrix } from 'mathjs';
 import { BuiltinError } from './cellError';
 import { math } from './mathInstance';
 import { MAX_ELEMENTS } from './formulaLimits';
+import { checkTimeNow, countBuilt } from './evaluationBudget';
+import { listContentProblem, listElementCount } from './listContent';
 
 /** Most multiply-adds one matrix product (or inverse, determinant, solve) may take. */
 export const MAX_MATRIX_OPERATIONS = 100_000_000;
@@ -82,7 +84,7 @@ export function checkProduct(fn: string, args: readonly unknown[]): void {
   }
 }
 
-/** Throws when a square-matrix routine (inverse, determinant, solve, power) on n x n would take n^3 too many steps. */
+/** Throws when a square-matrix routine (inverse, determinant, solve) on n x n would take n^3 too many steps. */
 export function checkCubic(fn: string, args: readonly unknown[]): void {
   const s = listSize(args[0]);
   if (s && s.length === 2 && s[0] ** 3 > MAX_MATRIX_OPERATIONS) {
@@ -90,18 +92,91 @@ export function checkCubic(fn: string, args: readonly unknown[]): void {
   }
 }
 
+/**
+ * Throws when a matrix power A^p would take too many steps: repeated squaring takes up to
+ * 2 log2(p) products of n^3 multiply-adds each (a negative p adds one inverse).
+ */
+export function checkMatrixPower(fn: string, args: readonly unknown[]): void {
+  const s = listSize(args[0]);
+  if (!s || s.length !== 2) return;
+  const p = typeof args[1] === 'number' ? Math.abs(args[1]) : 1;
+  const products = Number.isFinite(p) && p >= 1 ? 2 * Math.ceil(Math.log2(p + 1)) : 2;
+  const steps = s[0] ** 3 * products;
+  if (steps > MAX_MATRIX_OPERATIONS) {
+    tooLarge(fn, `raising a ${shape(s)} matrix to the power ${String(args[1])} would take about ${steps.toPrecision(2)} operations (at most ${MAX_MATRIX_OPERATIONS})`);
+  }
+}
+
+/** Throws when the 2-norm of a matrix (its largest singular value, an n^3 eigenvalue iteration) would take too long. */
+export function checkNorm(fn: string, args: readonly unknown[]): void {
+  const s = listSize(args[0]);
+  if (!s || s.length !== 2 || args[1] !== 2) return;
+  // mathjs finds the largest eigenvalue of A^T A: one n x m by m x n product, then an n^3 iteration
+  const steps = s[0] * s[1] * Math.max(s[0], s[1]) * NORM2_ITERATION_FACTOR;
+  if (steps > MAX_MATRIX_OPERATIONS) {
+    tooLarge(fn, `the 2-norm of a ${shape(s)} matrix would take about ${steps.toPrecision(2)} operations (at most ${MAX_MATRIX_OPERATIONS}); norm(A, "fro"), norm(A, 1) and norm(A, Infinity) are cheap`);
+  }
+}
+/** Measured cost of mathjs's 2-norm relative to one n^3 product (see test/security/budget.test.ts). */
+const NORM2_ITERATION_FACTOR = 30;
+
+/** Throws when quantileSeq would copy and select in the data once per probability for too many probabilities. */
+export function checkQuantiles(fn: string, args: readonly unknown[]): void {
+  const data = listSize(args[0]);
+  if (!data) return;
+  const n = count(data);
+  const probs = args[1];
+  const p = listSize(probs);
+  // quantileSeq(A, N) with a whole number N > 1 asks for the N - 1 quantiles between 0 and 1
+  const many = p ? count(p) : typeof probs === 'number' && probs > 1 ? probs - 1 : 1;
+  if (n * many > MAX_MATRIX_OPERATIONS) {
+    tooLarge(fn, `${many} quantiles of ${n} values would take ${(n * many).toPrecision(2)} steps (mathjs copies the data for each; at most ${MAX_MATRIX_OPERATIONS})`);
+  }
+}
+
+/** Throws when concatenating the lists would exceed the element limit. */
+export function checkConcat(fn: string, args: readonly unknown[]): void {
+  let total = 0;
+  for (const a of args) {
+    const s = listSize(a);
+    if (s) total += count(s);
+  }
+  if (total > MAX_ELEMENTS) tooLarge(fn, `joining these lists would make ${total} elements (at most ${MAX_ELEMENTS})`);
+}
+
+/** Elements in a list result (0 for anything else). */
+function resultCount(v: unknown): number {
+  const s = listSize(v);
+  return s ? count(s) : 0;
+}
+
+/** Functions whose expression form is a transform (1-based dimensions); their guard calls the transform. */
+const TRANSFORMED = new Set(['concat', 'quantileSeq']);
+
 function guarded(name: string, check: (fn: string, args: readonly unknown[]) => void): ((...args: unknown[]) => unknown) | undefined {
   if (!(name in math)) return undefined;
-  // The mathjs function is looked up on the first call (mathjs builds it on first use).
+  // The mathjs function (or its expression transform) is looked up on the first call: mathjs
+  // builds each function on first use.
   let fn: ((...args: unknown[]) => unknown) | undefined;
   const wrapper = function (...args: unknown[]): unknown {
-    // plain numbers pass straight through; only lists are measured
-    if (args.length >= 1 && (typeof args[0] === 'object' || typeof args[1] === 'object')) check(name, args);
-    fn ??= (math as unknown as Record<string, (...args: unknown[]) => unknown>)[name];
+    fn ??= TRANSFORMED.has(name) ? transforms()[name] : (math as unknown as Record<string, (...args: unknown[]) => unknown>)[name];
+    // plain numbers and quantities pass straight through; only lists are measured, timed and counted
+    if (args.length >= 1 && (listSize(args[0]) || listSize(args[1]))) {
+      checkTimeNow();
+      check(name, args);
+      const result = fn(...args);
+      countBuilt(resultCount(result), name);
+      return result;
+    }
     return fn(...args);
   };
   Object.defineProperty(wrapper, 'name', { value: name });
   return wrapper;
+}
+
+/** mathjs's expression transforms by name (built on first use). */
+function transforms(): Record<string, (...args: unknown[]) => unknown> {
+  return (math as unknown as { expression: { transform: Record<string, (...args: unknown[]) => unknown> } }).expression.transform;
 }
 
 /** Guarded replacements for the instance's list-arithmetic functions, by name. */
@@ -119,11 +194,68 @@ export function sizeGuardedFunctions(): Record<string, (...args: unknown[]) => u
     checkProduct(fn, args);
     if (listSize(args[1])?.length === 2) checkCubic(fn, [args[1]]);
   });
-  put('pow', checkCubic);
+  put('pow', checkMatrixPower);
   for (const name of ['inv', 'det', 'lusolve']) put(name, checkCubic);
+  put('norm', checkNorm);
+  put('quantileSeq', checkQuantiles);
+  put('concat', checkConcat);
+  // list literals [a, b, ...] (mathjs's ArrayNode calls the namespace's matrix)
+  let matrix: ((...a: unknown[]) => unknown) | undefined;
+  out.matrix = function guardedMatrix(...args: unknown[]): unknown {
+    const data = args[0];
+    if (Array.isArray(data)) checkListContent('a list', data);
+    matrix ??= (math as unknown as Record<string, (...a: unknown[]) => unknown>).matrix;
+    return matrix(...args);
+  };
   return out;
 }
 
+/** Throws when a list literal or list value holds something a list cannot, or too many elements; counts them. */
+export function checkListContent(what: string, data: readonly unknown[]): void {
+  checkTimeNow();
+  const problem = listContentProblem(data);
+  if (problem) throw new BuiltinError(`${what} can hold numbers, quantities, text and lists, not ${problem}`, 'eval');
+  const n = listElementCount(data);
+  if (n > MAX_ELEMENTS) tooLarge(what, `it would have ${n} elements (at most ${MAX_ELEMENTS})`);
+  countBuilt(n, what);
+}
+
+/**
+ * Range a:b:c in a formula (mathjs's range transform, which includes the end): sized before it is
+ * built. Plain-number ranges are built here, as mathjs does (x = start, then x = x + step while
+ * smallerEq(x, end), or largerEq for a negative step), with the typed comparison called only
+ * where the plain one cannot decide; other ranges go to mathjs.
+ */
+export function guardedRangeTransform(): (...args: unknown[]) => unknown {
+  const plain = math as unknown as Record<string, (...a: unknown[]) => unknown>;
+  const DenseMatrix = (math as unknown as { DenseMatrix: new (data: { data: number[]; size: number[] }) => unknown }).DenseMatrix;
+  const smallerEq = (a: number, b: number) => plain.smallerEq(a, b) as boolean;
+  const largerEq = (a: number, b: number) => plain.largerEq(a, b) as boolean;
+  return function guardedRange(...args: unknown[]): unknown {
+    checkTimeNow();
+    const includeEnd = typeof args[args.length - 1] === 'boolean' ? (args.pop() as boolean) : true;
+    const [start, end, step] = args.length === 2 ? [args[0], args[1], 1] : args;
+    if (typeof start === 'number' && typeof end === 'number' && typeof step === 'number' && args.length <= 3 && includeEnd) {
+      if (!Number.isFinite(start) || !Number.isFinite(end) || !Number.isFinite(step) || step === 0) {
+        throw new BuiltinError(`the range ${start}:${end} needs finite ends and a step that is not zero`, 'eval');
+      }
+      const size = Math.max(0, Math.floor((end - start) / step) + 1);
+      if (size > MAX_ELEMENTS) tooLarge('range', `${start}:${end} would have ${size} elements (at most ${MAX_ELEMENTS})`);
+      countBuilt(size, 'range');
+      const out: number[] = [];
+      let x = start;
+      if (step > 0) while (x <= end || smallerEq(x, end)) (out.push(x), (x += step));
+      else while (x >= end || largerEq(x, end)) (out.push(x), (x += step));
+      // the elements are plain numbers made here: the matrix takes them without copying
+      return new DenseMatrix({ data: out, size: [out.length] });
+    }
+    const result = transforms().range(...args, includeEnd);
+    const n = resultCount(result);
+    if (n > MAX_ELEMENTS) tooLarge('range', `the range has ${n} elements (at most ${MAX_ELEMENTS})`);
+    countBuilt(n, 'range');
+    return result;
+  };
+}
 type RawTransform = ((args: Array<{ compile(): { evaluate(scope: unknown): unknown } }>, m: unknown, scope: unknown) => unknown) & { rawArgs: true };
 
 /**

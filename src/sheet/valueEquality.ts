@@ -23,8 +23,8 @@ export function sameValue(a: unknown, b: unknown): boolean {
     const sa = ma ? (a as Matrix).size() : null;
     const sb = mb ? (b as Matrix).size() : null;
     if (sa && sb && (sa.length !== sb.length || sa.some((d, i) => d !== sb[i]))) return false;
-    const xa = (ma ? (a as Matrix).toArray() : a) as unknown[];
-    const xb = (mb ? (b as Matrix).toArray() : b) as unknown[];
+    const xa = (ma ? (a as Matrix).valueOf() : a) as unknown[];
+    const xb = (mb ? (b as Matrix).valueOf() : b) as unknown[];
     if (xa.length !== xb.length) return false;
     for (let i = 0; i < xa.length; i++) if (!sameValue(xa[i], xb[i])) return false;
     return true;

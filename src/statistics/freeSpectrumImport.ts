@@ -5,7 +5,8 @@
 //   JSON:      {"quantity": "log10_rho", "span_s"?: T, "bins": [{"frequency": "2.26 nHz", "samples": [...]}]}
 // '#' lines are comments. Values are log10 rho (s), log10 h_c, rho (s) or h_c, as the caller says.
 // Every bad input is refused with the file, line and column; nothing is returned half-read.
-import * as jsonc from 'jsonc-parser';
+// The ES-module build: esbuild cannot follow the UMD build's dynamic requires when bundling the CLI.
+import * as jsonc from 'jsonc-parser/lib/esm/main.js';
 import { FREE_SPECTRUM_MAX_BINS, FREE_SPECTRUM_MAX_SAMPLES, type FreeSpectrumData } from './freeSpectrum';
 import { csvRows, frequencyColumnScale, frequencyWithUnit, ImportError, lineColumnAt, numberCell } from './importText';
 import { MAX_ENCODED_SAMPLES, thinSamples } from './sampleEncoding';

@@ -282,6 +282,7 @@ describe('autosave in local storage (failures reported, never thrown)', () => {
         if (opts.quota) throw new DOMException('full', 'QuotaExceededError');
         data.set(k, v);
       },
+      removeItem: (k: string) => void data.delete(k),
     };
   }
   async function withWindow<T>(win: unknown, run: (m: typeof import('../../web/files/autosave')) => T): Promise<T> {
@@ -314,7 +315,7 @@ describe('autosave in local storage (failures reported, never thrown)', () => {
       if (!w.ok) expect(w.message).toMatch(/local storage is full \(sheet is 3 kB\)/);
     });
   });
-  it('keeps an unreadable autosave under another key and leaves the original in place', async () => {
+  it('keeps an unreadable autosave under another key, once (issue 10: not again on every start)', async () => {
     const storage = fakeStorage();
     await withWindow({ localStorage: storage }, (m) => {
       storage.data.set(m.AUTOSAVE_KEY, '{broken');
@@ -326,8 +327,14 @@ describe('autosave in local storage (failures reported, never thrown)', () => {
       const aside = [...storage.data.keys()].filter((k) => k.startsWith(m.SET_ASIDE_PREFIX));
       expect(aside.length).toBe(1);
       expect(storage.data.get(aside[0])).toBe('{broken');
-      expect(storage.data.get(m.AUTOSAVE_KEY)).toBe('{broken');
+      expect(storage.data.has(m.AUTOSAVE_KEY)).toBe(false);
       expect(r.message).toContain(aside[0]);
+      // the next start finds nothing to restore and sets nothing aside again
+      const again = m.restoreAutosave(() => {
+        throw new Error('not JSON');
+      });
+      expect(again).toEqual({ safeToWrite: true });
+      expect([...storage.data.keys()].filter((k) => k.startsWith(m.SET_ASIDE_PREFIX)).length).toBe(1);
     });
   });
 });

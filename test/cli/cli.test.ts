@@ -123,4 +123,67 @@ describe('main() refusals', () => {
     expect(evHelp.code).toBe(0);
     expect(evHelp.stdout).toMatch(/--set name=formula/);
   });
+
+  // issue 10: what the app opens, the command line opens; a bad cell never silences the table
+  it('reads files with a byte-order mark or in UTF-16 and refuses malformed UTF-8 with the offset', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'strainsheet-cli-'));
+    const text = JSON.stringify({ format: 'strainsheet', version: 1, cells: [{ name: 'a', formula: '6 * 7' }] });
+    const le = Buffer.from('\ufeff' + text, 'utf16le');
+    const files: Array<[string, Buffer]> = [
+      ['bom.json', Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(text)])],
+      ['utf16le.json', le],
+    ];
+    for (const [name, bytes] of files) {
+      writeFileSync(join(dir, name), bytes);
+      const r = await call(['evaluate', join(dir, name)]);
+      expect(r.code, name).toBe(0);
+      expect(r.stdout, name).toMatch(/a\s+42/);
+    }
+    const bad = Buffer.from(text.replace('6 * 7', '6 * 7 \u00ff'));
+    const at = bad.indexOf(0xc3);
+    bad[at] = 0xff; // not a UTF-8 byte anywhere
+    writeFileSync(join(dir, 'bad.json'), bad);
+    const r = await call(['evaluate', join(dir, 'bad.json')]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(new RegExp(`not valid UTF-8 text: the bytes at offset ${at} \\(ff`));
+  });
+
+  it('prints every cell and names the failures for values the display cannot show', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'strainsheet-cli-'));
+    const file = join(dir, 'odd.json');
+    const cells = [
+      { name: 'cosmo', formula: 'flatCosmology(70 km/s/Mpc, 0.3)' },
+      { name: 'listed', formula: '[cosmo]' },
+      { name: 'root', formula: 'sqrt(-4 m^2)' },
+      { name: 'fine', formula: '42' },
+    ];
+    writeFileSync(file, JSON.stringify({ format: 'strainsheet', version: 1, cells }));
+    const r = await call(['evaluate', file]);
+    expect(r.code).toBe(1);
+    expect(r.stdout).toMatch(/fine\s+42/);
+    expect(r.stdout).toMatch(/listed\s+error \(eval\)/);
+    expect(r.stderr).toMatch(/^listed: .*cosmology/m);
+    expect(r.stderr).toMatch(/^root: the result is a complex quantity/m);
+  });
+
+  it('takes --cell-budget and --run-budget, and names the budget in the limit error', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'strainsheet-cli-'));
+    const file = join(dir, 'slow.json');
+    const cells = [
+      { name: 'step', formula: 'step(x) = x + 1' },
+      { name: 'slow', formula: 'sum(map(1:1e6, step))' },
+    ];
+    writeFileSync(file, JSON.stringify({ format: 'strainsheet', version: 1, cells }));
+    const r = await call(['evaluate', file, '--cell-budget', '0.05']);
+    expect(r.code).toBe(1);
+    expect(r.stderr).toMatch(/^slow: the evaluation ran longer than its time budget of 0\.05 s per cell/m);
+    const run = await call(['evaluate', '--run-budget=0.001', file]);
+    expect(run.code).toBe(1);
+    expect(run.stderr).toMatch(/the run's time budget of 0\.001 s is used up/);
+    for (const bad of [['--cell-budget', 'soon'], ['--run-budget', '-1'], ['--cell-budget']]) {
+      const b = await call(['evaluate', file, ...bad]);
+      expect(b.code, bad.join(' ')).toBe(2);
+      expect(b.stderr).toMatch(/must be a positive number of seconds|needs a number of seconds/);
+    }
+  });
 });

@@ -34,7 +34,7 @@ async function run(...argv: string[]): Promise<{ code: number; out: string; err:
 describe('strainsheet infer', () => {
   it('one and two worker threads write the same chains and summary', async () => {
     const args = ['infer', wide, '--likelihood', 'logL', '--steps', '40', '--walkers', '8', '--seed', '3', '--derived', 'local_rate', '--quiet'];
-    const one = await run(...args, '--workers', '1', '--csv', file('c1.csv'), '--json', file('s1.json'));
+    const one = await run(...args, '--workers', '1', '--csv', file('c1.csv'), '--json', file('s1.json'), '--corner', file('c1.svg'));
     const two = await run(...args, '--workers', '2', '--csv', file('c2.csv'), '--json', file('s2.json'));
     expect([one.code, two.code], one.err + two.err).toEqual([0, 0]);
     const csv = readFileSync(file('c1.csv'), 'utf8');
@@ -47,6 +47,7 @@ describe('strainsheet infer', () => {
     expect(['converged', 'run longer']).toContain(summary.verdict);
     expect(one.out).toMatch(/rate_norm \[Mpc\^-3 Gyr\^-1\]: median .* 68% .* 95% .*R-hat/);
     expect(one.err).toBe(''); // not a terminal: no progress line
+    expect(readFileSync(file('c1.svg'), 'utf8')).toMatch(/^<svg[\s\S]*log10 rate_norm \[Mpc\^-3 Gyr\^-1\][\s\S]*<\/svg>\n$/);
   }, 120_000);
 
   it('bad input: no likelihood option, a normal prior on a scale parameter, an unknown free cell', async () => {

@@ -1,6 +1,7 @@
 // Convergence: A_yr and h_c at the default resolution against HIGH_RESOLUTION (16 x 24 x 8 panels of
 // 10 points, about 3e6 nodes) for the demo population and every test population; the brief asks
-// for 0.1%. The reference is the same scheme refined (an independent check is backgroundScipy.test.ts).
+// for 0.1%, and issue 11 for 1e-4 in A_yr. The reference is the same scheme refined (independent
+// checks: backgroundScipy.test.ts, and kinkedDensities.test.ts for densities with kinks).
 import { describe, expect, it } from 'vitest';
 import { F_YR_HZ, KM_S_MPC_SI } from '../../src/physics/constants';
 import { characteristicStrainSquared, HIGH_RESOLUTION } from '../../src/physics/backgroundIntegral';
@@ -48,7 +49,8 @@ describe('A_yr and h_c converge to 0.1% of a high-resolution reference', () => {
       const hi = characteristicStrainSquared(pop, freqs, { resolution: reference });
       for (let i = 0; i < freqs.length; i++) {
         const err = Math.abs(Math.sqrt(lo[i] / hi[i]) - 1);
-        expect(err, `${label} at f = ${freqs[i]} Hz: h_c ${Math.sqrt(lo[i])} vs ${Math.sqrt(hi[i])}, error ${err.toExponential(2)}`).toBeLessThan(1e-3);
+        // A_yr (f_yr, i = 0) within 1e-4 (issue 11), every h_c within 1e-3
+        expect(err, `${label} at f = ${freqs[i]} Hz: h_c ${Math.sqrt(lo[i])} vs ${Math.sqrt(hi[i])}, error ${err.toExponential(2)}`).toBeLessThan(i === 0 ? 1e-4 : 1e-3);
       }
     });
   }

@@ -10,6 +10,7 @@ import { createSidePanelControl, PLOTS_REGION_ID, SidePanel } from './SidePanel'
 import { ViewSwitch, type WorkspaceView } from './ViewSwitch';
 import { restoreAutosave, writeAutosave } from '../files/autosave';
 import { openSheetFile, MAX_SHEET_FILE_BYTES } from '../files/openSheetFile';
+import { openDataFile } from '../files/openDataFile';
 import { downloadText, fileStem } from '../files/download';
 import { cellTableCsv } from '../files/cellTableCsv';
 import type { Completion } from '../help/formulaContext';
@@ -131,6 +132,16 @@ export function Workbench() {
     session.load(r.sheet, `open ${file.name}`);
     notify(`Opened ${file.name}.`);
   };
+  let dataPicker!: HTMLInputElement;
+  const openData = async (file: File) => {
+    const r = await openDataFile(file, session.cells());
+    if (!r.ok) {
+      notify(r.message, 'error');
+      return;
+    }
+    const e = session.edit(`read ${file.name}`, (sheet) => sheet.setCell(r.cell));
+    notify(e.ok ? r.message : `${file.name} was read but not stored: ${e.message}`, e.ok ? 'info' : 'error');
+  };
   const newSheet = () => {
     session.load(new Sheet({ title: 'Untitled sheet', cells: [] }), 'new sheet');
     notify('New empty sheet. Undo brings the previous one back.');
@@ -231,6 +242,9 @@ export function Workbench() {
           <nav class="toolbar no-print" aria-label="File and history">
             <button type="button" onClick={newSheet}>New</button>
             <button type="button" onClick={() => filePicker.click()}>Open…</button>
+            <button type="button" data-action="open-data" title="Read a free spectrum or (A, gamma) samples (CSV or JSON) into the sheet" onClick={() => dataPicker.click()}>
+              Open data…
+            </button>
             <button type="button" data-action="save-sheet" onClick={saveFile}>Save</button>
             <button type="button" onClick={loadDemo}>Demo</button>
             <button type="button" data-action="export-cells" onClick={exportCells}>Cells CSV</button>
@@ -244,6 +258,18 @@ export function Workbench() {
             <button type="button" onClick={() => window.print()}>Print</button>
             <span class="autosave-state" data-autosave>{autosaveState()}</span>
           </nav>
+          <input
+            ref={dataPicker}
+            type="file"
+            accept=".csv,.json,text/csv,application/json"
+            data-action="open-data-file"
+            hidden
+            onChange={(e) => {
+              const f = e.currentTarget.files?.[0];
+              e.currentTarget.value = '';
+              if (f) void openData(f);
+            }}
+          />
           <input
             ref={filePicker}
             type="file"

@@ -59,6 +59,8 @@ export function restoreAutosave<T>(parse: (text: string) => T): RestoreResult<T>
     const aside = `${SET_ASIDE_PREFIX}${new Date().toISOString()}`;
     try {
       s.setItem(aside, text);
+      // Set aside once: the next start finds no autosave instead of copying it again.
+      s.removeItem(AUTOSAVE_KEY);
     } catch {
       return {
         message: `The autosaved sheet could not be read (${reason}) and there is no room to keep a copy; autosave is paused so it is not overwritten.`,

@@ -1,5 +1,8 @@
-// Reading a sheet file the user picked or dropped. The file is parsed into a new Sheet; only when
-// that succeeds does the caller replace the current one, so a bad file leaves the sheet untouched.
+// Reading a sheet file the user picked or dropped. The bytes are decoded as the command line
+// decodes them (UTF-8 with or without byte-order mark, UTF-16; anything else refused with the byte
+// offset), then parsed into a new Sheet; only when that succeeds does the caller replace the
+// current one, so a bad file leaves the sheet untouched.
+import { sheetTextFromBytes } from '../engine/engine';
 
 /** Files larger than this are refused before reading (the engine has its own limit too). */
 export const MAX_SHEET_FILE_BYTES = 5_000_000;
@@ -11,14 +14,14 @@ export async function openSheetFile<T>(file: Blob & { name?: string }, parse: (t
   if (file.size > MAX_SHEET_FILE_BYTES) {
     return { ok: false, message: `${label} was not opened: it is ${(file.size / 1e6).toFixed(1)} MB, more than the ${MAX_SHEET_FILE_BYTES / 1e6} MB a sheet file may have. The sheet is unchanged.` };
   }
-  let text: string;
+  let bytes: Uint8Array;
   try {
-    text = await file.text();
+    bytes = new Uint8Array(await file.arrayBuffer());
   } catch (err) {
     return { ok: false, message: `${label} could not be read (${err instanceof Error ? err.message : String(err)}). The sheet is unchanged.` };
   }
   try {
-    return { ok: true, sheet: parse(text) };
+    return { ok: true, sheet: parse(sheetTextFromBytes(bytes)) };
   } catch (err) {
     return { ok: false, message: `${label} was not opened: ${sentence(err instanceof Error ? err.message : String(err))} The sheet is unchanged.` };
   }

@@ -1,8 +1,8 @@
 // The spectrum plot of a sheet as a PlotModel, from the cells and their values alone (DOM-free):
 // the Plots panel and `strainsheet plot` draw the same figure from it.
 import { isSheetObject, type CellSpec, type CellState } from '../engine/engine';
-import { spectrumPlotModel, type BinnedStrain, type MeasuredAmplitude, type StrainCurve, type VerticalQuantity } from './spectrumPlotModel';
-import { binsFromJson, curveFromSpectrumJson, drawingGrid, hubbleConstant, isOneArgumentFunction, measuredFromJson, sampleFrequencyFunction } from './sheetPlotData';
+import { spectrumPlotModel, type BinnedStrain, type MeasuredAmplitude, type RealisationBands, type StrainCurve, type VerticalQuantity } from './spectrumPlotModel';
+import { binsFromJson, realisationBandsFromJson, curveFromSpectrumJson, drawingGrid, hubbleConstant, isOneArgumentFunction, measuredFromJson, sampleFrequencyFunction } from './sheetPlotData';
 import type { PlotModel } from './plotModel';
 
 export interface SheetReader {
@@ -41,6 +41,7 @@ export function sheetSpectrumModel(sheet: SheetReader, quantity: VerticalQuantit
   curves.push(...extra);
   const measured: MeasuredAmplitude[] = [];
   const bins: BinnedStrain[] = [];
+  const realisations: RealisationBands[] = [];
   for (const c of cells) {
     const v = valueOf(c.name);
     if (!isSheetObject(v)) continue;
@@ -48,6 +49,9 @@ export function sheetSpectrumModel(sheet: SheetReader, quantity: VerticalQuantit
       const m = measuredFromJson(c.name, v.toJSON());
       if (m) measured.push(m);
       else notes.push(`${c.name}: this measurement has no amplitude interval to draw.`);
+    } else if (v.kind === 'realisations') {
+      const r = realisationBandsFromJson(c.name, v.toJSON());
+      if (r) realisations.push(r);
     } else if (/bin|freeSpectrum/i.test(v.kind)) {
       const b = binsFromJson(c.name, v.toJSON(), h0);
       if (b) bins.push(b);
@@ -60,5 +64,5 @@ export function sheetSpectrumModel(sheet: SheetReader, quantity: VerticalQuantit
       if (st.status === 'error' && (/spectrum/i.test(c.name) || /Spectrum\s*\(/.test(c.formula))) notes.push(`${c.name} has no value: ${st.error.message}`);
     }
   }
-  return spectrumPlotModel({ quantity, curves, measured, bins, h0PerS: h0, notes });
+  return spectrumPlotModel({ quantity, curves, realisations, measured, bins, h0PerS: h0, notes });
 }

@@ -1,0 +1,154 @@
+// The mass side of the circular strain form (circularStrainForm.ts; Phinney 2001 with
+// M_c^(5/3) = M^(5/3) eta): at redshift z, the z factor times
+//   Int_{log10MMin}^{min(xCut, log10MMax)} dlog10M (M/Msun)^(5/3) Int dq n eta,
+// on the composite mass rule of massPanels.ts (whole panels cached, one partial panel at the cut).
+import { symmetricMassRatio } from './binaryMasses';
+import { compositeNodes } from './gaussLegendre';
+import { MassPanels } from './massPanels';
+import { checkedLog, checkedValue, densityAt } from './densityChecks';
+import type { BinaryPopulation } from './populationTypes';
+import type { IntegrationResolution } from './backgroundIntegral';
+
+/** (M / Msun)^(5/3) = exp(FIVE_THIRDS_LN10 log10M). */
+export const FIVE_THIRDS_LN10 = (5 / 3) * Math.LN10;
+
+export interface MassModel {
+  /**
+   * A function of z whose smoothness is that of the z integrand without the cut (the z factor for a
+   * factored density, the whole mass integral otherwise), for the error control of the z panels.
+   */
+  indicator(z: number): number;
+  /**
+   * For the given z nodes (with the indicator's values there): the mass integral up to xCut at z
+   * node iz, times the z factor.
+   */
+  nodeMass(zNodes: Float64Array, indicatorValues: Float64Array): (iz: number, xCut: number) => number;
+  /** The same at any z. */
+  massAt(z: number, xCut: number): number;
+  /** The mass integrand (M/Msun)^(5/3) Int dq n eta at log10M = x, times the z factor. */
+  at(z: number, x: number): number;
+  /**
+   * A generous estimate of the largest at(z, x) over the z range, given the indicator's values at the
+   * z nodes (10 x the largest node value times the mass part for a factored density; Infinity when
+   * there is no cheap estimate). Used to skip kink checks that cannot matter.
+   */
+  atMost(x: number, indicatorValues: Float64Array): number;
+}
+
+/** The mass model of a population: factored (redshift x exp(lnMass) x massRatio) or general. */
+export function massModelOf(pop: BinaryPopulation, res: IntegrationResolution): MassModel {
+  const mp = new MassPanels(pop.log10MMin, pop.log10MMax, res.log10MPanels, res.order);
+  const sep = pop.separable;
+  return sep?.redshift && sep.lnMass ? factoredModel(pop, mp, res) : generalModel(pop, mp, res);
+}
+
+/** Int dq p(q) eta(q) on the q rule (the q factor of a separable density, once per spectrum). */
+function etaIntegral(pop: BinaryPopulation, massRatio: (q: number) => number, res: IntegrationResolution): number {
+  const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
+  let s = 0;
+  for (let j = 0; j < qr.nodes.length; j++) s += qr.weights[j] * symmetricMassRatio(qr.nodes[j]) * checkedValue(massRatio(qr.nodes[j]), 'mass-ratio factor', qr.nodes[j]);
+  return s;
+}
+
+/** redshift(z) exp(lnMass(x)) massRatio(q): z factors per z node, mass sums once for all z, one exp per partial-panel node. */
+function factoredModel(pop: BinaryPopulation, mp: MassPanels, res: IntegrationResolution): MassModel {
+  const sep = pop.separable!;
+  const redshift = sep.redshift!;
+  const lnMass = sep.lnMass!;
+  const etaPdf = etaIntegral(pop, sep.massRatio, res);
+  const zFactorAt = (z: number) => etaPdf * checkedValue(redshift(z), 'redshift factor', z);
+  // w (M/Msun)^(5/3) exp(lnMass) summed over whole panels, cumulatively.
+  const cumulative = new Float64Array(mp.panels + 1);
+  for (let p = 0; p < mp.panels; p++) {
+    let s = 0;
+    for (let i = p * mp.order; i < (p + 1) * mp.order; i++) {
+      const x = mp.base.nodes[i];
+      s += mp.base.weights[i] * Math.exp(checkedLog(lnMass(x), x) + FIVE_THIRDS_LN10 * x);
+    }
+    cumulative[p + 1] = cumulative[p] + s;
+  }
+  const { lo, hi, width, panels, order } = mp;
+  const u = mp.unit.nodes;
+  const w = mp.unit.weights;
+  /** Int^{min(xCut, hi)} dx w (M/Msun)^(5/3) exp(lnMass): the whole panels' sum plus the partial panel, one exp per node. */
+  const upToCut = (xCut: number): number => {
+    if (xCut >= hi) return cumulative[panels];
+    const p = Math.min(panels, Math.max(0, Math.floor((xCut - lo) / width)));
+    const a = lo + p * width;
+    if (p === panels || !(xCut > a)) return cumulative[p];
+    const mid = 0.5 * (a + xCut);
+    const half = 0.5 * (xCut - a);
+    let s = 0;
+    for (let i = 0; i < order; i++) {
+      const x = mid + half * u[i];
+      s += w[i] * Math.exp(lnMass(x) + FIVE_THIRDS_LN10 * x);
+    }
+    // NaN or +Infinity from lnMass: find the node for the message (checked here, not per node)
+    if (!(s < Infinity)) for (let i = 0; i < order; i++) checkedLog(lnMass(mid + half * u[i]), mid + half * u[i]);
+    return cumulative[p] + half * s;
+  };
+  return {
+    indicator: zFactorAt,
+    // the indicator is the z factor
+    nodeMass: (_zNodes, zFactor) => (iz, xCut) => zFactor[iz] * upToCut(xCut),
+    massAt: (z, xCut) => zFactorAt(z) * upToCut(xCut),
+    at: (z, x) => {
+      // the mass part first: a heaviest-binary integrand of 0 (an exponential cutoff) needs no z factor
+      const m = Math.exp(checkedLog(lnMass(x), x) + FIVE_THIRDS_LN10 * x);
+      return m === 0 ? 0 : zFactorAt(z) * m;
+    },
+    atMost: (x, zFactor) => {
+      let top = 0;
+      for (let i = 0; i < zFactor.length; i++) top = Math.max(top, zFactor[i]);
+      return 10 * top * Math.exp(checkedLog(lnMass(x), x) + FIVE_THIRDS_LN10 * x);
+    },
+  };
+}
+
+/** Any density: the q integral per (z, M) node (once per z node for zMass x massRatio), whole-panel sums cached per z node. */
+function generalModel(pop: BinaryPopulation, mp: MassPanels, res: IntegrationResolution): MassModel {
+  const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
+  const etaW = Float64Array.from(qr.nodes, (q, j) => qr.weights[j] * symmetricMassRatio(q));
+  const sep = pop.separable;
+  const etaPdf = sep ? etaIntegral(pop, sep.massRatio, res) : 0;
+  // Int dq n eta at (z, x)
+  const inner = (z: number, x: number): number => {
+    if (sep) return etaPdf * checkedValue(sep.zMass(z, x), 'density', z, x);
+    let s = 0;
+    for (let j = 0; j < etaW.length; j++) s += etaW[j] * densityAt(pop, z, x, qr.nodes[j]);
+    return s;
+  };
+  const m53 = Float64Array.from(mp.base.nodes, (x) => Math.exp(FIVE_THIRDS_LN10 * x));
+  const cumulativeSums = (z: number): Float64Array => {
+    const c = new Float64Array(mp.panels + 1);
+    for (let p = 0; p < mp.panels; p++) {
+      let s = 0;
+      for (let i = p * mp.order; i < (p + 1) * mp.order; i++) s += mp.base.weights[i] * inner(z, mp.base.nodes[i]) * m53[i];
+      c[p + 1] = c[p] + s;
+    }
+    return c;
+  };
+  const memo = new Map<number, Float64Array>();
+  const sumsAt = (z: number): Float64Array => {
+    let c = memo.get(z);
+    if (c === undefined) memo.set(z, (c = cumulativeSums(z)));
+    return c;
+  };
+  const upTo = (z: number, sums: Float64Array, xCut: number): number => {
+    let m = sums[mp.wholePanels(xCut)];
+    const part = mp.partialPanel(xCut);
+    for (let i = 0; i < part.nodes.length; i++) m += part.weights[i] * inner(z, part.nodes[i]) * Math.exp(FIVE_THIRDS_LN10 * part.nodes[i]);
+    return m;
+  };
+  return {
+    indicator: (z) => sumsAt(z)[mp.panels],
+    nodeMass: (zNodes) => {
+      const nodeSums = Array.from(zNodes, sumsAt);
+      memo.clear();
+      return (iz, xCut) => upTo(zNodes[iz], nodeSums[iz], xCut);
+    },
+    massAt: (z, xCut) => upTo(z, cumulativeSums(z), xCut),
+    at: (z, x) => inner(z, x) * Math.exp(FIVE_THIRDS_LN10 * x),
+    atMost: () => Infinity,
+  };
+}
