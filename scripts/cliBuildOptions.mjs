@@ -19,6 +19,8 @@ export function cliBuildOptions(outdir) {
     outExtension: { '.js': '.mjs' },
     logLevel: 'warning',
     legalComments: 'none',
+    // Loaded from node_modules only by `strainsheet plot --pdf`, so other commands do not parse them.
+    external: ['jspdf', 'svg2pdf.js', 'linkedom', 'dejavu-fonts-ttf'],
     // Whitespace and syntax only: identifiers keep their names, so stack traces stay readable.
     minifyWhitespace: true,
     minifySyntax: true,

@@ -8,9 +8,9 @@ import { curveColor, MEASURED_COLOR, BINS_COLOR, REALISATION_COLOR } from './pal
 export type VerticalQuantity = 'hc' | 'omega' | 'psd';
 
 export const VERTICAL_LABELS: Record<VerticalQuantity, string> = {
-  hc: 'characteristic strain h_c (dimensionless)',
-  omega: 'energy-density fraction Ω_gw(f) (dimensionless)',
-  psd: 'timing-residual power P(f) (s³)',
+  hc: 'characteristic strain h_c',
+  omega: 'energy density Ω_gw(f)',
+  psd: 'timing-residual power P(f) (s^3)',
 };
 
 /** A strain spectrum to draw, numbers in SI (Hz). */
