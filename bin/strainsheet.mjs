@@ -18,7 +18,7 @@ function newestSourceMtime(dir) {
 }
 
 let main;
-if (existsSync(bundle) && statSync(bundle).mtimeMs >= newestSourceMtime(`${root}src`)) {
+if (existsSync(bundle) && statSync(bundle).mtimeMs >= Math.max(...['src', 'web/plots', 'web/engine'].map((d) => newestSourceMtime(`${root}${d}`)))) {
   ({ main } = await import(bundle));
 } else {
   const { register } = await import('tsx/esm/api');

@@ -22,10 +22,13 @@ export function cliBuildOptions(outdir) {
     mainFields: ['module', 'main'],
     logLevel: 'warning',
     legalComments: 'none',
+    // Loaded from node_modules only by `strainsheet plot --pdf`, so other commands do not parse them.
+    external: ['jspdf', 'svg2pdf.js', 'linkedom', 'dejavu-fonts-ttf'],
     // Whitespace and syntax only: identifiers keep their names, so stack traces stay readable.
     minifyWhitespace: true,
     minifySyntax: true,
-    // workerpool is CommonJS and requires node:worker_threads at run time: give the ESM bundle a require.
+    // workerpool is CommonJS and requires node:worker_threads at run time: give the ESM bundle a require
+    // (this real require is also why UMD builds must be avoided, see mainFields above).
     banner: { js: "import { createRequire as __strainsheetCreateRequire } from 'node:module'; const require = __strainsheetCreateRequire(import.meta.url);" },
   };
 }

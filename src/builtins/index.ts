@@ -2,6 +2,7 @@
 import type { Builtin } from '../sheet/builtin';
 import { cosmologyBuiltins } from './cosmology';
 import { populationBuiltins } from './population';
+import { binaryEvolutionBuiltins } from './binaryEvolution';
 import { spectrumBuiltins } from './spectrum';
 import { orbitBuiltins } from './orbits';
 import { environmentBuiltins } from './environment';
@@ -17,6 +18,7 @@ export function allBuiltins(): Builtin[] {
     ...utilityBuiltins,
     ...cosmologyBuiltins,
     ...populationBuiltins,
+    ...binaryEvolutionBuiltins,
     ...spectrumBuiltins,
     ...orbitBuiltins,
     ...environmentBuiltins,

@@ -71,10 +71,12 @@ export class RealisationsValue implements SheetObject {
       upper95: Array.from(s.upper95),
       outshineProbability: Array.from(s.outshineProbability),
       medianLoudestStrain: Array.from(s.medianLoudestStrain),
+      // The loudest binary's own characteristic strain, h sqrt(f T) (its share of h_c^2 = f T sum h^2).
+      medianLoudestHc: this.cells.bins.map((b, k) => s.medianLoudestStrain[k] * Math.sqrt(b.hc2PerH2)),
       longResidenceCountFraction: this.cells.bins.map((b) => (b.expectedCount > 0 ? b.longResidenceCount / (b.expectedCount + (this.setup.dropLongResidence ? b.longResidenceCount : 0)) : 0)),
       longResidenceH2Fraction: this.cells.bins.map((b) => longResidenceH2Fraction(b, this.setup.dropLongResidence)),
       singleRealisations: single,
-      units: { frequencyHz: 'Hz', smoothHc: '', meanHc: '', medianHc: '', lower68: '', upper68: '', lower95: '', upper95: '', medianLoudestStrain: '' },
+      units: { frequencyHz: 'Hz', smoothHc: '', meanHc: '', medianHc: '', lower68: '', upper68: '', lower95: '', upper95: '', medianLoudestStrain: '', medianLoudestHc: '' },
     };
   }
 }

@@ -3,6 +3,7 @@ import type { CliIO } from './cliIO';
 import { evaluateCommand } from './evaluateCommand';
 import { scanCommand } from './scanCommand';
 import { sampleCommand } from './sampleCommand';
+import { plotCommand } from './plotCommand';
 import { importCommand } from './importCommand';
 import { mergeCommand } from './mergeCommand';
 import { inferCommand } from './inferCommand';
@@ -21,6 +22,7 @@ export const commands: Record<string, Command> = {
   evaluate: evaluateCommand,
   scan: scanCommand,
   sample: sampleCommand,
+  plot: plotCommand,
   import: importCommand,
   merge: mergeCommand,
   infer: inferCommand,

@@ -15,9 +15,10 @@ import { csvField, csvNumber, g4, runJobForCommand, sheetCommandOptions, writeCs
 const USAGE = `strainsheet sample FILE --samples N --seed S --output name [options]
 
 Draws every cell that has an uncertainty (a distribution formula in the cell's "uncertainty" field)
-N times with a seeded generator (xoshiro128**), evaluates the outputs for each draw and writes CSV:
-one row per sample with the drawn inputs and the outputs, in each cell's own unit.
-The sheet itself is not changed; the same seed gives the same rows.
+N times with a seeded generator (xoshiro128**, one stream per chunk of 500 samples), evaluates the
+outputs for each draw and writes CSV: one row per sample with the drawn inputs and the outputs, in
+each cell's own unit. The sheet itself is not changed; the same seed gives the same rows, whatever
+the number of workers or shards.
   --samples N        number of samples (whole number, at least 1)
   --seed S           seed (whole number >= 0)
   --output name      output cell (repeatable)

@@ -2,7 +2,7 @@
 // engine once (bin/strainsheet-worker.mjs) and runs chunks of parallel jobs.
 import { availableParallelism } from 'node:os';
 import { existsSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { basename, dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import workerpool from 'workerpool';
 import type { ChunkExecutor } from './runChunks';
@@ -13,9 +13,15 @@ export function defaultWorkerCount(): number {
   return availableParallelism();
 }
 
-/** bin/strainsheet-worker.mjs, found upwards from this module (the sources or the bundle in dist-cli/). */
+/**
+ * The worker threads' entry. Inside the bundled CLI (dist-cli/strainsheet.mjs) it is the bundle built
+ * with it (dist-cli/chunkWorker.mjs), so both run the same code; from the sources (tests, benchmarks)
+ * it is bin/strainsheet-worker.mjs, which takes that bundle when it is fresh and the sources otherwise.
+ */
 function workerScript(): string {
-  let dir = dirname(fileURLToPath(import.meta.url));
+  const here = fileURLToPath(import.meta.url);
+  if (basename(dirname(here)) === 'dist-cli') return join(dirname(here), 'chunkWorker.mjs');
+  let dir = dirname(here);
   for (let i = 0; i < 5; i++) {
     const candidate = join(dir, 'bin', 'strainsheet-worker.mjs');
     if (existsSync(candidate)) return candidate;

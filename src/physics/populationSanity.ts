@@ -34,9 +34,16 @@ export function mergerRateDensity(pop: BinaryPopulation, cosmo: FlatLambdaCdm, z
   return perUnitRedshift(pop, z, () => 1) / (cosmo.dtdzS(z) / GYR_S);
 }
 
-function overRedshift(pop: BinaryPopulation, weightOfMass: (msun: number) => number): number {
+/** Comoving number density of the mergers between redshifts zLo and zHi (clipped to the population's range), Mpc^-3. */
+export function mergedNumberDensityBetween(pop: BinaryPopulation, zLo: number, zHi: number): number {
+  const lo = Math.max(zLo, pop.zMin);
+  const hi = Math.min(zHi, pop.zMax);
+  return hi > lo ? overRedshift(pop, () => 1, lo, hi) : 0;
+}
+
+function overRedshift(pop: BinaryPopulation, weightOfMass: (msun: number) => number, zLo = pop.zMin, zHi = pop.zMax): number {
   checkPopulation(pop);
-  const zr = compositeNodes(pop.zMin, pop.zMax, PANELS, ORDER);
+  const zr = compositeNodes(zLo, zHi, PANELS, ORDER);
   let s = 0;
   for (let c = 0; c < zr.nodes.length; c++) s += zr.weights[c] * perUnitRedshift(pop, zr.nodes[c], weightOfMass);
   return s;

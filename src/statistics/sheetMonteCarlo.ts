@@ -33,32 +33,39 @@ export function uncertainCells(sheet: Sheet): Map<string, SampleableDistribution
   const out = new Map<string, SampleableDistribution>();
   for (const spec of sheet.cells()) {
     if (!spec.uncertainty || spec.uncertainty.trim() === '') continue;
-    let value: unknown;
-    try {
-      value = sheet.overridesFromFormulas({ [spec.name]: spec.uncertainty })[spec.name];
-    } catch (e) {
-      throw new SheetJobError(`uncertainty of ${spec.name}: ${(e as Error).message}`);
-    }
-    if (!isSampleable(value)) {
-      throw new SheetJobError(`uncertainty of ${spec.name} must give a distribution (e.g. lognormalDist(...)), got ${isSheetObject(value) ? `a ${value.kind}` : typeof value}`);
-    }
-    // The samples must have the dimension of the cell's nominal value.
-    const nominal = sheet.state(spec.name);
-    if (nominal.status === 'value') {
-      const probe = value.sample(seededRandom(0));
-      const a = isUnit(nominal.value) ? (nominal.value as Unit) : null;
-      const b = isUnit(probe) ? (probe as Unit) : null;
-      const dimless = (u: Unit | null) => !u || u.dimensions.every((d: number) => d === 0);
-      const same = a && b ? a.equalBase(b) : dimless(a) && dimless(b);
-      if (!same) {
-        throw new SheetJobError(
-          `uncertainty of ${spec.name} gives values in ${b ? b.formatUnits() || 'no unit' : 'no unit'}, but ${spec.name} is in ${a ? a.formatUnits() : 'no unit'}`,
-        );
-      }
-    }
-    out.set(spec.name, value);
+    out.set(spec.name, cellDistribution(sheet, spec.name, spec.uncertainty));
   }
   return out;
+}
+
+/**
+ * The distribution an uncertainty formula gives for one cell, evaluated against the sheet as it is;
+ * throws SheetJobError naming the cell when the formula fails, gives no distribution, or gives
+ * values of another dimension than the cell's nominal value. Also used to check an edit before it is made.
+ */
+export function cellDistribution(sheet: Sheet, name: string, formula: string): SampleableDistribution {
+  let value: unknown;
+  try {
+    value = sheet.overridesFromFormulas({ [name]: formula })[name];
+  } catch (e) {
+    throw new SheetJobError(`uncertainty of ${name}: ${(e as Error).message}`);
+  }
+  if (!isSampleable(value)) {
+    throw new SheetJobError(`uncertainty of ${name} must give a distribution (e.g. lognormalDist(...)), got ${isSheetObject(value) ? `a ${value.kind}` : typeof value}`);
+  }
+  // The samples must have the dimension of the cell's nominal value.
+  const nominal = sheet.state(name);
+  if (nominal.status === 'value') {
+    const probe = value.sample(seededRandom(0));
+    const a = isUnit(nominal.value) ? (nominal.value as Unit) : null;
+    const b = isUnit(probe) ? (probe as Unit) : null;
+    const dimless = (u: Unit | null) => !u || u.dimensions.every((d: number) => d === 0);
+    const same = a && b ? a.equalBase(b) : dimless(a) && dimless(b);
+    if (!same) {
+      throw new SheetJobError(`uncertainty of ${name} gives values in ${b ? b.formatUnits() || 'no unit' : 'no unit'}, but ${name} is in ${a ? a.formatUnits() : 'no unit'}`);
+    }
+  }
+  return value;
 }
 
 export interface MonteCarloOptions {

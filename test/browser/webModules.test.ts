@@ -338,3 +338,24 @@ describe('autosave in local storage (failures reported, never thrown)', () => {
     });
   });
 });
+
+describe('the app engine budget (issue 10)', () => {
+  it('stops a slow formula after the app budget of 1 s per cell, naming it', async () => {
+    const { Sheet, APP_CELL_SECONDS } = await import('../../web/engine/engine');
+    const { cellBudgetSeconds, DEFAULT_CELL_SECONDS, setCellBudget } = await import('../../src/sheet/evaluationBudget');
+    try {
+      expect(cellBudgetSeconds()).toBe(APP_CELL_SECONDS);
+      const cells = [
+        { name: 'step', formula: 'step(x) = x + 1' },
+        { name: 'steps', formula: 'steps(x) = step(step(step(step(x))))' },
+        { name: 'slow', formula: 'sum(map(1:1e6, steps)) + sum(map(1:1e6, steps)) + sum(map(1:1e6, steps))' },
+      ];
+      const s = new Sheet({ cells });
+      const st = s.state('slow');
+      expect(st.status === 'error' && st.error.message).toMatch(/time budget of 1 s per cell/);
+    } finally {
+      setCellBudget(DEFAULT_CELL_SECONDS);
+    }
+  });
+});
+

@@ -33,16 +33,30 @@ export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unk
   return out;
 }
 
+/**
+ * The new picks, except while a card's cell has no value (an error, a recalculation, an edit under
+ * way): then every card keeps its cell, so no other cell is swapped in (picks by kind need values).
+ */
+export function keepPicks(previous: KeyResult[], cells: CellSpec[], fresh: KeyResult[], noValue: (name: string) => boolean): KeyResult[] {
+  const byName = new Map(cells.map((c) => [c.name, c]));
+  if (previous.length && previous.every((p) => byName.has(p.cell.name)) && previous.some((p) => noValue(p.cell.name))) {
+    return previous.map((p) => ({ role: p.role, cell: byName.get(p.cell.name)! }));
+  }
+  return fresh;
+}
+
 export function KeyResultsBar() {
   const services = useServices();
   const { session } = services;
-  const results = createMemo(() => pickKeyResults(session.cells(), (n) => session.value(n)));
+  // A card keeps its cell while that cell exists: a cell in error or being edited (no value, so no
+  // kind to recognise) shows its own state instead of another cell taking its place.
+  const results = createMemo<KeyResult[]>((previous) => keepPicks(previous, session.cells(), pickKeyResults(session.cells(), (n) => session.value(n)), (n) => session.state(n).status !== 'value'), []);
   // Keyed by role and name, so the bar's buttons are rebuilt only when a different cell is picked.
   const keys = createMemo(() => results().map((r) => `${r.role}\u0000${r.cell.name}`), undefined, {
     equals: (a, b) => a.length === b.length && a.every((x, i) => x === b[i]),
   });
   return (
-    <div class="key-results" role="status" aria-label="Key results">
+    <section class="key-results" aria-label="Key results">
       <Show when={keys().length} fallback={<span class="key-empty">No result cells yet (a cell named A_yr shows here).</span>}>
         <For each={keys()}>
           {(key) => {
@@ -71,6 +85,6 @@ export function KeyResultsBar() {
           }}
         </For>
       </Show>
-    </div>
+    </section>
   );
 }

@@ -6,7 +6,8 @@ import { ServicesProvider, type Services, type Tone } from './services';
 import { KeyResultsBar } from './KeyResultsBar';
 import { SheetPanel } from '../sheet/SheetPanel';
 import { groupBySection } from '../sheet/sections';
-import { SidePanel } from './SidePanel';
+import { createSidePanelControl, PLOTS_REGION_ID, SidePanel } from './SidePanel';
+import { ViewSwitch, type WorkspaceView } from './ViewSwitch';
 import { restoreAutosave, writeAutosave } from '../files/autosave';
 import { openSheetFile, MAX_SHEET_FILE_BYTES } from '../files/openSheetFile';
 import { openDataFile } from '../files/openDataFile';
@@ -204,9 +205,22 @@ export function Workbench() {
     window.removeEventListener('drop', onDrop);
   });
 
+  // Below the width where sheet and side panel fit side by side, one of them is shown at a time
+  // and a switch (always on screen) brings the other in one click.
+  const [view, setView] = createSignal<WorkspaceView>('sheet');
+  const showPlots = () => {
+    setView('side');
+    sidePanel.showTab('plots');
+    queueMicrotask(() => document.getElementById(PLOTS_REGION_ID)?.focus());
+  };
+  const sidePanel = createSidePanelControl();
+
   return (
     <ServicesProvider value={services}>
       <div class="workbench" classList={{ dropping: dropping() }}>
+        <a class="skip-link" href={`#${PLOTS_REGION_ID}`} onClick={(e) => { e.preventDefault(); showPlots(); }}>
+          Skip to the plots
+        </a>
         <header class="topbar">
           <div class="brand">
             <span class="brand-mark" aria-hidden="true">
@@ -282,9 +296,12 @@ export function Workbench() {
             )}
           </For>
         </div>
-        <main class="workspace">
-          <SheetPanel />
-          <SidePanel />
+        <ViewSwitch view={view()} onView={(v) => (v === 'side' ? showPlots() : setView(v))} />
+        <main class="workspace" data-view={view()}>
+          <section class="sheet-pane" aria-label="Sheet" tabindex="-1">
+            <SheetPanel />
+          </section>
+          <SidePanel control={sidePanel} />
         </main>
         <Show when={dropping()}>
           <div class="drop-overlay" aria-hidden="true">

@@ -6,3 +6,12 @@ export { isSheetObject, type SheetObject } from '../../src/sheet/sheetObject';
 export type { CellSpec, CellState, SheetObserver } from '../../src/sheet/types';
 export type { CellError } from '../../src/sheet/cellError';
 export type { Builtin, BuiltinArg } from '../../src/sheet/builtin';
+
+import { setCellBudget } from '../../src/sheet/evaluationBudget';
+/**
+ * The app evaluates on the page's thread: one cell's list work and function-cell calls stop after
+ * 1 s (the command line's default is 5 s), so a slow formula, typed or restored from the
+ * autosave, holds the page for at most about that long before it shows a 'limit' error.
+ */
+export const APP_CELL_SECONDS = 1;
+setCellBudget(APP_CELL_SECONDS);

@@ -8,6 +8,7 @@ import { JobClient } from './jobClient';
 import type { GoalSeekJobResult, JobSpec, SampleResult, ScanAxisSpec } from './jobProtocol';
 import { formatNumber } from '../../src/sheet/formatValue';
 import { PlotView } from '../plots/PlotView';
+import { CellSelect } from './CellSelect';
 import { scan1Model, scan2Model, sampleModel } from './scanPlotModels';
 
 type Mode = 'scan1' | 'scan2' | 'sample' | 'goalSeek';
@@ -33,9 +34,7 @@ function AxisFields(props: { label: string; axis: ScanAxisSpec; choices: string[
       <legend>{props.label}</legend>
       <label>
         cell
-        <select value={props.axis.cell} onChange={(e) => props.onPick(e.currentTarget.value)} aria-label={`${props.label} cell`}>
-          <For each={props.choices}>{(c) => <option value={c}>{c}</option>}</For>
-        </select>
+        <CellSelect value={props.axis.cell} choices={props.choices} label={`${props.label} cell`} onChange={props.onPick} />
       </label>
       <label>
         from <input type="number" step="any" value={props.axis.lo} onChange={(e) => props.onChange({ ...props.axis, lo: Number(e.currentTarget.value) })} />
@@ -52,6 +51,18 @@ function AxisFields(props: { label: string; axis: ScanAxisSpec; choices: string[
       <span class="axis-unit">{props.axis.unit ? `in ${props.axis.unit}` : 'plain number'}</span>
     </fieldset>
   );
+}
+
+/**
+ * The default range of a scanned input around its value v: a decade either side, log spaced, for
+ * positive values far from one; linear v +- max(|v|, 0.5) for signed or order-one values (slopes,
+ * fractions), where a decade either side would run through zero or meaningless values.
+ */
+export function defaultRange(v: number): { lo: number; hi: number; log: boolean } {
+  const round = (x: number) => Number(x.toPrecision(3));
+  if (v > 0 && (v < 0.1 || v > 10)) return { lo: round(v / 10), hi: round(v * 10), log: true };
+  const half = Math.max(Math.abs(v), 0.5);
+  return { lo: round(v - half), hi: round(v + half), log: false };
 }
 
 function sameNames(a: string[], b: string[]): boolean {
@@ -85,14 +96,22 @@ export function ScanPanel() {
     const spec = session.cells().find((c) => c.name === cell);
     const s = spec ? scalarInUnit(session.value(spec.name), spec.unit) : null;
     if (!spec || !s) return { cell: cell ?? '', lo: 0, hi: 1, n: 41, log: false, unit: '' };
-    const positive = s.value > 0;
-    const round = (x: number) => Number(x.toPrecision(3));
-    return { cell: spec.name, lo: round(positive ? s.value / 10 : s.value - 1), hi: round(positive ? s.value * 10 : s.value + 1), n: 41, log: positive, unit: s.unit };
+    return { cell: spec.name, ...defaultRange(s.value), n: 41, unit: s.unit };
   };
-  const firstCell = (prefer: string) => scalarCells().find((c) => c === prefer) ?? scalarCells()[0];
-  const [axisX, setAxisX] = createSignal<ScanAxisSpec>(defaultAxis(firstCell('rate_norm')));
-  const [axisY, setAxisY] = createSignal<ScanAxisSpec>({ ...defaultAxis(scalarCells().find((c) => c !== axisX().cell)), n: 31 });
   const [output, setOutput] = createSignal(session.cells().some((c) => c.name === 'A_yr') ? 'A_yr' : (scalarCells()[0] ?? ''));
+  // Inputs the output depends on (cells with no inputs of their own), the sheet's own sections
+  // before cosmology: the merger rate and the mass slope for the demo's A_yr, not H0.
+  const upstreamInputs = (out: string): string[] => {
+    const seen = new Set<string>();
+    const stack = [out];
+    while (stack.length) for (const d of session.dependencies(stack.pop()!)) if (!seen.has(d)) (seen.add(d), stack.push(d));
+    const scalars = new Set(scalarCells());
+    const inputs = session.cells().filter((c) => seen.has(c.name) && scalars.has(c.name) && session.dependencies(c.name).length === 0);
+    return [...inputs.filter((c) => c.section !== 'cosmology'), ...inputs.filter((c) => c.section === 'cosmology')].map((c) => c.name);
+  };
+  const candidates = () => [...upstreamInputs(output()), ...scalarCells()];
+  const [axisX, setAxisX] = createSignal<ScanAxisSpec>(defaultAxis(candidates().find((c) => c === 'rate_norm') ?? candidates()[0]));
+  const [axisY, setAxisY] = createSignal<ScanAxisSpec>({ ...defaultAxis(candidates().find((c) => c !== axisX().cell)), n: 31 });
   const [measurement, setMeasurement] = createSignal<string>(measurementCells()[0] ?? '');
   const [samples, setSamples] = createSignal(1000);
   const [seed, setSeed] = createSignal(1);
@@ -111,6 +130,10 @@ export function ScanPanel() {
     let job: JobSpec;
     const m = mode();
     if (!output()) return setFormError('Choose the output cell.');
+    // What runs is what the form shows: a chosen cell without a value now is refused by name.
+    const used = [output(), ...(m === 'scan1' || m === 'goalSeek' ? [axisX().cell] : m === 'scan2' ? [axisX().cell, axisY().cell] : [])];
+    const absent = used.find((c) => c && !scalarCells().includes(c));
+    if (absent) return setFormError(`${absent} has no number to use right now (see its row); fix it or choose another cell.`);
     if (m === 'scan1') {
       const e = checkAxis(axisX(), 'input');
       if (e) return setFormError(e);
@@ -184,9 +207,7 @@ export function ScanPanel() {
             <legend>solve</legend>
             <label>
               input to change
-              <select value={axisX().cell} onChange={(e) => setAxisX(defaultAxis(e.currentTarget.value))} aria-label="Goal-seek input cell">
-                <For each={scalarCells()}>{(c) => <option value={c}>{c}</option>}</For>
-              </select>
+              <CellSelect value={axisX().cell} choices={scalarCells()} label="Goal-seek input cell" onChange={(c) => setAxisX(defaultAxis(c))} />
             </label>
             <label>
               target of the output
@@ -217,22 +238,17 @@ export function ScanPanel() {
           <legend>result</legend>
           <label>
             output
-            <select value={output()} onChange={(e) => setOutput(e.currentTarget.value)} aria-label="Output cell">
-              <For each={scalarCells()}>{(c) => <option value={c}>{c}</option>}</For>
-            </select>
+            <CellSelect value={output()} choices={scalarCells()} label="Output cell" onChange={setOutput} />
           </label>
           <Show when={mode() !== 'goalSeek'}>
             <label>
               measurement
-              <select value={measurement()} onChange={(e) => setMeasurement(e.currentTarget.value)} aria-label="Measurement cell">
-                <option value="">none</option>
-                <For each={measurementCells()}>{(c) => <option value={c}>{c}</option>}</For>
-              </select>
+              <CellSelect value={measurement()} choices={measurementCells()} label="Measurement cell" emptyLabel="none" onChange={setMeasurement} />
             </label>
           </Show>
         </fieldset>
         <div class="job-buttons">
-          <button type="button" class="primary" data-action="run-job" disabled={status().state === 'running'} onClick={run}>
+          <button type="button" class="primary" data-action="run-job" disabled={status().state === 'running' || status().state === 'cancelling'} onClick={run}>
             Run
           </button>
           <button type="button" data-action="cancel-job" disabled={status().state !== 'running'} onClick={() => client.cancel()}>
@@ -250,6 +266,9 @@ export function ScanPanel() {
               <progress max={s().total} value={s().done} /> {s().done} of {s().total}
             </div>
           )}
+        </Match>
+        <Match when={status().state === 'cancelling'}>
+          <div class="job-progress" data-job-cancelling>Cancelling…</div>
         </Match>
         <Match when={status().state === 'cancelled'}>
           <div class="job-progress" data-job-cancelled>Cancelled. The sheet is as it was.</div>

@@ -20,7 +20,7 @@ function measuredBand(m: BandData & { label: string }, xs: number[]): PlotSeries
 }
 
 function quantityLabel(name: string, unit: string): string {
-  return unit ? `${name} (${unit})` : `${name} (dimensionless)`;
+  return unit ? `${name} (${unit})` : name;
 }
 
 export function scan1Model(r: Scan1Result, measurementLabel: string | null): PlotModel {

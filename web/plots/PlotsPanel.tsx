@@ -2,20 +2,12 @@
 // vertical quantity, and the origin breakdowns (by redshift, by chirp mass) when the sheet has them.
 import { createMemo, createSignal, For, Show } from 'solid-js';
 import { useServices } from '../app/services';
-import { isSheetObject } from '../engine/engine';
 import { PlotView } from './PlotView';
-import { spectrumPlotModel, type StrainCurve, type VerticalQuantity } from './spectrumPlotModel';
-import {
-  binsFromJson,
-  curveFromSpectrumJson,
-  drawingGrid,
-  hubbleConstant,
-  isOneArgumentFunction,
-  measuredFromJson,
-  sampleFrequencyFunction,
-} from './sheetPlotData';
+import type { StrainCurve, VerticalQuantity } from './spectrumPlotModel';
+import type { PlotModel } from './plotModel';
+import { sheetSpectrumModel, spectrumCurves, type SheetReader } from './sheetSpectrumModel';
 import { breakdownModels } from './breakdownPlotModel';
-import { loadPins, savePins, type PinnedCurve } from './pins';
+import { loadPins, pinLabel, savePins, type PinnedCurve } from './pins';
 
 const QUANTITIES: { id: VerticalQuantity; label: string }[] = [
   { id: 'hc', label: 'h_c' },
@@ -34,80 +26,49 @@ export function PlotsPanel() {
     if (!r.ok) services.notify(r.message, 'error');
   };
 
+  /** Every cell's formula now, for naming pinned curves by what changed. */
+  const formulas = createMemo(() => Object.fromEntries(session.cells().map((c) => [c.name, c.formula])));
+  const reader = (): SheetReader => ({ cells: session.cells(), valueOf: (n) => session.value(n), stateOf: (n) => session.state(n) });
   /** Every spectrum cell's current curve. */
-  const spectra = createMemo<StrainCurve[]>(() => {
-    const out: StrainCurve[] = [];
-    for (const c of session.cells()) {
-      const v = session.value(c.name);
-      if (isSheetObject(v) && v.kind === 'spectrum') {
-        const curve = curveFromSpectrumJson(`cell:${c.name}`, c.name, v.toJSON());
-        if (curve) out.push(curve);
-      }
-    }
-    // The sheet's main `spectrum` first, so it keeps the first colour whatever the cell order.
-    return out.sort((a, b) => Number(b.label === 'spectrum') - Number(a.label === 'spectrum'));
-  });
+  const spectra = createMemo<StrainCurve[]>(() => spectrumCurves(reader()));
 
   const model = createMemo(() => {
-    const cells = session.cells();
-    const valueOf = (n: string) => session.value(n);
-    const notes: string[] = [];
-    const h0 = hubbleConstant(cells, valueOf);
-    const curves: StrainCurve[] = [...spectra()];
-    const grid = drawingGrid(curves[0]?.frequencyHz, cells, valueOf);
-    for (const c of cells) {
-      const v = valueOf(c.name);
-      if (!isOneArgumentFunction(v)) continue;
-      const r = sampleFrequencyFunction(v, grid);
-      if ('y' in r) curves.push({ id: `fn:${c.name}`, label: `${c.name}(f)`, frequencyHz: grid, hc: r.y, dashed: true });
-      else notes.push(`${c.name}(f) is not drawn: ${r.reason}.`);
-    }
-    for (const p of pins()) {
-      if (p.visible) curves.push({ id: `pin:${p.id}`, label: `${p.label} (pinned)`, frequencyHz: p.frequencyHz, hc: p.hc, dashed: true });
-    }
-    const measured = [];
-    const bins = [];
-    for (const c of cells) {
-      const v = valueOf(c.name);
-      if (!isSheetObject(v)) continue;
-      if (v.kind === 'measurement') {
-        const m = measuredFromJson(c.name, v.toJSON());
-        if (m) measured.push(m);
-        else notes.push(`${c.name}: this measurement has no amplitude interval to draw.`);
-      } else if (/bin|freeSpectrum/i.test(v.kind)) {
-        const b = binsFromJson(c.name, v.toJSON(), h0);
-        if (b) bins.push(b);
-      }
-    }
-    if (!spectra().length) {
-      // A spectrum cell in error shows nothing: say which one and why, instead of "no spectrum".
-      for (const c of cells) {
-        const st = session.state(c.name);
-        if (st.status === 'error' && (/spectrum/i.test(c.name) || /Spectrum\s*\(/.test(c.formula))) {
-          notes.push(`${c.name} has no value: ${st.error.message}`);
-        }
-      }
-    }
-    return spectrumPlotModel({ quantity: quantity(), curves, measured, bins, h0PerS: h0, notes });
+    const pinned = pins()
+      .filter((p) => p.visible)
+      .map<StrainCurve>((p) => ({ id: `pin:${p.id}`, label: `${pinLabel(p, formulas())} (pinned)`, frequencyHz: p.frequencyHz, hc: p.hc, dashed: true }));
+    return sheetSpectrumModel(reader(), quantity(), pinned, spectra());
+  });
+  // While the sheet's spectra have no value (an input in error, a recalculation under way), the
+  // last drawn curves stay, marked as stale, instead of an empty plot.
+  let prevQuantity = quantity();
+  const shown = createMemo<{ model: PlotModel; stale: string | null }>((prev) => {
+    const m = model();
+    const why = spectra().length === 0 ? m.notes.find((n) => / has no value: /.test(n)) : undefined;
+    if (why && prev && prev.model.series.length && quantity() === prevQuantity) return { model: prev.model, stale: why };
+    prevQuantity = quantity();
+    return { model: m, stale: null };
   });
 
   const breakdowns = createMemo(() => breakdownModels(session.cells(), (n) => session.value(n)));
 
+  const [pinChoice, setPinChoice] = createSignal('spectrum');
   const pinCurrent = () => {
     const list = spectra();
-    if (!list.length) {
+    const c = list.find((x) => x.label === pinChoice()) ?? list[0];
+    if (!c) {
       services.notify('There is no spectrum to pin yet.', 'error');
       return;
     }
-    const stamp = new Date().toLocaleTimeString([], { hour: '2-digit', minute: '2-digit', second: '2-digit' });
-    const added = list.map<PinnedCurve>((c) => ({
+    const pin: PinnedCurve = {
       id: `${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 7)}`,
-      label: `${c.label} at ${stamp}`,
+      label: `${c.label} pinned at ${new Date().toLocaleTimeString([], { hour: '2-digit', minute: '2-digit', second: '2-digit' })}`,
+      curve: c.label,
+      formulas: formulas(),
       frequencyHz: c.frequencyHz,
       hc: c.hc,
       visible: true,
-    }));
-    setPins([...pins(), ...added]);
+    };
+    setPins([...pins(), pin]);
   };
 
   return (
@@ -123,11 +84,18 @@ export function PlotsPanel() {
             )}
           </For>
         </fieldset>
-        <button type="button" data-action="pin" onClick={pinCurrent}>
-          Pin current {spectra().length > 1 ? 'spectra' : 'spectrum'}
-        </button>
+        <div class="pin-controls">
+          <Show when={spectra().length > 1}>
+            <select aria-label="Curve to pin" data-pin-choice onChange={(e) => setPinChoice(e.currentTarget.value)}>
+              <For each={spectra().map((c) => c.label)}>{(n) => <option value={n} selected={n === pinChoice()}>{n}</option>}</For>
+            </select>
+          </Show>
+          <button type="button" data-action="pin" onClick={pinCurrent}>
+            Pin this curve
+          </button>
+        </div>
       </div>
-      <PlotView model={model} onMessage={(t) => services.notify(t, 'error')} />
+      <PlotView model={() => shown().model} stale={shown().stale} onMessage={(t) => services.notify(t, 'error')} />
       <Show when={pins().length}>
         <div class="pins no-print" aria-label="Pinned curves">
           <h3>pinned curves</h3>
@@ -137,16 +105,17 @@ export function PlotsPanel() {
                 <input
                   type="checkbox"
                   checked={p.visible}
-                  aria-label={`Show ${p.label}`}
+                  aria-label={`Show ${pinLabel(p, formulas())}`}
                   onChange={(e) => setPins(pins().map((x) => (x.id === p.id ? { ...x, visible: e.currentTarget.checked } : x)))}
                 />
                 <input
                   class="pin-label"
-                  value={p.label}
+                  value={pinLabel(p, formulas())}
+                  title={pinLabel(p, formulas())}
                   aria-label="Name of pinned curve"
                   onChange={(e) => {
-                    const label = e.currentTarget.value.trim() || p.label;
-                    setPins(pins().map((x) => (x.id === p.id ? { ...x, label } : x)));
+                    const label = e.currentTarget.value.trim();
+                    setPins(pins().map((x) => (x.id === p.id ? (label ? { ...x, label, named: true } : { ...x, named: false }) : x)));
                   }}
                 />
                 <button type="button" class="danger" onClick={() => setPins(pins().filter((x) => x.id !== p.id))}>

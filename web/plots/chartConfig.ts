@@ -15,8 +15,9 @@ import {
   type ChartDataset,
   type Plugin,
 } from 'chart.js';
-import { cellEdges, dataRange, heatColor, usableOnAxis, type PlotAxis, type PlotModel } from './plotModel';
-import { formatTick } from './axisTicks';
+import { cellEdges, displayRange, heatColor, usableOnAxis, type PlotAxis, type PlotModel } from './plotModel';
+import { formatTick, ticksFor } from './axisTicks';
+import { unicodeText } from './figureText';
 
 Chart.register(LineController, ScatterController, LineElement, PointElement, LinearScale, LogarithmicScale, Legend, Tooltip, Filler, Title);
 
@@ -88,7 +89,8 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
   const okX = (v: number) => usableOnAxis(v, model.x.scale);
   const okY = (v: number | undefined) => v !== undefined && usableOnAxis(v, model.y.scale);
   const sets: ChartDataset<'line', Point[]>[] = [];
-  for (const s of model.series) {
+  for (const original of model.series) {
+    const s = { ...original, label: unicodeText(original.label) };
     const base = { borderColor: s.color, backgroundColor: s.color, borderWidth: s.width ?? 2, borderDash: s.dash ?? [] };
     if (s.kind === 'line') {
       sets.push({
@@ -151,36 +153,32 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
   return sets;
 }
 
-function scaleFor(axis: PlotAxis, range: [number, number] | null, factor: number, fitLinear = false) {
-  const lo = axis.min ?? range?.[0];
-  const hi = axis.max ?? range?.[1];
-  const decades = lo !== undefined && hi !== undefined ? Math.log10(hi) - Math.log10(lo) : 0;
-  const padLog = decades * 0.04 || 0.1;
-  const fewDecades = decades < 2.5;
-  const log = axis.scale === 'log';
+/** A chart.js scale showing the same range and ticks as the figure writer (axisTicks.ts, displayRange). */
+function scaleFor(model: PlotModel, which: 'x' | 'y') {
+  const axis: PlotAxis = model[which];
+  const f = axis.displayFactor ?? 1;
+  const [lo, hi] = displayRange(model, which);
+  const ticks = ticksFor(axis.scale, lo * f, hi * f);
+  const labels = new Map(ticks.map((t) => [t.value, unicodeText(t.label)]));
+  const majors = new Set(ticks.filter((t) => t.major).map((t) => t.value));
   return {
-    type: log ? ('logarithmic' as const) : ('linear' as const),
-    // Log axes get a little room beyond the data; linear axes end on round ticks unless fixed.
-    min: log ? (lo === undefined ? undefined : (axis.min === undefined ? lo * 10 ** -padLog : lo) * factor) : fitLinear || axis.min !== undefined ? (lo === undefined ? undefined : lo * factor) : undefined,
-    max: log ? (hi === undefined ? undefined : (axis.max === undefined ? hi * 10 ** padLog : hi) * factor) : fitLinear || axis.max !== undefined ? (hi === undefined ? undefined : hi * factor) : undefined,
-    title: { display: true, text: axis.label, color: '#1f2a36', font: { size: 13 } },
-    grid: { color: '#e6e3dc' },
+    type: axis.scale === 'log' ? ('logarithmic' as const) : ('linear' as const),
+    min: lo * f,
+    max: hi * f,
+    title: { display: true, text: unicodeText(axis.label), color: '#1f2a36', font: { size: 13 } },
+    // Grid lines at the major ticks only; tick marks at every tick (minor ones too).
+    grid: {
+      color: (ctx: { tick?: { value: number } }) => (ctx.tick && majors.has(ctx.tick.value) ? '#e6e3dc' : 'rgba(0, 0, 0, 0)'),
+      tickColor: '#3b4652',
+    },
+    afterBuildTicks: (scale: { ticks: { value: number; major?: boolean }[] }) => {
+      scale.ticks = ticks.map((t) => ({ value: t.value, major: t.major }));
+    },
     ticks: {
       color: '#3b4652',
-      // Log axes: every 1-9 x 10^k tick is generated and the callback blanks all but 1 (2, 5);
-      // skipping would drop the labelled ones.
-      autoSkip: axis.scale !== 'log',
-      maxTicksLimit: axis.scale === 'log' ? undefined : 9,
+      autoSkip: false,
       maxRotation: 0,
-      callback: (v: number | string) => {
-        const n = Number(v);
-        if (axis.scale !== 'log') return formatTick(n);
-        // On log axes label powers of ten, and also 2 and 5 times them when the axis spans few decades.
-        const decade = 10 ** Math.floor(Math.log10(n) + 1e-9);
-        const mant = Math.round(n / decade);
-        if (Math.abs(n / (mant * decade) - 1) > 1e-6) return ''; // the axis ends are not round numbers
-        return mant === 1 || (fewDecades && (mant === 2 || mant === 5)) ? formatTick(n) : '';
-      },
+      callback: (v: number | string) => labels.get(Number(v)) ?? '',
     },
   };
 }
@@ -200,11 +198,11 @@ export function chartConfig(model: PlotModel, opts: { devicePixelRatio?: number;
       interaction: { mode: 'nearest', intersect: false },
       scales: {
         // A map fills its grid exactly; other plots let linear axes end on round ticks.
-        x: scaleFor(model.x, dataRange(model, 'x'), model.x.displayFactor ?? 1, !!model.heatmap),
-        y: scaleFor(model.y, dataRange(model, 'y'), model.y.displayFactor ?? 1, !!model.heatmap),
+        x: scaleFor(model, 'x'),
+        y: scaleFor(model, 'y'),
       },
       plugins: {
-        title: { display: true, text: model.title, color: '#1f2a36', font: { size: 14, weight: 'bold' } },
+        title: { display: true, text: unicodeText(model.title), color: '#1f2a36', font: { size: 14, weight: 'bold' } },
         legend: {
           position: 'bottom',
           labels: {
@@ -217,7 +215,7 @@ export function chartConfig(model: PlotModel, opts: { devicePixelRatio?: number;
         tooltip: {
           filter: (item) => !/\((lower|interval)\)$/.test(item.dataset.label ?? ''),
           callbacks: {
-            label: (item) => `${item.dataset.label}: ${formatTick(item.parsed.y ?? NaN)} at ${formatTick(item.parsed.x ?? NaN)}`,
+            label: (item) => `${item.dataset.label}: ${unicodeText(formatTick(item.parsed.y ?? NaN))} at ${unicodeText(formatTick(item.parsed.x ?? NaN))}`,
           },
         },
       },

@@ -1,7 +1,14 @@
 // Pinned model curves: snapshots of a spectrum kept for comparison, stored beside the autosave.
 export interface PinnedCurve {
   id: string;
+  /** The user's own name for it, or (when `named` is not set) the name it was pinned under. */
   label: string;
+  /** The spectrum cell the curve came from. */
+  curve?: string;
+  /** Every cell's formula when it was pinned: the curve is named by what changed since. */
+  formulas?: Record<string, string>;
+  /** The user named it: the label is kept as given. */
+  named?: boolean;
   frequencyHz: number[];
   hc: number[];
   visible: boolean;
@@ -17,6 +24,8 @@ function isPin(v: unknown): v is PinnedCurve {
     typeof p.id === 'string' &&
     typeof p.label === 'string' &&
     typeof p.visible === 'boolean' &&
+    (p.curve === undefined || typeof p.curve === 'string') &&
+    (p.formulas === undefined || (typeof p.formulas === 'object' && p.formulas !== null && Object.values(p.formulas).every((f) => typeof f === 'string'))) &&
     Array.isArray(p.frequencyHz) &&
     Array.isArray(p.hc) &&
     p.frequencyHz.length === p.hc.length &&
@@ -44,4 +53,21 @@ export function savePins(pins: PinnedCurve[]): { ok: true } | { ok: false; messa
   } catch (err) {
     return { ok: false, message: `Pinned curves could not be stored: ${err instanceof Error ? err.message : String(err)}` };
   }
+}
+
+/**
+ * The name a pinned curve is shown under: the user's, else its cell and what differs between the
+ * sheet then and now, e.g. "spectrum: rate_norm = 2e-3 Mpc^-3 Gyr^-1" (at most three changes named).
+ */
+export function pinLabel(pin: PinnedCurve, now: Record<string, string>): string {
+  if (pin.named || !pin.formulas || !pin.curve) return pin.label;
+  const then = pin.formulas;
+  const changes: string[] = [];
+  for (const [name, formula] of Object.entries(then)) {
+    if (!(name in now)) changes.push(`${name} = ${formula} (now removed)`);
+    else if (now[name] !== formula) changes.push(`${name} = ${formula}`);
+  }
+  const shown = changes.slice(0, 3).join('; ');
+  const more = changes.length > 3 ? ` and ${changes.length - 3} more` : '';
+  return `${pin.curve}: ${changes.length ? shown + more : 'as now'}`;
 }

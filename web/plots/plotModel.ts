@@ -106,3 +106,30 @@ export function dataRange(model: PlotModel, axis: 'x' | 'y'): [number, number] |
   if (lo === hi) return scale === 'log' ? [lo / 2, hi * 2] : [lo - 1, hi + 1];
   return [lo, hi];
 }
+
+/**
+ * The range an axis shows, in the axis's own unit (before displayFactor): the data's range with a
+ * 4% margin (in log10 on log axes), ends extended to round 1-2-5 steps on linear axes; fixed ends
+ * and maps (which fill their grid) are kept as they are. The chart on screen and the figure
+ * writer both use it, so both show the same ticks.
+ */
+export function displayRange(model: PlotModel, axis: 'x' | 'y'): [number, number] {
+  const a = model[axis];
+  const r = dataRange(model, axis) ?? (a.scale === 'log' ? [1, 10] : [0, 1]);
+  let lo = a.min ?? r[0];
+  let hi = a.max ?? r[1];
+  if (a.scale === 'log') {
+    const pad = (Math.log10(hi) - Math.log10(lo)) * 0.04 || 0.1;
+    if (a.min === undefined) lo = 10 ** (Math.log10(lo) - pad);
+    if (a.max === undefined) hi = 10 ** (Math.log10(hi) + pad);
+    return [lo, hi];
+  }
+  if (model.heatmap) return [lo, hi];
+  if (!(hi > lo)) [lo, hi] = [lo - 1, hi + 1];
+  const raw = (hi - lo) / 6;
+  const mag = 10 ** Math.floor(Math.log10(raw));
+  const step = ([1, 2, 5, 10].find((m) => m * mag >= raw) ?? 10) * mag;
+  if (a.min === undefined) lo = Math.floor(lo / step + 1e-9) * step;
+  if (a.max === undefined) hi = Math.ceil(hi / step - 1e-9) * step;
+  return [lo, hi];
+}

@@ -3,7 +3,7 @@
 // only through toJSON() (plain SI numbers), so the plots follow the engine's own data.
 import { isSheetObject, type CellSpec } from '../engine/engine';
 import { math, quantity } from '../../src/sheet/mathInstance';
-import type { BinnedStrain, MeasuredAmplitude, StrainCurve, VerticalQuantity } from './spectrumPlotModel';
+import type { BinnedStrain, MeasuredAmplitude, RealisationBands, StrainCurve, VerticalQuantity } from './spectrumPlotModel';
 import { strainFrom } from './spectrumPlotModel';
 
 type Json = Record<string, unknown>;
@@ -42,6 +42,20 @@ export function curveFromSpectrumJson(id: string, label: string, json: unknown):
   const omegaGw = first(o, ['omegaGw', 'omega'], numbers) ?? undefined;
   const residualPsd = first(o, ['residualPsd', 'residualPower', 'psd'], numbers) ?? undefined;
   return { id, label, frequencyHz: f, hc, omegaGw, residualPsd };
+}
+
+/** A realisations object (src/builtins/realisations.ts toJSON): bands, a few single realisations, loudest binaries. */
+export function realisationBandsFromJson(label: string, json: unknown): RealisationBands | null {
+  const o = asRecord(json);
+  if (!o) return null;
+  const f = numbers(o.frequencyHz);
+  if (!f) return null;
+  const keys = ['smoothHc', 'medianHc', 'lower68', 'upper68', 'lower95', 'upper95', 'medianLoudestHc'] as const;
+  const got = keys.map((k) => numbers(o[k]));
+  if (got.some((g) => !g || g.length !== f.length)) return null;
+  const [smoothHc, medianHc, lower68, upper68, lower95, upper95, loudestHc] = got as number[][];
+  const singles = Array.isArray(o.singleRealisations) ? (o.singleRealisations as unknown[]).map(numbers).filter((s): s is number[] => s !== null && s.length === f.length) : [];
+  return { label, frequencyHz: f, smoothHc, medianHc, lower68, upper68, lower95, upper95, singles, loudestHc };
 }
 
 /** A measurement object: median and interval with level, or log10 median with sigmas (in dex). */

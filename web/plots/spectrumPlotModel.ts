@@ -3,14 +3,14 @@
 // per-bin measured values, all shown as h_c, Omega_gw or timing-residual power.
 import { omegaGwFromStrain, residualPowerFromStrain, strainFromOmegaGw, strainFromResidualPower } from '../../src/statistics/powerLaw';
 import type { PlotModel, PlotSeries } from './plotModel';
-import { curveColor, MEASURED_COLOR, BINS_COLOR } from './palette';
+import { curveColor, MEASURED_COLOR, BINS_COLOR, REALISATION_COLOR } from './palette';
 
 export type VerticalQuantity = 'hc' | 'omega' | 'psd';
 
 export const VERTICAL_LABELS: Record<VerticalQuantity, string> = {
-  hc: 'characteristic strain h_c (dimensionless)',
-  omega: 'energy-density fraction Ω_gw(f) (dimensionless)',
-  psd: 'timing-residual power P(f) (s³)',
+  hc: 'characteristic strain h_c',
+  omega: 'energy density Ω_gw(f)',
+  psd: 'timing-residual power P(f) (s^3)',
 };
 
 /** A strain spectrum to draw, numbers in SI (Hz). */
@@ -46,9 +46,26 @@ export interface BinnedStrain {
   hcUpper: number[];
 }
 
+/** Realisations of a finite population per bin (src/builtins/realisations.ts), h_c. */
+export interface RealisationBands {
+  label: string;
+  frequencyHz: number[];
+  smoothHc: number[];
+  medianHc: number[];
+  lower68: number[];
+  upper68: number[];
+  lower95: number[];
+  upper95: number[];
+  /** A few single realisations, drawn thin. */
+  singles: number[][];
+  /** The loudest binary's own h_c, h sqrt(f T), median over realisations. */
+  loudestHc: number[];
+}
+
 export interface SpectrumPlotInput {
   quantity: VerticalQuantity;
   curves: StrainCurve[];
+  realisations?: RealisationBands[];
   measured: MeasuredAmplitude[];
   bins: BinnedStrain[];
   /** Hubble constant in s^-1, needed for Omega_gw. */
@@ -134,6 +151,16 @@ export function spectrumPlotModel(input: SpectrumPlotInput): PlotModel {
       color: MEASURED_COLOR,
       width: 2.5,
     });
+  }
+  for (const r of input.realisations ?? []) {
+    const c = (ys: number[]) => ys.map((h, k) => conv(h, r.frequencyHz[k]));
+    const x = r.frequencyHz;
+    series.push({ id: `${r.label}:95`, label: `${r.label}: 95% of realisations`, kind: 'band', x, y: c(r.medianHc), yLow: c(r.lower95), yHigh: c(r.upper95), color: REALISATION_COLOR });
+    series.push({ id: `${r.label}:68`, label: `${r.label}: 68% of realisations`, kind: 'band', x, y: c(r.medianHc), yLow: c(r.lower68), yHigh: c(r.upper68), color: REALISATION_COLOR });
+    series.push({ id: `${r.label}:median`, label: `${r.label}: median`, kind: 'line', x, y: c(r.medianHc), color: REALISATION_COLOR, width: 2 });
+    series.push({ id: `${r.label}:smooth`, label: `${r.label}: smooth (all universes)`, kind: 'line', x, y: c(r.smoothHc), color: REALISATION_COLOR, dash: [6, 4], width: 1.5 });
+    r.singles.slice(0, 3).forEach((one, i) => series.push({ id: `${r.label}:single${i + 1}`, label: `${r.label}: realisation ${i + 1}`, kind: 'line', x, y: c(one), color: REALISATION_COLOR, width: 0.7 }));
+    series.push({ id: `${r.label}:loudest`, label: `${r.label}: loudest binary per bin (its own h_c, median)`, kind: 'points', x, y: c(r.loudestHc), color: REALISATION_COLOR });
   }
   for (const b of input.bins) {
     series.push({

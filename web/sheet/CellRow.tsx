@@ -6,6 +6,8 @@ import { formatValue, type CellSpec, type CellState } from '../engine/engine';
 import { FormulaBox } from './FormulaBox';
 import { ScientificText } from './ScientificText';
 import { freshName, sectionChoices, sectionOf } from './sections';
+import { AnnotationBadges, AnnotationEditor } from './AnnotationBadges';
+import { ROW_ANNOTATION_KINDS } from './rowAnnotations';
 
 export function CellRow(props: { spec: CellSpec }) {
   const services = useServices();
@@ -15,6 +17,7 @@ export function CellRow(props: { spec: CellSpec }) {
   const [renaming, setRenaming] = createSignal(false);
   const [renameError, setRenameError] = createSignal<string | null>(null);
   const [newSection, setNewSection] = createSignal(false);
+  const [annotating, setAnnotating] = createSignal<string | null>(null);
   let rowEl!: HTMLDivElement;
 
   const shown = createMemo(() => {
@@ -27,8 +30,8 @@ export function CellRow(props: { spec: CellSpec }) {
     }
   });
 
-  const commitFormula = (formula: string) => {
-    const r = session.edit(`edit ${name()}`, (sheet) => sheet.updateCell(name(), { formula }));
+  const commitFormula = (formula: string, group?: string) => {
+    const r = session.edit(`edit ${name()}`, (sheet) => sheet.updateCell(name(), { formula }), { group });
     if (!r.ok) services.notify(`${name()}: ${r.message}`, 'error');
   };
 
@@ -161,6 +164,7 @@ export function CellRow(props: { spec: CellSpec }) {
       </div>
       <div class="cell-value" role="cell" data-value={name()} data-raw={shown()} title={shown()}>
         <ScientificText text={shown()} />
+        <AnnotationBadges spec={props.spec} onEdit={setAnnotating} />
       </div>
       <div class="cell-status" role="cell">
         <span class={`badge badge-${status().cls}`}>{status().label}</span>
@@ -173,6 +177,13 @@ export function CellRow(props: { spec: CellSpec }) {
           <div class="cell-source">{props.spec.source}</div>
         </Show>
       </div>
+      <Show when={annotating()}>
+        {(kind) => (
+          <div class="row-annotation" role="cell">
+            <AnnotationEditor kindId={kind()} spec={props.spec} onClose={() => setAnnotating(null)} />
+          </div>
+        )}
+      </Show>
       <Show when={traced()}>
         <div class="row-details" role="cell">
           <TraceStrip name={name()} />
@@ -189,6 +200,13 @@ export function CellRow(props: { spec: CellSpec }) {
             <button type="button" title="Duplicate" onClick={duplicate}>
               copy
             </button>
+            <For each={ROW_ANNOTATION_KINDS}>
+              {(kind) => (
+                <button type="button" data-action={`edit-${kind.id}`} title={`Set the ${kind.label} of ${name()}`} onClick={() => setAnnotating(kind.id)}>
+                  {kind.read(props.spec) ? `edit ${kind.label}` : `+ ${kind.label}`}
+                </button>
+              )}
+            </For>
             <Show
               when={!newSection()}
               fallback={

@@ -1,17 +1,23 @@
 // The formula of one cell, editable in place. Typing recalculates after a short pause; Enter
-// commits at once; Escape brings back the formula the sheet holds. The user's text is kept as typed.
+// commits at once; Escape brings back the text from before the edit. One edit of a row (focus to
+// Enter or blur) is one undo step however many pauses it had. Half-typed text that cannot be read
+// yet is not sent to the sheet while typing (plots and dependents keep their last good values); the
+// reason shows at the row, and Enter or leaving the box stores the text as typed anyway.
 import { createEffect, createMemo, createSignal, For, on, onCleanup, Show } from 'solid-js';
 import { useServices } from '../app/services';
 import { callAroundCaret, completionsFor, wordBeforeCaret, type Completion } from '../help/formulaContext';
 import { BuiltinSignature } from '../help/BuiltinSignature';
+import { compileFormula } from '../../src/sheet/formulaCompiler';
 
 export const RECALC_PAUSE_MS = 150;
 
 export function FormulaBox(props: {
   name: string;
   formula: string;
-  onCommit: (formula: string) => void;
+  onCommit: (formula: string, group?: string) => void;
   onNavigate: (direction: -1 | 1) => void;
+  /** A form's field instead of a row's: no commits; every change goes to onDraft, Enter to onSubmit. */
+  field?: { inputName: string; label: string; placeholder?: string; onDraft: (text: string) => void; onSubmit: () => void; value: () => string };
 }) {
   const services = useServices();
   const [draft, setDraft] = createSignal(props.formula);
@@ -22,6 +28,9 @@ export function FormulaBox(props: {
   let input!: HTMLInputElement;
   let timer: ReturnType<typeof setTimeout> | undefined;
   let lastCommitted = props.formula;
+  // The text when the box got focus, and the undo group of this edit.
+  let textAtFocus = props.formula;
+  let group: string | undefined;
 
   // When the sheet's formula changes from elsewhere (undo, open, rename), show it unless the user
   // is in the middle of typing something else.
@@ -41,12 +50,26 @@ export function FormulaBox(props: {
     if (timer !== undefined) clearTimeout(timer);
     timer = undefined;
     const text = draft();
+    if (props.field) return;
     if (text !== lastCommitted) {
       lastCommitted = text;
-      props.onCommit(text);
+      props.onCommit(text, group);
     }
   };
-  onCleanup(() => commitNow());
+  const endEdit = () => {
+    commitNow();
+    if (group) services.session.closeGroup(group);
+    group = undefined;
+  };
+  onCleanup(() => endEdit());
+
+  /** Why the text being typed cannot be read yet (syntax only), or null. */
+  const draftProblem = createMemo(() => {
+    const text = draft();
+    if (!focused() || text === props.formula) return null;
+    const c = compileFormula(text, props.name);
+    return c.kind === 'error' && c.error.kind === 'syntax' ? c.error.message : null;
+  });
 
   const word = createMemo(() => (focused() ? wordBeforeCaret(draft(), caret()) : null));
   const options = createMemo<Completion[]>(() => {
@@ -64,9 +87,12 @@ export function FormulaBox(props: {
     const w = word();
     if (!w) return;
     const text = draft();
-    const insert = c.kind === 'cell' ? c.name : `${c.name}(`;
-    const next = text.slice(0, w.start) + insert + text.slice(caret());
+    // A call gets its opening parenthesis, unless one follows the caret already (never doubled).
+    const rest = text.slice(caret());
+    const insert = c.kind === 'cell' || /^\s*\(/.test(rest) ? c.name : `${c.name}(`;
+    const next = text.slice(0, w.start) + insert + rest;
     setDraft(next);
+    props.field?.onDraft(next);
     const pos = w.start + insert.length;
     queueMicrotask(() => {
       input.setSelectionRange(pos, pos);
@@ -79,7 +105,7 @@ export function FormulaBox(props: {
     if (timer !== undefined) clearTimeout(timer);
     timer = setTimeout(() => {
       timer = undefined;
-      commitNow();
+      if (!draftProblem()) commitNow();
     }, RECALC_PAUSE_MS);
   };
 
@@ -102,18 +128,23 @@ export function FormulaBox(props: {
         return;
       }
     }
-    if (e.key === 'Enter') {
+    if (e.key === 'Enter' && props.field) {
       e.preventDefault();
-      commitNow();
+      props.field.onSubmit();
+    } else if (e.key === 'Enter') {
+      e.preventDefault();
+      endEdit();
       props.onNavigate(1);
     } else if (e.key === 'Escape') {
       e.preventDefault();
       if (timer !== undefined) clearTimeout(timer);
       timer = undefined;
-      setDraft(lastCommitted);
+      // Back to the text from before this edit, in the sheet too (the edit's undo step goes away).
+      setDraft(textAtFocus);
+      commitNow();
     } else if (e.key === 'ArrowDown' || e.key === 'ArrowUp') {
       e.preventDefault();
-      commitNow();
+      endEdit();
       props.onNavigate(e.key === 'ArrowDown' ? 1 : -1);
     }
   };
@@ -123,14 +154,17 @@ export function FormulaBox(props: {
       <input
         ref={input}
         class="formula-input"
-        data-formula={props.name}
+        data-formula={props.field ? undefined : props.name}
+        name={props.field?.inputName}
+        placeholder={props.field?.placeholder}
         spellcheck={false}
         autocomplete="off"
-        aria-label={`Formula of ${props.name}`}
-        value={draft()}
+        aria-label={props.field ? props.field.label : `Formula of ${props.name}`}
+        value={props.field ? props.field.value() : draft()}
         title={draft()}
         onInput={(e) => {
           setDraft(e.currentTarget.value);
+          props.field?.onDraft(e.currentTarget.value);
           setCaret(e.currentTarget.selectionStart ?? 0);
           setChoice(0);
           setCompletionClosed(false);
@@ -139,12 +173,14 @@ export function FormulaBox(props: {
         onKeyUp={(e) => setCaret(e.currentTarget.selectionStart ?? 0)}
         onClick={(e) => setCaret(e.currentTarget.selectionStart ?? 0)}
         onFocus={(e) => {
+          textAtFocus = props.formula;
+          group = `${props.name}:${Math.random().toString(36).slice(2)}`;
           setFocused(true);
           setCaret(e.currentTarget.selectionStart ?? 0);
         }}
         onBlur={() => {
+          endEdit();
           setFocused(false);
-          commitNow();
         }}
         onKeyDown={onKeyDown}
       />
@@ -168,6 +204,13 @@ export function FormulaBox(props: {
             )}
           </For>
         </ul>
+      </Show>
+      <Show when={draftProblem()}>
+        {(message) => (
+          <div class="cell-error draft-error" role="status" data-draft-error>
+            {props.field ? 'cannot be read yet' : 'not stored yet (Enter stores it as typed)'}: {message()}
+          </div>
+        )}
       </Show>
       <Show when={callHelp()}>
         {(b) => (

@@ -3,6 +3,7 @@ import { createMemo, createSignal, For, Show } from 'solid-js';
 import { useServices } from '../app/services';
 import type { CellSpec } from '../engine/engine';
 import { CellRow } from './CellRow';
+import { FormulaBox } from './FormulaBox';
 import { groupBySection, LOOSE_SECTION, sectionChoices } from './sections';
 
 export function SheetPanel() {
@@ -20,25 +21,31 @@ export function SheetPanel() {
   const namesIn = (section: string) => groups().find((g) => g.name === section)?.cells.map((c) => c.name) ?? [];
 
   return (
-    <div class="sheet" role="table" aria-label="Sheet">
-      <div class="sheet-head" role="row">
-        <span role="columnheader">name</span>
-        <span role="columnheader">formula</span>
-        <span role="columnheader">value</span>
-        <span role="columnheader">status</span>
-        <span role="columnheader">note · source</span>
+    <div class="sheet">
+      <div class="sheet-table" role="table" aria-label="Cells of the sheet">
+        <div class="sheet-head" role="row">
+          <span role="columnheader">name</span>
+          <span role="columnheader">formula</span>
+          <span role="columnheader">value</span>
+          <span role="columnheader">status</span>
+          <span role="columnheader">note · source</span>
+        </div>
+        <For each={sectionNames()}>
+          {(section) => (
+            <section class="sheet-section" data-section={section} role="rowgroup" aria-label={section}>
+              <div class="section-title-row" role="row">
+                <div role="cell">
+                  <h2 class="section-title">{section}</h2>
+                </div>
+              </div>
+              <For each={namesIn(section)}>{(n) => <Show when={specs().get(n)}>{(spec) => <CellRow spec={spec()} />}</Show>}</For>
+            </section>
+          )}
+        </For>
       </div>
       <Show when={sectionNames().length === 0}>
         <p class="empty-sheet">This sheet has no cells yet. Add one below.</p>
       </Show>
-      <For each={sectionNames()}>
-        {(section) => (
-          <section class="sheet-section" data-section={section} role="rowgroup">
-            <h2 class="section-title">{section}</h2>
-            <For each={namesIn(section)}>{(n) => <Show when={specs().get(n)}>{(spec) => <CellRow spec={spec()} />}</Show>}</For>
-          </section>
-        )}
-      </For>
       <AddCellForm />
     </div>
   );
@@ -54,39 +61,50 @@ function AddCellForm() {
   const [error, setError] = createSignal<string | null>(null);
   const choices = createMemo(() => sectionChoices(session.cells()), undefined, { equals: sameList });
   let nameEl!: HTMLInputElement;
-  let formulaEl!: HTMLInputElement;
+  let formEl!: HTMLFormElement;
+  const [formula, setFormula] = createSignal('');
   let sectionEl!: HTMLInputElement;
   let unitEl!: HTMLInputElement;
 
   const add = (e: Event) => {
     e.preventDefault();
-    const name = nameEl.value.trim();
-    const formula = formulaEl.value;
+    // A function cell is named once: by its formula's head, name(args) = body.
+    const head = /^\s*([A-Za-z_][A-Za-z0-9_]*)\s*\([^()]*\)\s*=(?!=)/.exec(formula());
+    const typed = nameEl.value.trim();
+    if (head && typed && typed !== head[1]) return setError(`The formula defines the function ${head[1]}; leave the name empty (it is taken from the formula) or write ${head[1]}.`);
+    const name = head ? head[1] : typed;
     const section = sectionEl.value.trim();
     const unit = unitEl.value.trim();
-    if (!name) return setError('Give the new cell a name.');
+    if (!name) return setError('Give the new cell a name (or write a function as name(args) = body).');
     if (session.cells().some((c) => c.name === name)) return setError(`A cell named ${name} already exists.`);
-    const spec: CellSpec = { name, formula: formula || '0' };
+    const spec: CellSpec = { name, formula: formula() || '0' };
     if (section && section !== LOOSE_SECTION) spec.section = section;
     if (unit) spec.unit = unit;
     const r = session.edit(`add ${name}`, (sheet) => sheet.setCell(spec));
     if (!r.ok) return setError(r.message);
     setError(null);
     nameEl.value = '';
-    formulaEl.value = '';
+    setFormula('');
     unitEl.value = '';
     queueMicrotask(() => services.focusCell(name));
   };
 
   return (
-    <form class="add-cell no-print" onSubmit={add} aria-label="Add a cell">
+    <form class="add-cell no-print" ref={formEl} onSubmit={add} aria-label="Add a cell">
       <h2 class="section-title">add a cell</h2>
       <div class="add-fields">
         <label>
-          name <input ref={nameEl} name="name" spellcheck={false} autocomplete="off" placeholder="e.g. T_span" />
+          name <input ref={nameEl} name="name" spellcheck={false} autocomplete="off" placeholder="e.g. T_span (a function: from its formula)" />
         </label>
         <label class="grow">
-          formula <input ref={formulaEl} name="formula" spellcheck={false} autocomplete="off" placeholder="e.g. 12.5 yr" />
+          formula
+          <FormulaBox
+            name=""
+            formula=""
+            onCommit={() => undefined}
+            onNavigate={() => undefined}
+            field={{ inputName: 'formula', label: 'Formula of the new cell', placeholder: 'e.g. 12.5 yr, or f(x) = 2 x', onDraft: setFormula, onSubmit: () => formEl.requestSubmit(), value: formula }}
+          />
         </label>
         <label>
           display unit <input ref={unitEl} name="unit" spellcheck={false} autocomplete="off" placeholder="optional" />

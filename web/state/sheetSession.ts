@@ -95,7 +95,7 @@ export class SheetSession {
    * Applies one edit as an undoable step. Edits the engine refuses (SheetEditError) leave the
    * sheet and history as they were and return the reason.
    */
-  edit(label: string, change: (sheet: Sheet) => void): EditOutcome {
+  edit(label: string, change: (sheet: Sheet) => void, opts: { group?: string } = {}): EditOutcome {
     const before = this.sheet.toFileText();
     try {
       performance.mark('strainsheet:edit');
@@ -107,10 +107,17 @@ export class SheetSession {
       if (this.sheet.toFileText() !== before) this.replaceSheet(Sheet.fromFile(before));
       return { ok: false, message: err instanceof Error ? err.message : String(err) };
     }
-    if (this.sheet.toFileText() !== before) {
+    const after = this.sheet.toFileText();
+    if (opts.group !== undefined && opts.group === this.openGroup && this.undoStack.length) {
+      // Same edit of a row (focus to Enter or blur): one undo step, whose text is from before the
+      // edit; an edit that came back to that text leaves no step at all.
+      if (this.undoStack.at(-1)!.text === after) this.undoStack.pop();
+      this.updateHistorySignals();
+    } else if (after !== before) {
       this.undoStack.push({ text: before, label });
       if (this.undoStack.length > HISTORY_LIMIT) this.undoStack.shift();
       this.redoStack = [];
+      this.openGroup = opts.group ?? null;
       this.updateHistorySignals();
     }
     this.refresh(true);
@@ -118,7 +125,14 @@ export class SheetSession {
     return { ok: true };
   }
 
+  /** Ends the current grouped edit: the next edit makes a new undo step. */
+  closeGroup(group: string): void {
+    if (this.openGroup === group) this.openGroup = null;
+  }
+  private openGroup: string | null = null;
+
   undo(): boolean {
+    this.openGroup = null;
     const step = this.undoStack.pop();
     if (!step) return false;
     this.redoStack.push({ text: this.sheet.toFileText(), label: step.label });
@@ -129,6 +143,7 @@ export class SheetSession {
   }
 
   redo(): boolean {
+    this.openGroup = null;
     const step = this.redoStack.pop();
     if (!step) return false;
     this.undoStack.push({ text: this.sheet.toFileText(), label: step.label });
@@ -140,6 +155,7 @@ export class SheetSession {
 
   /** Replaces the whole sheet (open, new) as one undoable step. */
   load(sheet: Sheet, label: string): void {
+    this.openGroup = null;
     this.undoStack.push({ text: this.sheet.toFileText(), label });
     this.redoStack = [];
     this.replaceSheet(sheet);
