@@ -10,10 +10,13 @@ import { PopulationValue } from './populationValue';
 
 const SOURCE = 'Agazie et al. 2023, ApJL 952, L37 (a total lifetime from formation to coalescence); times from Hogg 1999, astro-ph/9905116';
 
-function withCosmology(population: unknown, fn: string): PopulationValue & { cosmology: NonNullable<PopulationValue['cosmology']> } {
+/** The population (which must know its cosmology) and the lifetime in s, checked. */
+function populationAndLifetime(population: unknown, lifetime: unknown, fn: string) {
   const p = populationArg(population, fn);
   if (!p.cosmology) throw new BuiltinError(`${where(fn, 'population')} has no cosmology, so a lifetime cannot be turned into redshifts (give customPopulation a cosmology argument)`);
-  return p as PopulationValue & { cosmology: NonNullable<PopulationValue['cosmology']> };
+  const tau = nonNegativeSI(lifetime, 'time', fn, 'lifetime');
+  if (!Number.isFinite(tau)) throw new BuiltinError(`${where(fn, 'lifetime')} must be finite`);
+  return { p, cosmology: p.cosmology, tau };
 }
 
 export const binaryEvolutionBuiltins: Builtin[] = [
@@ -30,15 +33,12 @@ export const binaryEvolutionBuiltins: Builtin[] = [
     source: SOURCE,
     example: 'delayedPopulation(pop, 3 Gyr)',
     fn: (population: unknown, lifetime: unknown) => {
-      const fn = 'delayedPopulation';
-      const p = withCosmology(population, fn);
-      const tau = nonNegativeSI(lifetime, 'time', fn, 'lifetime');
-      if (!Number.isFinite(tau)) throw new BuiltinError(`${where(fn, 'lifetime')} must be finite`);
+      const { p, cosmology, tau } = populationAndLifetime(population, lifetime, 'delayedPopulation');
       return new PopulationValue(
-        delayedPopulation(p.population, p.cosmology, tau),
+        delayedPopulation(p.population, cosmology, tau),
         `${p.label}, coalescing ${(tau / GYR_S).toPrecision(3)} Gyr after formation`,
         { ...p.parameters, lifetimeGyr: tau / GYR_S },
-        p.cosmology,
+        cosmology,
       );
     },
   },
@@ -54,11 +54,8 @@ export const binaryEvolutionBuiltins: Builtin[] = [
     source: SOURCE,
     example: 'stalledFraction(pop, 3 Gyr)',
     fn: (population: unknown, lifetime: unknown) => {
-      const fn = 'stalledFraction';
-      const p = withCosmology(population, fn);
-      const tau = nonNegativeSI(lifetime, 'time', fn, 'lifetime');
-      if (!Number.isFinite(tau)) throw new BuiltinError(`${where(fn, 'lifetime')} must be finite`);
-      return stalledFraction(p.population, p.cosmology, tau);
+      const { p, cosmology, tau } = populationAndLifetime(population, lifetime, 'stalledFraction');
+      return stalledFraction(p.population, cosmology, tau);
     },
   },
 ];

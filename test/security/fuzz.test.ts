@@ -12,22 +12,13 @@ import { math } from '../../src/sheet/mathInstance';
 import { isSheetObject } from '../../src/sheet/sheetObject';
 import { DEFAULT_CELL_SECONDS, setCellBudget } from '../../src/sheet/evaluationBudget';
 import { ALLOWED_MATH_FUNCTIONS } from '../../src/sheet/allowedFunctions';
+import { mulberry32 } from '../arrayView/seededRandom';
 
 const COUNT = Number(process.env.STRAINSHEET_FUZZ_COUNT ?? 2000);
 const SEED = Number(process.env.STRAINSHEET_FUZZ_SEED ?? 20_261_202);
 const DEMO = readFileSync(new URL('../../examples/demo.json', import.meta.url), 'utf8');
 
-/** Mulberry32 (T. Ettinger, 2017, public domain): a small seeded generator, enough for choosing. */
-function generator(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const generator = mulberry32;
 
 const NUMBERS = ['0', '-0', '1', '2', '0.5', '-3', '1e308', '1e-308', '5e-324', 'Infinity', '-Infinity', 'NaN', '1e6', '1e9', '2^30', '17', 'pi', 'i', '1+2i'];
 const UNITS = ['m', 'kg', 's', 'Hz', 'nHz', 'Msun', 'Mpc', 'yr', 'Gyr', 'km/s', 'day', 'deg', 'rad', 'J'];
