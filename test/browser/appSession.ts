@@ -52,6 +52,8 @@ export async function startAppSession(viewport = { width: 1400, height: 900 }): 
 
 /** Whether the element's centre is on screen and the element (or something inside it) is what is drawn there. */
 export async function visibleAtCentre(page: Page, selector: string): Promise<boolean> {
+  // Panels load their code on first show: wait until the element exists ($eval does not wait).
+  await page.waitForSelector(selector, { state: 'attached' });
   return page.$eval(selector, (el) => {
     const r = el.getBoundingClientRect();
     const x = r.left + r.width / 2;

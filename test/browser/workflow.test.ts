@@ -109,6 +109,8 @@ describe.runIf(runSuite)('what a researcher trips over', { timeout: 60_000 }, ()
     await s.freshDemo();
     const { page } = s;
     await page.click('[data-tab="scan"]');
+    // The panel's code loads on first show: wait for the form before reading it ($eval does not wait).
+    await page.waitForSelector('select[aria-label="Output cell"]');
     const shownOutput = () => page.$eval('select[aria-label="Output cell"]', (el) => (el as HTMLSelectElement).selectedOptions[0]?.value);
     expect(await shownOutput()).toBe('A_yr');
     const rate = demo().get('rate_norm')!.formula;
