@@ -9,7 +9,7 @@ export const MAX_SHEET_FILE_BYTES = 5_000_000;
 
 export type OpenOutcome<T> = { ok: true; sheet: T } | { ok: false; message: string };
 
-export async function openSheetFile<T>(file: Blob & { name?: string }, parse: (text: string) => T): Promise<OpenOutcome<T>> {
+export async function openSheetFile<T>(file: Blob & { name?: string }, parse: (text: string) => T | Promise<T>): Promise<OpenOutcome<T>> {
   const label = file.name ? `"${file.name}"` : 'The file';
   if (file.size > MAX_SHEET_FILE_BYTES) {
     return { ok: false, message: `${label} was not opened: it is ${(file.size / 1e6).toFixed(1)} MB, more than the ${MAX_SHEET_FILE_BYTES / 1e6} MB a sheet file may have. The sheet is unchanged.` };
@@ -21,7 +21,7 @@ export async function openSheetFile<T>(file: Blob & { name?: string }, parse: (t
     return { ok: false, message: `${label} could not be read (${err instanceof Error ? err.message : String(err)}). The sheet is unchanged.` };
   }
   try {
-    return { ok: true, sheet: parse(sheetTextFromBytes(bytes)) };
+    return { ok: true, sheet: await parse(sheetTextFromBytes(bytes)) };
   } catch (err) {
     return { ok: false, message: `${label} was not opened: ${sentence(err instanceof Error ? err.message : String(err))} The sheet is unchanged.` };
   }
