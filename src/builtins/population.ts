@@ -135,7 +135,7 @@ export const populationBuiltins: Builtin[] = [
       { name: 'q', unit: 'dimensionless', description: 'mass ratio m2/m1 in (0, 1]' },
     ],
     returns: { unit: 'Msun', description: 'chirp mass' },
-    source: 'Finn & Chernoff 1993, PRD 47, 2198 (definition; citation from memory)',
+    source: 'Finn & Chernoff 1993, PRD 47, 2198 (definition)',
     example: 'chirpMass(2e9 Msun, 1) gives 8.7e8 Msun',
     fn: (totalMass: unknown, q: unknown) => {
       const qq = qArg(scalarSI(q, 'dimensionless', 'chirpMass', 'q'), 'chirpMass', 'q');
@@ -333,7 +333,7 @@ export const populationBuiltins: Builtin[] = [
       { name: 'breakMass', unit: 'Msun', description: 'break mass M*, > 0' },
     ],
     returns: { unit: 'Mpc^-3', description: 'number density per dex of mass' },
-    source: 'Baldry et al. 2012, MNRAS 421, 621 (written per dex; citation from memory)',
+    source: 'Baldry et al. 2012, MNRAS 421, 621 (written per dex)',
     example: 'doubleSchechterPerDex(1e10 Msun, 4e-3 Mpc^-3, -0.35, 6e-4 Mpc^-3, -1.47, 5e10 Msun)',
     fn: (mass: unknown, phi1: unknown, alpha1: unknown, phi2: unknown, alpha2: unknown, breakMass: unknown) => {
       const fn = 'doubleSchechterPerDex';
@@ -396,7 +396,7 @@ export const populationBuiltins: Builtin[] = [
   {
     name: 'mcConnellMaRelation',
     category: 'population',
-    summary: 'Preset black-hole-bulge relation: a = 8.46, b = 1.05, scatter 0.34 dex (scatter from memory).',
+    summary: 'Preset black-hole-bulge relation: a = 8.46, b = 1.05, scatter 0.34 dex (unverified: the scatter is quoted from their Table 2 by another code; the table was not seen).',
     args: [],
     returns: { unit: 'bulgeRelation', description: 'the preset relation' },
     source: 'McConnell & Ma 2013, ApJ 764, 184',
@@ -406,7 +406,7 @@ export const populationBuiltins: Builtin[] = [
   {
     name: 'kormendyHoRelation',
     category: 'population',
-    summary: 'Preset black-hole-bulge relation: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.16, scatter 0.29 dex (scatter from memory).',
+    summary: 'Preset black-hole-bulge relation: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.16, scatter 0.29 dex (unverified: two other codes quote their eq. 10 as exponent 1.17, scatter 0.28 dex; the paper text was not seen).',
     args: [],
     returns: { unit: 'bulgeRelation', description: 'the preset relation' },
     source: 'Kormendy & Ho 2013, ARA&A 51, 511',
@@ -445,7 +445,7 @@ export const populationBuiltins: Builtin[] = [
       { name: 'alphaPerZ', unit: 'dimensionless', description: 'd alpha / dz' },
     ],
     returns: { unit: 'massFunction', description: 'a mass function for galaxyMergerPopulation' },
-    source: 'Chen, Sesana & Conselice 2019, arXiv:1810.04184 (parametrisation; memory)',
+    source: 'Chen, Sesana & Conselice 2019, MNRAS, arXiv:1810.04184 (parametrisation simplified; unverified: their exact form was not compared)',
     example: 'stellarMassFunction(1e-3 Mpc^-3, -0.3, 1e11 Msun, -1.1, -0.1)',
     fn: (phiStar0: unknown, log10PhiStarPerZ: unknown, breakMass: unknown, alpha0: unknown, alphaPerZ: unknown) => {
       const fn = 'stellarMassFunction';
@@ -541,7 +541,7 @@ export const populationBuiltins: Builtin[] = [
     summary: 'Mass density of the black holes that merged, Int n M dz dlog10M dq; compare with the local black-hole mass density (about 3-6e5 Msun/Mpc^3). A hole that merges twice is counted twice.',
     args: [{ name: 'population', unit: 'population', description: 'any population' }],
     returns: { unit: 'Msun/Mpc^3', description: 'merged mass per comoving volume' },
-    source: 'Marconi et al. 2004, MNRAS 351, 169; Shankar, Weinberg & Miralda-Escude 2009, ApJ 690, 20 (local density for comparison; journal references from memory)',
+    source: 'Marconi et al. 2004, MNRAS 351, 169; Shankar, Weinberg & Miralda-Escude 2009, ApJ 690, 20 (local density for comparison)',
     example: 'mergedMassDensity(pop)',
     fn: (population: unknown) => quantity((mergedMassDensity(populationArg(population, 'mergedMassDensity').population) * M_SUN_KG) / TO_PER_MPC3, 'Msun/Mpc^3'),
   },
