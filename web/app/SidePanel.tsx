@@ -9,12 +9,14 @@ import { createSignal, For, lazy, Show, Suspense, type Accessor } from 'solid-js
 const PlotsPanel = lazy(() => import('../plots/PlotsPanel').then((m) => ({ default: m.PlotsPanel })));
 const ScanPanel = lazy(() => import('../jobs/ScanPanel').then((m) => ({ default: m.ScanPanel })));
 const ReferencePanel = lazy(() => import('../help/ReferencePanel').then((m) => ({ default: m.ReferencePanel })));
+const DocsPanel = lazy(() => import('../help/DocsPanel').then((m) => ({ default: m.DocsPanel })));
 
-export type SideTab = 'plots' | 'scan' | 'reference';
+export type SideTab = 'plots' | 'scan' | 'reference' | 'docs';
 const TABS: { id: SideTab; label: string }[] = [
   { id: 'plots', label: 'Plots' },
   { id: 'scan', label: 'Scan & sample' },
   { id: 'reference', label: 'Reference' },
+  { id: 'docs', label: 'Docs' },
 ];
 
 /** The element the skip link and the view switch move focus to. */
@@ -95,6 +97,13 @@ export function SidePanel(props: { control: SidePanelControl }) {
         <Show when={opened().has('reference')}>
           <Suspense fallback={loading}>
             <ReferencePanel />
+          </Suspense>
+        </Show>
+      </div>
+      <div class="tab-body" role="tabpanel" id="panel-docs" aria-labelledby="tab-docs" data-panel="docs" hidden={tab() !== 'docs'}>
+        <Show when={opened().has('docs')}>
+          <Suspense fallback={loading}>
+            <DocsPanel />
           </Suspense>
         </Show>
       </div>
