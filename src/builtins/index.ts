@@ -6,6 +6,7 @@ import { binaryEvolutionBuiltins } from './binaryEvolution';
 import { spectrumBuiltins } from './spectrum';
 import { orbitBuiltins } from './orbits';
 import { environmentBuiltins } from './environment';
+import { hostEnvironmentBuiltins } from './hostEnvironment';
 import { statisticsBuiltins } from './statistics';
 import { freeSpectrumBuiltins } from './freeSpectrum';
 import { inferenceBuiltins } from './inference';
@@ -22,6 +23,7 @@ export function allBuiltins(): Builtin[] {
     ...spectrumBuiltins,
     ...orbitBuiltins,
     ...environmentBuiltins,
+    ...hostEnvironmentBuiltins,
     ...statisticsBuiltins,
     ...freeSpectrumBuiltins,
     ...inferenceBuiltins,

@@ -147,7 +147,7 @@ export function finiteBinaryBins(
   }
   // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
   // its own cell: the separation theorem of Chebyshev, Markov and Stieltjes, Szego 1939, Orthogonal
-  // Polynomials, 3.41; section from memory), so a node's count spread over its cell keeps the density it stands for.
+  // Polynomials, 3.41; section number unverified), so a node's count spread over its cell keeps the density it stands for.
   const edges = new Float64Array(nm + 1);
   edges[0] = pop.log10MMin;
   for (let im = 0; im < nm; im++) edges[im + 1] = edges[im] + mr.weights[im];

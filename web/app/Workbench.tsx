@@ -2,7 +2,8 @@
 import { createEffect, createMemo, createSignal, For, onCleanup, onMount, Show } from 'solid-js';
 import { Sheet } from '../engine/engine';
 import { SheetSession } from '../state/sheetSession';
-import { ServicesProvider, type Services, type Tone } from './services';
+import { ServicesProvider, type DocLocation, type Services, type Tone } from './services';
+import { SheetNotes } from './SheetNotes';
 import { KeyResultsBar } from './KeyResultsBar';
 import { SheetPanel } from '../sheet/SheetPanel';
 import { groupBySection } from '../sheet/sections';
@@ -100,6 +101,9 @@ export function Workbench() {
     return [...cells, ...fns];
   });
 
+  // The Docs tab opens on the physics page until a reference asks for another page.
+  const [docPage, setDocPage] = createSignal<DocLocation>({ page: 'physics' });
+
   const services: Services = {
     session,
     notify,
@@ -119,6 +123,12 @@ export function Workbench() {
     completions,
     traced,
     setTraced,
+    docPage,
+    openDoc(page, anchor) {
+      setDocPage(anchor ? { page, anchor } : { page });
+      setView('side');
+      sidePanel.showTab('docs');
+    },
   };
 
   // Files.
@@ -299,6 +309,7 @@ export function Workbench() {
         <ViewSwitch view={view()} onView={(v) => (v === 'side' ? showPlots() : setView(v))} />
         <main class="workspace" data-view={view()}>
           <section class="sheet-pane" aria-label="Sheet" tabindex="-1">
+            <SheetNotes />
             <SheetPanel />
           </section>
           <SidePanel control={sidePanel} />
