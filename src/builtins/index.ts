@@ -13,12 +13,14 @@ import { inferenceBuiltins } from './inference';
 import { arrayViewBuiltins } from './arrayView';
 import { utilityBuiltins } from './utility';
 import { realisationBuiltins } from './realisations';
+import { massFunctionCheckBuiltins } from './massFunctionCheck';
 
 export function allBuiltins(): Builtin[] {
   return [
     ...utilityBuiltins,
     ...cosmologyBuiltins,
     ...populationBuiltins,
+    ...massFunctionCheckBuiltins,
     ...binaryEvolutionBuiltins,
     ...spectrumBuiltins,
     ...orbitBuiltins,

@@ -54,7 +54,10 @@ export function mergedNumberDensity(pop: BinaryPopulation): number {
   return overRedshift(pop, () => 1);
 }
 
-/** Comoving mass density of the black holes that merged (total mass M per merger), Msun Mpc^-3. */
+/**
+ * Comoving mass density of the black holes that merged (total mass M per merger), Msun Mpc^-3: an upper
+ * bound on the mass density of the merger remnants, since a hole that merges twice is counted twice.
+ */
 export function mergedMassDensity(pop: BinaryPopulation): number {
   return overRedshift(pop, (m) => m);
 }
