@@ -63,4 +63,27 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     await page.waitForFunction((t) => document.querySelector('.sheet-notes-text')?.textContent === t, DEMO.notes);
     expect(s.pageErrors).toEqual([]);
   });
+
+  it('refuses a PNG opened as a sheet with a clear message (file name, what it is, no bytes of it), merges the repeat with a count, and dismisses it', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    const formulas = () => page.$$eval('input[data-formula]', (xs) => xs.map((x) => (x as HTMLInputElement).value));
+    const before = await formulas();
+    const png = await page.screenshot({ clip: { x: 0, y: 0, width: 40, height: 30 } });
+    for (let i = 0; i < 2; i++) {
+      await page.setInputFiles('input[data-action="open-file"]', { name: 'figure.png', mimeType: 'image/png', buffer: png });
+      await page.waitForFunction((n) => document.querySelector('.message.error')?.getAttribute('data-message-count') === String(n), i + 1);
+    }
+    const errors = page.locator('.message.error');
+    expect(await errors.count()).toBe(1);
+    const text = (await errors.locator('.message-text').textContent()) ?? '';
+    expect(text).toBe('"figure.png" was not opened: it is a PNG image, not a sheet; a sheet file is JSON text (such as name.strainsheet.json). The sheet is unchanged.');
+    expect(await errors.locator('.message-count').textContent()).toBe('×2');
+    // Nothing on screen holds a control character or the replacement character of undecodable bytes.
+    expect(await page.evaluate(() => /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f-\u009f\ufffd]/.test(document.body.innerText))).toBe(false);
+    expect(await formulas()).toEqual(before);
+    await errors.locator('button.dismiss').click();
+    await page.waitForFunction(() => document.querySelectorAll('.message.error').length === 0);
+    expect(s.pageErrors).toEqual([]);
+  });
 });

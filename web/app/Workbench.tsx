@@ -1,9 +1,10 @@
 // The whole screen: tool bar, key results, the sheet, and the side panel (plots, scans, reference).
-import { createEffect, createMemo, createSignal, For, onCleanup, onMount, Show } from 'solid-js';
+import { createEffect, createMemo, createSignal, onCleanup, onMount, Show } from 'solid-js';
 import { Sheet } from '../engine/engine';
 import { SheetSession } from '../state/sheetSession';
 import { ServicesProvider, type DocLocation, type Services, type Tone } from './services';
 import { SheetNotes } from './SheetNotes';
+import { createMessages, MessageList } from './Messages';
 import { KeyResultsBar } from './KeyResultsBar';
 import { SheetPanel } from '../sheet/SheetPanel';
 import { groupBySection } from '../sheet/sections';
@@ -17,12 +18,6 @@ import { downloadText, fileStem } from '../files/download';
 import { cellTableCsv } from '../files/cellTableCsv';
 import type { Completion } from '../help/formulaContext';
 import { DEMO_TEXT } from './demoSheet';
-
-interface Message {
-  id: number;
-  text: string;
-  tone: Tone;
-}
 
 function initialSheet(notify: (t: string, tone?: Tone) => void): { sheet: Sheet; autosaveAllowed: boolean } {
   const restored = restoreAutosave((text) => Sheet.fromFile(text));
@@ -46,14 +41,7 @@ function demoSheet(notify: (t: string, tone?: Tone) => void): Sheet {
 }
 
 export function Workbench() {
-  const [messages, setMessages] = createSignal<Message[]>([]);
-  let nextId = 1;
-  const notify = (text: string, tone: Tone = 'info') => {
-    const id = nextId++;
-    setMessages((m) => [...m.slice(-3), { id, text, tone }]);
-    if (tone === 'info') setTimeout(() => dismiss(id), 8000);
-  };
-  const dismiss = (id: number) => setMessages((m) => m.filter((x) => x.id !== id));
+  const { messages, notify, dismiss } = createMessages();
 
   const start = initialSheet(notify);
   const session = new SheetSession(start.sheet);
@@ -297,18 +285,7 @@ export function Workbench() {
           />
         </header>
         <KeyResultsBar />
-        <div class="messages" aria-live="polite">
-          <For each={messages()}>
-            {(m) => (
-              <div class={`message ${m.tone}`} role={m.tone === 'error' ? 'alert' : 'status'}>
-                <span>{m.text}</span>
-                <button type="button" class="dismiss" aria-label="Dismiss" onClick={() => dismiss(m.id)}>
-                  ×
-                </button>
-              </div>
-            )}
-          </For>
-        </div>
+        <MessageList messages={messages()} onDismiss={dismiss} />
         <ViewSwitch view={view()} onView={(v) => (v === 'side' ? showPlots() : setView(v))} />
         <main class="workspace" data-view={view()}>
           <section class="sheet-pane" aria-label="Sheet" tabindex="-1">
