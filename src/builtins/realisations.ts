@@ -94,7 +94,7 @@ export function realiseInThread(setup: RealisationSetup, count: number, seed: nu
   return new RealisationsValue(setup, cells, seed, guardedPhysics(fn, () => drawRealisations(cells, seed, 0, count)));
 }
 
-/** Population, cosmology, bin centres and span as realiseBackground and longResidenceShare take them. */
+/** Population, cosmology, bin centres and span of realiseBackground. */
 function binsArgs(population: unknown, freqs: unknown, span: unknown, cosmology: unknown, fn: string): Pick<RealisationSetup, 'population' | 'cosmology' | 'freqsHz' | 'spanS'> {
   const p = populationArg(population, fn);
   const cosmo = cosmology !== undefined ? cosmologyArg(cosmology, fn).model : p.cosmology;
@@ -267,27 +267,6 @@ export const realisationBuiltins: Builtin[] = [
     fn: (rv: unknown) => {
       const r = realisationsArg(rv, 'longResidenceFraction');
       return list(r.cells.bins.map((b) => longResidenceH2Fraction(b, r.setup.dropLongResidence)));
-    },
-  },
-  {
-    name: 'longResidenceShare',
-    category: 'spectrum',
-    summary: 'Per frequency bin of width 1/T, the share of the expected binaries (as binariesPerBin counts them) whose residence time dt/dln f exceeds the age of the Universe at their redshift: near 1, the bin counts binaries that cannot have got there.',
-    args: [
-      { name: 'population', unit: 'population', description: 'from mergerPopulation or customPopulation' },
-      { name: 'freqs', unit: 'nHz', description: 'observed GW frequencies, the bin centres (e.g. from frequencyGrid)' },
-      { name: 'span', unit: 'yr', description: 'observing span T > 0; each bin is 1/T wide' },
-      { name: 'cosmology', unit: 'cosmology', description: "for volumes and ages (default the population's own)", optional: true },
-    ],
-    returns: { unit: 'dimensionless', description: 'a list of shares in [0, 1], one per bin (0 for a bin with no binaries)' },
-    source: 'residence time dt/dln f_r = (5/96)(G M_c/c^3)^(-5/3)(pi f_r)^(-8/3), Peters 1964, Phys. Rev. 136, B1224; age Hogg 1999, astro-ph/9905116',
-    example: 'longResidenceShare(pop, freqs, 14 yr)',
-    fn: (population: unknown, freqs: unknown, span: unknown, cosmology?: unknown) => {
-      const fn = 'longResidenceShare';
-      const b = binsArgs(population, freqs, span, cosmology, fn);
-      // threshold 0: no cell is drawn binary by binary, only the expected counts are needed.
-      const cells = guardedPhysics(fn, () => realisationCells(b.population, b.cosmology, b.freqsHz, b.spanS, { threshold: 0 }));
-      return list(cells.bins.map((x) => (x.expectedCount > 0 ? x.longResidenceCount / x.expectedCount : 0)));
     },
   },
 ];

@@ -1,12 +1,13 @@
 // Bins whose steady-state count needs binaries that cannot be there yet: the share of each bin's expected
 // binaries whose residence time dt/dln f_r exceeds the age of the Universe at their redshift
-// (longResidenceShare; src/physics/realisationCells.ts). Checked against the closed form of a
-// population with a count flat in log10 M, and on the demo sheet (examples/demo.json, invented).
+// (longResidenceShare; finiteBinaryBins in src/physics/finiteBinaries.ts). Checked against the closed
+// form of a population with a count flat in log10 M, against the separate per-node sum of
+// src/physics/realisationCells.ts, and on the demo sheet (examples/demo.json, invented).
 import { describe, expect, it } from 'vitest';
 import type { Matrix } from 'mathjs';
 import { chirpMassFromTotal } from '../../src/physics/binaryMasses';
 import { M_SUN_KG, YEAR_S } from '../../src/physics/constants';
-import { circularResidenceTime } from '../../src/physics/finiteBinaries';
+import { circularResidenceTime, finiteBinaryBins } from '../../src/physics/finiteBinaries';
 import type { BinaryPopulation } from '../../src/physics/populationTypes';
 import { realisationCells } from '../../src/physics/realisationCells';
 import { loadDemo } from '../physics/demoSheet';
@@ -49,14 +50,28 @@ function closedFormShare(f: number): number {
 describe('share of a bin in binaries with residence times longer than the age of the Universe', () => {
   it('matches the closed form for a count flat in log10 M, to 0.008 (the widest Gauss-Legendre node of the default grid holds 0.022 dex of the 3 dex: a node is long or not as a whole)', () => {
     const freqs = [1, 2, 3, 5, 8, 13].map((k) => k / T);
-    const bins = realisationCells(flatCountPopulation, testCosmology, freqs, T, { threshold: 0 }).bins;
-    const shares = bins.map((b) => b.longResidenceCount / b.expectedCount);
+    const r = finiteBinaryBins(flatCountPopulation, testCosmology, freqs, T);
+    const shares = Array.from(r.expectedPerBin, (n, k) => r.longResidencePerBin[k] / n);
     const expected = freqs.map(closedFormShare);
     // The frequencies span shares strictly inside (0, 1), so the test sees the cut move.
     expect(expected.some((s) => s > 0.2 && s < 0.8)).toBe(true);
     for (let k = 0; k < freqs.length; k++) {
       expect(Math.abs(shares[k] - expected[k]), `f = ${freqs[k]} Hz: got ${shares[k]}, closed form ${expected[k]}`).toBeLessThan(0.008);
     }
+  });
+});
+
+describe('two implementations agree', () => {
+  it('the prefix-sum count of finiteBinaryBins equals the per-node count of realisationCells on the same default grid (4 x 32 x 1 panels of 6 points), to 1e-9', () => {
+    const pop: BinaryPopulation = { ...flatCountPopulation, zMin: 0.05, zMax: 3, qMin: 0.1, density: (z, x, q) => Math.exp(-z) * Math.pow(10, -0.3 * (x - 8)) * Math.pow(q, -0.5) };
+    const freqs = [1, 2, 4, 9, 20].map((k) => k / T);
+    const a = finiteBinaryBins(pop, testCosmology, freqs, T);
+    const b = realisationCells(pop, testCosmology, freqs, T, { threshold: 0 }).bins;
+    for (let k = 0; k < freqs.length; k++) {
+      expect(Math.abs(a.expectedPerBin[k] / b[k].expectedCount - 1), `count, bin ${k + 1}`).toBeLessThan(1e-9);
+      expect(Math.abs(a.longResidencePerBin[k] - b[k].longResidenceCount) / b[k].expectedCount, `long count, bin ${k + 1}`).toBeLessThan(1e-9);
+    }
+    expect(a.longResidencePerBin[0] / a.expectedPerBin[0]).toBeGreaterThan(0.05);
   });
 });
 
