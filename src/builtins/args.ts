@@ -25,6 +25,13 @@ function referenceUnit(dim: Dimension): Unit {
   return (reference[dim] ??= math.unit(DIMENSIONS[dim]));
 }
 
+/** The dimension a quantity has, by name ("rateDensity"), or null when it is none of DIMENSIONS. */
+export function dimensionOf(u: Unit): Dimension | null {
+  if (u.dimensions.every((d: number) => d === 0)) return 'dimensionless';
+  for (const dim of Object.keys(DIMENSIONS) as Dimension[]) if (dim !== 'dimensionless' && u.equalBase(referenceUnit(dim))) return dim;
+  return null;
+}
+
 /** Where an argument is: "argument H0 of cosmologyFlat". */
 export function where(fn: string, arg: string): string {
   return `argument ${arg} of ${fn}`;

@@ -344,7 +344,7 @@ const pulsarArrayBuiltin: Builtin = {
     ...NOISE_ARGS,
   ],
   returns: { unit: 'pulsarArray', description: 'the array, for arraySensitivity, detectionSnr and detectionSpan' },
-  source: 'white-noise PSD 2 sigma^2 dt and power-law red noise as in Hazboun, Romano & Smith 2019, PRD 100, 104028 (memory)',
+  source: 'white-noise PSD 2 sigma^2 dt and power-law red noise as in Hazboun, Romano & Smith 2019, PRD 100, 104028',
   example: 'pulsarArray(30, 200 ns, 14 day, 12 yr)',
   fn: (count: unknown, precision: unknown, cadence: unknown, span: unknown, redAmplitude?: unknown, redGamma?: unknown) => {
     const fn = 'pulsarArray';
@@ -390,7 +390,7 @@ const arraySensitivityBuiltin: Builtin = {
     { name: 'span', unit: 'time (yr)', description: 'span to use instead of the array’s own', optional: true },
   ],
   returns: { unit: 'sensitivityCurve', description: 'h_n(f) = sqrt(12 pi^2 f^3 P_eff), P_eff = [sum over pairs Gamma^2/(P_I P_J)]^(-1/2); plots beside a spectrum' },
-  source: 'pair combination as in Hazboun, Romano & Smith 2019, PRD 100, 104028 (memory); P = h_c^2/(12 pi^2 f^3)',
+  source: 'pair combination as in Hazboun, Romano & Smith 2019, PRD 100, 104028; P = h_c^2/(12 pi^2 f^3)',
   example: 'arraySensitivity(pulsarArray(30, 200 ns, 14 day, 12 yr))',
   fn: (array: unknown, span?: unknown) => {
     const fn = 'arraySensitivity';

@@ -6,22 +6,28 @@ import { binaryEvolutionBuiltins } from './binaryEvolution';
 import { spectrumBuiltins } from './spectrum';
 import { orbitBuiltins } from './orbits';
 import { environmentBuiltins } from './environment';
+import { hostEnvironmentBuiltins } from './hostEnvironment';
 import { statisticsBuiltins } from './statistics';
 import { freeSpectrumBuiltins } from './freeSpectrum';
 import { inferenceBuiltins } from './inference';
 import { arrayViewBuiltins } from './arrayView';
 import { utilityBuiltins } from './utility';
 import { realisationBuiltins } from './realisations';
+import { massFunctionCheckBuiltins } from './massFunctionCheck';
+import { galaxyPairBuiltins } from './galaxyPairs';
 
 export function allBuiltins(): Builtin[] {
   return [
     ...utilityBuiltins,
     ...cosmologyBuiltins,
     ...populationBuiltins,
+    ...massFunctionCheckBuiltins,
+    ...galaxyPairBuiltins,
     ...binaryEvolutionBuiltins,
     ...spectrumBuiltins,
     ...orbitBuiltins,
     ...environmentBuiltins,
+    ...hostEnvironmentBuiltins,
     ...statisticsBuiltins,
     ...freeSpectrumBuiltins,
     ...inferenceBuiltins,

@@ -337,6 +337,19 @@ export const orbitBuiltins: Builtin[] = [
     fn: (population: unknown, freqs: unknown, span: unknown, cosmology?: unknown) => numberList(finiteBins(population, freqs, span, cosmology, 'binariesPerBin').expectedPerBin),
   },
   {
+    name: 'longResidenceShare',
+    category: 'spectrum',
+    summary: 'Per frequency bin of width 1/T, the share of the expected binaries (those binariesPerBin counts) whose residence time dt/dln f exceeds the age of the Universe at their redshift: near 1, the bin counts binaries that cannot have got there.',
+    args: finiteArgs,
+    returns: { unit: 'dimensionless', description: 'a list of shares in [0, 1], one per bin (0 for a bin with no binaries)' },
+    source: 'residence time dt/dln f_r = (5/96)(G M_c/c^3)^(-5/3)(pi f_r)^(-8/3), Peters 1964, Phys. Rev. 136, B1224; age Hogg 1999, astro-ph/9905116',
+    example: 'longResidenceShare(pop, freqs, 14 yr)',
+    fn: (population: unknown, freqs: unknown, span: unknown, cosmology?: unknown) => {
+      const r = finiteBins(population, freqs, span, cosmology, 'longResidenceShare');
+      return numberList(r.expectedPerBin.map((n, k) => (n > 0 ? r.longResidencePerBin[k] / n : 0)));
+    },
+  },
+  {
     name: 'thinnedSpectrum',
     category: 'spectrum',
     summary: 'Characteristic strain expected when, in each bin of width 1/T, the heaviest binaries (those above the mass where fewer than one is expected) are absent.',

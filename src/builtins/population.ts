@@ -14,13 +14,14 @@ import { KORMENDY_HO_2013, MCCONNELL_MA_2013, medianLog10BlackHoleMass, type Bla
 import { galaxyMergerPopulation, type StellarMassFunctionParams } from '../physics/galaxyMergerPopulation';
 import { mergedMassDensity, mergedNumberDensity, mergerRateDensity } from '../physics/populationSanity';
 import type { BinaryPopulation } from '../physics/populationTypes';
+import type { Unit } from 'mathjs';
 import type { SheetObject } from '../sheet/sheetObject';
-import { functionOf, objectOf, requireRange, scalarSI, where } from './args';
+import { dimensionOf, functionOf, objectOf, requireRange, scalarSI, where } from './args';
 import { PopulationValue, ShapeValue } from './populationValue';
 import { cosmologyArg, elementwise, nonNegativeSI, populationArg, positiveSI, redshiftValue } from './physicsArgs';
 
 const MIDDLETON = 'Middleton et al. 2016, MNRAS 455, L72; mass-ratio term of Chen, Sesana & Del Pozzo 2017, arXiv:1612.00455';
-const GALAXY_ROUTE = 'Sesana 2013, MNRAS 433, L1; Chen, Sesana & Conselice 2019, arXiv:1810.04184';
+const GALAXY_ROUTE = 'Sesana 2013, MNRAS 433, L1; Chen, Sesana & Conselice 2019, MNRAS 488, 401';
 const DEFAULT_MIN_MASS = 1e6;
 const DEFAULT_MAX_MASS = 1e11;
 /** Mpc^-3 from a number density in m^-3. */
@@ -39,14 +40,14 @@ function optionalMassMsun(v: unknown, fallback: number, fn: string, arg: string)
   return v === undefined ? fallback : massMsun(v, fn, arg);
 }
 
-function massLimits(minMass: unknown, maxMass: unknown, fn: string): [number, number] {
+export function massLimits(minMass: unknown, maxMass: unknown, fn: string): [number, number] {
   const lo = optionalMassMsun(minMass, DEFAULT_MIN_MASS, fn, 'minMass');
   const hi = optionalMassMsun(maxMass, DEFAULT_MAX_MASS, fn, 'maxMass');
   if (!(hi > lo)) throw new BuiltinError(`${where(fn, 'maxMass')} must exceed minMass (${lo} Msun), got ${hi} Msun`);
   return [Math.log10(lo), Math.log10(hi)];
 }
 
-function zMaxArg(v: unknown, fn: string): number {
+export function zMaxArg(v: unknown, fn: string): number {
   const z = scalarSI(v, 'dimensionless', fn, 'zMax');
   if (!(z > 0) || z > 1e4) throw new BuiltinError(`${where(fn, 'zMax')} must be a redshift in (0, 10000], got ${z}`);
   return z;
@@ -72,7 +73,15 @@ function callNumber(f: (...xs: unknown[]) => unknown, args: number[], fn: string
   }
   let x: number;
   if (typeof r === 'number') x = r;
-  else if (perUnit && isUnit(r)) x = scalarSI(r, 'numberDensity', fn, `the value of ${arg}`) * TO_PER_MPC3;
+  else if (perUnit && isUnit(r)) {
+    const found = dimensionOf(r as Unit);
+    if (found !== 'numberDensity') {
+      const at = args.map((a) => a.toPrecision(4)).join(', ');
+      const shown = (r as Unit).formatUnits() || 'no unit';
+      throw new BuiltinError(`${where(fn, arg)} must return a number density in Mpc^-3 (length^-3; a plain number is read as Mpc^-3), got ${shown}${found ? ` (a ${found} quantity)` : ''} at (z, log10M, q) = (${at})`, 'unit');
+    }
+    x = scalarSI(r, 'numberDensity', fn, `the value of ${arg}`) * TO_PER_MPC3;
+  }
   else if (isUnit(r)) x = scalarSI(r, 'dimensionless', fn, `the value of ${arg}`);
   else throw new BuiltinError(`${where(fn, arg)} must return a number${perUnit ? ' or a quantity of length^-3' : ''}, got ${typeof r} at (${args.join(', ')})`);
   if (!(x >= 0) || !Number.isFinite(x)) throw new BuiltinError(`${where(fn, arg)} returned ${x} at (${args.map((a) => a.toPrecision(6)).join(', ')}); it must be finite and >= 0`);
@@ -83,11 +92,11 @@ function redshiftShapeArg(v: unknown, fn: string): RedshiftShape {
   return objectOf<ShapeValue<RedshiftShape>>(v, 'redshiftShape', fn, 'zShape').shape;
 }
 
-function massRatioArg(v: unknown, fn: string, arg = 'qShape'): MassRatioDistribution {
+export function massRatioArg(v: unknown, fn: string, arg = 'qShape'): MassRatioDistribution {
   return objectOf<ShapeValue<MassRatioDistribution>>(v, 'massRatio', fn, arg).shape;
 }
 
-class RelationValue implements SheetObject {
+export class RelationValue implements SheetObject {
   readonly kind = 'bulgeRelation';
   constructor(readonly relation: BlackHoleBulgeRelation) {}
   describe(): string {
@@ -99,7 +108,7 @@ class RelationValue implements SheetObject {
   }
 }
 
-class MassFunctionValue implements SheetObject {
+export class MassFunctionValue implements SheetObject {
   readonly kind = 'massFunction';
   constructor(readonly params: StellarMassFunctionParams) {}
   describe(): string {
@@ -126,7 +135,7 @@ export const populationBuiltins: Builtin[] = [
       { name: 'q', unit: 'dimensionless', description: 'mass ratio m2/m1 in (0, 1]' },
     ],
     returns: { unit: 'Msun', description: 'chirp mass' },
-    source: 'Finn & Chernoff 1993, PRD 47, 2198 (definition; citation from memory)',
+    source: 'Finn & Chernoff 1993, PRD 47, 2198 (definition)',
     example: 'chirpMass(2e9 Msun, 1) gives 8.7e8 Msun',
     fn: (totalMass: unknown, q: unknown) => {
       const qq = qArg(scalarSI(q, 'dimensionless', 'chirpMass', 'q'), 'chirpMass', 'q');
@@ -264,7 +273,7 @@ export const populationBuiltins: Builtin[] = [
     category: 'population',
     summary: "A population from the user's function cell density(z, log10M, q) = d^3n/(dz dlog10M dq), M the total mass in Msun.",
     args: [
-      { name: 'density', unit: 'function(z, log10M, q)', description: 'function cell of three arguments returning Mpc^-3 (a plain number is taken as Mpc^-3; a quantity must be length^-3), >= 0' },
+      { name: 'density', unit: 'function(z, log10M, q)', description: 'function cell of three arguments returning Mpc^-3 (a plain number is taken as Mpc^-3; a quantity must be length^-3), >= 0; called once in the middle of the ranges when the population is made, so a wrong unit is an error here' },
       { name: 'zMax', unit: 'dimensionless', description: 'largest redshift (default 5)', optional: true },
       ...limitsArgs,
       { name: 'qMin', unit: 'dimensionless', description: 'smallest mass ratio, in (0, 1) (default 0.01)', optional: true },
@@ -280,6 +289,9 @@ export const populationBuiltins: Builtin[] = [
       const [x0, x1] = massLimits(minMass, maxMass, fn);
       const qm = qMin === undefined ? 0.01 : qMinArg(qMin, fn);
       const cosmo = cosmology === undefined ? undefined : cosmologyArg(cosmology, fn).model;
+      // One call in the middle of the ranges: a density of the wrong dimension (or one that fails or
+      // is negative there) is an error here, at the population cell, not in a spectrum downstream.
+      callNumber(f, [zm / 2, (x0 + x1) / 2, Math.sqrt(qm)], fn, 'density', 'numberDensity');
       const pop: BinaryPopulation = { zMin: 0, zMax: zm, log10MMin: x0, log10MMax: x1, qMin: qm, qMax: 1, density: (z, x, q) => callNumber(f, [z, x, q], fn, 'density', 'numberDensity') };
       return new PopulationValue(pop, 'user density', { zMax: zm, qMin: qm }, cosmo);
     },
@@ -321,7 +333,7 @@ export const populationBuiltins: Builtin[] = [
       { name: 'breakMass', unit: 'Msun', description: 'break mass M*, > 0' },
     ],
     returns: { unit: 'Mpc^-3', description: 'number density per dex of mass' },
-    source: 'Baldry et al. 2012, MNRAS 421, 621 (written per dex; citation from memory)',
+    source: 'Baldry et al. 2012, MNRAS 421, 621 (written per dex)',
     example: 'doubleSchechterPerDex(1e10 Msun, 4e-3 Mpc^-3, -0.35, 6e-4 Mpc^-3, -1.47, 5e10 Msun)',
     fn: (mass: unknown, phi1: unknown, alpha1: unknown, phi2: unknown, alpha2: unknown, breakMass: unknown) => {
       const fn = 'doubleSchechterPerDex';
@@ -384,7 +396,7 @@ export const populationBuiltins: Builtin[] = [
   {
     name: 'mcConnellMaRelation',
     category: 'population',
-    summary: 'Preset black-hole-bulge relation: a = 8.46, b = 1.05, scatter 0.34 dex (scatter from memory).',
+    summary: 'Preset black-hole-bulge relation: a = 8.46, b = 1.05, scatter 0.34 dex (unverified: the scatter is quoted from their Table 2 by another code; the table was not seen).',
     args: [],
     returns: { unit: 'bulgeRelation', description: 'the preset relation' },
     source: 'McConnell & Ma 2013, ApJ 764, 184',
@@ -394,7 +406,7 @@ export const populationBuiltins: Builtin[] = [
   {
     name: 'kormendyHoRelation',
     category: 'population',
-    summary: 'Preset black-hole-bulge relation: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.16, scatter 0.29 dex (scatter from memory).',
+    summary: 'Preset black-hole-bulge relation: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.16, scatter 0.29 dex (unverified: two other codes quote their eq. 10 as exponent 1.17, scatter 0.28 dex; the paper text was not seen).',
     args: [],
     returns: { unit: 'bulgeRelation', description: 'the preset relation' },
     source: 'Kormendy & Ho 2013, ARA&A 51, 511',
@@ -433,7 +445,7 @@ export const populationBuiltins: Builtin[] = [
       { name: 'alphaPerZ', unit: 'dimensionless', description: 'd alpha / dz' },
     ],
     returns: { unit: 'massFunction', description: 'a mass function for galaxyMergerPopulation' },
-    source: 'Chen, Sesana & Conselice 2019, arXiv:1810.04184 (parametrisation; memory)',
+    source: 'Chen, Sesana & Conselice 2019, MNRAS 488, 401 (parametrisation simplified; unverified: their exact form was not compared)',
     example: 'stellarMassFunction(1e-3 Mpc^-3, -0.3, 1e11 Msun, -1.1, -0.1)',
     fn: (phiStar0: unknown, log10PhiStarPerZ: unknown, breakMass: unknown, alpha0: unknown, alphaPerZ: unknown) => {
       const fn = 'stellarMassFunction';
@@ -526,10 +538,10 @@ export const populationBuiltins: Builtin[] = [
   {
     name: 'mergedMassDensity',
     category: 'population',
-    summary: 'Mass density of the black holes that merged, Int n M dz dlog10M dq; compare with the local black-hole mass density (about 3-6e5 Msun/Mpc^3). A hole that merges twice is counted twice.',
+    summary: 'Mass density of the black holes that merged, Int n M dz dlog10M dq: an upper bound on the mass density of the merger remnants (a hole that merges twice is counted twice); compare with the local black-hole mass density, 4.6 (+1.9, -1.4) x 1e5 Msun/Mpc^3 for h = 0.7.',
     args: [{ name: 'population', unit: 'population', description: 'any population' }],
-    returns: { unit: 'Msun/Mpc^3', description: 'merged mass per comoving volume' },
-    source: 'Marconi et al. 2004, MNRAS 351, 169; Shankar, Weinberg & Miralda-Escude 2009, ApJ 690, 20 (local density for comparison; journal references from memory)',
+    returns: { unit: 'Msun/Mpc^3', description: 'merged mass per comoving volume (upper bound on the remnants\' mass density)' },
+    source: 'Marconi et al. 2004, MNRAS 351, 169 (local density 4.6 (+1.9, -1.4) x 1e5 Msun/Mpc^3); Shankar, Weinberg & Miralda-Escude 2009, ApJ 690, 20 (estimates span 3-5.5e5 Msun/Mpc^3)',
     example: 'mergedMassDensity(pop)',
     fn: (population: unknown) => quantity((mergedMassDensity(populationArg(population, 'mergedMassDensity').population) * M_SUN_KG) / TO_PER_MPC3, 'Msun/Mpc^3'),
   },

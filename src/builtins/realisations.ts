@@ -94,6 +94,19 @@ export function realiseInThread(setup: RealisationSetup, count: number, seed: nu
   return new RealisationsValue(setup, cells, seed, guardedPhysics(fn, () => drawRealisations(cells, seed, 0, count)));
 }
 
+/** Population, cosmology, bin centres and span of realiseBackground. */
+function binsArgs(population: unknown, freqs: unknown, span: unknown, cosmology: unknown, fn: string): Pick<RealisationSetup, 'population' | 'cosmology' | 'freqsHz' | 'spanS'> {
+  const p = populationArg(population, fn);
+  const cosmo = cosmology !== undefined ? cosmologyArg(cosmology, fn).model : p.cosmology;
+  if (!cosmo) throw new BuiltinError(`${where(fn, 'cosmology')} is needed: the population was built without one`);
+  const f = vectorSI(freqs, 'frequency', fn, 'freqs');
+  if (f.length === 0 || f.length > 2000) throw new BuiltinError(`${where(fn, 'freqs')} must hold 1 to 2000 frequencies, got ${f.length}`);
+  f.forEach((x, i) => {
+    if (!(x > 0)) throw new BuiltinError(`${where(fn, `freqs[${i + 1}]`)} must be a positive frequency, got ${x} Hz`);
+  });
+  return { population: p.population, cosmology: cosmo, freqsHz: Float64Array.from(f), spanS: positiveSI(span, 'time', fn, 'span') };
+}
+
 function seedArg(v: unknown, fn: string): number {
   const s = scalarSI(v, 'dimensionless', fn, 'seed');
   if (!Number.isSafeInteger(s) || s < 0) throw new BuiltinError(`${where(fn, 'seed')} must be a whole number >= 0, got ${s}`);
@@ -151,18 +164,10 @@ export const realisationBuiltins: Builtin[] = [
     example: 'realiseBackground(pop, freqs, 14 yr, 200, 1)',
     fn: (population: unknown, freqs: unknown, span: unknown, count: unknown, seed: unknown, threshold?: unknown, dropLong?: unknown, cosmology?: unknown) => {
       const fn = 'realiseBackground';
-      const p = populationArg(population, fn);
-      const cosmo = cosmology !== undefined ? cosmologyArg(cosmology, fn).model : p.cosmology;
-      if (!cosmo) throw new BuiltinError(`${where(fn, 'cosmology')} is needed: the population was built without one`);
-      const f = vectorSI(freqs, 'frequency', fn, 'freqs');
-      if (f.length === 0 || f.length > 2000) throw new BuiltinError(`${where(fn, 'freqs')} must hold 1 to 2000 frequencies, got ${f.length}`);
-      f.forEach((x, i) => {
-        if (!(x > 0)) throw new BuiltinError(`${where(fn, `freqs[${i + 1}]`)} must be a positive frequency, got ${x} Hz`);
-      });
-      const T = positiveSI(span, 'time', fn, 'span');
+      const b = binsArgs(population, freqs, span, cosmology, fn);
       const R = countArg(count, fn, 'count', MAX_SHEET_REALISATIONS);
-      if (R * f.length > MAX_REALISATION_BINS) throw new BuiltinError(`${where(fn, 'count')}: ${R} realisations of ${f.length} bins exceed ${MAX_REALISATION_BINS} realisation-bins; use fewer, or run them with strainsheet realise`);
-      const setup: RealisationSetup = { population: p.population, cosmology: cosmo, freqsHz: Float64Array.from(f), spanS: T, threshold: thresholdArg(threshold, fn), dropLongResidence: flagArg(dropLong, fn, 'dropLongResidence') };
+      if (R * b.freqsHz.length > MAX_REALISATION_BINS) throw new BuiltinError(`${where(fn, 'count')}: ${R} realisations of ${b.freqsHz.length} bins exceed ${MAX_REALISATION_BINS} realisation-bins; use fewer, or run them with strainsheet realise`);
+      const setup: RealisationSetup = { ...b, threshold: thresholdArg(threshold, fn), dropLongResidence: flagArg(dropLong, fn, 'dropLongResidence') };
       return realiseInThread(setup, R, seedArg(seed, fn), fn);
     },
   },

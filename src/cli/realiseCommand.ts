@@ -10,6 +10,7 @@ import { M_SUN_KG } from '../physics/constants';
 import { parallelOptionsOf, PARALLEL_USAGE, PARALLEL_VALUE_OPTIONS } from './parallelOptions';
 import { runShardToPart } from './shardRun';
 import { csvField, csvNumber, g4, runJobForCommand, sheetCommandOptions, writeCsv } from './statisticsCli';
+import { realisationBinsCsv, realisationCsvHead } from '../statistics/realisationReport';
 
 const USAGE = `strainsheet realise FILE --count R --seed S [options]
 
@@ -84,34 +85,8 @@ export function reportRealise(job: JobResult, csvPath: string | undefined, loude
   const r = job.result;
   const s = r.summary;
   const nb = r.frequencyHz.length;
-  const head = `# ${r.count} realisations of ${r.cell}, seed ${r.seed}, threshold ${r.threshold}${r.dropLongResidence ? ', long-residence cells dropped' : ''}; outshine: loudest h^2 > sum of the other binaries' h^2 in the bin`;
-  const lines = [head];
-  lines.push(
-    [
-      csvField('frequency', 'nHz'),
-      'smooth_hc',
-      'mean_hc',
-      'rms_hc',
-      'median_hc',
-      'lower68_hc',
-      'upper68_hc',
-      'lower95_hc',
-      'upper95_hc',
-      'outshine_probability',
-      'outshine_error',
-      'median_loudest_strain',
-      'expected_binaries',
-      'long_residence_hc2_fraction',
-    ].join(','),
-  );
-  for (let k = 0; k < nb; k++) {
-    lines.push(
-      [r.frequencyHz[k] * 1e9, r.smoothHc[k], s.meanHc[k], s.rmsHc[k], s.medianHc[k], s.lower68[k], s.upper68[k], s.lower95[k], s.upper95[k], s.outshineProbability[k], s.outshineError[k], s.medianLoudestStrain[k], r.expectedCount[k], r.longResidenceH2Fraction[k]]
-        .map(csvNumber)
-        .join(','),
-    );
-  }
-  writeCsv(lines.join('\n') + '\n', csvPath, io);
+  const head = realisationCsvHead(r);
+  writeCsv(realisationBinsCsv(r), csvPath, io);
   if (loudestPath) {
     const d = r.draws;
     const rows = [head, ['realisation', 'bin', csvField('frequency', 'nHz'), 'hc', 'loudest_strain', csvField('loudest_chirp_mass', 'Msun'), 'loudest_redshift', 'loudest_mass_ratio', 'outshines'].join(',')];

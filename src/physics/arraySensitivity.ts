@@ -14,7 +14,7 @@ export interface SensitivityCurve extends Spectrum {
 /**
  * Effective residual PSD of the array for the cross-correlation search in the weak-signal limit:
  * P_eff(f) = [ sum_{I<J} Gamma_IJ^2 / (P_I(f) P_J(f)) ]^(-1/2)
- * (the pair combination of Hazboun, Romano & Smith 2019, PRD 100, 104028, memory; it is the weak-signal
+ * (the pair combination of Hazboun, Romano & Smith 2019, PRD 100, 104028; it is the weak-signal
  * limit of the per-bin cross-correlation S/N in detectionSnr.ts: rho_bin^2 = 2 (P_gw / P_eff)^2).
  * Without positions Gamma_IJ^2 is replaced by its isotropic expectation, 1/48 (derived in docs/array.md).
  */

@@ -5,7 +5,7 @@ export function symmetricMassRatio(q: number): number {
   return q / ((1 + q) * (1 + q));
 }
 
-/** Chirp mass M_c = M q^(3/5) / (1+q)^(6/5) = M eta^(3/5) (Finn & Chernoff 1993, PRD 47, 2198; citation from memory). */
+/** Chirp mass M_c = M q^(3/5) / (1+q)^(6/5) = M eta^(3/5) (Finn & Chernoff 1993, PRD 47, 2198). */
 export function chirpMassFromTotal(totalMass: number, q: number): number {
   return totalMass * Math.pow(symmetricMassRatio(q), 0.6);
 }

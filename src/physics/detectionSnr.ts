@@ -7,8 +7,9 @@
 // freedom together, Gaussian amplitudes), so each pair and bin adds mean^2/variance:
 //   rho^2 = sum_k sum_{I<J} 2 Gamma_IJ^2 P_g^2 / [ (P_I + P_g)(P_J + P_g) + Gamma_IJ^2 P_g^2 ],
 // the discrete-bin form (2 T Int df -> 2 sum_k) of the expected S/N of Siemens, Ellis, Jenet &
-// Romano 2013, CQG 30, 224015 (their eq. for <rho>, memory: check the equation number), treating
-// different pairs as independent, as that paper does (memory). Limits, each checked in test/arrayView:
+// Romano 2013, CQG 30, 224015 (unverified: the variance term was not compared with the paper's text),
+// treating different pairs as independent, as the pair sum of Hazboun, Romano & Smith 2019, PRD 100,
+// 104028 does (rho^2 = 2 T Int S_h^2/S_eff^2 df). Limits, each checked in test/arrayView:
 //  - weak signal (P_g << P_I): rho^2 = 2 sum sum Gamma^2 P_g^2/(P_I P_J), so with white noise and
 //    h_c = A (f/f_yr)^(-2/3) (gamma = 13/3): rho proportional to A^2 T^(13/3) N (for N >> 1) / sigma^2;
 //  - strong signal (P_g >> P_I in all bins): rho^2 = 2 K sum_{I<J} Gamma^2/(1 + Gamma^2), independent

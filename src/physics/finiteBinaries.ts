@@ -54,6 +54,8 @@ export interface FiniteBinaryResult {
   cutLog10M: Float64Array;
   /** Strain h of the loudest binary expected in the bin (N(>h) = 1); 0 where fewer than one binary is expected. */
   loudestStrain: Float64Array;
+  /** Of expectedPerBin, the binaries whose residence time dt_r/dln f_r exceeds the age of the Universe at their z. */
+  longResidencePerBin: Float64Array;
 }
 
 const PER_MPC3 = 1 / (MPC_M * MPC_M * MPC_M);
@@ -96,9 +98,11 @@ export function finiteBinaryBins(
   const sep = pop.separable;
   const qFactor = Float64Array.from(qr.nodes, (q) => (sep ? sep.massRatio(q) : 0));
   const dc = new Float64Array(nz);
+  const age = new Float64Array(nz);
   for (let iz = 0; iz < nz; iz++) {
     const z = zr.nodes[iz];
     dc[iz] = cosmo.comovingDistanceM(z);
+    age[iz] = cosmo.ageS(z);
     const volumePerTime = (cosmo.comovingVolumeElementM3(z) / cosmo.dtdzS(z)) * PER_MPC3;
     for (let im = 0; im < nm; im++) {
       const zMass = sep ? sep.zMass(z, mr.nodes[im]) : 0;
@@ -118,6 +122,7 @@ export function finiteBinaryBins(
     thinnedHc: new Float64Array(nf),
     cutLog10M: new Float64Array(nf),
     loudestStrain: new Float64Array(nf),
+    longResidencePerBin: new Float64Array(nf),
   };
   // Sums over q per (z, mass node) for the counts and h^2: dN h^2 = rate tau_F h_F^2 M_c^(5/3).
   const perMc53 = new Float64Array(nz * nm); // sum_q rate / M_c^(5/3)
@@ -136,6 +141,15 @@ export function finiteBinaryBins(
     }
   }
   const loud = new LoudestSearch(rate, mc53, nz, nm, nq);
+  // Per (z, q): running sums over the mass nodes of rate / M_c^(5/3). M_c rises with the mass index at
+  // fixed q, so the nodes with residence time tau_F / M_c^(5/3) above the age are a prefix.
+  const perMc53ByQ = new Float64Array(nz * nq * (nm + 1));
+  for (let iz = 0; iz < nz; iz++) {
+    for (let iq = 0; iq < nq; iq++) {
+      const base = (iz * nq + iq) * (nm + 1);
+      for (let im = 0; im < nm; im++) perMc53ByQ[base + im + 1] = perMc53ByQ[base + im] + rate[(iz * nm + im) * nq + iq] / mc53[im * nq + iq];
+    }
+  }
   // Their running sums over the mass nodes of each z: the totals below a z's ISCO cut in one lookup.
   const perMc53Below = new Float64Array(nz * (nm + 1));
   const timesMc53Below = new Float64Array(nz * (nm + 1));
@@ -147,7 +161,7 @@ export function finiteBinaryBins(
   }
   // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
   // its own cell: the separation theorem of Chebyshev, Markov and Stieltjes, Szego 1939, Orthogonal
-  // Polynomials, 3.41; section from memory), so a node's count spread over its cell keeps the density it stands for.
+  // Polynomials, 3.41; section number unverified), so a node's count spread over its cell keeps the density it stands for.
   const edges = new Float64Array(nm + 1);
   edges[0] = pop.log10MMin;
   for (let im = 0; im < nm; im++) edges[im + 1] = edges[im] + mr.weights[im];
@@ -160,6 +174,7 @@ export function finiteBinaryBins(
     const dlnf = 1 / (f * spanS);
     let count = 0;
     let h2Total = 0;
+    let longCount = 0;
     for (let iz = 0; iz < nz; iz++) {
       const fr = (1 + zr.nodes[iz]) * f;
       // The residence time and the strain above, factored into frequency and chirp-mass parts.
@@ -173,8 +188,10 @@ export function finiteBinaryBins(
       count += perMc53Below[iz * (nm + 1) + im] * tauF * dlnf;
       h2Total += timesMc53Below[iz * (nm + 1) + im] * tauF * hF * hF;
       emitting[iz] = im;
+      longCount += longResidenceCount(perMc53ByQ, mc53, iz, nm, nq, im, tauF / age[iz]) * tauF * dlnf;
     }
     out.expectedPerBin[k] = count;
+    out.longResidencePerBin[k] = longCount;
     out.smoothHc[k] = Math.sqrt(h2Total);
 
     // Cut: walk mass cells from the top until one or more binaries are expected above.
@@ -210,6 +227,26 @@ export function finiteBinaryBins(
     out.loudestStrain[k] = count < 1 ? 0 : loud.search(tauOf, hFOf, emitting, dlnf);
   }
   return out;
+}
+
+/**
+ * Sum over q of rate / M_c^(5/3) for the emitting mass nodes (index < emitting) of redshift node iz
+ * whose M_c^(5/3) lies below mc53Limit (residence time tau_F / M_c^(5/3) longer than the age): a
+ * binary search per q in the rising M_c^(5/3) of the mass nodes.
+ */
+function longResidenceCount(perMc53ByQ: Float64Array, mc53: Float64Array, iz: number, nm: number, nq: number, emitting: number, mc53Limit: number): number {
+  let sum = 0;
+  for (let iq = 0; iq < nq; iq++) {
+    let lo = 0;
+    let hi = emitting;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (mc53[mid * nq + iq] < mc53Limit) lo = mid + 1;
+      else hi = mid;
+    }
+    sum += perMc53ByQ[(iz * nq + iq) * (nm + 1) + lo];
+  }
+  return sum;
 }
 
 /**

@@ -22,7 +22,7 @@ export function hellingsDownsOfX(x: number): number {
 
 /** Angle between two directions on the sky given as right ascension and declination, radians. */
 export function angularSeparation(ra1: number, dec1: number, ra2: number, dec2: number): number {
-  // Haversine form (Sinnott 1984, Sky & Telescope 68, 159; memory): accurate at small separations.
+  // Haversine form (Sinnott 1984, Sky & Telescope 68 (2), 159): accurate at small separations.
   const sdDec = Math.sin((dec2 - dec1) / 2);
   const sdRa = Math.sin((ra2 - ra1) / 2);
   const h = sdDec * sdDec + Math.cos(dec1) * Math.cos(dec2) * sdRa * sdRa;

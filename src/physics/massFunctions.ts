@@ -9,7 +9,7 @@ export function schechterPerDex(mass: number, phiStar: number, mStar: number, al
 
 /**
  * Double Schechter function per dex with one break mass: ln10 e^(-M/M*) [Phi1 (M/M*)^(1+alpha1) +
- * Phi2 (M/M*)^(1+alpha2)] (Baldry et al. 2012, MNRAS 421, 621, written per dex; citation from memory).
+ * Phi2 (M/M*)^(1+alpha2)] (Baldry et al. 2012, MNRAS 421, 621, written per dex).
  */
 export function doubleSchechterPerDex(mass: number, phi1: number, alpha1: number, phi2: number, alpha2: number, mStar: number): number {
   const r = mass / mStar;

@@ -46,7 +46,7 @@ export function harmonicPower(n: number, e: number): number {
 /**
  * Kapteyn's bound |J_m(m z)| <= [z exp(sqrt(1-z^2)) / (1 + sqrt(1-z^2))]^m for 0 <= z < 1
  * (Kapteyn 1893, Ann. Sci. Ec. Norm. Sup. 10, 91; Watson 1944, Theory of Bessel Functions, 8.7;
- * page and section from memory, the bound itself is checked numerically in test/orbits),
+ * unverified: volume, page and section not checked; the bound itself is checked numerically in test/orbits),
  * and |J_m| <= 1 otherwise (A&S 9.1.60).
  */
 export function kapteynBound(m: number, x: number): number {

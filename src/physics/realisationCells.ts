@@ -11,7 +11,8 @@
 // fluctuation of variance sum N h^4 (compound Poisson moments). The work per bin is then about K
 // binaries whether the bin holds 10 or 10^11. This split follows Becsy, Cornish &
 // Kelley 2022 (ApJ, arXiv:2207.01607: brightest binaries individually, the rest as a background) and
-// the variance of Lamb & Taylor 2024 (ApJL, doi:10.3847/2041-8213/ad654a).
+// the variance of Lamb & Taylor 2024 (ApJL, doi:10.3847/2041-8213/ad654a); Sato-Polito & Zaldarriaga
+// 2024 (arXiv:2406.17010) give the same per-bin distribution of h_c^2 analytically.
 //
 // Residence time: the steady-state count N assumes that binaries have been passing f_r for at least
 // their residence time dt_r/dln f_r. Cells where that time exceeds the age of the Universe at the

@@ -7,7 +7,7 @@ export function omegaGw(fHz: number, hc: number, hubbleSI: number): number {
   return (2 * Math.PI * Math.PI * fHz * fHz * hc * hc) / (3 * hubbleSI * hubbleSI);
 }
 
-/** One-sided timing-residual power spectral density P(f) = h_c^2 / (12 pi^2 f^3), s^3 (i.e. s^2/Hz) (Jenet et al. 2006, ApJ 653, 1571; memory). */
+/** One-sided timing-residual power spectral density P(f) = h_c^2 / (12 pi^2 f^3), s^3 (i.e. s^2/Hz) (the one-sided convention of Hazboun, Romano & Smith 2019, PRD 100, 104028: residual response 1/(12 pi^2 f^2) times S_h = h_c^2/f). */
 export function residualPowerSpectralDensity(fHz: number, hc: number): number {
   return (hc * hc) / (12 * Math.PI * Math.PI * fHz * fHz * fHz);
 }

@@ -58,14 +58,28 @@ export function stellarSuppression(frHz: number, ftHz: number): number {
   return 1 / (1 + Math.pow(ftHz / frHz, 10 / 3));
 }
 
-/** An environment for each binary: one for all, or a function of (total mass kg, q, z). */
-export type EnvironmentOf = StellarEnvironment | ((mKg: number, q: number, z: number) => StellarEnvironment);
+/** An environment that depends on the binary's total mass only (the host scalings of hostEnvironment.ts). */
+export interface MassEnvironment {
+  ofMass: (mKg: number) => StellarEnvironment;
+}
+
+/** An environment for each binary: one for all, one per total mass, or a function of (total mass kg, q, z). */
+export type EnvironmentOf = StellarEnvironment | MassEnvironment | ((mKg: number, q: number, z: number) => StellarEnvironment);
+
+function isMassEnvironment(env: StellarEnvironment | MassEnvironment): env is MassEnvironment {
+  return typeof (env as MassEnvironment).ofMass === 'function';
+}
+
+/** The environment part of a_t^5 = k eta M^3: k = (64/5) G^2 F(e) sigma / (c^5 rho H) (equal rates, as above). */
+function transitionConstant(env: StellarEnvironment, e: number): number {
+  return ((64 / 5) * G_SI * G_SI * eccentricityEnhancement(e) * env.dispersionMS) / (C_SI ** 5 * env.densityKgM3 * env.hardeningRate);
+}
 
 /**
  * f_t for many binaries in one environment: the environment's part of a_t^5 is computed once.
  * Same formula as stellarTransitionFrequency (a_t from equal rates, f_t = 2 f_orb(a_t)).
  */
-export function transitionFrequencyFunction(env: StellarEnvironment, e = 0): (mKg: number, q: number) => number {
+export function transitionFrequencyFunction(env: StellarEnvironment | MassEnvironment, e = 0): (mKg: number, q: number) => number {
   return transitionFrequencyParts(env, e).of;
 }
 
@@ -73,19 +87,29 @@ export function transitionFrequencyFunction(env: StellarEnvironment, e = 0): (mK
  * f_t and its factors: with m1 m2 = eta M^2, a_t = (k eta M^3)^(1/5) and f_t = sqrt(G M / a_t^3) / pi
  * = [sqrt(G M) (k M^3)^(-3/10) / pi] x eta^(-3/10): a factor of the total mass times one of q.
  */
-export function transitionFrequencyParts(env: StellarEnvironment, e = 0): { of: (mKg: number, q: number) => number; mass: (mKg: number) => number; ratio: (q: number) => number } {
+export function transitionFrequencyParts(env: StellarEnvironment | MassEnvironment, e = 0): { of: (mKg: number, q: number) => number; mass: (mKg: number) => number; ratio: (q: number) => number } {
+  const ratio = (q: number): number => Math.pow(q / ((1 + q) * (1 + q)), -0.3);
+  if (isMassEnvironment(env)) {
+    // k depends on M through sigma(M) and rho(M); the factorisation in M and q still holds.
+    const mass = (mKg: number): number => {
+      const local = env.ofMass(mKg);
+      checkEnvironment(local);
+      return (Math.sqrt(G_SI * mKg) * Math.pow(transitionConstant(local, e) * mKg * mKg * mKg, -0.3)) / Math.PI;
+    };
+    return { of: (mKg, q) => mass(mKg) * ratio(q), mass, ratio };
+  }
   const of = transitionFrequencyOf(env, e);
-  const k = ((64 / 5) * G_SI * G_SI * eccentricityEnhancement(e) * env.dispersionMS) / (C_SI ** 5 * env.densityKgM3 * env.hardeningRate);
+  const k = transitionConstant(env, e);
   return {
     of,
     mass: (mKg) => (Math.sqrt(G_SI * mKg) * Math.pow(k * mKg * mKg * mKg, -0.3)) / Math.PI,
-    ratio: (q) => Math.pow(q / ((1 + q) * (1 + q)), -0.3),
+    ratio,
   };
 }
 
 function transitionFrequencyOf(env: StellarEnvironment, e: number): (mKg: number, q: number) => number {
   checkEnvironment(env);
-  const k = ((64 / 5) * G_SI * G_SI * eccentricityEnhancement(e) * env.dispersionMS) / (C_SI ** 5 * env.densityKgM3 * env.hardeningRate);
+  const k = transitionConstant(env, e);
   const g = G_SI;
   return (mKg, q) => {
     const m1 = mKg / (1 + q);
@@ -114,7 +138,7 @@ export function stellarEmissionKernel(base: EmissionKernel, envOf: EnvironmentOf
  * See docs/orbits.md for this assumption.
  */
 export function stellarEccentricKernel(base: EmissionKernel, envOf: EnvironmentOf, e0: number | EccentricityDistribution, opts: Omit<EccentricStart, 'e0' | 'f0OrbitalHz'> = {}): EmissionKernel {
-  if (typeof envOf !== 'function') checkEnvironment(envOf);
+  if (typeof envOf !== 'function' && !isMassEnvironment(envOf)) checkEnvironment(envOf);
   const { tables, weights, e0: nodes } = eccentricTables({ ...opts, e0, f0OrbitalHz: 1 });
   if (typeof envOf !== 'function') {
     if (base === circularGwKernel) {

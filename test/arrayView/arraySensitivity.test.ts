@@ -36,7 +36,7 @@ describe('frequency bins (k/T up to the Nyquist frequency 1/(2 dt): common pract
   });
 });
 
-describe('white-noise PSD P = 2 sigma^2 dt (Parseval; Hazboun, Romano & Smith 2019, PRD 100, 104028, memory)', () => {
+describe('white-noise PSD P = 2 sigma^2 dt (Parseval; Hazboun, Romano & Smith 2019, PRD 100, 104028)', () => {
   it('agrees with the averaged one-sided periodogram of simulated white residuals (seeded, 5 standard errors)', () => {
     // Independent method: simulate N samples of variance sigma^2 every dt, one-sided periodogram
     // P_k = (2 dt / N) |sum_n x_n e^(-2 pi i k n / N)|^2 for 0 < k < N/2 (its bins sum, times df = 1/(N dt), to the variance).

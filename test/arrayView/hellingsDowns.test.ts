@@ -24,7 +24,7 @@ function bisect(g: (x: number) => number, a: number, b: number): number {
 /**
  * Overlap of two pulsars' antenna patterns integrated over wave directions in this test, independently of
  * the closed form: Gamma = 3/(8 pi) Int dOmega sum_A F^A_a F^A_b with F^A = (1/2) p^i p^j e^A_ij / (1 + Omega.p)
- * (Anholm et al. 2009, PRD 79, 084030, memory; the 3/(8 pi) makes co-located distinct pulsars give 1/2,
+ * (Anholm et al. 2009, PRD 79, 084030; the 3/(8 pi) makes co-located distinct pulsars give 1/2,
  * the normalisation of Hellings & Downs 1983, ApJ 265, L39). Gauss-Legendre in cos(theta) (by Newton on the
  * Legendre recurrence, Abramowitz & Stegun 1964, 25.4.29) times the periodic trapezoid rule in phi.
  */

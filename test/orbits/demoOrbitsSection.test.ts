@@ -2,7 +2,7 @@
 // laws that hold whatever the invented numbers are.
 import { describe, expect, it } from 'vitest';
 import type { Matrix } from 'mathjs';
-import { C_SI, G_SI, M_SUN_KG, PC_M } from '../../src/physics/constants';
+import { C_SI, G_SI, M_SUN_KG } from '../../src/physics/constants';
 import type { SpectrumValue } from '../../src/builtins/spectrumValue';
 import { loadDemo, siValues } from '../physics/demoSheet';
 import { siOf } from '../physics/sheetHelpers';
@@ -33,18 +33,51 @@ describe('demo orbits section', () => {
     }
   });
 
-  it('f_transition equals the closed form a_t^5 = (64/5) G^2 m1 m2 M sigma / (c^5 rho H), f_t = 2 f_orb(a_t) (Quinlan 1996; Peters 1964, Phys. Rev. 136, B1224), computed here from the cells, to 1e-12', () => {
+  it('f_transition equals the closed form a_t^5 = (64/5) G^2 m1 m2 M sigma / (c^5 rho H), f_t = 2 f_orb(a_t) (Quinlan 1996; Peters 1964, Phys. Rev. 136, B1224), with sigma and rho of the reference mass read from the cells, to 1e-12', () => {
     const M = siOf(value('reference_mass'));
     const q = 0.5;
-    const rho = siOf(value('stellar_density'));
-    const sigma = siOf(value('stellar_dispersion'));
+    const rho = siOf(value('reference_density'));
+    const sigma = siOf(value('reference_dispersion'));
     const H = Number(value('hardening_H'));
-    expect(Math.abs(rho / ((1000 * M_SUN_KG) / PC_M ** 3) - 1)).toBeLessThan(1e-12); // units arrive in SI
     const m1 = M / (1 + q);
     const m2 = M - m1;
     const a = Math.pow(((64 / 5) * G_SI ** 2 * m1 * m2 * M * sigma) / (C_SI ** 5 * rho * H), 1 / 5);
     const ft = (2 * Math.sqrt((G_SI * M) / a ** 3)) / (2 * Math.PI);
     expect(Math.abs(siOf(value('f_transition')) / ft - 1)).toBeLessThan(1e-12);
+  });
+
+  it('the reference host: sigma from log10 M = 8.32 + 5.64 log10(sigma / 200 km/s) (McConnell & Ma 2013, ApJ 764, 184) and rho = sigma^6 / (2 pi G^3 M^2) (isothermal sphere at r_inf = G M / sigma^2), to 1e-12', () => {
+    const M = siOf(value('reference_mass'));
+    const sigma = siOf(value('reference_dispersion'));
+    const expected = 200e3 * Math.pow(10, (Math.log10(M / M_SUN_KG) - 8.32) / 5.64);
+    expect(Math.abs(sigma / expected - 1)).toBeLessThan(1e-12);
+    expect(sigma / 1e3).toBeGreaterThan(180); // above the single 180 km/s the demo used before
+    const rho = siOf(value('reference_density'));
+    expect(Math.abs(rho / (sigma ** 6 / (2 * Math.PI * G_SI ** 3 * M * M)) - 1)).toBeLessThan(1e-12);
+  });
+
+  it('reference_lifetime lies between the closed-form bounds T_inf - 1/(A a_h) and T_inf = pi/(5 sin(4 pi/5)) / (A a_t) (Int_0^inf x^3/(1+x^5) dx, common practice, no source), with A = G rho H / sigma (Quinlan 1996) and a_t, a_h = G m2/(4 sigma^2) from the cells', () => {
+    const M = siOf(value('reference_mass'));
+    const q = 0.5;
+    const rho = siOf(value('reference_density'));
+    const sigma = siOf(value('reference_dispersion'));
+    const H = Number(value('hardening_H'));
+    const m1 = M / (1 + q);
+    const m2 = M - m1;
+    const A = (G_SI * rho * H) / sigma;
+    const aT = Math.pow(((64 / 5) * G_SI ** 3 * m1 * m2 * M) / (C_SI ** 5 * A), 1 / 5);
+    const aH = (G_SI * m2) / (4 * sigma * sigma);
+    const tInf = Math.PI / (5 * Math.sin((4 * Math.PI) / 5)) / (A * aT);
+    const T = siOf(value('reference_lifetime'));
+    expect(T).toBeLessThan(tInf);
+    expect(T).toBeGreaterThan(tInf - 1 / (A * aH));
+  });
+
+  it('hardening delays (all far below binary_lifetime here) stall fewer binaries than the fixed binary_lifetime and lower A_yr less (the same binaries, shorter delays)', () => {
+    expect(siOf(value('reference_lifetime'))).toBeLessThan(siOf(value('binary_lifetime')));
+    expect(Number(value('stalled_share_hardened'))).toBeLessThan(Number(value('stalled_share')));
+    expect(Number(value('A_yr_hardened'))).toBeGreaterThan(Number(value('A_yr_delayed')));
+    expect(Number(value('A_yr_hardened'))).toBeLessThanOrEqual(Number(value('A_yr')));
   });
 
   it('eccentric A_yr is within 1% of the circular one: at f_yr the orbits started at 1 nHz have circularised (e falls as f^(-19/18) at small e, Peters 1964)', () => {

@@ -25,7 +25,7 @@ function sumH2(hc: Float64Array, r: number, k: number, bins: number, f: number):
   return (hc[r * bins + k] * hc[r * bins + k]) / (f * T);
 }
 
-/** Two-sided Kolmogorov-Smirnov critical value at the 0.1% level, c(alpha) sqrt(n_eff) with c = 1.949 (Smirnov 1948, Ann. Math. Stat. 19, 279, asymptotic table; from memory). */
+/** Two-sided Kolmogorov-Smirnov critical value at the 0.1% level, c(alpha) sqrt(n_eff) with c = 1.949 (the limiting Kolmogorov distribution: scipy.stats.kstwobign.isf(0.001) = 1.9495, Debian python3-scipy). */
 const KS_999 = 1.949;
 
 describe('moments of the realisations', () => {
@@ -145,7 +145,7 @@ describe('the loudest binary', () => {
   const A = perDexAt(8) / Math.pow(10, 8 * s);
   const countAbove = (x: number) => (A * (Math.pow(10, 10 * s) - Math.pow(10, s * x))) / (s * Math.LN10);
   const xOfStrain = (h: number) => 8 + 0.6 * Math.log10(h / strainAt(8));
-  /** P(loudest <= h) = exp(-N(>h)): the void probability of a Poisson process above h (derived here; Kingman 1993, Poisson Processes, sec. 2.1, from memory). */
+  /** P(loudest <= h) = exp(-N(>h)): the void probability of a Poisson process above h (derived here: the count above h is Poisson with mean N(>h), and P(0) = exp(-mean); Kingman 1993, Poisson Processes; unverified: section number). */
   const closedCdf = (h: number) => Math.exp(-countAbove(Math.min(10, Math.max(8, xOfStrain(h)))));
 
   for (const threshold of [Infinity, 5]) {

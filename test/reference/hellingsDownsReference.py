@@ -8,7 +8,7 @@ Contents (each entry records the exact scipy call):
   antenna patterns over gravitational-wave directions with scipy.integrate.dblquad, normalised by
   3/(8 pi) so that co-located distinct pulsars give 1/2 (Hellings & Downs 1983 normalisation).
   Antenna pattern of pulsar p for a wave travelling along Omega with polarisation tensor e^A:
-  F^A = (1/2) p^i p^j e^A_ij / (1 + Omega . p) (Anholm et al. 2009, PRD 79, 084030, memory).
+  F^A = (1/2) p^i p^j e^A_ij / (1 + Omega . p) (Anholm et al. 2009, PRD 79, 084030).
 - zeroCrossings: roots of (3/2) x ln x - x/4 + 1/2 = 0 in closed form with the Lambert W function,
   x = -1 / (3 W_k(-exp(-1/6)/3)), k = 0 and -1 (scipy.special.lambertw), as separation angles.
 - minimum: minimiser of the closed form by scipy.optimize.minimize_scalar (bounded, xatol 1e-12).

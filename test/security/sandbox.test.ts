@@ -4,8 +4,9 @@
 // fixed in 3.17.0), CVE-2017-1001003 (private properties such as constructor replaced through
 // unicode escapes, fixed in 3.17.0) and CVE-2020-7743 (prototype pollution through deepExtend,
 // fixed in 7.5.1), plus the 2017 series fixed in mathjs 3.10.1-3.11.5 (function constructors
-// reached through cos.constructor, [].map.constructor and similar). Advisory numbers and versions
-// are given from memory.
+// reached through cos.constructor, [].map.constructor and similar). Checked: CVE-2020-7743 (prototype
+// pollution through deepExtend, mathjs before 7.5.1) and the 3.17.0 fix release; unverified: the
+// numbers CVE-2017-1001002/1001003 and the 3.10.1-3.11.5 range.
 import { describe, expect, it } from 'vitest';
 import { Sheet } from '../../src/sheet/sheet';
 import { math } from '../../src/sheet/mathInstance';

@@ -49,7 +49,7 @@ describe('credible level of the HPD region through a point', () => {
     expect(post.credibleLevel(-14.6 + 0.1 / 1, 3.5 + 0.6 * 0.5)).toBeCloseTo(0.3935, 3); // on the conditional axis: d = 1
   });
   // Tolerance: the KDE density's relative scatter sqrt(R(K) / (n p)) with R(K) = 1/(4 pi f^2) for the
-  // 2-D Gaussian kernel of width f (asymptotic KDE variance, Silverman 1986, Density Estimation; memory), which moves the
+  // 2-D Gaussian kernel of width f (asymptotic KDE variance, Silverman 1986, Density Estimation for Statistics and Data Analysis; unverified: its section), which moves the
   // level L = 1 - p/p_max by (1 - L) times it; 4 of those plus 3 binomial sd of the sample fraction.
   it('samples from that Gaussian: the KDE level matches the closed form within 4 KDE sd + 3 binomial sd (5,000 samples)', () => {
     const rng = seededRandom(5);

@@ -39,7 +39,8 @@ describe('KDE log-likelihood against the closed-form normal log-likelihood', () 
   // Samples N(m, s) in log10 rho, no prior: ln L_k(x) -> ln N(x; m, s) as n grows. Tolerance at z sigma:
   // the KDE's bias (its mean is N(m, s^2 (1 + f^2)), f = n^(-1/5) Scott: about f^2 (1 + z^2)/2 in ln p)
   // plus 4 times its relative scatter sqrt(R(K) / (n h p)), R(K) = 1/(2 sqrt(pi)) for the Gaussian kernel
-  // (the asymptotic KDE variance, Silverman 1986, Density Estimation; memory).
+  // (the asymptotic KDE variance f R(K)/(n h); Silverman 1986, Density Estimation for Statistics and Data Analysis;
+  // unverified: the section of that book).
   const tolerance = (n: number, z: number) => {
     const f = n ** -0.2;
     const pTimesS = Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI);

@@ -12,8 +12,8 @@ import {
 import { compareAmplitude, probabilityInsideLogNormal } from '../../src/statistics/comparison';
 import { F_YR_HZ } from '../../src/physics/constants';
 
-// Check value (memory, verify against the paper): Agazie et al. 2023, ApJL 951, L8 quote
-// A = 2.4 (+0.7, -0.6) x 1e-15 at f_yr for gamma = 13/3, as a median with a 90% credible interval.
+// Check value: Agazie et al. 2023, ApJL 951, L8 (abstract) quote A = 2.4 (+0.7, -0.6) x 1e-15 at f = 1/yr
+// for an f^(-2/3) strain spectrum (gamma = 13/3), as a median with a 90% credible interval.
 const PUBLISHED = { median: 2.4e-15, lower: 1.8e-15, upper: 3.1e-15, level: 0.9 };
 
 describe('measurement from an interval (two half-normals in log10 A; common practice, no source)', () => {

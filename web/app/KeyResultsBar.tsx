@@ -45,6 +45,9 @@ export function keepPicks(previous: KeyResult[], cells: CellSpec[], fresh: KeyRe
   return fresh;
 }
 
+/** Values up to this many characters are shown whole; longer ones keep to two lines in one row of cards. */
+const SHORT_VALUE = 32;
+
 export function KeyResultsBar() {
   const services = useServices();
   const { session } = services;
@@ -53,10 +56,8 @@ export function KeyResultsBar() {
   // Picks are made again when the cells change or a recalculation is complete (reading the
   // engine's values directly, not one signal per cell, so a long sheet is not scanned per cell).
   const results = createMemo<KeyResult[]>((previous) => {
-    session.settled();
-    const cells = session.cells();
-    const sheet = session.current;
-    return keepPicks(previous, cells, pickKeyResults(cells, (n) => sheet.value(n)), (n) => sheet.state(n).status !== 'value');
+    const { cells, valueOf, stateOf } = session.reader();
+    return keepPicks(previous, cells, pickKeyResults(cells, valueOf), (n) => stateOf(n).status !== 'value');
   }, []);
   // Keyed by role and name, so the bar's buttons are rebuilt only when a different cell is picked.
   const keys = createMemo(() => results().map((r) => `${r.role}\u0000${r.cell.name}`), undefined, {
@@ -81,10 +82,10 @@ export function KeyResultsBar() {
               }
             };
             return (
-              <button type="button" class={`key-result ${st().status}`} data-key-result={name} onClick={() => services.focusCell(name)}>
+              <button type="button" class={`key-result ${st().status}`} classList={{ short: text().length <= SHORT_VALUE }} data-key-result={name} title={`${name}: ${text()}`} onClick={() => services.focusCell(name)}>
                 <span class="key-role">{role}</span>
                 <span class="key-name">{name}</span>
-                <span class="key-value" data-key-value={name} data-raw={text()} title={text()}>
+                <span class="key-value" data-key-value={name} data-raw={text()}>
                   <ScientificText text={text()} />
                 </span>
               </button>

@@ -8,13 +8,17 @@ import { createSignal, For, lazy, Show, Suspense, type Accessor } from 'solid-js
 
 const PlotsPanel = lazy(() => import('../plots/PlotsPanel').then((m) => ({ default: m.PlotsPanel })));
 const ScanPanel = lazy(() => import('../jobs/ScanPanel').then((m) => ({ default: m.ScanPanel })));
+const RealisationsPanel = lazy(() => import('../jobs/RealisationsPanel').then((m) => ({ default: m.RealisationsPanel })));
 const ReferencePanel = lazy(() => import('../help/ReferencePanel').then((m) => ({ default: m.ReferencePanel })));
+const DocsPanel = lazy(() => import('../help/DocsPanel').then((m) => ({ default: m.DocsPanel })));
 
-export type SideTab = 'plots' | 'scan' | 'reference';
+export type SideTab = 'plots' | 'scan' | 'realise' | 'reference' | 'docs';
 const TABS: { id: SideTab; label: string }[] = [
   { id: 'plots', label: 'Plots' },
   { id: 'scan', label: 'Scan & sample' },
+  { id: 'realise', label: 'Realisations' },
   { id: 'reference', label: 'Reference' },
+  { id: 'docs', label: 'Docs' },
 ];
 
 /** The element the skip link and the view switch move focus to. */
@@ -91,10 +95,24 @@ export function SidePanel(props: { control: SidePanelControl }) {
           </Suspense>
         </Show>
       </div>
+      <div class="tab-body" role="tabpanel" id="panel-realise" aria-labelledby="tab-realise" data-panel="realise" hidden={tab() !== 'realise'}>
+        <Show when={opened().has('realise')}>
+          <Suspense fallback={loading}>
+            <RealisationsPanel />
+          </Suspense>
+        </Show>
+      </div>
       <div class="tab-body" role="tabpanel" id="panel-reference" aria-labelledby="tab-reference" data-panel="reference" hidden={tab() !== 'reference'}>
         <Show when={opened().has('reference')}>
           <Suspense fallback={loading}>
             <ReferencePanel />
+          </Suspense>
+        </Show>
+      </div>
+      <div class="tab-body" role="tabpanel" id="panel-docs" aria-labelledby="tab-docs" data-panel="docs" hidden={tab() !== 'docs'}>
+        <Show when={opened().has('docs')}>
+          <Suspense fallback={loading}>
+            <DocsPanel />
           </Suspense>
         </Show>
       </div>

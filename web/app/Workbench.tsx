@@ -1,9 +1,11 @@
 // The whole screen: tool bar, key results, the sheet, and the side panel (plots, scans, reference).
-import { createEffect, createMemo, createSignal, For, onCleanup, onMount, Show } from 'solid-js';
+import { createEffect, createMemo, createSignal, onCleanup, onMount, Show } from 'solid-js';
 import { Sheet } from '../engine/engine';
 import { loadSheet } from '../engine/loadSheet';
 import { SheetSession } from '../state/sheetSession';
-import { ServicesProvider, type Services, type Tone } from './services';
+import { ServicesProvider, type DocLocation, type Services, type Tone } from './services';
+import { SheetNotes } from './SheetNotes';
+import { createMessages, MessageList } from './Messages';
 import { KeyResultsBar } from './KeyResultsBar';
 import { SheetPanel } from '../sheet/SheetPanel';
 import { groupBySection } from '../sheet/sections';
@@ -12,16 +14,11 @@ import { ViewSwitch, type WorkspaceView } from './ViewSwitch';
 import { restoreAutosave, writeAutosave } from '../files/autosave';
 import { openSheetFile, MAX_SHEET_FILE_BYTES } from '../files/openSheetFile';
 import { openDataFile } from '../files/openDataFile';
+import { createOpenDataDialog } from '../files/OpenDataDialog';
 import { downloadText, fileStem } from '../files/download';
 import { cellTableCsv } from '../files/cellTableCsv';
 import type { Completion } from '../help/formulaContext';
 import { DEMO_TEXT } from './demoSheet';
-
-interface Message {
-  id: number;
-  text: string;
-  tone: Tone;
-}
 
 /** Autosaved sheets at least this long (about 1,500 cells) are loaded in slices once the page is up. */
 const LOAD_LATER_FROM = 200_000;
@@ -53,14 +50,7 @@ function demoSheet(notify: (t: string, tone?: Tone) => void): Sheet {
 }
 
 export function Workbench() {
-  const [messages, setMessages] = createSignal<Message[]>([]);
-  let nextId = 1;
-  const notify = (text: string, tone: Tone = 'info') => {
-    const id = nextId++;
-    setMessages((m) => [...m.slice(-3), { id, text, tone }]);
-    if (tone === 'info') setTimeout(() => dismiss(id), 8000);
-  };
-  const dismiss = (id: number) => setMessages((m) => m.filter((x) => x.id !== id));
+  const { messages, notify, dismiss } = createMessages();
 
   const start = initialSheet(notify);
   const session = new SheetSession(start.sheet);
@@ -127,6 +117,9 @@ export function Workbench() {
     return [...cells, ...fns];
   });
 
+  // The Docs tab opens on the physics page until a reference asks for another page.
+  const [docPage, setDocPage] = createSignal<DocLocation>({ page: 'physics' });
+
   const services: Services = {
     session,
     notify,
@@ -150,6 +143,12 @@ export function Workbench() {
     completions,
     traced,
     setTraced,
+    docPage,
+    openDoc(page, anchor) {
+      setDocPage(anchor ? { page, anchor } : { page });
+      setView('side');
+      sidePanel.showTab('docs');
+    },
   };
 
   // Files.
@@ -164,8 +163,9 @@ export function Workbench() {
     notify(`Opened ${file.name}.`);
   };
   let dataPicker!: HTMLInputElement;
+  const dataDialog = createOpenDataDialog(() => dataPicker.click());
   const openData = async (file: File) => {
-    const r = await openDataFile(file, session.cells());
+    const r = await openDataFile(file, session.cells(), dataDialog.control.prior());
     if (!r.ok) {
       notify(r.message, 'error');
       return;
@@ -273,7 +273,7 @@ export function Workbench() {
           <nav class="toolbar no-print" aria-label="File and history">
             <button type="button" onClick={newSheet}>New</button>
             <button type="button" onClick={() => filePicker.click()}>Open…</button>
-            <button type="button" data-action="open-data" title="Read a free spectrum or (A, gamma) samples (CSV or JSON) into the sheet" onClick={() => dataPicker.click()}>
+            <button type="button" data-action="open-data" title="Read a free spectrum or (A, gamma) samples (CSV or JSON) into the sheet" onClick={() => dataDialog.control.open(session.cells().find((c) => c.name === 'measured_free_spectrum')?.formula)}>
               Open data…
             </button>
             <button type="button" data-action="save-sheet" onClick={saveFile}>Save</button>
@@ -289,6 +289,7 @@ export function Workbench() {
             <button type="button" onClick={() => window.print()}>Print</button>
             <span class="autosave-state" data-autosave>{autosaveState()}</span>
           </nav>
+          <dataDialog.Dialog />
           <input
             ref={dataPicker}
             type="file"
@@ -315,21 +316,11 @@ export function Workbench() {
           />
         </header>
         <KeyResultsBar />
-        <div class="messages" aria-live="polite">
-          <For each={messages()}>
-            {(m) => (
-              <div class={`message ${m.tone}`} role={m.tone === 'error' ? 'alert' : 'status'}>
-                <span>{m.text}</span>
-                <button type="button" class="dismiss" aria-label="Dismiss" onClick={() => dismiss(m.id)}>
-                  ×
-                </button>
-              </div>
-            )}
-          </For>
-        </div>
+        <MessageList messages={messages()} onDismiss={dismiss} />
         <ViewSwitch view={view()} onView={(v) => (v === 'side' ? showPlots() : setView(v))} />
         <main class="workspace" data-view={view()}>
           <section class="sheet-pane" aria-label="Sheet" tabindex="-1">
+            <SheetNotes />
             <SheetPanel />
           </section>
           <SidePanel control={sidePanel} />

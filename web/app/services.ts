@@ -21,6 +21,15 @@ export interface Services {
   /** The cell whose trace is open. */
   traced: Accessor<string | null>;
   setTraced(name: string | null): void;
+  /** The docs page shown in the Docs tab (docs/PAGE.md), and the heading asked for. */
+  docPage: Accessor<DocLocation>;
+  /** Shows a docs page (shipped with the app) in the side panel's Docs tab. */
+  openDoc(page: string, anchor?: string): void;
+}
+
+export interface DocLocation {
+  page: string;
+  anchor?: string;
 }
 
 const ServicesContext = createContext<Services>();

@@ -1,6 +1,7 @@
 // One built-in as help text: call form with argument units, what it returns, and its source.
 import { For, Show } from 'solid-js';
 import type { Builtin } from '../engine/engine';
+import { LinkedText } from './LinkedText';
 
 export function BuiltinSignature(props: { builtin: Builtin; activeArg?: number }) {
   return (
@@ -33,7 +34,9 @@ export function BuiltinSignature(props: { builtin: Builtin; activeArg?: number }
           </div>
         )}
       </Show>
-      <div class="sig-source">Source: {props.builtin.source}</div>
+      <div class="sig-source">
+        Source: <LinkedText text={props.builtin.source} />
+      </div>
     </div>
   );
 }

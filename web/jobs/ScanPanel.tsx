@@ -181,7 +181,7 @@ export function ScanPanel() {
     const r = s.result;
     if (r.kind === 'scan1') return scan1Model(r, measurement() || null);
     if (r.kind === 'scan2') return scan2Model(r);
-    if (r.kind === 'goalSeek') return null;
+    if (r.kind !== 'sample') return null;
     return sampleModel(r, measurement() || null);
   });
 

@@ -4,10 +4,11 @@
 // is in flight has one well-defined outcome.
 import { createSignal } from 'solid-js';
 import type { FromWorker, JobResult, JobSpec, ToWorker } from './jobProtocol';
+import type { InferProgressDetail } from '../inference/inferRun';
 
 export type JobStatus =
   | { state: 'idle' }
-  | { state: 'running'; done: number; total: number; startedAt: number }
+  | { state: 'running'; done: number; total: number; startedAt: number; detail?: InferProgressDetail }
   | { state: 'done'; result: JobResult; elapsedMs: number }
   | { state: 'cancelling' }
   | { state: 'cancelled' }
@@ -50,13 +51,13 @@ export class JobClient {
     return w;
   }
 
-  /** Starts a job; refused (false) while another one is running or being cancelled. */
-  start(sheetText: string, job: JobSpec): boolean {
+  /** Starts a job (on `workers` Web Workers; default one per core); refused (false) while another one is running or being cancelled. */
+  start(sheetText: string, job: JobSpec, workers?: number): boolean {
     const st = this.status().state;
     if (st === 'running' || st === 'cancelling') return false;
     const id = ++this.jobId;
     this.setStatus({ state: 'running', done: 0, total: 1, startedAt: performance.now() });
-    const msg: ToWorker = { type: 'start', jobId: id, sheetText, job };
+    const msg: ToWorker = { type: 'start', jobId: id, sheetText, job, ...(workers === undefined ? {} : { workers }) };
     this.ensureWorker().postMessage(msg);
     return true;
   }
@@ -95,7 +96,7 @@ export class JobClient {
       return;
     }
     if (s.state !== 'running') return;
-    if (m.type === 'progress' && s.state === 'running') this.setStatus({ ...s, done: m.done, total: m.total });
+    if (m.type === 'progress' && s.state === 'running') this.setStatus({ ...s, done: m.done, total: m.total, detail: m.detail ?? s.detail });
     else if (m.type === 'result') this.setStatus({ state: 'done', result: m.result, elapsedMs: m.elapsedMs });
     else if (m.type === 'cancelled') this.setStatus({ state: 'cancelled' });
     else if (m.type === 'error') this.setStatus({ state: 'failed', message: m.message });

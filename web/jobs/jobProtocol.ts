@@ -1,5 +1,8 @@
 // Messages between the page and the job worker. Everything crossing is plain data (structured clone):
 // the sheet goes as its file text, results come back as numbers.
+import type { RealiseJobResult, RealiseJobSpec } from './realiseRun';
+import type { InferJobResult, InferJobSpec, InferProgressDetail } from '../inference/inferRun';
+
 
 /** One scanned input: values from lo to hi (in the display unit given), n points, linear or log. */
 export interface ScanAxisSpec {
@@ -16,7 +19,9 @@ export type JobSpec =
   | { kind: 'scan1'; axis: ScanAxisSpec; output: string; measurement: string | null }
   | { kind: 'scan2'; x: ScanAxisSpec; y: ScanAxisSpec; output: string; measurement: string }
   | { kind: 'sample'; samples: number; seed: number; output: string; measurement: string | null }
-  | { kind: 'goalSeek'; input: string; output: string; target: string };
+  | { kind: 'goalSeek'; input: string; output: string; target: string }
+  | RealiseJobSpec
+  | InferJobSpec;
 
 /** An input value that makes the output reach a target (Brent's method, src/statistics/goalSeek.ts). */
 export interface GoalSeekJobResult {
@@ -82,13 +87,13 @@ export interface SampleResult {
   summary: { label: string; value: string }[];
 }
 
-export type JobResult = Scan1Result | Scan2Result | SampleResult | GoalSeekJobResult;
+export type JobResult = Scan1Result | Scan2Result | SampleResult | GoalSeekJobResult | RealiseJobResult | InferJobResult;
 
 /** `workers`: Web Workers for the job's chunks (default: the browser's core count). */
 export type ToWorker = { type: 'start'; jobId: number; sheetText: string; job: JobSpec; workers?: number } | { type: 'cancel'; jobId: number };
 
 export type FromWorker =
-  | { type: 'progress'; jobId: number; done: number; total: number }
+  | { type: 'progress'; jobId: number; done: number; total: number; detail?: InferProgressDetail }
   | { type: 'result'; jobId: number; result: JobResult; elapsedMs: number }
   | { type: 'cancelled'; jobId: number }
   | { type: 'error'; jobId: number; message: string };

@@ -9,10 +9,13 @@ import { formatNumber } from '../../src/sheet/formatValue';
 import type { ParallelOptions } from '../../src/jobs/runChunks';
 import { SAMPLE_CHUNK } from '../../src/statistics/monteCarloJob';
 import type { JobResult, JobSpec, Scan1Result, Scan2Result, SampleResult, ScanAxisSpec } from './jobProtocol';
+import { runRealiseJob } from './realiseRun';
+import { runInferJob, type InferProgressDetail } from '../inference/inferRun';
 
 export interface JobControl {
   signal: AbortSignal;
-  progress: (done: number, total: number) => void;
+  /** Steps done of the total; an inference adds its acceptance and autocorrelation estimate. */
+  progress: (done: number, total: number, detail?: InferProgressDetail) => void;
 }
 
 /** The page's axis as the statistics code takes it: numbers with their unit as formula text. */
@@ -105,6 +108,8 @@ export async function runJob(sheetText: string, job: JobSpec, ctl: JobControl, p
       if (r.kind !== 'scan2d') throw new Error(`unexpected result ${r.kind}`);
       return toScan2(job, r.result);
     }
+    if (job.kind === 'realise') return await runRealiseJob(sheet, job, control, par);
+    if (job.kind === 'infer') return await runInferJob(sheet, job, { signal: ctl.signal, onStep: (p) => ctl.progress(p.step, p.steps, p) }, par);
     if (job.kind === 'goalSeek') {
       const target = job.target.trim();
       const r = await runStatisticsJob(sheet, { kind: 'goalSeek', input: job.input, output: job.output, target: /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(target) ? Number(target) : target }, control);

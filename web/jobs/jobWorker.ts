@@ -25,7 +25,7 @@ scope.onmessage = async (e: MessageEvent<ToWorker>) => {
   try {
     const result = await runJob(m.sheetText, m.job, {
       signal: controller.signal,
-      progress: (done, total) => send({ type: 'progress', jobId: m.jobId, done, total }),
+      progress: (done, total, detail) => send({ type: 'progress', jobId: m.jobId, done, total, detail }),
     }, { workers: m.workers ?? webWorkerCount(), pool: webChunkPool });
     if (controller.signal.aborted) send({ type: 'cancelled', jobId: m.jobId });
     else send({ type: 'result', jobId: m.jobId, result, elapsedMs: performance.now() - t0 });

@@ -2,7 +2,7 @@
 // PDF, PNG at 300 dpi; figureExport.ts) and the plotted data (CSV).
 import { createEffect, createSignal, For, onCleanup, onMount, Show, type Accessor } from 'solid-js';
 import { Chart } from 'chart.js';
-import { attachModel, chartConfig } from './chartConfig';
+import { attachModel, chartConfig, resetAxisTitles } from './chartConfig';
 import type { PlotModel } from './plotModel';
 import { figurePdf, figurePng, figureSvg } from './figureExport';
 import { FIGURE_SIZE_IDS, FIGURE_SIZES, type FigureSizeId } from './figureSizes';
@@ -26,6 +26,7 @@ export function PlotView(props: { model: Accessor<PlotModel>; onMessage?: (text:
       chart.data = next.data as never;
       chart.options = next.options as never;
       attachModel(chart, model);
+      resetAxisTitles(chart);
       chart.update('none');
       // The labelled ticks the chart shows, for comparison with the exported figure (browser tests).
       for (const axis of ['x', 'y'] as const) {
@@ -33,6 +34,8 @@ export function PlotView(props: { model: Accessor<PlotModel>; onMessage?: (text:
         figureEl.dataset[`${axis}Ticks`] = JSON.stringify(ticks.filter((t) => t.label !== '' && t.label !== undefined).map((t) => t.value));
       }
       figureEl.dataset.legend = JSON.stringify((chart.legend?.legendItems ?? []).map((i) => i.text));
+      // Where each legend entry is on the canvas (CSS px: left, top, width, height), to compare its swatch with the figure's.
+      figureEl.dataset.legendBoxes = JSON.stringify(((chart.legend as unknown as { legendHitBoxes?: { left: number; top: number; width: number; height: number }[] } | undefined)?.legendHitBoxes ?? []).map((b) => [b.left, b.top, b.width, b.height]));
       // Read by the UI benchmark: the plot shows the latest edit.
       performance.mark(`strainsheet:plot-drawn:${model.id}`);
       if (performance.getEntriesByName('strainsheet:edit', 'mark').length) {

@@ -1,5 +1,6 @@
 // The plots beside the sheet: the spectrum (with pinned curves and the measurement), the choice of
-// vertical quantity, and the origin breakdowns (by redshift, by chirp mass) when the sheet has them.
+// vertical quantity, the measured free spectrum and (A, gamma) plane (MeasurementPlots.tsx), and the
+// origin breakdowns (by redshift, by chirp mass) when the sheet has them.
 import { createMemo, createSignal, For, Show } from 'solid-js';
 import { useServices } from '../app/services';
 import { PlotView } from './PlotView';
@@ -8,6 +9,7 @@ import type { PlotModel } from './plotModel';
 import { sheetSpectrumModel, spectrumCurves, type SheetReader } from './sheetSpectrumModel';
 import { breakdownModels } from './breakdownPlotModel';
 import { loadPins, pinLabel, savePins, type PinnedCurve } from './pins';
+import { MeasurementPlots } from './MeasurementPlots';
 
 const QUANTITIES: { id: VerticalQuantity; label: string }[] = [
   { id: 'hc', label: 'h_c' },
@@ -28,16 +30,18 @@ export function PlotsPanel() {
 
   /** Every cell's formula now, for naming pinned curves by what changed. */
   const formulas = createMemo(() => Object.fromEntries(session.cells().map((c) => [c.name, c.formula])));
-  const reader = (): SheetReader => ({ cells: session.cells(), valueOf: (n) => session.value(n), stateOf: (n) => session.state(n) });
+  // Plots scan every cell: they are drawn again when the cells change or a recalculation is complete.
+  const reader = (): SheetReader => session.reader();
   /** Every spectrum cell's current curve. */
   const spectra = createMemo<StrainCurve[]>(() => spectrumCurves(reader()));
 
-  const model = createMemo(() => {
-    const pinned = pins()
+  /** The visible pinned curves, drawn on the spectrum, the free spectrum and the (A, gamma) plane. */
+  const pinned = createMemo<StrainCurve[]>(() =>
+    pins()
       .filter((p) => p.visible)
-      .map<StrainCurve>((p) => ({ id: `pin:${p.id}`, label: `${pinLabel(p, formulas())} (pinned)`, frequencyHz: p.frequencyHz, hc: p.hc, dashed: true }));
-    return sheetSpectrumModel(reader(), quantity(), pinned, spectra());
-  });
+      .map<StrainCurve>((p) => ({ id: `pin:${p.id}`, label: `${pinLabel(p, formulas())} (pinned)`, frequencyHz: p.frequencyHz, hc: p.hc, dashed: true })),
+  );
+  const model = createMemo(() => sheetSpectrumModel(reader(), quantity(), pinned(), spectra()));
   // While the sheet's spectra have no value (an input in error, a recalculation under way), the
   // last drawn curves stay, marked as stale, instead of an empty plot.
   let prevQuantity = quantity();
@@ -49,7 +53,10 @@ export function PlotsPanel() {
     return { model: m, stale: null };
   });
 
-  const breakdowns = createMemo(() => breakdownModels(session.cells(), (n) => session.value(n)));
+  const breakdowns = createMemo(() => {
+    const r = session.reader();
+    return breakdownModels(r.cells, r.valueOf);
+  });
 
   const [pinChoice, setPinChoice] = createSignal('spectrum');
   const pinCurrent = () => {
@@ -126,6 +133,7 @@ export function PlotsPanel() {
           </For>
         </div>
       </Show>
+      <MeasurementPlots reader={reader} spectra={spectra} pinned={pinned} onMessage={(t) => services.notify(t, 'error')} />
       <For each={breakdowns().map((m) => m.id)}>
         {(id) => <PlotView model={() => breakdowns().find((m) => m.id === id) ?? breakdowns()[0]} height={260} onMessage={(t) => services.notify(t, 'error')} />}
       </For>

@@ -13,11 +13,14 @@ import {
   Title,
   type ChartConfiguration,
   type ChartDataset,
+  type LegendItem,
   type Plugin,
 } from 'chart.js';
 import { cellEdges, displayRange, heatColor, usableOnAxis, type PlotAxis, type PlotModel } from './plotModel';
 import { formatTick, ticksFor } from './axisTicks';
 import { unicodeText } from './figureText';
+import { drawSwatch, swatchShapes, swatchWidth } from './legendSwatch';
+import type { PlotSeries } from './plotModel';
 
 Chart.register(LineController, ScatterController, LineElement, PointElement, LinearScale, LogarithmicScale, Legend, Tooltip, Filler, Title);
 
@@ -92,9 +95,12 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
   for (const original of model.series) {
     const s = { ...original, label: unicodeText(original.label) };
     const base = { borderColor: s.color, backgroundColor: s.color, borderWidth: s.width ?? 2, borderDash: s.dash ?? [] };
+    // The dataset that stands for the series in the legend carries it, for its swatch.
+    const legendOf = { series: original } as object;
     if (s.kind === 'line') {
       sets.push({
         ...base,
+        ...legendOf,
         label: s.label,
         data: s.x.map((x, i) => ({ x: x * xf, y: okX(x) && okY(s.y[i]) ? s.y[i] * yf : null })),
         pointRadius: 0,
@@ -104,6 +110,7 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
     } else if (s.kind === 'points') {
       sets.push({
         ...base,
+        ...legendOf,
         label: s.label,
         data: s.x.flatMap((x, i) => (okX(x) && okY(s.y[i]) ? [{ x: x * xf, y: s.y[i] * yf }] : [])),
         showLine: false,
@@ -122,6 +129,7 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
         fill: false,
       });
       sets.push({
+        ...legendOf,
         label: s.label,
         data: s.x.map((x, i) => ({ x: x * xf, y: keep[i] ? hi[i] * yf : null })),
         borderColor: withAlpha(s.color, 0.6),
@@ -142,6 +150,7 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
       sets.push({ ...base, label: `${s.label} (interval)`, data: seg, pointRadius: 0, spanGaps: false });
       sets.push({
         ...base,
+        ...legendOf,
         label: s.label,
         data: s.x.flatMap((x, i) => (okX(x) && okY(s.y[i]) ? [{ x: x * xf, y: s.y[i] * yf }] : [])),
         showLine: false,
@@ -151,6 +160,93 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
     }
   }
   return sets;
+}
+
+/** Font size of the axis titles on screen (px). */
+const AXIS_TITLE_PX = 13;
+
+/** Splits a title at spaces into lines no wider than `room` (a word longer than that keeps its own line). */
+export function wrapTitle(text: string, room: number, measure: (s: string) => number): string[] {
+  const words = text.split(/\s+/).filter(Boolean);
+  const lines: string[] = [];
+  for (const w of words) {
+    const last = lines.at(-1);
+    if (last !== undefined && measure(`${last} ${w}`) <= room) lines[lines.length - 1] = `${last} ${w}`;
+    else lines.push(w);
+  }
+  return lines.length ? lines : [text];
+}
+
+/**
+ * Axis titles never clipped: after a layout, a title longer than its axis (the y title of a short
+ * plot, say) is wrapped onto lines that fit, and the chart is laid out once more. The lines are
+ * kept on the canvas (data-y-title-lines) for the browser tests.
+ */
+const wrapAxisTitles: Plugin<'line'> = {
+  id: 'strainsheetWrapAxisTitles',
+  afterLayout(chart) {
+    const { ctx, chartArea } = chart;
+    let changed = false;
+    for (const id of ['x', 'y'] as const) {
+      const title = chart.options.scales?.[id]?.title as { text?: string | string[]; font?: { size?: number } } | undefined;
+      if (!title?.text) continue;
+      const full = fullTitles.get(chart)?.[id] ?? (Array.isArray(title.text) ? title.text.join(' ') : title.text);
+      fullTitles.set(chart, { ...fullTitles.get(chart), [id]: full });
+      const room = (id === 'y' ? chartArea.bottom - chartArea.top : chartArea.right - chartArea.left) - 4;
+      if (!(room > 0)) continue;
+      ctx.save();
+      ctx.font = `${title.font?.size ?? AXIS_TITLE_PX}px ${Chart.defaults.font.family}`;
+      const lines = ctx.measureText(full).width <= room ? [full] : wrapTitle(full, room, (s) => ctx.measureText(s).width);
+      ctx.restore();
+      const now = Array.isArray(title.text) ? title.text : [title.text];
+      if (now.length !== lines.length || now.some((l, i) => l !== lines[i])) {
+        title.text = lines.length === 1 ? lines[0] : lines;
+        changed = true;
+      }
+      if (id === 'y') chart.canvas.dataset.yTitleLines = JSON.stringify(lines);
+    }
+    if (changed) queueMicrotask(() => chart.update('none'));
+  },
+};
+
+/** The whole title of each axis, before wrapping (the options hold the wrapped lines). */
+const fullTitles = new WeakMap<object, { x?: string; y?: string }>();
+
+/** Forgets the wrapped titles of a chart (call when it shows a new model). */
+export function resetAxisTitles(chart: object): void {
+  fullTitles.delete(chart);
+}
+
+/** Font size of the legend on screen (px). */
+const LEGEND_FONT_PX = 12;
+
+/** A swatch as a small canvas, for chart.js to draw as the entry's point style. */
+function swatchImage(series: PlotSeries): HTMLCanvasElement | undefined {
+  if (typeof document === 'undefined') return undefined;
+  const w = swatchWidth(LEGEND_FONT_PX);
+  const h = LEGEND_FONT_PX;
+  const canvas = document.createElement('canvas');
+  canvas.width = Math.ceil(w);
+  canvas.height = h;
+  const ctx = canvas.getContext('2d');
+  if (!ctx) return undefined;
+  ctx.translate(0, h / 2);
+  drawSwatch(ctx, swatchShapes(series, LEGEND_FONT_PX, 1));
+  return canvas;
+}
+
+const swatchCache = new WeakMap<PlotSeries, HTMLCanvasElement | undefined>();
+
+/** Legend entries: one per series, with the series' own swatch. */
+function legendItems(chart: Chart): LegendItem[] {
+  const base = Chart.defaults.plugins.legend.labels.generateLabels(chart);
+  return base.map((item) => {
+    const series = (chart.data.datasets[item.datasetIndex ?? -1] as { series?: PlotSeries } | undefined)?.series;
+    if (!series) return item;
+    if (!swatchCache.has(series)) swatchCache.set(series, swatchImage(series));
+    const image = swatchCache.get(series);
+    return image ? { ...item, pointStyle: image, lineWidth: 0 } : item;
+  });
 }
 
 /** A chart.js scale showing the same range and ticks as the figure writer (axisTicks.ts, displayRange). */
@@ -165,7 +261,7 @@ function scaleFor(model: PlotModel, which: 'x' | 'y') {
     type: axis.scale === 'log' ? ('logarithmic' as const) : ('linear' as const),
     min: lo * f,
     max: hi * f,
-    title: { display: true, text: unicodeText(axis.label), color: '#1f2a36', font: { size: 13 } },
+    title: { display: true, text: unicodeText(axis.label), color: '#1f2a36', font: { size: AXIS_TITLE_PX } },
     // Grid lines at the major ticks only; tick marks at every tick (minor ones too).
     grid: {
       color: (ctx: { tick?: { value: number } }) => (ctx.tick && majors.has(ctx.tick.value) ? '#e6e3dc' : 'rgba(0, 0, 0, 0)'),
@@ -187,7 +283,7 @@ export function chartConfig(model: PlotModel, opts: { devicePixelRatio?: number;
   return {
     type: 'line',
     data: { datasets: datasetsFor(model) },
-    plugins: [whitePage, heatmapLayer],
+    plugins: [whitePage, heatmapLayer, wrapAxisTitles],
     options: {
       animation: false,
       responsive: opts.responsive ?? true,
@@ -207,7 +303,11 @@ export function chartConfig(model: PlotModel, opts: { devicePixelRatio?: number;
           position: 'bottom',
           labels: {
             color: '#1f2a36',
-            boxWidth: 14,
+            font: { size: LEGEND_FONT_PX },
+            // Each entry's sample is drawn as its series is (legendSwatch.ts, the same as in figures).
+            usePointStyle: true,
+            pointStyleWidth: swatchWidth(LEGEND_FONT_PX),
+            generateLabels: legendItems,
             // Hide helper datasets (band lower edges, interval bars) from the legend.
             filter: (item) => !/\((lower|interval)\)$/.test(item.text),
           },

@@ -8,6 +8,7 @@ import { ScientificText } from './ScientificText';
 import { freshName, sectionChoices, sectionOf } from './sections';
 import { AnnotationBadges, AnnotationEditor } from './AnnotationBadges';
 import { ROW_ANNOTATION_KINDS } from './rowAnnotations';
+import { LinkedText } from '../help/LinkedText';
 
 export function CellRow(props: { spec: CellSpec }) {
   const services = useServices();
@@ -176,10 +177,14 @@ export function CellRow(props: { spec: CellSpec }) {
       </div>
       <div class="cell-notes" role="cell">
         <Show when={props.spec.note}>
-          <div class="cell-note">{props.spec.note}</div>
+          <div class="cell-note">
+            <LinkedText text={props.spec.note!} />
+          </div>
         </Show>
         <Show when={props.spec.source}>
-          <div class="cell-source">{props.spec.source}</div>
+          <div class="cell-source">
+            <LinkedText text={props.spec.source!} />
+          </div>
         </Show>
       </div>
       <Show when={annotating()}>

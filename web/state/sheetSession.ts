@@ -114,6 +114,17 @@ export class SheetSession {
     return entry[0]();
   }
 
+  /**
+   * The cells and a way to read any cell's value and state, for views that scan the whole sheet
+   * (plots, key results): reactive on the cells and on each completed recalculation, not on each
+   * cell's signal, so a long sheet is not scanned again after every slice of a recalculation.
+   */
+  reader(): { cells: CellSpec[]; valueOf(name: string): unknown; stateOf(name: string): CellState } {
+    this.settled();
+    const sheet = this.sheet;
+    return { cells: this.cells(), valueOf: (n) => sheet.value(n), stateOf: (n) => sheet.state(n) };
+  }
+
   /** Reactive value of a cell, or undefined when it has none (error, pending, absent). */
   value(name: string): unknown {
     const s = this.state(name);

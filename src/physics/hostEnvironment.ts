@@ -1,0 +1,73 @@
+// Stellar environments that scale with the host: the velocity dispersion sigma(M) from an M-sigma
+// relation and the stellar density at the binary's influence radius from a density profile, so the
+// stellar-hardening transition frequency moves with the binary's mass. SI in and out.
+import { G_SI, M_SUN_KG } from './constants';
+import type { MassEnvironment, StellarEnvironment } from './stellarHardening';
+
+/** log10(M / Msun) = norm + slope log10(sigma / 200 km/s). */
+export interface MSigmaRelation {
+  norm: number;
+  slope: number;
+}
+
+/** Full sample: log10(M/Msun) = 8.32 + 5.64 log10(sigma / 200 km/s) (McConnell & Ma 2013, ApJ 764, 184, abstract). */
+export const MCCONNELL_MA_2013_M_SIGMA: Readonly<MSigmaRelation> = Object.freeze({ norm: 8.32, slope: 5.64 });
+
+/** The reference dispersion of the M-sigma fits above, m/s. */
+export const M_SIGMA_REFERENCE_MS = 200e3;
+
+export function checkMSigma(rel: MSigmaRelation): void {
+  if (!Number.isFinite(rel.norm)) throw new RangeError(`M-sigma normalisation must be finite, got ${rel.norm}`);
+  if (!(rel.slope > 0) || !Number.isFinite(rel.slope)) throw new RangeError(`M-sigma slope must be positive and finite, got ${rel.slope}`);
+}
+
+/** sigma of the host of a black hole (or binary) of mass mKg, m/s: the M-sigma relation inverted. */
+export function dispersionOfMass(mKg: number, rel: MSigmaRelation = MCCONNELL_MA_2013_M_SIGMA): number {
+  // sigma = 200 km/s x 10^((log10(M/Msun) - norm) / slope) (McConnell & Ma 2013, ApJ 764, 184).
+  return M_SIGMA_REFERENCE_MS * Math.pow(10, (Math.log10(mKg / M_SUN_KG) - rel.norm) / rel.slope);
+}
+
+/**
+ * Influence radius in a singular isothermal sphere, m: the radius enclosing a stellar mass of twice the
+ * binary's mass M. With rho(r) = sigma^2 / (2 pi G r^2) (singular isothermal sphere; Binney & Tremaine
+ * 2008, Galactic Dynamics, 2nd ed.) the enclosed mass is 2 sigma^2 r / G, so r_inf = G M / sigma^2.
+ */
+export function isothermalInfluenceRadius(mKg: number, sigmaMS: number): number {
+  return (G_SI * mKg) / (sigmaMS * sigmaMS);
+}
+
+/** Stellar density of a singular isothermal sphere at radius r, kg/m^3: sigma^2 / (2 pi G r^2) (Binney & Tremaine 2008). */
+export function isothermalDensity(rM: number, sigmaMS: number): number {
+  return (sigmaMS * sigmaMS) / (2 * Math.PI * G_SI * rM * rM);
+}
+
+/** How the stellar environment of a binary follows its total mass. */
+export interface MassScaledEnvironment {
+  mSigma: MSigmaRelation;
+  /** Dimensionless hardening rate H (Quinlan 1996, New Astron. 1, 35). */
+  hardeningRate: number;
+}
+
+export function checkMassScaledEnvironment(s: MassScaledEnvironment): void {
+  checkMSigma(s.mSigma);
+  if (!(s.hardeningRate > 0) || !Number.isFinite(s.hardeningRate)) throw new RangeError(`hardening rate H must be positive and finite, got ${s.hardeningRate}`);
+}
+
+/**
+ * The stellar environment of a binary of total mass mKg: sigma from the M-sigma relation, rho the
+ * density at the influence radius (the environment at the influence radius sets the hardening rate:
+ * Sesana & Khan 2015, MNRAS 454, L66), rho = sigma^6 / (2 pi G^3 M^2) for the isothermal sphere.
+ */
+export function environmentOfMass(mKg: number, s: MassScaledEnvironment): StellarEnvironment {
+  const sigma = dispersionOfMass(mKg, s.mSigma);
+  const rho = isothermalDensity(isothermalInfluenceRadius(mKg, sigma), sigma);
+  return { densityKgM3: rho, dispersionMS: sigma, hardeningRate: s.hardeningRate };
+}
+
+/** The environment as a function of the binary's total mass, for the stellar kernels (stellarHardening.ts). */
+export function massScaledEnvironment(s: MassScaledEnvironment): MassEnvironment {
+  checkMassScaledEnvironment(s);
+  const mSigma = { norm: s.mSigma.norm, slope: s.mSigma.slope };
+  const scaled = { mSigma, hardeningRate: s.hardeningRate };
+  return { ofMass: (mKg) => environmentOfMass(mKg, scaled) };
+}

@@ -1,0 +1,53 @@
+// The black-hole mass function implied by a population's mergers at z = 0: every merger leaves a
+// remnant of mass M = m1 + m2 (the population's total mass), and here each remnant is kept to today
+// without further growth. phi_rem(M) = Int dz Int dq d^3n/(dz dlog10M dq), per dex (Phinney 2001,
+// astro-ph/0108028: n counts remnants per comoving volume). A remnant that merges again is counted once
+// per merger, and black holes that never merged are missing: compare with a local mass function as a
+// consistency check, not as a fit.
+import { checkPopulation } from './backgroundIntegral';
+import { compositeNodes } from './gaussLegendre';
+import type { BinaryPopulation } from './populationTypes';
+
+/** Quadrature of the sums: composite Gauss-Legendre panels x points. */
+const Z_PANELS = 4;
+const Q_PANELS = 4;
+const MASS_PANELS_PER_DEX = 8;
+const ORDER = 8;
+
+/** Remnant mass function per dex at log10 M (Msun), Mpc^-3: Int dz Int dq n(z, log10M, q). */
+export function remnantMassFunction(pop: BinaryPopulation, log10M: number): number {
+  checkPopulation(pop);
+  if (!(log10M >= pop.log10MMin && log10M <= pop.log10MMax)) return 0;
+  const zr = compositeNodes(pop.zMin, pop.zMax, Z_PANELS, ORDER);
+  const qr = compositeNodes(pop.qMin, pop.qMax, Q_PANELS, ORDER);
+  let s = 0;
+  for (let c = 0; c < zr.nodes.length; c++) {
+    let inner = 0;
+    for (let b = 0; b < qr.nodes.length; b++) inner += qr.weights[b] * pop.density(zr.nodes[c], log10M, qr.nodes[b]);
+    s += zr.weights[c] * inner;
+  }
+  return s;
+}
+
+/**
+ * Integral of a mass function per dex, phi(log10M), times M^power, from log10M0 to log10M1, by composite
+ * Gauss-Legendre with about MASS_PANELS_PER_DEX panels per dex (at least 4).
+ */
+export function integrateMassFunction(phi: (log10M: number) => number, log10M0: number, log10M1: number, power = 0): number {
+  if (!(log10M1 > log10M0)) return 0;
+  const panels = Math.max(4, Math.ceil((log10M1 - log10M0) * MASS_PANELS_PER_DEX));
+  const r = compositeNodes(log10M0, log10M1, panels, ORDER);
+  let s = 0;
+  for (let i = 0; i < r.nodes.length; i++) s += r.weights[i] * phi(r.nodes[i]) * (power === 0 ? 1 : Math.pow(10, power * r.nodes[i]));
+  return s;
+}
+
+/** Number density of remnants with M above massMsun, Mpc^-3 (0 above the population's largest mass). */
+export function remnantNumberAbove(pop: BinaryPopulation, massMsun: number): number {
+  return integrateMassFunction((x) => remnantMassFunction(pop, x), Math.max(Math.log10(massMsun), pop.log10MMin), pop.log10MMax);
+}
+
+/** Number density above massMsun of a mass function per dex given up to log10MMax, Mpc^-3. */
+export function numberAbove(phiPerDex: (massMsun: number) => number, massMsun: number, log10MMax: number): number {
+  return integrateMassFunction((x) => phiPerDex(Math.pow(10, x)), Math.log10(massMsun), log10MMax);
+}

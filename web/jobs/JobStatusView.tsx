@@ -1,0 +1,54 @@
+// The state of a job of the worker as the panels show it: progress (with what the job adds to it),
+// cancelling, cancelled, or the failure's message. The result itself is each panel's own.
+import { Match, Switch, type JSX } from 'solid-js';
+import type { JobStatus } from './jobClient';
+
+export function JobStatusView(props: { status: JobStatus; unit: string; detail?: (s: Extract<JobStatus, { state: 'running' }>) => JSX.Element }) {
+  const running = () => (props.status.state === 'running' ? props.status : null);
+  const failed = () => (props.status.state === 'failed' ? props.status.message : null);
+  return (
+    <Switch>
+      <Match when={running()}>
+        {(s) => (
+          <div class="job-progress" data-job-running role="progressbar" aria-valuemin={0} aria-valuemax={s().total} aria-valuenow={s().done}>
+            <progress max={s().total} value={s().done} />{' '}
+            <span data-job-done={s().done}>
+              {s().done} of {s().total} {props.unit}
+            </span>
+            {props.detail?.(s())}
+          </div>
+        )}
+      </Match>
+      <Match when={props.status.state === 'cancelling'}>
+        <div class="job-progress" data-job-cancelling>
+          Cancelling…
+        </div>
+      </Match>
+      <Match when={props.status.state === 'cancelled'}>
+        <div class="job-progress" data-job-cancelled>
+          Cancelled: no result. The sheet is as it was.
+        </div>
+      </Match>
+      <Match when={failed()}>
+        {(message) => (
+          <div class="form-error" role="alert" data-job-failed>
+            The job failed: {message()}
+          </div>
+        )}
+      </Match>
+    </Switch>
+  );
+}
+
+/** The browser's logical cores (at least 1, at most 16): the default number of Web Workers. */
+export function coreCount(): number {
+  const n = globalThis.navigator?.hardwareConcurrency ?? 1;
+  return Math.max(1, Math.min(16, Math.floor(n)));
+}
+
+/** A whole number from a form field, or null when the text is not one within [min, max]. */
+export function wholeIn(text: string, min: number, max: number): number | null {
+  if (!/^\s*\d+\s*$/.test(text)) return null;
+  const n = Number(text);
+  return Number.isSafeInteger(n) && n >= min && n <= max ? n : null;
+}
