@@ -15,7 +15,7 @@ import { lockedMath } from './lockedMath';
 import { SheetEditError } from './sheetEditError';
 import { ALLOWED_CONSTANTS, ALLOWED_MATH_FUNCTIONS } from './allowedFunctions';
 import { renameInFormula, identifierTokens } from './renameReferences';
-import { canonicalCell, parseSheetFile, serializeSheetFile, SheetFileError, type SheetFile, FILE_FORMAT, FILE_VERSION } from './sheetFile';
+import { canonicalCell, cellFileText, parseSheetFile, serializeSheetFile, SheetFileError, type SheetFile, FILE_FORMAT, FILE_VERSION } from './sheetFile';
 
 export { SheetEditError } from './sheetEditError';
 export { SheetFileError } from './sheetFile';
@@ -140,6 +140,9 @@ export class Sheet {
     for (const spec of file.cells) {
       try {
         sheet.addLoaded(spec);
+        // The cell's file text now too, so the first save (an autosave) is not one long step.
+        const kept = sheet.records.get(sheet.order[sheet.order.length - 1])!.spec;
+        sheet.cellTexts.set(kept, cellFileText(kept));
       } catch (e) {
         if (e instanceof SheetEditError) throw new SheetFileError(`the sheet file has a bad cell: ${e.message}`);
         throw e;
@@ -159,8 +162,16 @@ export class Sheet {
 
   /** Stable JSON text (2-space indent, canonical key order, trailing newline). */
   toFileText(): string {
-    return serializeSheetFile(this.toFile());
+    const texts = this.cellTexts;
+    const file: SheetFile = { format: FILE_FORMAT, version: FILE_VERSION, title: this._title, notes: this._notes, cells: this.order.map((n) => this.records.get(n)!.spec) };
+    return serializeSheetFile(file, (spec) => {
+      let t = texts.get(spec);
+      if (t === undefined) texts.set(spec, (t = cellFileText(spec)));
+      return t;
+    });
   }
+  /** Each cell's file text, kept while its spec (replaced on every change) is the same object. */
+  private readonly cellTexts = new WeakMap<CellSpec, string>();
 
   // ---- reading -------------------------------------------------------------------------------
 

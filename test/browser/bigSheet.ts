@@ -13,7 +13,7 @@ export function bigSheetText(count: number): string {
     if (k === 0) formula = `${(i % 97) + 1}.5 m`;
     else if (k % 3 === 1) formula = `c${i - 1} * 2 + 1 m`;
     else if (k % 3 === 2) formula = `c${i - 1} / 3 s`;
-    else formula = `c${i - 1} * 4 s - c${i - 2} * 1 s`;
+    else formula = `c${i - 1} * 4 s - c${i - 2}`;
     const cell: Record<string, string> = { name, formula, section: `part ${Math.floor(i / 500) + 1}` };
     if (i % 50 === 0) cell.note = `head of chain ${i / chain}`;
     cells.push(cell);

@@ -1,5 +1,5 @@
 // The whole screen: tool bar, key results, the sheet, and the side panel (plots, scans, reference).
-import { createEffect, createMemo, createSignal, onCleanup, onMount, Show } from 'solid-js';
+import { createEffect, createSignal, onCleanup, onMount, Show } from 'solid-js';
 import { Sheet } from '../engine/engine';
 import { loadSheet } from '../engine/loadSheet';
 import { SheetSession } from '../state/sheetSession';
@@ -108,14 +108,20 @@ export function Workbench() {
     }
   })();
   const builtins = () => builtinList;
-  const completions = createMemo<Completion[]>(() => {
-    const cells = session.cells().map<Completion>((c) => {
+  // Built when a formula box first asks after the cells changed (not on every change: a long
+  // sheet would pay for it at each structure change, typed into or not).
+  let completionList: { cells: unknown; list: Completion[] } | null = null;
+  const completions = (): Completion[] => {
+    const all = session.cells();
+    if (completionList?.cells === all) return completionList.list;
+    const cells = all.map<Completion>((c) => {
       const fn = /^\s*[A-Za-z_][A-Za-z0-9_]*\s*\(/.test(c.formula) && /\)\s*=(?!=)/.test(c.formula);
       return { name: c.name, kind: fn ? 'function' : 'cell', detail: c.unit ? `cell [${c.unit}]` : 'cell' };
     });
     const fns = builtins().map<Completion>((b) => ({ name: b.name, kind: 'built-in', detail: b.summary }));
-    return [...cells, ...fns];
-  });
+    completionList = { cells: all, list: [...cells, ...fns] };
+    return completionList.list;
+  };
 
   // The Docs tab opens on the physics page until a reference asks for another page.
   const [docPage, setDocPage] = createSignal<DocLocation>({ page: 'physics' });

@@ -54,17 +54,14 @@ export function SheetPanel() {
                     // replaced): reads that come before the removal must not fail.
                     let last: CellSpec | undefined;
                     const spec = () => (last = specs().get(n) ?? last);
+                    // One element per row (the rows not drawn above it are its top margin), so
+                    // that drawing other rows never moves it (a moved element loses the focus).
                     return (
-                      <>
-                        <Show when={rows.gapBefore(n) > 0}>
-                          <div class="row-gap" aria-hidden="true" style={{ height: `${rows.gapBefore(n)}px` }} />
+                      <div class="row-slot" data-row-slot={n} ref={rows.measure} style={{ 'margin-top': rows.gapBefore(n) > 0 ? `${rows.gapBefore(n)}px` : undefined }}>
+                        <Show when={spec()}>
+                          <CellRow spec={spec()!} />
                         </Show>
-                        <div class="row-slot" data-row-slot={n} ref={rows.measure}>
-                          <Show when={spec()}>
-                            <CellRow spec={spec()!} />
-                          </Show>
-                        </div>
-                      </>
+                      </div>
                     );
                   }}
                 </For>
