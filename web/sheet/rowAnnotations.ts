@@ -38,4 +38,23 @@ export const UNCERTAINTY: RowAnnotationKind = {
   },
 };
 
-export const ROW_ANNOTATION_KINDS: RowAnnotationKind[] = [UNCERTAINTY];
+/** The prior of a free cell of inference (docs/inference.md); refused as `strainsheet infer` refuses it. */
+export const PRIOR: RowAnnotationKind = {
+  id: 'prior',
+  label: 'prior',
+  symbol: 'π',
+  placeholder: 'e.g. logUniformDist(1e-5 Mpc^-3 Gyr^-1, 1e-1 Mpc^-3 Gyr^-1)',
+  read: (spec) => spec.prior,
+  patch: (text) => ({ prior: text }),
+  async check(sheet, cell, text) {
+    const { freeParameter } = await import('../../src/statistics/priors');
+    try {
+      freeParameter(sheet, cell, { prior: text });
+      return null;
+    } catch (err) {
+      return err instanceof Error ? err.message : String(err);
+    }
+  },
+};
+
+export const ROW_ANNOTATION_KINDS: RowAnnotationKind[] = [UNCERTAINTY, PRIOR];
