@@ -106,14 +106,25 @@ export function freeParameter(sheet: Sheet, cell: string, proposed?: { prior: st
   }
   const logScale = lo > 0 || d.family === 'lognormal';
   const unit = spec.unit ?? '';
-  const toDisplay = (x: number): number => {
-    if (!a || !unit) return x;
+  const displayOf = (x: number): number => {
     const q = value.valueOf(x) as Unit;
     try {
       return q.toNumber(unit);
     } catch {
-      return x;
+      return NaN;
     }
+  };
+  // Units are affine in SI (mathjs: value = (x + offset) * scale), so two conversions made once give
+  // every later one without parsing the unit per sample.
+  let affine: [number, number] | null = null;
+  const toDisplay = (x: number): number => {
+    if (!a || !unit) return x;
+    if (!affine) {
+      const at0 = displayOf(0);
+      const at1 = displayOf(1);
+      affine = Number.isFinite(at0) && Number.isFinite(at1) ? [at0, at1 - at0] : [0, 1];
+    }
+    return affine[0] + affine[1] * x;
   };
   return { cell, from, formula, prior: d, description: value.describe(), valueOf: (x) => value.valueOf(x), logScale, unit, toDisplay };
 }

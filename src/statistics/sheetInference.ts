@@ -260,6 +260,9 @@ async function sample(
   const dim = params.length;
 
   let last = Date.now();
+  // The autocorrelation estimate for the progress report, refreshed at most once a second.
+  let tau = NaN;
+  let tauAt = -Infinity;
   const chain: EnsembleChain = await runEnsemble({
     walkers: W,
     steps: spec.steps,
@@ -272,8 +275,9 @@ async function sample(
       if (Date.now() - last < 100 && info.step !== info.steps) return;
       last = Date.now();
       checkCancelled(control);
-      let tau = NaN;
-      if (info.step >= 20) {
+      if (info.step >= 20 && (Date.now() - tauAt >= 1000 || info.step === info.steps)) {
+        tauAt = Date.now();
+        tau = NaN;
         const from = Math.floor(info.step / 2);
         for (let i = 0; i < dim; i++) {
           const series = Array.from({ length: W }, (_, k) => {

@@ -111,4 +111,30 @@ describe.runIf(runSuite)('free-spectrum and (A, gamma) plots in the browser', { 
     }
     expect(pageErrors).toEqual([]);
   });
+  it('Open data asks for the prior of the free-spectrum analysis and stores it with the data; a reversed range is refused in the dialog', async () => {
+    await page.click('[data-action="open-data"]');
+    await page.waitForSelector('dialog[data-dialog="open-data"][open]');
+    // The demo's cell has a prior: offered as it is, and chosen by default.
+    expect(await page.isChecked('input[name="data-prior"][value="keep"]')).toBe(true);
+    await page.fill('input[data-prior="lower"]', '-3');
+    await page.fill('input[data-prior="upper"]', '-9.5');
+    await page.click('[data-action="choose-data-file"]');
+    await page.waitForSelector('dialog[data-dialog="open-data"] .form-error');
+    expect(await page.textContent('dialog[data-dialog="open-data"] .form-error')).toContain("the prior's lower end (-3) must be below its upper end (-9.5)");
+    await page.fill('input[data-prior="lower"]', '-9.5');
+    await page.fill('input[data-prior="upper"]', '-3');
+    expect(await page.isChecked('input[name="data-prior"][value="uniform"]')).toBe(true);
+    const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.click('[data-action="choose-data-file"]')]);
+    await chooser.setFiles({ name: 'two-bins.csv', mimeType: 'text/csv', buffer: Buffer.from('2.26 nHz,4.52 nHz\n-6.5,-7.0\n-6.6,-7.1\n-6.4,-7.2\n') });
+    await page.waitForFunction(() => document.querySelector('[data-value="measured_free_spectrum"]')?.getAttribute('data-raw')?.includes('2 bins'));
+    // The engine reads the stated prior back from the stored cell.
+    expect(await page.getAttribute('[data-value="measured_free_spectrum"]', 'data-raw')).toContain('prior uniform in log10 rho -9.5 to -3');
+    expect(await page.isVisible('dialog[data-dialog="open-data"][open]')).toBe(false);
+    // The free-spectrum plot follows: two violins now (two medians in its data export).
+    await page.waitForFunction((s) => (document.querySelector(s) as HTMLElement | null)?.dataset.xTicks !== undefined, FS);
+    const csv = await download(page, () => page.click(`${FS} [data-action="export-csv"]`));
+    const medians = csv.bytes.toString('utf8').trim().split('\r\n').filter((l) => l.startsWith('measured_free_spectrum: posterior median per bin,'));
+    expect(medians.length).toBe(2);
+    expect(pageErrors).toEqual([]);
+  });
 });

@@ -6,12 +6,17 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Sheet } from '../../src/sheet/sheet';
 import { PROJECT_ROOT } from './appServer';
 import { browserAvailability } from './chromiumBrowser';
-import { startAppSession, type AppSession } from './appSession';
+import { ARTIFACTS, startAppSession, type AppSession } from './appSession';
+import { download } from './pageHelpers';
+import { readSvgFigure } from '../support/svgFigure';
+import { FIGURE_SIZES } from '../../web/plots/figureSizes';
+import { unicodeText } from '../../web/plots/figureText';
 
 const availability = browserAvailability();
 const runSuite = availability.ok || availability.required;
 const DEMO = Sheet.fromFile(readFileSync(join(PROJECT_ROOT, 'examples/demo.json'), 'utf8'));
 /** The first heading of a docs page as the repository has it (the shipped page must be this file). */
+const hexRgb = (hex: string) => [1, 3, 5].map((i) => parseInt(hex.slice(i, i + 2), 16));
 const docTitle = (page: string) => /^# (.+)$/m.exec(readFileSync(join(PROJECT_ROOT, 'docs', `${page}.md`), 'utf8'))![1];
 
 describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () => {
@@ -85,5 +90,90 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     await errors.locator('button.dismiss').click();
     await page.waitForFunction(() => document.querySelectorAll('.message.error').length === 0);
     expect(s.pageErrors).toEqual([]);
+  });
+
+  it('draws the map’s legend swatches as its contours are drawn (dash, colour, width), on screen and in the SVG figure', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    await page.click('[data-tab="scan"]');
+    await page.click('[data-panel="scan"] input[name="mode"] >> nth=1');
+    await page.fill('[data-panel="scan"] .axis-fields >> nth=1 >> input[type="number"] >> nth=2', '6');
+    await page.selectOption('[data-panel="scan"] select[aria-label="Measurement cell"]', 'measured');
+    await page.click('[data-action="run-job"]');
+    const figure = '[data-panel="scan"] [data-plot="scan2"]';
+    await page.waitForSelector(`${figure}[data-legend-boxes]`, { timeout: 60_000 });
+    const size = 'column';
+    await page.selectOption(`${figure} select[data-figure-size]`, size);
+    const svg = readSvgFigure((await download(page, () => page.click(`${figure} [data-action="export-svg"]`))).bytes.toString('utf8'));
+    const contours = svg.legend.filter((l) => /credible region$/.test(l.label));
+    expect(contours.length, 'two credible contours').toBe(2);
+
+    // In the figure: each swatch is stroked exactly as its contour is.
+    for (const entry of contours) {
+      const drawn = svg.series.find((x) => x.label === entry.label);
+      expect(entry.stroke, entry.label).toEqual(drawn?.stroke);
+    }
+    const dashed = contours.find((c) => c.stroke!.dash !== '')!;
+    const solid = contours.find((c) => c.stroke!.dash === '')!;
+    expect(dashed && solid, 'one dashed and one solid contour').toBeTruthy();
+    // The figure scales screen widths and dashes by its lineScale: back to screen pixels.
+    const scale = FIGURE_SIZES[size].lineScale;
+    const dashPx = dashed.stroke!.dash.split(/\s+/).map((d) => Number(d) / scale);
+    const widthPx = { dashed: dashed.stroke!.width / scale, solid: solid.stroke!.width / scale };
+
+    // On screen: read the swatch pixels of each legend entry on the chart's canvas.
+    const labels = JSON.parse((await page.getAttribute(figure, 'data-legend')) ?? '[]') as string[];
+    const boxes = JSON.parse((await page.getAttribute(figure, 'data-legend-boxes')) ?? '[]') as number[][];
+    const swatch = async (label: string) => {
+      const box = boxes[labels.indexOf(unicodeText(label))];
+      expect(box, label).toBeDefined();
+      return page.$eval(
+        `${figure} canvas`,
+        (el, [b, fontPx]) => {
+          const canvas = el as HTMLCanvasElement;
+          const r = canvas.width / canvas.clientWidth;
+          const ctx = canvas.getContext('2d')!;
+          const w = Math.round(fontPx * 2.4 * r);
+          const x0 = Math.round(b[0] * r);
+          const yMid = Math.round((b[1] + fontPx / 2) * r);
+          const half = Math.round(4 * r);
+          const img = ctx.getImageData(x0, yMid - half, w, 2 * half + 1);
+          const dark = (i: number) => 1 - (0.299 * img.data[i] + 0.587 * img.data[i + 1] + 0.114 * img.data[i + 2]) / 255;
+          // Ink along the middle row (runs of dashes) and across it (the line's width).
+          const row = Array.from({ length: w }, (_, x) => dark(4 * (half * w + x)));
+          const runs: number[] = [];
+          let inInk = false;
+          row.forEach((d) => {
+            const ink = d > 0.4;
+            if (ink && !inInk) runs.push(0);
+            if (ink) runs[runs.length - 1]++;
+            inInk = ink;
+          });
+          const firstInk = row.findIndex((d) => d > 0.4);
+          let across = 0;
+          for (let y = 0; y <= 2 * half; y++) across += dark(4 * (y * w + firstInk + 1));
+          const rgb = [0, 1, 2].map((k) => img.data[4 * (half * w + firstInk + 1) + k]);
+          return { runs: runs.map((n) => n / r), across: across / r, rgb, ratio: r };
+        },
+        [box, 12] as [number[], number],
+      );
+    };
+    const screenDashed = await swatch(dashed.label);
+    const screenSolid = await swatch(solid.label);
+    // Solid: one unbroken run over the swatch; dashed: dashes and gaps of the contour's pattern.
+    expect(screenSolid.runs.length, `${solid.label}: ${JSON.stringify(screenSolid)}`).toBe(1);
+    expect(screenDashed.runs.length, `${dashed.label}: ${JSON.stringify(screenDashed)}`).toBeGreaterThanOrEqual(2);
+    expect(Math.abs(screenDashed.runs[0] - dashPx[0]), `dash ${JSON.stringify(screenDashed.runs)} vs ${dashPx}`).toBeLessThanOrEqual(1.5);
+    // Width across the line, in CSS px (ink summed over the column, so antialiasing counts by its share).
+    const inkOf = (rgb: number[]) => 1 - (0.299 * rgb[0] + 0.587 * rgb[1] + 0.114 * rgb[2]) / 255;
+    const ink = inkOf(hexRgb(solid.stroke!.color));
+    expect(screenSolid.across / ink, 'solid width').toBeCloseTo(widthPx.solid, 0);
+    expect(screenDashed.across / ink, 'dashed width').toBeCloseTo(widthPx.dashed, 0);
+    expect(screenSolid.across / screenDashed.across, 'width ratio').toBeCloseTo(widthPx.solid / widthPx.dashed, 0);
+    // Colour: the swatch is the contour's ink where the line is solid.
+    const [r, g, b] = hexRgb(solid.stroke!.color);
+    expect(Math.max(Math.abs(screenSolid.rgb[0] - r), Math.abs(screenSolid.rgb[1] - g), Math.abs(screenSolid.rgb[2] - b)), `colour ${screenSolid.rgb}`).toBeLessThanOrEqual(40);
+    await page.screenshot({ path: join(ARTIFACTS, 'map-legend.png') });
+    await page.click('[data-tab="plots"]');
   });
 });

@@ -12,12 +12,24 @@ export interface SvgFigure {
   widthIn: number;
   viewBox: [number, number, number, number];
   ticks: { axis: 'x' | 'y'; value: number; major: boolean; label: string; scripts: string[] }[];
-  legend: { label: string; text: string; box: Box }[];
+  legend: { label: string; text: string; box: Box; stroke: Stroke | null }[];
+  /** The stroke each series is drawn with (its first line or path), by label. */
+  series: { label: string; stroke: Stroke | null }[];
   plot: Box;
   xTitle: Box;
   yTitle: Box;
   text: string;
 }
+
+/** Colour, width and dash pattern of a stroked element ('' when solid). */
+export interface Stroke {
+  color: string;
+  width: number;
+  dash: string;
+}
+
+const strokeOf = (el: Element | null | undefined): Stroke | null =>
+  el ? { color: el.getAttribute('stroke') ?? '', width: Number(el.getAttribute('stroke-width')), dash: el.getAttribute('stroke-dasharray') ?? '' } : null;
 
 const box = (attr: string | null): Box => {
   const [x, y, w, h] = (attr ?? '').trim().split(/\s+/).map(Number);
@@ -42,7 +54,8 @@ export function readSvgFigure(svgText: string): SvgFigure {
       scripts: label ? [...label.querySelectorAll('[data-shift="super"]')].map((t) => t.textContent ?? '') : [],
     };
   });
-  const legend = all('[data-legend-entry]').map((g) => ({ label: g.getAttribute('data-label') ?? '', text: g.textContent ?? '', box: box(g.getAttribute('data-box')) }));
+  const legend = all('[data-legend-entry]').map((g) => ({ label: g.getAttribute('data-label') ?? '', text: g.textContent ?? '', box: box(g.getAttribute('data-box')), stroke: strokeOf(g.querySelector('line')) }));
+  const series = all('[data-series]').map((g) => ({ label: g.getAttribute('data-series') ?? '', stroke: strokeOf(g.querySelector('path, line')) }));
   const plotRect = doc.querySelector('[data-role="plot-area"]')!;
   const plot = { x: Number(plotRect.getAttribute('x')), y: Number(plotRect.getAttribute('y')), w: Number(plotRect.getAttribute('width')), h: Number(plotRect.getAttribute('height')) };
   return {
@@ -50,6 +63,7 @@ export function readSvgFigure(svgText: string): SvgFigure {
     viewBox,
     ticks,
     legend,
+    series,
     plot,
     xTitle: box(doc.querySelector('[data-role="x-title"]')?.getAttribute('data-box') ?? null),
     yTitle: box(doc.querySelector('[data-role="y-title"]')?.getAttribute('data-box') ?? null),

@@ -13,6 +13,7 @@ import { ViewSwitch, type WorkspaceView } from './ViewSwitch';
 import { restoreAutosave, writeAutosave } from '../files/autosave';
 import { openSheetFile, MAX_SHEET_FILE_BYTES } from '../files/openSheetFile';
 import { openDataFile } from '../files/openDataFile';
+import { createOpenDataDialog } from '../files/OpenDataDialog';
 import { downloadText, fileStem } from '../files/download';
 import { cellTableCsv } from '../files/cellTableCsv';
 import type { Completion } from '../help/formulaContext';
@@ -131,8 +132,9 @@ export function Workbench() {
     notify(`Opened ${file.name}.`);
   };
   let dataPicker!: HTMLInputElement;
+  const dataDialog = createOpenDataDialog(() => dataPicker.click());
   const openData = async (file: File) => {
-    const r = await openDataFile(file, session.cells());
+    const r = await openDataFile(file, session.cells(), dataDialog.control.prior());
     if (!r.ok) {
       notify(r.message, 'error');
       return;
@@ -240,7 +242,7 @@ export function Workbench() {
           <nav class="toolbar no-print" aria-label="File and history">
             <button type="button" onClick={newSheet}>New</button>
             <button type="button" onClick={() => filePicker.click()}>Open…</button>
-            <button type="button" data-action="open-data" title="Read a free spectrum or (A, gamma) samples (CSV or JSON) into the sheet" onClick={() => dataPicker.click()}>
+            <button type="button" data-action="open-data" title="Read a free spectrum or (A, gamma) samples (CSV or JSON) into the sheet" onClick={() => dataDialog.control.open(session.cells().find((c) => c.name === 'measured_free_spectrum')?.formula)}>
               Open data…
             </button>
             <button type="button" data-action="save-sheet" onClick={saveFile}>Save</button>
@@ -256,6 +258,7 @@ export function Workbench() {
             <button type="button" onClick={() => window.print()}>Print</button>
             <span class="autosave-state" data-autosave>{autosaveState()}</span>
           </nav>
+          <dataDialog.Dialog />
           <input
             ref={dataPicker}
             type="file"

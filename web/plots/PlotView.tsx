@@ -33,6 +33,8 @@ export function PlotView(props: { model: Accessor<PlotModel>; onMessage?: (text:
         figureEl.dataset[`${axis}Ticks`] = JSON.stringify(ticks.filter((t) => t.label !== '' && t.label !== undefined).map((t) => t.value));
       }
       figureEl.dataset.legend = JSON.stringify((chart.legend?.legendItems ?? []).map((i) => i.text));
+      // Where each legend entry is on the canvas (CSS px: left, top, width, height), to compare its swatch with the figure's.
+      figureEl.dataset.legendBoxes = JSON.stringify(((chart.legend as unknown as { legendHitBoxes?: { left: number; top: number; width: number; height: number }[] } | undefined)?.legendHitBoxes ?? []).map((b) => [b.left, b.top, b.width, b.height]));
       // Read by the UI benchmark: the plot shows the latest edit.
       performance.mark(`strainsheet:plot-drawn:${model.id}`);
       if (performance.getEntriesByName('strainsheet:edit', 'mark').length) {

@@ -13,11 +13,14 @@ import {
   Title,
   type ChartConfiguration,
   type ChartDataset,
+  type LegendItem,
   type Plugin,
 } from 'chart.js';
 import { cellEdges, displayRange, heatColor, usableOnAxis, type PlotAxis, type PlotModel } from './plotModel';
 import { formatTick, ticksFor } from './axisTicks';
 import { unicodeText } from './figureText';
+import { drawSwatch, swatchShapes, swatchWidth } from './legendSwatch';
+import type { PlotSeries } from './plotModel';
 
 Chart.register(LineController, ScatterController, LineElement, PointElement, LinearScale, LogarithmicScale, Legend, Tooltip, Filler, Title);
 
@@ -92,9 +95,12 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
   for (const original of model.series) {
     const s = { ...original, label: unicodeText(original.label) };
     const base = { borderColor: s.color, backgroundColor: s.color, borderWidth: s.width ?? 2, borderDash: s.dash ?? [] };
+    // The dataset that stands for the series in the legend carries it, for its swatch.
+    const legendOf = { series: original } as object;
     if (s.kind === 'line') {
       sets.push({
         ...base,
+        ...legendOf,
         label: s.label,
         data: s.x.map((x, i) => ({ x: x * xf, y: okX(x) && okY(s.y[i]) ? s.y[i] * yf : null })),
         pointRadius: 0,
@@ -104,6 +110,7 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
     } else if (s.kind === 'points') {
       sets.push({
         ...base,
+        ...legendOf,
         label: s.label,
         data: s.x.flatMap((x, i) => (okX(x) && okY(s.y[i]) ? [{ x: x * xf, y: s.y[i] * yf }] : [])),
         showLine: false,
@@ -122,6 +129,7 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
         fill: false,
       });
       sets.push({
+        ...legendOf,
         label: s.label,
         data: s.x.map((x, i) => ({ x: x * xf, y: keep[i] ? hi[i] * yf : null })),
         borderColor: withAlpha(s.color, 0.6),
@@ -142,6 +150,7 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
       sets.push({ ...base, label: `${s.label} (interval)`, data: seg, pointRadius: 0, spanGaps: false });
       sets.push({
         ...base,
+        ...legendOf,
         label: s.label,
         data: s.x.flatMap((x, i) => (okX(x) && okY(s.y[i]) ? [{ x: x * xf, y: s.y[i] * yf }] : [])),
         showLine: false,
@@ -151,6 +160,38 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
     }
   }
   return sets;
+}
+
+/** Font size of the legend on screen (px). */
+const LEGEND_FONT_PX = 12;
+
+/** A swatch as a small canvas, for chart.js to draw as the entry's point style. */
+function swatchImage(series: PlotSeries): HTMLCanvasElement | undefined {
+  if (typeof document === 'undefined') return undefined;
+  const w = swatchWidth(LEGEND_FONT_PX);
+  const h = LEGEND_FONT_PX;
+  const canvas = document.createElement('canvas');
+  canvas.width = Math.ceil(w);
+  canvas.height = h;
+  const ctx = canvas.getContext('2d');
+  if (!ctx) return undefined;
+  ctx.translate(0, h / 2);
+  drawSwatch(ctx, swatchShapes(series, LEGEND_FONT_PX, 1));
+  return canvas;
+}
+
+const swatchCache = new WeakMap<PlotSeries, HTMLCanvasElement | undefined>();
+
+/** Legend entries: one per series, with the series' own swatch. */
+function legendItems(chart: Chart): LegendItem[] {
+  const base = Chart.defaults.plugins.legend.labels.generateLabels(chart);
+  return base.map((item) => {
+    const series = (chart.data.datasets[item.datasetIndex ?? -1] as { series?: PlotSeries } | undefined)?.series;
+    if (!series) return item;
+    if (!swatchCache.has(series)) swatchCache.set(series, swatchImage(series));
+    const image = swatchCache.get(series);
+    return image ? { ...item, pointStyle: image, lineWidth: 0 } : item;
+  });
 }
 
 /** A chart.js scale showing the same range and ticks as the figure writer (axisTicks.ts, displayRange). */
@@ -207,7 +248,11 @@ export function chartConfig(model: PlotModel, opts: { devicePixelRatio?: number;
           position: 'bottom',
           labels: {
             color: '#1f2a36',
-            boxWidth: 14,
+            font: { size: LEGEND_FONT_PX },
+            // Each entry's sample is drawn as its series is (legendSwatch.ts, the same as in figures).
+            usePointStyle: true,
+            pointStyleWidth: swatchWidth(LEGEND_FONT_PX),
+            generateLabels: legendItems,
             // Hide helper datasets (band lower edges, interval bars) from the legend.
             filter: (item) => !/\((lower|interval)\)$/.test(item.text),
           },

@@ -10,6 +10,7 @@ import { ticksFor, type Tick } from './axisTicks';
 import { richRuns, runsWidth, SCRIPT_SCALE, textWidth, type TextRun } from './figureText';
 import { FIGURE_SIZES, type FigureSize, type FigureSizeId } from './figureSizes';
 import { FONT_NAME } from './textWidths';
+import { swatchShapes, swatchWidth } from './legendSwatch';
 
 export interface SvgOptions {
   size?: FigureSizeId | FigureSize;
@@ -114,7 +115,7 @@ export function plotFigure(model: PlotModel, opts: SvgOptions = {}): { svg: stri
   if (model.heatmap) out.push(...heatmapSvg(model, px, py));
   // Bands first, so they never tint the curves drawn over them.
   const drawOrder = [...model.series.filter((x) => x.kind === 'band'), ...model.series.filter((x) => x.kind !== 'band')];
-  for (const s of drawOrder) out.push(...seriesSvg(s, model, px, py, size.lineScale));
+  for (const s of drawOrder) out.push(`<g data-series="${escapeXml(s.label)}">`, ...seriesSvg(s, model, px, py, size.lineScale), `</g>`);
   out.push(`</g>`);
   out.push(`<rect x="${num(left)}" y="${num(top)}" width="${num(plotW)}" height="${num(plotH)}" fill="none" stroke="${INK}" stroke-width="${num(0.8 * size.lineScale + 0.2)}" data-role="plot-area"/>`);
   for (const t of xTicks) {
@@ -161,7 +162,7 @@ interface LegendEntry {
 /** Legend entries in rows under the plot; an entry too long for a row is wrapped at spaces. */
 function layoutLegend(series: PlotSeries[], size: FigureSize, x0: number, width: number, top: number): LegendEntry[] {
   const fs = size.legendPt;
-  const swatch = fs * 2.4;
+  const swatch = swatchWidth(fs);
   const gap = fs * 0.5;
   const colGap = fs * 1.4;
   const lineH = fs * 1.25;
@@ -235,24 +236,18 @@ function textSvg(runs: TextRun[], x: number, y: number, fs: number, anchor: 'sta
   return `<text x="${num(anchor === 'start' ? x : anchor === 'middle' ? x - w / 2 : x - w)}" y="${num(y)}" font-size="${num(fs)}" fill="${INK}" xml:space="preserve"${attrs}>${parts.join('')}</text>`;
 }
 
-/** The legend's sample of a series, drawn as the series is. */
+/** The legend's sample of a series, drawn as the series is (legendSwatch.ts, shared with the screen). */
 function swatchSvg(s: PlotSeries, x: number, yMid: number, size: FigureSize): string[] {
-  const fs = size.legendPt;
-  const w = fs * 2.4;
-  const color = escapeXml(s.color);
-  const lw = num((s.width ?? 2) * size.lineScale);
-  const dash = s.dash?.length ? ` stroke-dasharray="${s.dash.map((d) => num(d * size.lineScale)).join(' ')}"` : '';
-  if (s.kind === 'band') return [`<rect x="${num(x)}" y="${num(yMid - fs * 0.35)}" width="${num(w)}" height="${num(fs * 0.7)}" fill="${color}" fill-opacity="0.25" stroke="${color}" stroke-opacity="0.6" stroke-width="${num(0.5 * size.lineScale)}"/>`];
-  if (s.kind === 'points') return [`<circle cx="${num(x + w / 2)}" cy="${num(yMid)}" r="${num(fs * 0.25)}" fill="${color}"/>`];
-  if (s.kind === 'interval') {
-    const c = x + w / 2;
-    const h = fs * 0.45;
-    return [
-      `<line x1="${num(c)}" y1="${num(yMid - h)}" x2="${num(c)}" y2="${num(yMid + h)}" stroke="${color}" stroke-width="${lw}"/>`,
-      `<rect x="${num(c - fs * 0.2)}" y="${num(yMid - fs * 0.2)}" width="${num(fs * 0.4)}" height="${num(fs * 0.4)}" fill="${color}"/>`,
-    ];
-  }
-  return [`<line x1="${num(x)}" y1="${num(yMid)}" x2="${num(x + w)}" y2="${num(yMid)}" stroke="${color}" stroke-width="${lw}"${dash}/>`];
+  return swatchShapes(s, size.legendPt, size.lineScale).map((sh) => {
+    if (sh.type === 'line') {
+      const dash = sh.dash.length ? ` stroke-dasharray="${sh.dash.map(num).join(' ')}"` : '';
+      return `<line x1="${num(x + sh.x1)}" y1="${num(yMid + sh.y1)}" x2="${num(x + sh.x2)}" y2="${num(yMid + sh.y2)}" stroke="${escapeXml(sh.stroke)}" stroke-width="${num(sh.width)}"${dash}/>`;
+    }
+    if (sh.type === 'circle') return `<circle cx="${num(x + sh.cx)}" cy="${num(yMid + sh.cy)}" r="${num(sh.r)}" fill="${escapeXml(sh.fill)}"/>`;
+    const opacity = sh.fillOpacity === 1 ? '' : ` fill-opacity="${num(sh.fillOpacity)}"`;
+    const stroke = sh.stroke ? ` stroke="${escapeXml(sh.stroke)}" stroke-opacity="${num(sh.strokeOpacity ?? 1)}" stroke-width="${num(sh.strokeWidth ?? 1)}"` : '';
+    return `<rect x="${num(x + sh.x)}" y="${num(yMid + sh.y)}" width="${num(sh.w)}" height="${num(sh.h)}" fill="${escapeXml(sh.fill)}"${opacity}${stroke}/>`;
+  });
 }
 
 function seriesSvg(s: PlotSeries, model: PlotModel, sx: (v: number) => number, sy: (v: number) => number, lineScale: number): string[] {
