@@ -1,24 +1,16 @@
 // The corner plot of an inference run on screen: an n x n grid of the app's plots (histograms on
 // the diagonal, pairs below it), and one export of the whole figure as SVG, the figure that
 // `strainsheet infer --corner` writes.
-import { createMemo, For, Show } from 'solid-js';
-import { cornerModel } from '../../src/statistics/cornerPlot';
+import { For, Show } from 'solid-js';
+import type { CornerModel } from '../../src/statistics/cornerPlot';
 import { cornerSvg } from '../../src/cli/cornerSvg';
 import type { InferenceResult } from '../../src/statistics/sheetInference';
 import { PlotView } from '../plots/PlotView';
 import { cornerHistogramModel, cornerPairModel } from './cornerPlotModels';
 import { downloadText } from '../files/download';
 
-/** The draws of a run as cornerModel takes them (free cells, then derived cells), as the command line does. */
-export function cornerOf(r: InferenceResult) {
-  return cornerModel([
-    ...r.parameters.map((p) => ({ name: p.cell, unit: p.unit, log: p.logScale, draws: r.samples[p.cell] })),
-    ...r.derived.map((d) => ({ name: d.cell, unit: d.unit, log: r.samples[d.cell].every((x) => !(x <= 0)), draws: r.samples[d.cell] })),
-  ]);
-}
-
-export function CornerPlot(props: { result: InferenceResult; fileStem: string; onMessage: (text: string) => void }) {
-  const model = createMemo(() => cornerOf(props.result));
+export function CornerPlot(props: { result: InferenceResult; corner: CornerModel; fileStem: string; onMessage: (text: string) => void }) {
+  const model = () => props.corner;
   const n = () => model().axes.length;
   const cells = () => Array.from({ length: n() * n() }, (_, k) => ({ row: Math.floor(k / n()), col: k % n() }));
   const exportSvg = () => {

@@ -145,6 +145,7 @@ export function InferencePanel() {
         {(d) => (
           <InferenceResultView
             result={d().result.result}
+            corner={d().result.corner}
             workers={d().result.workers}
             elapsedMs={d().elapsedMs}
             fileStem={stem()}

@@ -2,13 +2,14 @@
 // exports the command line writes (chains CSV, summary JSON, corner SVG) and a pin to keep it.
 import { For, Show } from 'solid-js';
 import type { InferenceResult } from '../../src/statistics/sheetInference';
+import type { CornerModel } from '../../src/statistics/cornerPlot';
 import { chainsCsv, inferenceSummary } from '../../src/statistics/inferenceReport';
 import { downloadText } from '../files/download';
 import { PosteriorTable } from './PosteriorTable';
 import { CornerPlot } from './CornerPlot';
 import { pinOf } from './inferencePins';
 
-export function InferenceResultView(props: { result: InferenceResult; workers: number; elapsedMs: number; fileStem: string; onPin: (label: string) => void; onMessage: (t: string) => void }) {
+export function InferenceResultView(props: { result: InferenceResult; corner: CornerModel; workers: number; elapsedMs: number; fileStem: string; onPin: (label: string) => void; onMessage: (t: string) => void }) {
   const r = () => props.result;
   const d = () => props.result.diagnostics;
   const stem = () => `${props.fileStem}-infer-seed${r().seed}`;
@@ -51,7 +52,7 @@ export function InferenceResultView(props: { result: InferenceResult; workers: n
           Pin this result
         </button>
       </div>
-      <CornerPlot result={r()} fileStem={stem()} onMessage={props.onMessage} />
+      <CornerPlot result={r()} corner={props.corner} fileStem={stem()} onMessage={props.onMessage} />
     </div>
   );
 }

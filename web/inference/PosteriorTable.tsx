@@ -1,7 +1,9 @@
 // Posterior medians and 68.27% / 95.45% central intervals per cell, with the run's diagnostics per
 // free cell when given (autocorrelation time, effective sample size, split-R-hat).
 import { For, Show } from 'solid-js';
-import { formatNumber } from '../../src/sheet/formatValue';
+import { formatValue } from '../engine/engine';
+
+const formatNumber = (x: number) => formatValue(x);
 import type { ParameterDiagnostics } from '../../src/statistics/chainDiagnostics';
 import type { PinnedPosterior } from './inferencePins';
 

@@ -28,13 +28,7 @@ export const UNCERTAINTY: RowAnnotationKind = {
   patch: (text) => ({ uncertainty: text }),
   async check(sheet, cell, text) {
     // Loaded on first use: the Monte Carlo code is not needed to show the sheet.
-    const { cellDistribution } = await import('../../src/statistics/sheetMonteCarlo');
-    try {
-      cellDistribution(sheet, cell, text);
-      return null;
-    } catch (err) {
-      return err instanceof Error ? err.message : String(err);
-    }
+    return (await import('./annotationChecks')).uncertaintyProblem(sheet, cell, text);
   },
 };
 
@@ -47,13 +41,7 @@ export const PRIOR: RowAnnotationKind = {
   read: (spec) => spec.prior,
   patch: (text) => ({ prior: text }),
   async check(sheet, cell, text) {
-    const { freeParameter } = await import('../../src/statistics/priors');
-    try {
-      freeParameter(sheet, cell, { prior: text });
-      return null;
-    } catch (err) {
-      return err instanceof Error ? err.message : String(err);
-    }
+    return (await import('./annotationChecks')).priorProblem(sheet, cell, text);
   },
 };
 
