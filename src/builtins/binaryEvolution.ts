@@ -1,23 +1,37 @@
 // Built-ins for what happens between a galaxy merger and the binary's coalescence: a fixed total
-// lifetime (src/physics/delayedPopulation.ts) and the share of binaries that stall past today.
+// lifetime (src/physics/delayedPopulation.ts) or one set by hardening in a mass-scaled stellar
+// environment (src/physics/hardeningLifetime.ts, massDependentDelay.ts), and the share that stalls.
 import type { Builtin } from '../sheet/builtin';
 import { BuiltinError } from '../sheet/cellError';
 import { delayedPopulation, stalledFraction } from '../physics/delayedPopulation';
-import { GYR_S } from '../physics/constants';
-import { where } from './args';
-import { nonNegativeSI, populationArg } from './physicsArgs';
+import { GYR_S, M_SUN_KG } from '../physics/constants';
+import { hardBinaryLifetime, lifetimeFunction } from '../physics/hardeningLifetime';
+import { environmentOfMass, massScaledEnvironment } from '../physics/hostEnvironment';
+import { delayedPopulationByMass, stalledFractionByMass } from '../physics/massDependentDelay';
+import { isSheetObject } from '../sheet/sheetObject';
+import { quantity } from '../sheet/mathInstance';
+import { scalarSI, where } from './args';
+import { environmentArg, type EnvironmentValue } from './hostEnvironment';
+import { elementwise, guardedPhysics, nonNegativeSI, populationArg } from './physicsArgs';
 import { PopulationValue } from './populationValue';
 
 const SOURCE = 'Agazie et al. 2023, ApJL 952, L37 (a total lifetime from formation to coalescence); times from Hogg 1999, astro-ph/9905116';
+const HARDENING_SOURCE = 'hardening from a_h = G m2/(4 sigma^2) by stars (Quinlan 1996, New Astron. 1, 35) and GW emission (Peters 1964, Phys. Rev. 136, B1224) in a mass-scaled environment (McConnell & Ma 2013, ApJ 764, 184; Sesana & Khan 2015, MNRAS 454, L66)';
 
-/** The population (which must know its cosmology) and the lifetime in s, checked. */
+/** The population (which must know its cosmology) and the lifetime: a time in s, or a mass-scaled environment. */
 function populationAndLifetime(population: unknown, lifetime: unknown, fn: string) {
   const p = populationArg(population, fn);
   if (!p.cosmology) throw new BuiltinError(`${where(fn, 'population')} has no cosmology, so a lifetime cannot be turned into redshifts (give customPopulation a cosmology argument)`);
+  if (isSheetObject(lifetime)) {
+    const env = environmentArg(lifetime, fn, 'lifetime');
+    return { p, cosmology: p.cosmology, tau: 0, env };
+  }
   const tau = nonNegativeSI(lifetime, 'time', fn, 'lifetime');
   if (!Number.isFinite(tau)) throw new BuiltinError(`${where(fn, 'lifetime')} must be finite`);
-  return { p, cosmology: p.cosmology, tau };
+  return { p, cosmology: p.cosmology, tau, env: undefined as EnvironmentValue | undefined };
 }
+
+const lifetimeArgDoc = { name: 'lifetime', unit: 'Gyr or environment', description: 'time from formation to coalescence, >= 0, the same for every binary; or a hostEnvironment, whose hardening from the hard-binary separation sets each binary\'s lifetime by its mass and mass ratio' };
 
 export const binaryEvolutionBuiltins: Builtin[] = [
   {
@@ -27,13 +41,23 @@ export const binaryEvolutionBuiltins: Builtin[] = [
       'The population by coalescence redshift when every binary coalesces a fixed lifetime after its galaxies merge: dn/dz_c = dn/dz_f |dt/dz|(z_c) / |dt/dz|(z_f). Binaries that would coalesce after today stall and drop out; a lifetime of 0 gives the population unchanged.',
     args: [
       { name: 'population', unit: 'population', description: 'galaxy-merger population that knows its cosmology (its redshift is the formation redshift)' },
-      { name: 'lifetime', unit: 'Gyr', description: 'time from formation to coalescence, >= 0' },
+      lifetimeArgDoc,
     ],
     returns: { unit: 'population', description: 'the same binaries, per unit coalescence redshift' },
-    source: SOURCE,
+    source: `${SOURCE}; with an environment, ${HARDENING_SOURCE}`,
     example: 'delayedPopulation(pop, 3 Gyr)',
     fn: (population: unknown, lifetime: unknown) => {
-      const { p, cosmology, tau } = populationAndLifetime(population, lifetime, 'delayedPopulation');
+      const fn = 'delayedPopulation';
+      const { p, cosmology, tau, env } = populationAndLifetime(population, lifetime, fn);
+      if (env) {
+        const lifetimeOf = lifetimeFunction(massScaledEnvironment(env.scaled), M_SUN_KG);
+        return new PopulationValue(
+          guardedPhysics(fn, () => delayedPopulationByMass(p.population, cosmology, lifetimeOf)),
+          `${p.label}, coalescing after hardening by stars (H ${env.scaled.hardeningRate}) and GW emission`,
+          { ...p.parameters, hardeningRate: env.scaled.hardeningRate, mSigmaNorm: env.scaled.mSigma.norm, mSigmaSlope: env.scaled.mSigma.slope },
+          cosmology,
+        );
+      }
       return new PopulationValue(
         delayedPopulation(p.population, cosmology, tau),
         `${p.label}, coalescing ${(tau / GYR_S).toPrecision(3)} Gyr after formation`,
@@ -45,17 +69,45 @@ export const binaryEvolutionBuiltins: Builtin[] = [
   {
     name: 'stalledFraction',
     category: 'population',
-    summary: 'Share of a population\'s binaries (by number) that a fixed lifetime carries past today: they never coalesce and add nothing to the background.',
+    summary: 'Share of a population\'s binaries (by number) that their lifetime (fixed, or set by hardening in a mass-scaled environment) carries past today: they never coalesce and add nothing to the background.',
     args: [
       { name: 'population', unit: 'population', description: 'galaxy-merger population that knows its cosmology' },
-      { name: 'lifetime', unit: 'Gyr', description: 'time from formation to coalescence, >= 0' },
+      lifetimeArgDoc,
     ],
     returns: { unit: 'dimensionless', description: 'fraction in [0, 1]' },
-    source: SOURCE,
+    source: `${SOURCE}; with an environment, ${HARDENING_SOURCE}`,
     example: 'stalledFraction(pop, 3 Gyr)',
     fn: (population: unknown, lifetime: unknown) => {
-      const { p, cosmology, tau } = populationAndLifetime(population, lifetime, 'stalledFraction');
+      const fn = 'stalledFraction';
+      const { p, cosmology, tau, env } = populationAndLifetime(population, lifetime, fn);
+      if (env) {
+        const lifetimeOf = lifetimeFunction(massScaledEnvironment(env.scaled), M_SUN_KG);
+        return guardedPhysics(fn, () => stalledFractionByMass(p.population, cosmology, lifetimeOf));
+      }
       return stalledFraction(p.population, cosmology, tau);
+    },
+  },
+  {
+    name: 'hardeningLifetime',
+    category: 'population',
+    summary: 'Time a circular binary takes from the hard-binary separation a_h = G m2/(4 sigma^2) to coalescence, hardened by stars (da/dt = -G rho H a^2/sigma) and by GW emission, in a mass-scaled environment.',
+    args: [
+      { name: 'environment', unit: 'environment', description: 'from hostEnvironment' },
+      { name: 'totalMass', unit: 'Msun', description: 'total mass > 0 (or a list)' },
+      { name: 'q', unit: 'dimensionless', description: 'mass ratio in (0, 1]' },
+    ],
+    returns: { unit: 'Gyr', description: 'T = I(a_h/a_t)/(A a_t), I(X) = Int_0^X x^3/(1+x^5) dx, A = G rho H/sigma, a_t where the two rates are equal' },
+    source: HARDENING_SOURCE,
+    example: 'hardeningLifetime(hostEnvironment(16), 1e9 Msun, 0.5)',
+    fn: (environment: unknown, totalMass: unknown, q: unknown) => {
+      const fn = 'hardeningLifetime';
+      const env = environmentArg(environment, fn);
+      const qq = scalarSI(q, 'dimensionless', fn, 'q');
+      if (!(qq > 0 && qq <= 1)) throw new BuiltinError(`${where(fn, 'q')} must be a mass ratio in (0, 1], got ${qq}`);
+      return elementwise(totalMass, 'mass', fn, 'totalMass', (m, arg) => {
+        if (!(m > 0) || !Number.isFinite(m)) throw new BuiltinError(`${where(fn, arg)} must be a positive mass, got ${m} kg`);
+        return quantity(guardedPhysics(fn, () => hardBinaryLifetime(m, qq, environmentOfMass(m, env.scaled))), 'Gyr');
+      });
     },
   },
 ];

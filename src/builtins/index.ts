@@ -14,6 +14,7 @@ import { arrayViewBuiltins } from './arrayView';
 import { utilityBuiltins } from './utility';
 import { realisationBuiltins } from './realisations';
 import { massFunctionCheckBuiltins } from './massFunctionCheck';
+import { galaxyPairBuiltins } from './galaxyPairs';
 
 export function allBuiltins(): Builtin[] {
   return [
@@ -21,6 +22,7 @@ export function allBuiltins(): Builtin[] {
     ...cosmologyBuiltins,
     ...populationBuiltins,
     ...massFunctionCheckBuiltins,
+    ...galaxyPairBuiltins,
     ...binaryEvolutionBuiltins,
     ...spectrumBuiltins,
     ...orbitBuiltins,

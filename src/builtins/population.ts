@@ -21,7 +21,7 @@ import { PopulationValue, ShapeValue } from './populationValue';
 import { cosmologyArg, elementwise, nonNegativeSI, populationArg, positiveSI, redshiftValue } from './physicsArgs';
 
 const MIDDLETON = 'Middleton et al. 2016, MNRAS 455, L72; mass-ratio term of Chen, Sesana & Del Pozzo 2017, arXiv:1612.00455';
-const GALAXY_ROUTE = 'Sesana 2013, MNRAS 433, L1; Chen, Sesana & Conselice 2019, arXiv:1810.04184';
+const GALAXY_ROUTE = 'Sesana 2013, MNRAS 433, L1; Chen, Sesana & Conselice 2019, MNRAS 488, 401';
 const DEFAULT_MIN_MASS = 1e6;
 const DEFAULT_MAX_MASS = 1e11;
 /** Mpc^-3 from a number density in m^-3. */
@@ -40,14 +40,14 @@ function optionalMassMsun(v: unknown, fallback: number, fn: string, arg: string)
   return v === undefined ? fallback : massMsun(v, fn, arg);
 }
 
-function massLimits(minMass: unknown, maxMass: unknown, fn: string): [number, number] {
+export function massLimits(minMass: unknown, maxMass: unknown, fn: string): [number, number] {
   const lo = optionalMassMsun(minMass, DEFAULT_MIN_MASS, fn, 'minMass');
   const hi = optionalMassMsun(maxMass, DEFAULT_MAX_MASS, fn, 'maxMass');
   if (!(hi > lo)) throw new BuiltinError(`${where(fn, 'maxMass')} must exceed minMass (${lo} Msun), got ${hi} Msun`);
   return [Math.log10(lo), Math.log10(hi)];
 }
 
-function zMaxArg(v: unknown, fn: string): number {
+export function zMaxArg(v: unknown, fn: string): number {
   const z = scalarSI(v, 'dimensionless', fn, 'zMax');
   if (!(z > 0) || z > 1e4) throw new BuiltinError(`${where(fn, 'zMax')} must be a redshift in (0, 10000], got ${z}`);
   return z;
@@ -92,11 +92,11 @@ function redshiftShapeArg(v: unknown, fn: string): RedshiftShape {
   return objectOf<ShapeValue<RedshiftShape>>(v, 'redshiftShape', fn, 'zShape').shape;
 }
 
-function massRatioArg(v: unknown, fn: string, arg = 'qShape'): MassRatioDistribution {
+export function massRatioArg(v: unknown, fn: string, arg = 'qShape'): MassRatioDistribution {
   return objectOf<ShapeValue<MassRatioDistribution>>(v, 'massRatio', fn, arg).shape;
 }
 
-class RelationValue implements SheetObject {
+export class RelationValue implements SheetObject {
   readonly kind = 'bulgeRelation';
   constructor(readonly relation: BlackHoleBulgeRelation) {}
   describe(): string {
@@ -108,7 +108,7 @@ class RelationValue implements SheetObject {
   }
 }
 
-class MassFunctionValue implements SheetObject {
+export class MassFunctionValue implements SheetObject {
   readonly kind = 'massFunction';
   constructor(readonly params: StellarMassFunctionParams) {}
   describe(): string {
@@ -445,7 +445,7 @@ export const populationBuiltins: Builtin[] = [
       { name: 'alphaPerZ', unit: 'dimensionless', description: 'd alpha / dz' },
     ],
     returns: { unit: 'massFunction', description: 'a mass function for galaxyMergerPopulation' },
-    source: 'Chen, Sesana & Conselice 2019, MNRAS, arXiv:1810.04184 (parametrisation simplified; unverified: their exact form was not compared)',
+    source: 'Chen, Sesana & Conselice 2019, MNRAS 488, 401 (parametrisation simplified; unverified: their exact form was not compared)',
     example: 'stellarMassFunction(1e-3 Mpc^-3, -0.3, 1e11 Msun, -1.1, -0.1)',
     fn: (phiStar0: unknown, log10PhiStarPerZ: unknown, breakMass: unknown, alpha0: unknown, alphaPerZ: unknown) => {
       const fn = 'stellarMassFunction';

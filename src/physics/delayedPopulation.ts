@@ -3,14 +3,15 @@
 // formation to coalescence; here only the delay is modelled (the shape of the hardening, which bends the
 // spectrum, belongs to the environment kernels). A binary formed at z_f coalesces when the universe is
 // t(z_f) + tau old; one that would coalesce after today stalls and never contributes.
-import type { FlatLambdaCdm } from './cosmology';
+import { COSMOLOGY_Z_LIMIT, type FlatLambdaCdm } from './cosmology';
 import { mergedNumberDensityBetween } from './populationSanity';
 import type { BinaryPopulation } from './populationTypes';
 import { separablePopulation } from './separablePopulation';
 
 /**
  * Redshift at which the universe was `ageS` old (inverse of FlatLambdaCdm.ageS, Hogg 1999 eq. 30):
- * safeguarded Newton steps in u = ln(1+z) inside a bracket. NaN when ageS is not in (0, age today].
+ * safeguarded Newton steps in u = ln(1+z) inside a bracket. NaN when ageS is not in (0, age today];
+ * Infinity when the universe was that young only beyond z = 1e4, where the cosmology's tables stop.
  */
 export function redshiftOfAge(cosmo: FlatLambdaCdm, ageS: number): number {
   const now = cosmo.ageS(0);
@@ -18,10 +19,16 @@ export function redshiftOfAge(cosmo: FlatLambdaCdm, ageS: number): number {
   if (ageS === now) return 0;
   let lo = 0; // u with age(u) > ageS
   let hi = 1; // grow until age(hi) < ageS
+  const uLimit = Math.log1p(COSMOLOGY_Z_LIMIT);
   while (cosmo.ageS(Math.expm1(hi)) > ageS) {
     lo = hi;
     hi *= 2;
-    if (hi > 16) return Math.expm1(hi); // older than any population reaches (z > 8.9e6)
+    if (hi >= uLimit) {
+      // The cosmology's tables stop at z = 1e4, older than any population reaches: Infinity beyond it.
+      hi = uLimit;
+      if (cosmo.ageS(COSMOLOGY_Z_LIMIT) > ageS) return Infinity;
+      break;
+    }
   }
   let u = 0.5 * (lo + hi);
   for (let i = 0; i < 100; i++) {

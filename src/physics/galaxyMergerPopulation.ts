@@ -1,5 +1,6 @@
 // Black-hole binaries from galaxy mergers (the route of Sesana 2013, MNRAS 433, L1 and Chen, Sesana &
-// Conselice 2019, arXiv:1810.04184):
+// Conselice 2019, MNRAS 488, 401; the form with mass- and ratio-dependent pairs, a time shift and a scatter
+// draw for each hole is galaxyPairRoute.ts):
 //   galaxy merger density  d^3n_G/(dz dlog10M_G dq_G) = Phi(M_G, z) f_pair(z) p(q_G) / tau(z) |dt_r/dz|,
 // with Phi a Schechter stellar mass function per dex whose log10 Phi* and alpha move linearly with z,
 // f_pair(z) = f0 (1+z)^beta_pair, tau(z) = tau0 (1+z)^beta_tau (the forms of Chen, Sesana & Conselice

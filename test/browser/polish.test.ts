@@ -8,7 +8,7 @@ import { PROJECT_ROOT } from './appServer';
 import { browserAvailability } from './chromiumBrowser';
 import { ARTIFACTS, startAppSession, type AppSession } from './appSession';
 import { download } from './pageHelpers';
-import { readSvgFigure } from '../support/svgFigure';
+import { inside, readSvgFigure } from '../support/svgFigure';
 import { FIGURE_SIZES } from '../../web/plots/figureSizes';
 import { unicodeText } from '../../web/plots/figureText';
 
@@ -175,5 +175,89 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     expect(Math.max(Math.abs(screenSolid.rgb[0] - r), Math.abs(screenSolid.rgb[1] - g), Math.abs(screenSolid.rgb[2] - b)), `colour ${screenSolid.rgb}`).toBeLessThanOrEqual(40);
     await page.screenshot({ path: join(ARTIFACTS, 'map-legend.png') });
     await page.click('[data-tab="plots"]');
+  });
+
+  it('never clips a breakdown plot’s long y-axis title: wrapped on screen and in the exported figure, all of its text kept', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    const figure = '[data-plot^="origin:"]';
+    await page.waitForSelector(`${figure} canvas[data-y-title-lines]`);
+    const plots = await page.$$eval(figure, (els) => els.map((e) => e.getAttribute('data-plot')));
+    expect(plots.length, 'the demo has signal-origin breakdowns').toBeGreaterThan(0);
+    for (const id of plots) {
+      const sel = `[data-plot="${id}"]`;
+      await page.$eval(sel, (el) => el.scrollIntoView({ block: 'center' }));
+      // The re-layout after wrapping happens on the next tick: wait until the lines are stable.
+      await page.waitForFunction((q) => {
+        const c = document.querySelector(`${q} canvas`) as HTMLCanvasElement | null;
+        const w = window as unknown as { lastLines?: string };
+        const now = c?.dataset.yTitleLines;
+        const same = now !== undefined && w.lastLines === now;
+        w.lastLines = now;
+        return same;
+      }, sel, { polling: 100 });
+      const lines = JSON.parse((await page.getAttribute(`${sel} canvas`, 'data-y-title-lines')) ?? '[]') as string[];
+      expect(lines.join(' '), id!).toMatch(/^fraction of h_c² per (unit redshift|dex of chirp mass)$/);
+      // Ink of the y title (the canvas's left strip, where nothing else is drawn) stays inside the
+      // canvas: it neither touches the top nor the bottom edge.
+      const ink = await page.$eval(
+        `${sel} canvas`,
+        (el, n) => {
+          const canvas = el as HTMLCanvasElement;
+          const r = canvas.width / canvas.clientWidth;
+          const w = Math.round((4 + n * 17) * r);
+          const img = canvas.getContext('2d')!.getImageData(0, 0, w, canvas.height);
+          const rows: number[] = [];
+          for (let y = 0; y < canvas.height; y++) {
+            for (let x = 0; x < w; x++) {
+              const i = 4 * (y * w + x);
+              if (img.data[i] < 160 && img.data[i + 1] < 160 && img.data[i + 2] < 160) {
+                rows.push(y);
+                break;
+              }
+            }
+          }
+          return { first: rows[0] / r, last: rows.at(-1)! / r, height: canvas.height / r, inked: rows.length };
+        },
+        lines.length,
+      );
+      expect(ink.inked, `${id}: the title is drawn`).toBeGreaterThan(20);
+      expect(ink.first, `${id}: ${JSON.stringify(ink)}`).toBeGreaterThan(2);
+      expect(ink.last, `${id}: ${JSON.stringify(ink)}`).toBeLessThan(ink.height - 2);
+      // The figure writer wraps the same title to fit the plot's height, inside the page.
+      for (const size of ['column', 'double'] as const) {
+        await page.selectOption(`${sel} select[data-figure-size]`, size);
+        const svg = readSvgFigure((await download(page, () => page.click(`${sel} [data-action="export-svg"]`))).bytes.toString('utf8'));
+        expect(svg.yTitle.h, `${id} ${size}`).toBeLessThanOrEqual(svg.plot.h + 1e-6);
+        expect(inside(svg.yTitle, { x: 0, y: 0, w: svg.viewBox[2], h: svg.viewBox[3] }), `${id} ${size}`).toBe(true);
+      }
+    }
+    await page.screenshot({ path: join(ARTIFACTS, 'breakdown-titles.png') });
+  });
+
+  it('keeps the key-results bar to one short row at 1400 and 1920 px, with A_yr whole and every full value in its card’s title', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    await page.waitForFunction(() => document.querySelector('[data-key-value="comparison"]')?.getAttribute('data-raw')?.includes(':'));
+    for (const viewport of [{ width: 1400, height: 900 }, { width: 1920, height: 1080 }]) {
+      await page.setViewportSize(viewport);
+      const bar = await page.$eval('.key-results', (el) => {
+        const cards = [...el.querySelectorAll<HTMLElement>('.key-result')];
+        return {
+          height: el.getBoundingClientRect().height,
+          tops: new Set(cards.map((c) => Math.round(c.getBoundingClientRect().top))).size,
+          ayr: (() => {
+            const v = el.querySelector<HTMLElement>('[data-key-value="A_yr"]')!;
+            return { clipped: v.scrollHeight > v.clientHeight + 1 || v.scrollWidth > v.clientWidth + 1 };
+          })(),
+          titles: cards.map((c) => ({ title: c.title, raw: c.querySelector('.key-value')?.getAttribute('data-raw'), name: c.dataset.keyResult })),
+        };
+      });
+      expect(bar.tops, `${viewport.width} px: cards in one row`).toBe(1);
+      expect(bar.height, `${viewport.width} px: bar height`).toBeLessThan(viewport.height / 6);
+      expect(bar.ayr.clipped, `${viewport.width} px: A_yr shown whole`).toBe(false);
+      for (const c of bar.titles) expect(c.title).toBe(`${c.name}: ${c.raw}`);
+    }
+    await page.setViewportSize({ width: 1400, height: 900 });
   });
 });

@@ -56,6 +56,30 @@ describe('demo orbits section', () => {
     expect(Math.abs(rho / (sigma ** 6 / (2 * Math.PI * G_SI ** 3 * M * M)) - 1)).toBeLessThan(1e-12);
   });
 
+  it('reference_lifetime lies between the closed-form bounds T_inf - 1/(A a_h) and T_inf = pi/(5 sin(4 pi/5)) / (A a_t) (Int_0^inf x^3/(1+x^5) dx, common practice, no source), with A = G rho H / sigma (Quinlan 1996) and a_t, a_h = G m2/(4 sigma^2) from the cells', () => {
+    const M = siOf(value('reference_mass'));
+    const q = 0.5;
+    const rho = siOf(value('reference_density'));
+    const sigma = siOf(value('reference_dispersion'));
+    const H = Number(value('hardening_H'));
+    const m1 = M / (1 + q);
+    const m2 = M - m1;
+    const A = (G_SI * rho * H) / sigma;
+    const aT = Math.pow(((64 / 5) * G_SI ** 3 * m1 * m2 * M) / (C_SI ** 5 * A), 1 / 5);
+    const aH = (G_SI * m2) / (4 * sigma * sigma);
+    const tInf = Math.PI / (5 * Math.sin((4 * Math.PI) / 5)) / (A * aT);
+    const T = siOf(value('reference_lifetime'));
+    expect(T).toBeLessThan(tInf);
+    expect(T).toBeGreaterThan(tInf - 1 / (A * aH));
+  });
+
+  it('hardening delays (all far below binary_lifetime here) stall fewer binaries than the fixed binary_lifetime and lower A_yr less (the same binaries, shorter delays)', () => {
+    expect(siOf(value('reference_lifetime'))).toBeLessThan(siOf(value('binary_lifetime')));
+    expect(Number(value('stalled_share_hardened'))).toBeLessThan(Number(value('stalled_share')));
+    expect(Number(value('A_yr_hardened'))).toBeGreaterThan(Number(value('A_yr_delayed')));
+    expect(Number(value('A_yr_hardened'))).toBeLessThanOrEqual(Number(value('A_yr')));
+  });
+
   it('eccentric A_yr is within 1% of the circular one: at f_yr the orbits started at 1 nHz have circularised (e falls as f^(-19/18) at small e, Peters 1964)', () => {
     const ratio = Number(value('A_yr_eccentric')) / Number(value('A_yr'));
     expect(Math.abs(ratio - 1)).toBeLessThan(1e-2);

@@ -2,7 +2,7 @@
 // PDF, PNG at 300 dpi; figureExport.ts) and the plotted data (CSV).
 import { createEffect, createSignal, For, onCleanup, onMount, Show, type Accessor } from 'solid-js';
 import { Chart } from 'chart.js';
-import { attachModel, chartConfig } from './chartConfig';
+import { attachModel, chartConfig, resetAxisTitles } from './chartConfig';
 import type { PlotModel } from './plotModel';
 import { figurePdf, figurePng, figureSvg } from './figureExport';
 import { FIGURE_SIZE_IDS, FIGURE_SIZES, type FigureSizeId } from './figureSizes';
@@ -26,6 +26,7 @@ export function PlotView(props: { model: Accessor<PlotModel>; onMessage?: (text:
       chart.data = next.data as never;
       chart.options = next.options as never;
       attachModel(chart, model);
+      resetAxisTitles(chart);
       chart.update('none');
       // The labelled ticks the chart shows, for comparison with the exported figure (browser tests).
       for (const axis of ['x', 'y'] as const) {

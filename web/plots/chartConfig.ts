@@ -162,6 +162,61 @@ export function datasetsFor(model: PlotModel): ChartDataset<'line', Point[]>[] {
   return sets;
 }
 
+/** Font size of the axis titles on screen (px). */
+const AXIS_TITLE_PX = 13;
+
+/** Splits a title at spaces into lines no wider than `room` (a word longer than that keeps its own line). */
+export function wrapTitle(text: string, room: number, measure: (s: string) => number): string[] {
+  const words = text.split(/\s+/).filter(Boolean);
+  const lines: string[] = [];
+  for (const w of words) {
+    const last = lines.at(-1);
+    if (last !== undefined && measure(`${last} ${w}`) <= room) lines[lines.length - 1] = `${last} ${w}`;
+    else lines.push(w);
+  }
+  return lines.length ? lines : [text];
+}
+
+/**
+ * Axis titles never clipped: after a layout, a title longer than its axis (the y title of a short
+ * plot, say) is wrapped onto lines that fit, and the chart is laid out once more. The lines are
+ * kept on the canvas (data-y-title-lines) for the browser tests.
+ */
+const wrapAxisTitles: Plugin<'line'> = {
+  id: 'strainsheetWrapAxisTitles',
+  afterLayout(chart) {
+    const { ctx, chartArea } = chart;
+    let changed = false;
+    for (const id of ['x', 'y'] as const) {
+      const title = chart.options.scales?.[id]?.title as { text?: string | string[]; font?: { size?: number } } | undefined;
+      if (!title?.text) continue;
+      const full = fullTitles.get(chart)?.[id] ?? (Array.isArray(title.text) ? title.text.join(' ') : title.text);
+      fullTitles.set(chart, { ...fullTitles.get(chart), [id]: full });
+      const room = (id === 'y' ? chartArea.bottom - chartArea.top : chartArea.right - chartArea.left) - 4;
+      if (!(room > 0)) continue;
+      ctx.save();
+      ctx.font = `${title.font?.size ?? AXIS_TITLE_PX}px ${Chart.defaults.font.family}`;
+      const lines = ctx.measureText(full).width <= room ? [full] : wrapTitle(full, room, (s) => ctx.measureText(s).width);
+      ctx.restore();
+      const now = Array.isArray(title.text) ? title.text : [title.text];
+      if (now.length !== lines.length || now.some((l, i) => l !== lines[i])) {
+        title.text = lines.length === 1 ? lines[0] : lines;
+        changed = true;
+      }
+      if (id === 'y') chart.canvas.dataset.yTitleLines = JSON.stringify(lines);
+    }
+    if (changed) queueMicrotask(() => chart.update('none'));
+  },
+};
+
+/** The whole title of each axis, before wrapping (the options hold the wrapped lines). */
+const fullTitles = new WeakMap<object, { x?: string; y?: string }>();
+
+/** Forgets the wrapped titles of a chart (call when it shows a new model). */
+export function resetAxisTitles(chart: object): void {
+  fullTitles.delete(chart);
+}
+
 /** Font size of the legend on screen (px). */
 const LEGEND_FONT_PX = 12;
 
@@ -206,7 +261,7 @@ function scaleFor(model: PlotModel, which: 'x' | 'y') {
     type: axis.scale === 'log' ? ('logarithmic' as const) : ('linear' as const),
     min: lo * f,
     max: hi * f,
-    title: { display: true, text: unicodeText(axis.label), color: '#1f2a36', font: { size: 13 } },
+    title: { display: true, text: unicodeText(axis.label), color: '#1f2a36', font: { size: AXIS_TITLE_PX } },
     // Grid lines at the major ticks only; tick marks at every tick (minor ones too).
     grid: {
       color: (ctx: { tick?: { value: number } }) => (ctx.tick && majors.has(ctx.tick.value) ? '#e6e3dc' : 'rgba(0, 0, 0, 0)'),
@@ -228,7 +283,7 @@ export function chartConfig(model: PlotModel, opts: { devicePixelRatio?: number;
   return {
     type: 'line',
     data: { datasets: datasetsFor(model) },
-    plugins: [whitePage, heatmapLayer],
+    plugins: [whitePage, heatmapLayer, wrapAxisTitles],
     options: {
       animation: false,
       responsive: opts.responsive ?? true,

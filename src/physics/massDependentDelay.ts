@@ -1,0 +1,136 @@
+// Binaries whose time from formation (the galaxy merger, at the population's redshift) to coalescence
+// depends on their mass and mass ratio, e.g. the hardening lifetime of hardeningLifetime.ts. For each
+// (M, q) the map z_f -> z_c is that of a fixed lifetime (delayedPopulation.ts): a binary formed when the
+// universe was t(z_f) old coalesces at t(z_c) = t(z_f) + tau(M, q) (Hogg 1999 for t(z)), counted per unit
+// coalescence redshift with dn/dz_c = dn/dz_f |dt/dz|(z_c) / |dt/dz|(z_f); those reaching past today stall.
+import type { FlatLambdaCdm } from './cosmology';
+import { redshiftOfAge } from './delayedPopulation';
+import { redshiftAtAge } from './ageInverse';
+import { compositeNodes } from './gaussLegendre';
+import { checkPopulation } from './backgroundIntegral';
+import type { BinaryPopulation } from './populationTypes';
+
+/** Lifetime from formation to coalescence, s, of a binary of log10(M/Msun) and q. */
+export type LifetimeOf = (log10M: number, q: number) => number;
+
+/** The smallest and largest lifetime on a grid of 33 masses x 9 mass ratios spanning the population. */
+export function lifetimeRange(base: BinaryPopulation, lifetimeOf: LifetimeOf): { min: number; max: number } {
+  let min = Infinity;
+  let max = -Infinity;
+  for (let i = 0; i <= 32; i++) {
+    const lg = base.log10MMin + ((base.log10MMax - base.log10MMin) * i) / 32;
+    for (let j = 0; j <= 8; j++) {
+      const q = base.qMin + ((base.qMax - base.qMin) * j) / 8;
+      const t = lifetimeOf(lg, q);
+      if (!(t >= 0 && Number.isFinite(t))) throw new RangeError(`lifetime must be finite and >= 0, got ${t} s at log10 M = ${lg}, q = ${q}`);
+      min = Math.min(min, t);
+      max = Math.max(max, t);
+    }
+  }
+  return { min, max };
+}
+
+/** Remembers the lifetime at each (log10M, q) node the integrators ask for (they reuse their nodes). */
+function cachedLifetime(lifetimeOf: LifetimeOf): LifetimeOf {
+  const cache = new Map<number, Map<number, number>>();
+  return (lg, q) => {
+    let row = cache.get(lg);
+    if (!row) {
+      if (cache.size > 2048) cache.clear();
+      row = new Map();
+      cache.set(lg, row);
+    }
+    let t = row.get(q);
+    if (t === undefined) {
+      t = lifetimeOf(lg, q);
+      if (!(t >= 0 && Number.isFinite(t))) throw new RangeError(`lifetime must be finite and >= 0, got ${t} s at log10 M = ${lg}, q = ${q}`);
+      row.set(q, t);
+    }
+    return t;
+  };
+}
+
+/**
+ * The population by coalescence redshift when each binary's lifetime is lifetimeOf(log10M, q). The
+ * redshift range covers every coalescence (shortest lifetime from the earliest formation to the longest
+ * from the latest); the density is 0 where a binary's formation redshift falls outside the base range, so
+ * it has a step inside the range for each (M, q). Not separable even when the base is.
+ */
+export function delayedPopulationByMass(base: BinaryPopulation, cosmo: FlatLambdaCdm, lifetimeOf: LifetimeOf): BinaryPopulation {
+  checkPopulation(base);
+  const range = lifetimeRange(base, lifetimeOf);
+  if (range.max === 0) return base; // no delay: the population unchanged
+  // The range comes from a grid; widen it so that lifetimes between grid points stay inside the limits.
+  const min = 0.95 * range.min;
+  const max = 1.05 * range.max;
+  const tau = cachedLifetime(lifetimeOf);
+  const now = cosmo.ageS(0);
+  const masses = { log10MMin: base.log10MMin, log10MMax: base.log10MMax, qMin: base.qMin, qMax: base.qMax };
+  const tEarliest = cosmo.ageS(base.zMax) + min;
+  if (!(tEarliest < now)) return { ...masses, zMin: base.zMin, zMax: base.zMax, density: () => 0 };
+  const tLatest = cosmo.ageS(base.zMin) + max;
+  const limits = { ...masses, zMin: tLatest < now ? redshiftOfAge(cosmo, tLatest) : 0, zMax: redshiftOfAge(cosmo, tEarliest) };
+  // The integrators ask for every (M, q) at one z before moving on: remember t(z_c) and |dt/dz|(z_c).
+  let lastZ = NaN;
+  let lastAge = NaN;
+  let lastDtdz = NaN;
+  return {
+    ...limits,
+    density: (zc, log10M, q) => {
+      if (zc < limits.zMin || zc > limits.zMax) return 0;
+      if (zc !== lastZ) {
+        lastZ = zc;
+        lastAge = cosmo.ageS(zc);
+        lastDtdz = cosmo.dtdzS(zc);
+      }
+      const t = tau(log10M, q);
+      const zf = t === 0 ? zc : redshiftAtAge(cosmo, lastAge - t);
+      if (!(zf >= base.zMin && zf <= base.zMax)) return 0; // NaN (before the big bang) or outside the formation range
+      return base.density(zf, log10M, q) * (lastDtdz / cosmo.dtdzS(zf));
+    },
+  };
+}
+
+/** Nodes per dimension for the stalled share: 4 panels of 8 Gauss-Legendre points in z, log10M and q. */
+const PANELS = 4;
+const ORDER = 8;
+
+/**
+ * Share (by number) of the base population's binaries whose lifetime carries them past today: for each
+ * (M, q) those formed below z_stall = z(t_0 - tau(M, q)), all of them when tau exceeds the age t_0.
+ */
+export function stalledFractionByMass(base: BinaryPopulation, cosmo: FlatLambdaCdm, lifetimeOf: LifetimeOf): number {
+  checkPopulation(base);
+  const now = cosmo.ageS(0);
+  const mr = compositeNodes(base.log10MMin, base.log10MMax, PANELS, ORDER);
+  const qr = compositeNodes(base.qMin, base.qMax, PANELS, ORDER);
+  const zAll = compositeNodes(base.zMin, base.zMax, PANELS, ORDER);
+  let total = 0;
+  let stalled = 0;
+  for (let a = 0; a < mr.nodes.length; a++) {
+    for (let b = 0; b < qr.nodes.length; b++) {
+      const lg = mr.nodes[a];
+      const q = qr.nodes[b];
+      const w = mr.weights[a] * qr.weights[b];
+      let all = 0;
+      for (let c = 0; c < zAll.nodes.length; c++) all += zAll.weights[c] * base.density(zAll.nodes[c], lg, q);
+      total += w * all;
+      const t = lifetimeOf(lg, q);
+      if (!(t >= 0 && Number.isFinite(t))) throw new RangeError(`lifetime must be finite and >= 0, got ${t} s at log10 M = ${lg}, q = ${q}`);
+      if (t === 0) continue;
+      const zStall = redshiftOfAge(cosmo, now - t);
+      if (Number.isNaN(zStall)) {
+        stalled += w * all; // the lifetime exceeds the age of the universe
+        continue;
+      }
+      const hi = Math.min(base.zMax, zStall);
+      if (!(hi > base.zMin)) continue;
+      const zr = compositeNodes(base.zMin, hi, PANELS, ORDER);
+      let part = 0;
+      for (let c = 0; c < zr.nodes.length; c++) part += zr.weights[c] * base.density(zr.nodes[c], lg, q);
+      stalled += w * part;
+    }
+  }
+  if (!(total > 0)) return 0;
+  return Math.min(1, stalled / total);
+}
