@@ -12,23 +12,25 @@ import { plotFigure } from '../../web/plots/svgWriter';
 import { FIGURE_SIZE_IDS, FIGURE_SIZES, type FigureSizeId } from '../../web/plots/figureSizes';
 import type { VerticalQuantity } from '../../web/plots/spectrumPlotModel';
 import type { PlotModel } from '../../web/plots/plotModel';
-import { amplitudeGammaPosteriors, freeSpectra, sheetFreeSpectrumModel } from '../../web/plots/sheetFreeSpectrumModel';
+import { amplitudeGammaPosteriors, freeSpectra, realisationCells, sheetFreeSpectrumModel, sheetRealisationModel } from '../../web/plots/sheetFreeSpectrumModel';
 import { sheetAmplitudeGammaModel } from '../../web/plots/sheetAmplitudeGammaModel';
 import type { FreeSpectrumAxis } from '../../web/plots/freeSpectrumPlotModel';
 
 const QUANTITIES: VerticalQuantity[] = ['hc', 'omega', 'psd'];
 const FREE_SPECTRUM_AXES: FreeSpectrumAxis[] = ['hc', 'rho', 'psd'];
 /** The plots every sheet may have (the breakdowns come with the sheet). */
-const MEASUREMENT_PLOTS = ['free-spectrum', 'amplitude-gamma'];
+const MEASUREMENT_PLOTS = ['free-spectrum', 'amplitude-gamma', 'realisations'];
 
 const USAGE = `strainsheet plot FILE [--plot NAME] [--quantity hc|omega|psd] [--size SIZE] (--svg OUT | --pdf OUT)... [--set name=formula]...
 
 Draws one of the app's plots of the sheet FILE as a figure file.
   --plot NAME          spectrum (default); free-spectrum (violins per bin with the model spectra);
                        amplitude-gamma (measured 68%/95% contours with each model's fitted point);
+                       realisations (bands of a realiseBackground cell, single realisations, loudest
+                       binaries, with the free spectrum's violins);
                        or a breakdown the sheet has (see the error for the names)
   --quantity Q         vertical axis of the spectrum: hc (h_c, default), omega (Omega_gw), psd (residual power);
-                       of the free spectrum: hc (default), rho (rho_k), psd
+                       of the free spectrum and realisations: hc (default), rho (rho_k), psd
   --size SIZE          ${FIGURE_SIZE_IDS.map((s) => `${s} (${FIGURE_SIZES[s].label})`).join(', ')}; default column
   --svg OUT            write an SVG 1.1 file
   --pdf OUT            write a vector PDF with its font embedded
@@ -54,7 +56,7 @@ export const plotCommand: Command = {
     if (!FIGURE_SIZE_IDS.includes(size as FigureSizeId)) throw new UsageError(`--size must be one of ${FIGURE_SIZE_IDS.join(', ')}, got "${size}"`);
     const plot = one('plot', 'spectrum');
     const quantity = one('quantity', 'hc');
-    const allowed: string[] = plot === 'free-spectrum' ? FREE_SPECTRUM_AXES : QUANTITIES;
+    const allowed: string[] = plot === 'free-spectrum' || plot === 'realisations' ? FREE_SPECTRUM_AXES : QUANTITIES;
     if (!allowed.includes(quantity)) throw new UsageError(`--quantity must be one of ${allowed.join(', ')} for the ${plot} plot, got "${quantity}"`);
     const svgOut = one('svg', '');
     const pdfOut = one('pdf', '');
@@ -64,10 +66,16 @@ export const plotCommand: Command = {
     const reader = { cells: sheet.cells(), valueOf: (n: string) => sheet.value(n), stateOf: (n: string) => sheet.state(n) };
     let model: PlotModel | null | undefined;
     if (plot === 'spectrum') model = sheetSpectrumModel(reader, quantity as VerticalQuantity);
-    else if (plot === 'free-spectrum' || plot === 'amplitude-gamma') {
-      model = plot === 'free-spectrum' ? sheetFreeSpectrumModel(reader, quantity as FreeSpectrumAxis) : sheetAmplitudeGammaModel(reader);
+    else if (MEASUREMENT_PLOTS.includes(plot)) {
+      const axis = quantity as FreeSpectrumAxis;
+      model = plot === 'free-spectrum' ? sheetFreeSpectrumModel(reader, axis) : plot === 'realisations' ? sheetRealisationModel(reader, axis) : sheetAmplitudeGammaModel(reader);
       if (!model) {
-        const what = plot === 'free-spectrum' ? 'a measured free spectrum (measuredFreeSpectrum)' : 'a measured (A, gamma) posterior (measuredAmplitudeGamma or amplitudeGammaGaussian)';
+        const what =
+          plot === 'free-spectrum'
+            ? 'a measured free spectrum (measuredFreeSpectrum)'
+            : plot === 'realisations'
+              ? 'realisations (realiseBackground)'
+              : 'a measured (A, gamma) posterior (measuredAmplitudeGamma or amplitudeGammaGaussian)';
         io.err(`strainsheet plot: ${opts.positional[0]} has no cell holding ${what}, so there is no ${plot} plot\n`);
         return EXIT_CELL_ERROR;
       }
@@ -75,7 +83,7 @@ export const plotCommand: Command = {
       const all = breakdownModels(reader.cells, reader.valueOf);
       model = all.find((m) => m.id === plot);
       if (!model) {
-        const measured = MEASUREMENT_PLOTS.filter((p) => (p === 'free-spectrum' ? freeSpectra(reader) : amplitudeGammaPosteriors(reader)).length > 0);
+        const measured = MEASUREMENT_PLOTS.filter((p) => (p === 'free-spectrum' ? freeSpectra(reader) : p === 'realisations' ? realisationCells(reader) : amplitudeGammaPosteriors(reader)).length > 0);
         io.err(`strainsheet plot: this sheet has no plot "${plot}"; it has: ${['spectrum', ...measured, ...all.map((m) => m.id)].join(', ')}\n`);
         return EXIT_BAD_INPUT;
       }

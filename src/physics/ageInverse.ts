@@ -1,10 +1,11 @@
-// Redshift at which the universe had a given age, fast: a table of ln t(u), u = ln(1+z), inverted by
-// cubic Hermite interpolation and polished by one Newton step on the exact age (Hogg 1999, eq. 30, via
-// FlatLambdaCdm.ageS). For populations that need z(t) at many (redshift, lifetime) pairs.
+// Redshift at which the universe had a given age, fast: a table of ln t(u), u = ln(1+z), with its exact
+// derivative (Hogg 1999, eq. 30, via FlatLambdaCdm.ageS and dtdzS), inverted by cubic Hermite
+// interpolation (relative error in z below 1e-11, tested). For populations that need z(t) at many
+// (redshift, lifetime) pairs.
 import { COSMOLOGY_Z_LIMIT, type FlatLambdaCdm } from './cosmology';
 
 /** Table points in u = ln(1+z) from 0 to ln(1 + 1e4). */
-const POINTS = 2048;
+const POINTS = 8192;
 
 interface AgeTable {
   lnAge: Float64Array; // decreasing in u
@@ -60,9 +61,6 @@ export function redshiftAtAge(cosmo: FlatLambdaCdm, ageS: number): number {
   const h10 = s * (1 - s) * (1 - s);
   const h01 = s * s * (3 - 2 * s);
   const h11 = s * s * (s - 1);
-  let u = h00 * lo * step + h10 * h * slope[lo] + h01 * hi * step + h11 * h * slope[hi];
-  // One Newton step on the exact age: d t / du = -(1+z) |dt/dz|.
-  const z = Math.min(COSMOLOGY_Z_LIMIT, Math.max(0, Math.expm1(u)));
-  u = Math.log1p(z) - (cosmo.ageS(z) - ageS) / (-(1 + z) * cosmo.dtdzS(z));
-  return Math.max(0, Math.expm1(u));
+  const u = h00 * lo * step + h10 * h * slope[lo] + h01 * hi * step + h11 * h * slope[hi];
+  return Math.min(COSMOLOGY_Z_LIMIT, Math.max(0, Math.expm1(u)));
 }

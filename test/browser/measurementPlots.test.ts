@@ -137,4 +137,25 @@ describe.runIf(runSuite)('free-spectrum and (A, gamma) plots in the browser', { 
     expect(medians.length).toBe(2);
     expect(pageErrors).toEqual([]);
   });
+  it('draws the realisations of a realiseBackground cell with the free spectrum’s violins, following the axis switch', async () => {
+    const demo = JSON.parse(DEMO_TEXT);
+    const text = JSON.stringify({ ...demo, title: 'realisations plot', cells: [...demo.cells, { name: 'real', formula: 'realiseBackground(pop, freqs, array_span, 30, 2)' }] });
+    await page.setInputFiles('input[data-action="open-file"]', { name: 'real.json', mimeType: 'application/json', buffer: Buffer.from(text) });
+    const RE = '[data-plot="realisations"]';
+    await page.waitForSelector(`${RE} canvas`, { timeout: 60_000 });
+    await page.waitForFunction((sel) => (document.querySelector(sel) as HTMLElement | null)?.dataset.legend?.includes('30 realisations'), RE);
+    expect(await legend(RE)).toEqual(
+      expect.arrayContaining(['real (30 realisations, seed 2): 95% of realisations', '3 single realisations', 'loudest binary per bin: its own h_c (median)', 'measured_free_spectrum: posterior per bin (density)']),
+    );
+    await page.locator(RE).scrollIntoViewIfNeeded();
+    const ink = await canvasInk(page, `${RE} canvas`);
+    expect(ink.inked / ink.total).toBeGreaterThan(0.01);
+    await page.locator(RE).screenshot({ path: join(ARTIFACTS, 'realisations.png') });
+    const before = await page.getAttribute(RE, 'data-y-ticks');
+    await page.check('input[name="free-spectrum-axis"][value="psd"]');
+    await page.waitForFunction(([sel, b]) => document.querySelector(sel!)?.getAttribute('data-y-ticks') !== b, [RE, before]);
+    const csv = await download(page, () => page.click(`${RE} [data-action="export-csv"]`));
+    expect(csv.bytes.toString('utf8').split('\r\n')[0]).toContain('timing-residual power P(f) (s^3)');
+    expect(pageErrors).toEqual([]);
+  });
 });

@@ -234,4 +234,30 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     }
     await page.screenshot({ path: join(ARTIFACTS, 'breakdown-titles.png') });
   });
+
+  it('keeps the key-results bar to one short row at 1400 and 1920 px, with A_yr whole and every full value in its card’s title', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    await page.waitForFunction(() => document.querySelector('[data-key-value="comparison"]')?.getAttribute('data-raw')?.includes(':'));
+    for (const viewport of [{ width: 1400, height: 900 }, { width: 1920, height: 1080 }]) {
+      await page.setViewportSize(viewport);
+      const bar = await page.$eval('.key-results', (el) => {
+        const cards = [...el.querySelectorAll<HTMLElement>('.key-result')];
+        return {
+          height: el.getBoundingClientRect().height,
+          tops: new Set(cards.map((c) => Math.round(c.getBoundingClientRect().top))).size,
+          ayr: (() => {
+            const v = el.querySelector<HTMLElement>('[data-key-value="A_yr"]')!;
+            return { clipped: v.scrollHeight > v.clientHeight + 1 || v.scrollWidth > v.clientWidth + 1 };
+          })(),
+          titles: cards.map((c) => ({ title: c.title, raw: c.querySelector('.key-value')?.getAttribute('data-raw'), name: c.dataset.keyResult })),
+        };
+      });
+      expect(bar.tops, `${viewport.width} px: cards in one row`).toBe(1);
+      expect(bar.height, `${viewport.width} px: bar height`).toBeLessThan(viewport.height / 6);
+      expect(bar.ayr.clipped, `${viewport.width} px: A_yr shown whole`).toBe(false);
+      for (const c of bar.titles) expect(c.title).toBe(`${c.name}: ${c.raw}`);
+    }
+    await page.setViewportSize({ width: 1400, height: 900 });
+  });
 });

@@ -108,6 +108,30 @@ describe('strainsheet plot: free spectrum and (A, gamma) plane', { timeout: 120_
     expect(pdf.texts.map((t) => t.text)).toContain('yr');
   });
 
+  it('realisations of a realiseBackground cell with the free spectrum’s violins: legend inside the page, ρ axis', async () => {
+    const svgPath = join(dir, 'real.svg');
+    const r = await run([DEMO, '--plot', 'realisations', '--quantity', 'rho', '--set', 'real=realiseBackground(pop, freqs, array_span, 40, 3)', '--svg', svgPath]);
+    expect(r.code, r.err).toBe(0);
+    const fig = readSvgFigure(readFileSync(svgPath, 'utf8'));
+    expect(fig.legend.map((l) => l.label)).toEqual([
+      'real (40 realisations, seed 3): 95% of realisations',
+      'real (40 realisations, seed 3): 68% of realisations',
+      'real (40 realisations, seed 3): median',
+      'smooth spectrum (average over universes)',
+      '3 single realisations',
+      'loudest binary per bin: its own h_c (median)',
+      'measured_free_spectrum: posterior per bin (density)',
+      'measured_free_spectrum: posterior median per bin',
+    ]);
+    expect(fig.text).toContain('residual amplitude ρk (s)');
+    expect(fig.text).toContain('its own hc (median)');
+    checkLogTicks(fig, 'y');
+    checkLayout(fig);
+    const none = await run([DEMO, '--plot', 'realisations', '--svg', join(dir, 'x.svg')]);
+    expect(none.code).toBe(1);
+    expect(none.err).toMatch(/has no cell holding realisations \(realiseBackground\)/);
+  });
+
   it('a sheet without the measurement gets a clear error, and the wrong axis for the plot is refused', async () => {
     const r = await run([SMALL, '--plot', 'free-spectrum', '--svg', join(dir, 'x.svg')]);
     expect(r.code).toBe(1);

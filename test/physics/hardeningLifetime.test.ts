@@ -84,13 +84,13 @@ function coalescing(pop: BinaryPopulation): number {
 }
 
 describe('a lifetime that depends on mass and mass ratio, fed into the population', () => {
-  it('a constant lifetime gives the fixed-lifetime population (delayedPopulation, checked against astropy) and its stalled share, to 1e-12', () => {
+  it('a constant lifetime gives the fixed-lifetime population (delayedPopulation, checked against astropy) to 1e-9 (the fast age inverse is good to 1e-11 in z) and its stalled share to 1e-12', () => {
     const tau = 3 * GYR_S;
     const byMass = delayedPopulationByMass(base, cosmo, () => tau);
     const fixed = delayedPopulation(base, cosmo, tau);
     for (const [z, lg, q] of [[0.1, 8, 0.5], [1, 9.5, 0.1], [0.5, 7, 1]]) {
       expect(fixed.density(z, lg, q)).toBeGreaterThan(0);
-      expect(rel(byMass.density(z, lg, q), fixed.density(z, lg, q))).toBeLessThan(1e-12);
+      expect(rel(byMass.density(z, lg, q), fixed.density(z, lg, q))).toBeLessThan(1e-9);
     }
     expect(rel(stalledFractionByMass(base, cosmo, () => tau), stalledFraction(base, cosmo, tau))).toBeLessThan(1e-12);
   });
@@ -131,7 +131,7 @@ describe('a lifetime that depends on mass and mass ratio, fed into the populatio
   });
 });
 
-describe('fast inverse of the age (table, cubic Hermite, one Newton step)', () => {
+describe('fast inverse of the age (table with exact slopes, cubic Hermite)', () => {
   it('equals the bracketed Newton inverse redshiftOfAge (checked against astropy z_at_value) to 1e-11 from 1e-5 of the age to today', async () => {
     const { redshiftAtAge } = await import('../../src/physics/ageInverse');
     const { redshiftOfAge } = await import('../../src/physics/delayedPopulation');

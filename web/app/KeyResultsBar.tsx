@@ -45,6 +45,9 @@ export function keepPicks(previous: KeyResult[], cells: CellSpec[], fresh: KeyRe
   return fresh;
 }
 
+/** Values up to this many characters are shown whole; longer ones keep to two lines in one row of cards. */
+const SHORT_VALUE = 32;
+
 export function KeyResultsBar() {
   const services = useServices();
   const { session } = services;
@@ -74,10 +77,10 @@ export function KeyResultsBar() {
               }
             };
             return (
-              <button type="button" class={`key-result ${st().status}`} data-key-result={name} onClick={() => services.focusCell(name)}>
+              <button type="button" class={`key-result ${st().status}`} classList={{ short: text().length <= SHORT_VALUE }} data-key-result={name} title={`${name}: ${text()}`} onClick={() => services.focusCell(name)}>
                 <span class="key-role">{role}</span>
                 <span class="key-name">{name}</span>
-                <span class="key-value" data-key-value={name} data-raw={text()} title={text()}>
+                <span class="key-value" data-key-value={name} data-raw={text()}>
                   <ScientificText text={text()} />
                 </span>
               </button>

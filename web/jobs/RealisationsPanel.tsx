@@ -9,6 +9,7 @@ import { CellSelect } from './CellSelect';
 import { coreCount, JobStatusView, wholeIn } from './JobStatusView';
 import { RealisationTable } from './RealisationTable';
 import { realisationRunModel } from './realisationRunModel';
+import { freeSpectra } from '../plots/sheetFreeSpectrumModel';
 import type { RealiseJobResult } from './realiseRun';
 import { PlotView } from '../plots/PlotView';
 import { realisationBinsCsv } from '../../src/statistics/realisationReport';
@@ -115,7 +116,7 @@ export function RealisationsPanel() {
             <button type="button" data-action="export-realisations-csv" onClick={() => exportCsv(r())}>
               Export CSV
             </button>
-            <PlotView model={() => realisationRunModel(r())} height={320} onMessage={(t) => services.notify(t, 'error')} />
+            <PlotView model={() => realisationRunModel(r(), freeSpectra({ cells: session.cells(), valueOf: (n) => session.value(n) }).map((f) => ({ label: f.name, data: f.data }))[0])} height={320} onMessage={(t) => services.notify(t, 'error')} />
             <RealisationTable result={r()} />
           </div>
         )}

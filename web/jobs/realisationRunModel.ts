@@ -1,8 +1,11 @@
-// A realisations run of the worker as the realisation bands of the spectrum plot's model
-// (web/plots/spectrumPlotModel.ts): the same bands, smooth spectrum, single realisations and
-// loudest binaries that a realiseBackground cell draws there.
+// A realisations run of the worker as a figure: the realisation plot of web/plots (bands, smooth
+// spectrum, single realisations, loudest binaries, the free spectrum's violins) that a
+// realiseBackground cell draws in the Plots panel, and the bands for the spectrum plot.
 import type { PlotModel } from '../plots/plotModel';
-import { spectrumPlotModel, type RealisationBands } from '../plots/spectrumPlotModel';
+import type { RealisationBands } from '../plots/spectrumPlotModel';
+import { realisationPlotModel, realisationViewOfRun } from '../plots/realisationPlotModel';
+import type { FreeSpectrumAxis } from '../plots/freeSpectrumPlotModel';
+import type { FreeSpectrumData } from '../../src/statistics/freeSpectrum';
 import type { RealiseJobResult } from './realiseRun';
 
 export function realisationBandsOfRun(r: RealiseJobResult): RealisationBands {
@@ -21,12 +24,11 @@ export function realisationBandsOfRun(r: RealiseJobResult): RealisationBands {
   };
 }
 
-export function realisationRunModel(r: RealiseJobResult): PlotModel {
-  const m = spectrumPlotModel({ quantity: 'hc', curves: [], realisations: [realisationBandsOfRun(r)], measured: [], bins: [], h0PerS: null, notes: [] });
-  return {
-    ...m,
-    id: 'realisation-run',
-    title: `Realisations of ${r.cell}: h_c per bin`,
-    notes: [`Bands: central 68.27% and 95.45% of ${r.count} realisations per bin (seed ${r.seed}, threshold ${r.threshold}); dots: the loudest binary's own h_c, median over realisations.`],
-  };
+/**
+ * The figure of a run: the realisation plot (web/plots/realisationPlotModel.ts), the same one a
+ * realiseBackground cell gets in the Plots panel, with the sheet's free spectrum as violins when given.
+ */
+export function realisationRunModel(r: RealiseJobResult, freeSpectrum?: { label: string; data: FreeSpectrumData }, quantity: FreeSpectrumAxis = 'hc'): PlotModel {
+  const m = realisationPlotModel({ quantity, view: realisationViewOfRun(r), freeSpectrum });
+  return { ...m, id: 'realisation-run', title: `Realisations of ${r.cell}: h_c per bin (seed ${r.seed})` };
 }

@@ -1,11 +1,13 @@
 // The plots of the measured spectrum in the Plots panel: the free spectrum (violins per bin, with
-// the live and pinned model spectra) with its own choice of vertical axis, and the (A, gamma) plane
-// (measured contours, each model's fitted point). Shown when the sheet holds such measurements.
+// the live and pinned model spectra) with its own choice of vertical axis, the (A, gamma) plane
+// (measured contours, each model's fitted point), and the realisations of a realiseBackground cell
+// (bands, single realisations, loudest binaries, with the violins, on the same axis). Each is shown
+// when the sheet holds what it draws.
 import { createMemo, createSignal, For, Show, type Accessor } from 'solid-js';
 import { PlotView } from './PlotView';
 import type { StrainCurve } from './spectrumPlotModel';
 import type { SheetReader } from './sheetSpectrumModel';
-import { sheetFreeSpectrumModel } from './sheetFreeSpectrumModel';
+import { sheetFreeSpectrumModel, sheetRealisationModel } from './sheetFreeSpectrumModel';
 import { sheetAmplitudeGammaModel } from './sheetAmplitudeGammaModel';
 import type { FreeSpectrumAxis, StrainBand } from './freeSpectrumPlotModel';
 import type { FittedCloud } from './amplitudeGammaPlotModel';
@@ -34,6 +36,8 @@ export function MeasurementPlots(props: {
     }
   };
   const freeSpectrum = createMemo(() => safely('free-spectrum', () => sheetFreeSpectrumModel(props.reader(), axis(), props.pinned(), props.bands?.() ?? [], props.spectra())));
+  // Realisations of a realiseBackground cell, with the free spectrum's violins, on the same axis.
+  const realisations = createMemo(() => safely('realisation', () => sheetRealisationModel(props.reader(), axis())));
   const amplitudeGamma = createMemo(() => safely('(A, gamma)', () => sheetAmplitudeGammaModel(props.reader(), props.pinned(), props.clouds?.() ?? [], props.spectra())));
   return (
     <>
@@ -55,6 +59,7 @@ export function MeasurementPlots(props: {
         )}
       </Show>
       <Show when={amplitudeGamma()}>{(m) => <PlotView model={m} onMessage={props.onMessage} />}</Show>
+      <Show when={realisations()}>{(m) => <PlotView model={m} onMessage={props.onMessage} />}</Show>
     </>
   );
 }

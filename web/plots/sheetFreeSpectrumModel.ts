@@ -1,5 +1,5 @@
-// The measurements of a sheet the free-spectrum and (A, gamma) plots draw: free spectra with their
-// samples and (A, gamma) posteriors, read from the cells' values (the engine's own SheetObjects:
+// The measurements of a sheet the free-spectrum, (A, gamma) and realisation plots draw: free spectra
+// with their samples, (A, gamma) posteriors and realisations, read from the cells' values (the engine's own SheetObjects:
 // src/builtins/freeSpectrumObjects.ts), so the plots show exactly what the comparison uses.
 import { isSheetObject } from '../engine/engine';
 import type { FreeSpectrumData } from '../../src/statistics/freeSpectrum';
@@ -9,6 +9,8 @@ import { spectrumCurves } from './sheetSpectrumModel';
 import { freeSpectrumPlotModel, type FreeSpectrumAxis, type StrainBand } from './freeSpectrumPlotModel';
 import type { StrainCurve } from './spectrumPlotModel';
 import type { PlotModel } from './plotModel';
+import type { RealisationSummary } from '../../src/statistics/realisationSummary';
+import { loudestOwnHc, realisationPlotModel, SINGLES_DRAWN, type RealisationView } from './realisationPlotModel';
 
 export interface NamedFreeSpectrum {
   name: string;
@@ -57,4 +59,54 @@ export function sheetFreeSpectrumModel(
   if (!fs) return null;
   const notes = all.length > 1 ? [`The sheet has ${all.length} free spectra; this plot shows ${fs.name}.`] : [];
   return freeSpectrumPlotModel({ quantity, label: fs.name, data: fs.data, curves: [...spectra, ...extra], bands, notes });
+}
+
+/** What the realisation plot reads of a realiseBackground value (src/builtins/realisations.ts RealisationsValue). */
+interface RealisationsLike {
+  kind: 'realisations';
+  seed: number;
+  summary: RealisationSummary;
+  setup: { spanS: number };
+  cells: { bins: { frequencyHz: number }[] };
+  draws: { hc: Float64Array; count: number };
+  smoothHc(): Float64Array;
+}
+
+/** A realisations cell's value as the realisation plot's view (the same shape a worker run gives, web/jobs). */
+export function realisationViewOfValue(name: string, v: RealisationsLike): RealisationView {
+  const f = v.cells.bins.map((b) => b.frequencyHz);
+  const nb = f.length;
+  const shown = Math.min(SINGLES_DRAWN, v.draws.count);
+  return {
+    label: `${name} (${v.summary.realisations} realisations, seed ${v.seed})`,
+    frequencyHz: f,
+    spanS: v.setup.spanS,
+    smoothHc: v.smoothHc(),
+    summary: v.summary,
+    singles: Array.from({ length: shown }, (_, r) => v.draws.hc.subarray(r * nb, (r + 1) * nb)),
+    loudestHc: loudestOwnHc(v.summary, f, v.setup.spanS),
+  };
+}
+
+/** Every cell holding realisations (realiseBackground). */
+export function realisationCells(sheet: Pick<SheetReader, 'cells' | 'valueOf'>): { name: string; view: RealisationView }[] {
+  const out: { name: string; view: RealisationView }[] = [];
+  for (const c of sheet.cells) {
+    const v = sheet.valueOf(c.name);
+    if (!isSheetObject(v) || v.kind !== 'realisations') continue;
+    const r = v as unknown as RealisationsLike;
+    if (r.summary && r.setup && r.cells && r.draws && typeof r.smoothHc === 'function') out.push({ name: c.name, view: realisationViewOfValue(c.name, r) });
+  }
+  return out;
+}
+
+/** The realisation figure of a sheet (its first realisations cell, or the one named) with its first free spectrum, or null. */
+export function sheetRealisationModel(sheet: SheetReader, quantity: FreeSpectrumAxis, which?: string): PlotModel | null {
+  const all = realisationCells(sheet);
+  const r = which ? all.find((x) => x.name === which) : all[0];
+  if (!r) return null;
+  const fs = freeSpectra(sheet)[0];
+  const model = realisationPlotModel({ quantity, view: r.view, freeSpectrum: fs ? { label: fs.name, data: fs.data } : undefined });
+  if (all.length > 1) model.notes.push(`The sheet has ${all.length} realisations cells; this plot shows ${r.name}.`);
+  return model;
 }
