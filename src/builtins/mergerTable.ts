@@ -6,6 +6,7 @@ import type { CellSpec } from '../sheet/types';
 import { tabulatedPopulation } from '../physics/tabulatedPopulation';
 import { decodeDensityTable, encodeDensityTable, TableEncodingError } from '../statistics/mergerTableEncoding';
 import { importMergerTable } from '../statistics/mergerTableImport';
+import { DEFAULT_EVENT_BINNING, importMergerEvents, type EventBinning } from '../statistics/mergerEventsImport';
 import { kindOf, where } from './args';
 import { cosmologyArg } from './physicsArgs';
 import { PopulationValue } from './populationValue';
@@ -22,13 +23,26 @@ export function mergerTableCell(name: string, text: string, file: string): CellS
   };
 }
 
+/** The cell holding the histogram of the merger events in `text` (file `file`); throws ImportError naming file, line and column. */
+export function mergerEventsCell(name: string, text: string, file: string, binning: EventBinning = DEFAULT_EVENT_BINNING): CellSpec {
+  const r = importMergerEvents(text, file, binning);
+  const t = r.table;
+  const base = file.split(/[\\/]/).pop() ?? file;
+  return {
+    name,
+    formula: `mergerTable("${encodeDensityTable(t)}")`,
+    note: `${r.events} merger events read from ${base} (${r.totalWeight.toPrecision(6)} Mpc^-3 in all), binned into ${binning.zBins} z x ${binning.massBins} mass x ${binning.qBins} q bins (z 0 to ${t.z[t.z.length - 1].toPrecision(4)}, log10 M ${t.log10M[0].toFixed(1)} to ${t.log10M[t.log10M.length - 1].toFixed(1)}, q ${t.q[0].toPrecision(3)} to 1)`,
+    section: 'population',
+  };
+}
+
 export const mergerTableBuiltins: Builtin[] = [
   {
     name: 'mergerTable',
     category: 'population',
-    summary: 'A population from a table of d^3n/(dz dlog10M dq) on a grid of z, log10 M (total mass, Msun) and q, stored in the sheet; trilinear in ln n between nodes (in n when a value is 0), 0 outside the grid.',
+    summary: 'A population from a table of d^3n/(dz dlog10M dq) on a grid of z, log10 M (total mass, Msun) and q, stored in the sheet; trilinear in ln n between nodes (in n when a value is 0), 0 outside the grid; or from binned merger events (mh1;..., constant in each bin).',
     args: [
-      { name: 'table', unit: 'text', description: 'the encoded table (mt1;...), written by `strainsheet import --kind merger-table`' },
+      { name: 'table', unit: 'text', description: 'the encoded table (mt1;... or mh1;...), written by `strainsheet import --kind merger-table` or `--kind merger-events`' },
       { name: 'cosmology', unit: 'cosmology', description: 'needed only by mergerRateDensityAt and for Omega_gw', optional: true },
     ],
     returns: { unit: 'population', description: 'a binary population for every population built-in (spectrum, counts per bin, realisations, checks)' },
@@ -41,7 +55,8 @@ export const mergerTableBuiltins: Builtin[] = [
       try {
         const t = decodeDensityTable(table);
         const pop = tabulatedPopulation(t);
-        return new PopulationValue(pop, `merger table (${t.z.length} x ${t.log10M.length} x ${t.q.length} nodes)`, { zNodes: t.z.length, massNodes: t.log10M.length, qNodes: t.q.length }, cosmo);
+        const label = t.binned ? `binned merger events (${t.z.length - 1} x ${t.log10M.length - 1} x ${t.q.length - 1} bins)` : `merger table (${t.z.length} x ${t.log10M.length} x ${t.q.length} nodes)`;
+        return new PopulationValue(pop, label, { zNodes: t.z.length, massNodes: t.log10M.length, qNodes: t.q.length }, cosmo);
       } catch (e) {
         if (e instanceof TableEncodingError || e instanceof RangeError) throw new BuiltinError(`${where(fn, 'table')}: ${e.message}`);
         throw e;

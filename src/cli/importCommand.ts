@@ -9,12 +9,13 @@ import { SheetLoadError } from './sheetLoading';
 import { parseSheetFile, serializeSheetFile, SheetFileError } from '../sheet/sheetFile';
 import { Sheet } from '../sheet/sheet';
 import { measurementCell, type MeasurementKind } from '../builtins/measurementCells';
-import { mergerTableCell } from '../builtins/mergerTable';
+import { mergerEventsCell, mergerTableCell } from '../builtins/mergerTable';
+import { DEFAULT_EVENT_BINNING, type EventBinning } from '../statistics/mergerEventsImport';
 import { ImportError } from '../statistics/importText';
 import type { ImportedQuantity } from '../statistics/freeSpectrumImport';
 import { math } from '../sheet/mathInstance';
 
-const USAGE = `strainsheet import SHEET DATA --as NAME --kind free-spectrum|amplitude-gamma|merger-table [options]
+const USAGE = `strainsheet import SHEET DATA --as NAME --kind free-spectrum|amplitude-gamma|merger-table|merger-events [options]
 
 Reads measured posterior samples from DATA (CSV or JSON) and stores them inside SHEET as the cell
 NAME (added, or its formula replaced). Layouts are described in docs/freeSpectrum.md.
@@ -23,6 +24,8 @@ NAME (added, or its formula replaced). Layouts are described in docs/freeSpectru
   --kind amplitude-gamma   CSV with columns log10_A (or A) and gamma
   --kind merger-table      CSV z,log10_M_Msun,q,density_Mpc^-3 (d^3n/(dz dlog10M dq) on a grid, z slowest,
                            q fastest; docs/mergerTables.md), stored as a population cell
+  --kind merger-events     CSV z,log10_M_Msun,q,weight_Mpc^-3 (one merger per row), binned into a population
+  --bins Z,M,Q             bins in z, log10 M and q for merger-events (default 16,24,8)
   --quantity Q             free spectrum values: log10_rho (default), log10_hc, rho or hc
   --prior LO:HI            uniform prior of the analysis on the sampled quantity, divided out
   --span T                 span of the data with a unit (default 1/f_1), e.g. 14yr
@@ -36,6 +39,13 @@ function quantityOf(v: string | undefined): ImportedQuantity | undefined {
   if (v === undefined) return undefined;
   if (!['log10_rho', 'log10_hc', 'rho', 'hc'].includes(v)) throw new UsageError(`--quantity must be log10_rho, log10_hc, rho or hc, got "${v}"`);
   return v as ImportedQuantity;
+}
+
+function binningOf(v: string | undefined): EventBinning {
+  if (v === undefined) return DEFAULT_EVENT_BINNING;
+  const parts = v.split(',').map((p) => Number(p.trim()));
+  if (parts.length !== 3 || !parts.every((n) => Number.isInteger(n) && n >= 1 && n <= 1000)) throw new UsageError(`--bins needs three whole numbers Z,M,Q (bins in z, log10 M, q), e.g. 16,24,8; got "${v}"`);
+  return { zBins: parts[0], massBins: parts[1], qBins: parts[2] };
 }
 
 function siOf(text: string | undefined, base: string, option: string): number | undefined {
@@ -52,7 +62,7 @@ export const importCommand: Command = {
   summary: 'store measured posterior samples (free spectrum or (A, gamma)) or a table of merger densities inside a sheet',
   usage: USAGE,
   async run(args, io) {
-    const opts = parseOptions(args, { flags: ['help', 'thin'], values: ['as', 'kind', 'quantity', 'prior', 'span', 'fref', 'output'] });
+    const opts = parseOptions(args, { flags: ['help', 'thin'], values: ['as', 'kind', 'quantity', 'prior', 'span', 'fref', 'output', 'bins'] });
     if (opts.flags.has('help')) {
       io.out(USAGE + '\n');
       return EXIT_OK;
@@ -61,8 +71,9 @@ export const importCommand: Command = {
     const [sheetPath, dataPath] = opts.positional;
     const name = opts.values.get('as')?.[0];
     if (!name) throw new UsageError('--as NAME is required: the cell that will hold the data');
-    const kind = opts.values.get('kind')?.[0] as MeasurementKind | 'merger-table' | undefined;
-    if (kind !== 'free-spectrum' && kind !== 'amplitude-gamma' && kind !== 'merger-table') throw new UsageError('--kind must be free-spectrum, amplitude-gamma or merger-table');
+    const kind = opts.values.get('kind')?.[0] as MeasurementKind | 'merger-table' | 'merger-events' | undefined;
+    if (kind !== 'free-spectrum' && kind !== 'amplitude-gamma' && kind !== 'merger-table' && kind !== 'merger-events') throw new UsageError('--kind must be free-spectrum, amplitude-gamma, merger-table or merger-events');
+    const binning = binningOf(opts.values.get('bins')?.[0]);
     let prior: { lower: number; upper: number } | undefined;
     const p = opts.values.get('prior')?.[0];
     if (p !== undefined) {
@@ -91,7 +102,7 @@ export const importCommand: Command = {
     }
     let cell;
     try {
-      cell = kind === 'merger-table' ? mergerTableCell(name, dataText, dataPath) : measurementCell(name, dataText, dataPath, {
+      cell = kind === 'merger-table' ? mergerTableCell(name, dataText, dataPath) : kind === 'merger-events' ? mergerEventsCell(name, dataText, dataPath, binning) : measurementCell(name, dataText, dataPath, {
         kind,
         quantity: quantityOf(opts.values.get('quantity')?.[0]),
         spanS: siOf(opts.values.get('span')?.[0], 's', '--span'),

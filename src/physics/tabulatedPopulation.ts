@@ -10,8 +10,12 @@ export interface DensityTable {
   z: Float64Array;
   log10M: Float64Array;
   q: Float64Array;
-  /** Values at (z[i], log10M[j], q[k]) at index (i * log10M.length + j) * q.length + k, Mpc^-3. */
+  /**
+   * Values at (z[i], log10M[j], q[k]) at index (i * log10M.length + j) * q.length + k, Mpc^-3; when
+   * `binned`, the axes are bin edges and the values are the mean density of each bin (one fewer per axis).
+   */
   density: Float64Array;
+  binned?: boolean;
 }
 
 /** Problems of a table's shape and values, or undefined when it is a valid grid. */
@@ -25,8 +29,9 @@ export function tableProblem(t: DensityTable): string | undefined {
   }
   if (!(t.z[0] >= 0)) return `redshifts must be >= 0, got ${t.z[0]}`;
   if (!(t.q[0] > 0 && t.q[t.q.length - 1] <= 1)) return `mass ratios must lie in (0, 1], got ${t.q[0]} to ${t.q[t.q.length - 1]}`;
-  const n = t.z.length * t.log10M.length * t.q.length;
-  if (t.density.length !== n) return `the grid has ${n} nodes but ${t.density.length} values`;
+  const d = t.binned ? 1 : 0;
+  const n = (t.z.length - d) * (t.log10M.length - d) * (t.q.length - d);
+  if (t.density.length !== n) return `the grid has ${n} ${t.binned ? 'bins' : 'nodes'} but ${t.density.length} values`;
   for (let i = 0; i < n; i++) if (!(t.density[i] >= 0 && t.density[i] < Infinity)) return `value ${i + 1} is ${t.density[i]}; densities must be finite and >= 0`;
   return undefined;
 }
@@ -46,6 +51,7 @@ function cellOf(axis: Float64Array, x: number): number {
 export function tabulatedPopulation(t: DensityTable): BinaryPopulation {
   const problem = tableProblem(t);
   if (problem) throw new RangeError(problem);
+  if (t.binned) return binnedPopulation(t);
   const logMode = t.density.every((v) => v > 0);
   const g = logMode ? t.density.map(Math.log) : t.density;
   const nm = t.log10M.length;
@@ -71,6 +77,27 @@ export function tabulatedPopulation(t: DensityTable): BinaryPopulation {
       const alongM = (a: number) => alongQ(a, j) + tm * (alongQ(a, j + 1) - alongQ(a, j));
       const v = alongM(i) + tz * (alongM(i + 1) - alongM(i));
       return logMode ? Math.exp(v) : v;
+    },
+  };
+}
+
+/** A histogram: the density is constant inside each bin (its mean), 0 outside the edges. */
+function binnedPopulation(t: DensityTable): BinaryPopulation {
+  const { z, log10M, q } = t;
+  const nm = log10M.length - 1;
+  const nq = q.length - 1;
+  const last = (a: Float64Array) => a[a.length - 1];
+  const bin = (a: Float64Array, x: number) => Math.min(cellOf(a, x), a.length - 2);
+  return {
+    zMin: z[0],
+    zMax: last(z),
+    log10MMin: log10M[0],
+    log10MMax: last(log10M),
+    qMin: q[0],
+    qMax: last(q),
+    density(zz, x, qq) {
+      if (!(zz >= z[0] && zz <= last(z) && x >= log10M[0] && x <= last(log10M) && qq >= q[0] && qq <= last(q))) return 0;
+      return t.density[(bin(z, zz) * nm + bin(log10M, x)) * nq + bin(q, qq)];
     },
   };
 }

@@ -1,6 +1,8 @@
 // Text encoding of a density table so that it lives inside the sheet file, as the argument of
 // mergerTable("mt1;..."), our own format:
 //   mt1;z=<nodes>;log10M=<nodes>;q=<nodes>;density=<base64url of the float64 values, little-endian>
+// and for a histogram of merger events (bin edges, one mean density per bin):
+//   mh1;z=<edges>;log10M=<edges>;q=<edges>;density=<...>
 // Nodes are written as the shortest text that reads back as the same number; values keep all 64 bits.
 import type { DensityTable } from '../physics/tabulatedPopulation';
 
@@ -52,12 +54,13 @@ export function encodeDensityTable(t: DensityTable): string {
   const view = new DataView(bytes.buffer);
   t.density.forEach((v, i) => view.setFloat64(8 * i, v, true));
   const nodes = (a: Float64Array) => Array.from(a, (x) => String(x)).join(',');
-  return `mt1;z=${nodes(t.z)};log10M=${nodes(t.log10M)};q=${nodes(t.q)};density=${toBase64Url(bytes)}`;
+  return `${t.binned ? 'mh1' : 'mt1'};z=${nodes(t.z)};log10M=${nodes(t.log10M)};q=${nodes(t.q)};density=${toBase64Url(bytes)}`;
 }
 
 export function decodeDensityTable(text: string): DensityTable {
   const parts = text.split(';');
-  if (parts[0] !== 'mt1') throw new TableEncodingError(`expected text starting "mt1;" (made by \`strainsheet import --kind merger-table\`), found "${text.slice(0, 12)}"`);
+  if (parts[0] !== 'mt1' && parts[0] !== 'mh1') throw new TableEncodingError(`expected text starting "mt1;" or "mh1;" (made by \`strainsheet import --kind merger-table\` or \`merger-events\`), found "${text.slice(0, 12)}"`);
+  const binned = parts[0] === 'mh1';
   const fields = new Map<string, string>();
   for (const p of parts.slice(1)) {
     const eq = p.indexOf('=');
@@ -76,10 +79,12 @@ export function decodeDensityTable(text: string): DensityTable {
   const q = axis('q');
   const d = fields.get('density');
   if (d === undefined) throw new TableEncodingError('the field density= is missing');
-  const count = z.length * log10M.length * q.length;
+  const d0 = binned ? 1 : 0;
+  const count = (z.length - d0) * (log10M.length - d0) * (q.length - d0);
+  if (!(count > 0)) throw new TableEncodingError(`the grid needs at least 2 ${binned ? 'edges' : 'nodes'} on each axis`);
   const bytes = fromBase64Url(d, count * 8);
   const view = new DataView(bytes.buffer);
   const density = new Float64Array(count);
   for (let i = 0; i < count; i++) density[i] = view.getFloat64(8 * i, true);
-  return { z, log10M, q, density };
+  return binned ? { z, log10M, q, density, binned } : { z, log10M, q, density };
 }

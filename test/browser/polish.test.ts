@@ -10,7 +10,7 @@ import { ARTIFACTS, startAppSession, type AppSession } from './appSession';
 import { download } from './pageHelpers';
 import { inside, readSvgFigure } from '../support/svgFigure';
 import { FIGURE_SIZES } from '../../web/plots/figureSizes';
-import { unicodeText } from '../../web/plots/figureText';
+import { richRuns, unicodeText } from '../../web/plots/figureText';
 
 const availability = browserAvailability();
 const runSuite = availability.ok || availability.required;
@@ -259,5 +259,30 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
       for (const c of bar.titles) expect(c.title).toBe(`${c.name}: ${c.raw}`);
     }
     await page.setViewportSize({ width: 1400, height: 900 });
+  });
+
+  it('sets titles on screen in the trade’s notation, as the figures do: h_c and Ω_gw with subscripts, nothing upper-cased', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    const canvas = '[data-plot="spectrum"] canvas';
+    await page.waitForSelector(`${canvas}[data-y-title-runs]`);
+    const runsOf = async (sel: string, attr: string) => (JSON.parse((await page.getAttribute(sel, attr)) ?? '[]') as { text: string; shift: string }[][]).flat();
+    // richRuns is the figure writer's notation (figureText.ts, tested in figureText.test.ts).
+    expect(await runsOf(canvas, 'data-y-title-runs')).toEqual(richRuns('characteristic strain h_c'));
+    await page.click('input[name="quantity"][value="omega"]');
+    await page.waitForFunction((c) => document.querySelector(c)?.getAttribute('data-y-title-runs')?.includes('"gw"'), canvas);
+    const omega = await runsOf(canvas, 'data-y-title-runs');
+    expect(omega).toContainEqual({ text: 'gw', shift: 'sub' });
+    expect(omega.map((r) => r.text).join('')).not.toMatch(/_|Omega/);
+    // The switch's labels too: Ω with a subscript gw in the page's text.
+    expect(await page.$eval('input[name="quantity"][value="omega"]', (el) => el.parentElement!.innerHTML)).toMatch(/Ω<sub>gw<\/sub>/);
+    await page.click('input[name="quantity"][value="hc"]');
+    // Breakdown plot titles: "h_c²" as h with subscript c and the square.
+    const origin = '[data-plot^="origin:"] canvas';
+    await page.waitForSelector(`${origin}[data-title-runs]`);
+    const title = (JSON.parse((await page.getAttribute(origin, 'data-title-runs')) ?? '[]') as { text: string; shift: string }[]);
+    expect(title).toContainEqual({ text: 'c', shift: 'sub' });
+    // ... while a cell name in it stays as written (z_origin, mc_origin).
+    expect(title.filter((r) => r.shift === 'normal').map((r) => r.text).join('')).toMatch(/\((z|mc)_origin\)$/);
   });
 });

@@ -15,6 +15,7 @@ import type { BinaryPopulation } from '../../src/physics/populationTypes';
 import { tabulatedPopulation, type DensityTable } from '../../src/physics/tabulatedPopulation';
 import { decodeDensityTable, encodeDensityTable } from '../../src/statistics/mergerTableEncoding';
 import { importMergerTable } from '../../src/statistics/mergerTableImport';
+import { importMergerEvents } from '../../src/statistics/mergerEventsImport';
 import { ImportError } from '../../src/statistics/importText';
 import { main } from '../../src/cli/main';
 import { Sheet } from '../../src/sheet/sheet';
@@ -160,5 +161,77 @@ describe('merger-table CSV', () => {
     expect(code2).toBe(2);
     expect(err.join('')).toMatch(/rates\.csv, line 5, column 4/);
     expect(readFileSync(sheetPath, 'utf8')).toBe(before);
+  });
+});
+
+describe('merger events with weights', () => {
+  // "Events" from an invented analytic density: one per cell of a fine grid, at the cell's centre,
+  // weighted by the density times the cell's volume (midpoint rule).
+  const analytic = phenomenologicalPopulation({ rateNorm: 1e-3, alpha: 0.3, cutoffMass: 3e9, beta: 2, z0: 1.5, redshiftWeight: (z) => redshiftShape(z, 2, 1.5), zMax: 3, log10MMin: 6, log10MMax: 10.5, massRatio: powerLawMassRatio(-0.5, 0.05), cosmology: cosmo });
+  function eventsCsv(nz: number, nm: number, nq: number): { text: string; total: number } {
+    const lines = ['z,log10_M_Msun,q,weight_Mpc^-3'];
+    const dz = 3 / nz;
+    const dm = 4.5 / nm;
+    const dq = 0.95 / nq;
+    let total = 0;
+    for (let i = 0; i < nz; i++) for (let j = 0; j < nm; j++) for (let k = 0; k < nq; k++) {
+      const z = (i + 0.5) * dz;
+      const x = 6 + (j + 0.5) * dm;
+      const q = 0.05 + (k + 0.5) * dq;
+      const w = analytic.density(z, x, q) * dz * dm * dq;
+      total += w;
+      lines.push(`${z},${x},${q},${w}`);
+    }
+    return { text: lines.join('\n'), total };
+  }
+  it('binning keeps the number of mergers exactly and the bins span the events', () => {
+    const { text, total } = eventsCsv(12, 18, 6);
+    const r = importMergerEvents(text, 'events.csv', { zBins: 6, massBins: 9, qBins: 3 });
+    const t = r.table;
+    expect(t.binned).toBe(true);
+    const vol = ((t.z[6] - t.z[0]) / 6) * ((t.log10M[9] - t.log10M[0]) / 9) * ((t.q[3] - t.q[0]) / 3);
+    const sum = t.density.reduce((s, v) => s + v, 0) * vol;
+    expect(Math.abs(sum / total - 1)).toBeLessThan(1e-12);
+    expect(r.events).toBe(12 * 18 * 6);
+    expect(Array.from(decodeDensityTable(encodeDensityTable(t)).density)).toEqual(Array.from(t.density));
+  });
+  it('the binned population approaches the analytic spectrum as the bins shrink', () => {
+    const freqs = [3e-9, 2e-8];
+    const resolution = { zPanels: 12, log10MPanels: 36, qPanels: 6, order: 8 };
+    const ref = characteristicStrainSquared(analytic, freqs, { resolution });
+    const { text } = eventsCsv(24, 72, 12);
+    const errorWith = (b: { zBins: number; massBins: number; qBins: number }) => {
+      const pop = tabulatedPopulation(importMergerEvents(text, 'events.csv', b).table);
+      const got = characteristicStrainSquared(pop, freqs, { resolution });
+      return Math.max(...Array.from(got, (v, i) => Math.abs(v / ref[i] - 1)));
+    };
+    const coarse = errorWith({ zBins: 6, massBins: 9, qBins: 3 });
+    const fine = errorWith({ zBins: 12, massBins: 36, qBins: 6 });
+    expect(fine, `coarse ${coarse.toExponential(2)}, fine ${fine.toExponential(2)}`).toBeLessThan(0.5 * coarse);
+  });
+  it('refuses a negative weight, a weight without unit, a ragged row, naming file, line and column', () => {
+    const ok = 'z,log10_M_Msun,q,weight_Mpc^-3\n0.5,8,0.5,1e-5\n1,9,0.3,2e-6\n';
+    expect(() => importMergerEvents(ok.replace('2e-6', '-2e-6'), 'ev.csv')).toThrow(/ev\.csv, line 3, column 4: the weight must not be negative/);
+    expect(() => importMergerEvents(ok.replace('weight_Mpc^-3', 'weight'), 'ev.csv')).toThrow(/ev\.csv, line 1, column 4: the header "weight" has no unit/);
+    expect(() => importMergerEvents(ok.replace('1,9,0.3,2e-6', '1,9,0.3'), 'ev.csv')).toThrow(/ev\.csv, line 3: the row has 3 cells/);
+    expect(() => importMergerEvents(ok.replace('1,9,0.3', '1,nine,0.3'), 'ev.csv')).toThrow(/ev\.csv, line 3, column 2: log10_M_Msun: "nine" is not a number/);
+  });
+  it('strainsheet import --kind merger-events --bins stores a population cell', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'mergerevents-'));
+    const sheetPath = join(dir, 'sheet.json');
+    const dataPath = join(dir, 'events.csv');
+    writeFileSync(sheetPath, new Sheet({ cells: [{ name: 'freqs', formula: '[2, 4] nHz' }] }).toFileText());
+    writeFileSync(dataPath, eventsCsv(6, 9, 3).text);
+    const out: string[] = [];
+    const err: string[] = [];
+    const io = { out: (s: string) => void out.push(s), err: (s: string) => void err.push(s) };
+    const code = await main(['import', sheetPath, dataPath, '--as', 'events_pop', '--kind', 'merger-events', '--bins', '3,9,3'], io as never);
+    expect(err.join('')).toBe('');
+    expect(code).toBe(0);
+    const stored = Sheet.fromFile(readFileSync(sheetPath, 'utf8')).toFile();
+    const sheet = new Sheet({ cells: [...stored.cells, { name: 'spec', formula: 'strainSpectrum(events_pop, freqs)' }] });
+    expect(valueOf(sheet, 'spec')).toBeTruthy();
+    expect((valueOf(sheet, 'events_pop') as { describe(): string }).describe()).toMatch(/binned merger events \(3 x 9 x 3 bins\)/);
+    expect(await main(['import', sheetPath, dataPath, '--as', 'events_pop', '--kind', 'merger-events', '--bins', '3,9'], io as never)).toBe(2);
   });
 });

@@ -15,6 +15,7 @@ import { sheetFreeSpectrumModel, sheetRealisationModel } from './sheetFreeSpectr
 import { sheetAmplitudeGammaModel } from './sheetAmplitudeGammaModel';
 import type { FreeSpectrumAxis, StrainBand } from './freeSpectrumPlotModel';
 import type { FittedCloud } from './amplitudeGammaPlotModel';
+import { RichLabel } from './RichLabel';
 
 const AXES: { id: FreeSpectrumAxis; label: string }[] = [
   { id: 'hc', label: 'h_c' },
@@ -63,7 +64,7 @@ export function MeasurementPlots(props: {
               <For each={AXES}>
                 {(a) => (
                   <label>
-                    <input type="radio" name="free-spectrum-axis" value={a.id} checked={axis() === a.id} onChange={() => setAxis(a.id)} /> {a.label}
+                    <input type="radio" name="free-spectrum-axis" value={a.id} checked={axis() === a.id} onChange={() => setAxis(a.id)} /> <RichLabel text={a.label} />
                   </label>
                 )}
               </For>
