@@ -89,6 +89,12 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     expect(await formulas()).toEqual(before);
     await errors.locator('button.dismiss').click();
     await page.waitForFunction(() => document.querySelectorAll('.message.error').length === 0);
+    // The same image given as a data file is refused before any parser reads it.
+    await page.setInputFiles('input[data-action="open-data-file"]', { name: 'figure.png', mimeType: 'image/png', buffer: png });
+    await page.waitForSelector('.message.error');
+    expect(await page.textContent('.message.error .message-text')).toBe('"figure.png" was not read: it is a PNG image, not a data file (CSV or JSON). The sheet is unchanged.');
+    expect(await formulas()).toEqual(before);
+    await page.click('.message.error button.dismiss');
     expect(s.pageErrors).toEqual([]);
   });
 
