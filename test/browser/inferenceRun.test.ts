@@ -146,4 +146,21 @@ describe.runIf(runSuite)('inference in the app', { timeout: 120_000 }, () => {
     await page.waitForFunction(() => document.querySelector('[data-prior-of="rate_norm"]')?.textContent === 'prior logUniformDist(1e-5 Mpc^-3 Gyr^-1, 1e-1 Mpc^-3 Gyr^-1)');
     expect(s.pageErrors).toEqual([]);
   });
+
+  it('on the demo, offers the likelihood cell of A_yr and the measured amplitude, and samples the merger rate with its uncertainty as prior', async () => {
+    const { page } = s;
+    await s.freshDemo();
+    await page.click('[data-tab="infer"]');
+    await page.click('[data-inference-panel] [data-action="add-starter-cell"]');
+    await page.waitForSelector('[data-cell="lnL_amplitude"]');
+    expect(await page.inputValue('input[data-formula="lnL_amplitude"]')).toBe('amplitudeLogLikelihood(A_yr, measured)');
+    await page.waitForFunction(() => (document.querySelector('[data-inference-panel] select[aria-label="Likelihood cell"]') as HTMLSelectElement | null)?.value === 'lnL_amplitude');
+    // rate_norm has no prior but an uncertainty: offered unticked, with the uncertainty as its default prior.
+    expect(await page.textContent('[data-prior-of="rate_norm"]')).toMatch(/^no prior; its uncertainty lognormalDist\(/);
+    await page.check('[data-free-cell="rate_norm"] input[type="checkbox"]');
+    await fill({ walkers: '4', steps: '12', seed: '2', workers: '2' });
+    await page.click('[data-action="run-inference"]');
+    await page.waitForSelector('[data-job-result="infer"] [data-posterior="rate_norm"]', { timeout: 90_000 });
+    expect(await page.textContent('[data-job-result="infer"] .job-time')).toMatch(/4 walkers x 12 steps, seed 2, burn-in 6/);
+  });
 });

@@ -33,7 +33,7 @@ export function CornerPlot(props: { result: InferenceResult; corner: CornerModel
         </For>
       </div>
       <p class="form-hint">
-        Contours: {Math.round(model().levels[0] * 1000) / 10}% and {Math.round(model().levels[1] * 1000) / 10}% highest-density regions of the kept draws; dashed line and dots: medians.{' '}
+        Contours: {(100 * model().levels[0]).toFixed(2)}% and {(100 * model().levels[1]).toFixed(2)}% highest-density regions of the kept draws; dashed line and dots: medians.{' '}
         <button type="button" data-action="export-corner-svg" onClick={exportSvg}>
           Corner SVG
         </button>

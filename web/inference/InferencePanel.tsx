@@ -13,6 +13,8 @@ import { PosteriorTable } from './PosteriorTable';
 import { loadInferencePins, pinOf, saveInferencePins, type PinnedInference } from './inferencePins';
 import type { InferJobResult, InferJobSpec } from './inferRun';
 import { fileStem } from '../files/download';
+import { likelihoodStarter } from '../jobs/starterCells';
+import { StarterButton } from '../jobs/StarterButton';
 
 const sameNames = (a: string[], b: string[]) => a.length === b.length && a.every((x, i) => x === b[i]);
 
@@ -114,6 +116,12 @@ export function InferencePanel() {
             workers <input type="number" min="1" max="16" step="1" data-field="workers" value={workers()} onInput={(e) => setWorkers(e.currentTarget.value)} />
           </label>
         </fieldset>
+        <Show when={numberCells().length > 0 && !guessLikelihood()}>
+          <p class="form-hint">
+            No cell looks like a likelihood (ln L) yet.{' '}
+            <StarterButton starter={likelihoodStarter(session.cells(), (n) => session.value(n))} onAdded={setLikelihood} />
+          </p>
+        </Show>
         <div class="job-buttons">
           <button type="button" class="primary" data-action="run-inference" disabled={busy()} onClick={run}>
             Run inference

@@ -13,7 +13,7 @@ export function cornerAxisLabel(a: CornerAxis): string {
 }
 
 const centres = (edges: Float64Array) => Array.from({ length: edges.length - 1 }, (_, b) => (edges[b] + edges[b + 1]) / 2);
-const pct = (level: number) => `${Math.round(level * 1000) / 10}%`;
+const pct = (level: number) => `${(100 * level).toFixed(2)}%`;
 
 /** The diagonal panel of parameter i: the histogram as steps, and the median. */
 export function cornerHistogramModel(m: CornerModel, i: number): PlotModel {
