@@ -136,7 +136,7 @@ export const plotCommand: Command = {
       const { svgElementToPdf, toBase64 } = await import('../../web/plots/pdfWriter');
       const require = createRequire(import.meta.url);
       const font = toBase64(readFileSync(require.resolve('dejavu-fonts-ttf/ttf/DejaVuSans.ttf')));
-      writeFileSync(pdfOut, await svgElementToPdf(svgElementFromText(svg), layout.width, layout.height, font, model.title));
+      writeFileSync(pdfOut, await svgElementToPdf(await svgElementFromText(svg), layout.width, layout.height, font, model.title));
     }
     return EXIT_OK;
   },
