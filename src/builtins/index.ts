@@ -15,6 +15,7 @@ import { utilityBuiltins } from './utility';
 import { realisationBuiltins } from './realisations';
 import { massFunctionCheckBuiltins } from './massFunctionCheck';
 import { galaxyPairBuiltins } from './galaxyPairs';
+import { mergerTableBuiltins } from './mergerTable';
 
 export function allBuiltins(): Builtin[] {
   return [
@@ -23,6 +24,7 @@ export function allBuiltins(): Builtin[] {
     ...populationBuiltins,
     ...massFunctionCheckBuiltins,
     ...galaxyPairBuiltins,
+    ...mergerTableBuiltins,
     ...binaryEvolutionBuiltins,
     ...spectrumBuiltins,
     ...orbitBuiltins,

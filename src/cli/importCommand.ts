@@ -1,5 +1,5 @@
-// `strainsheet import SHEET DATA --as NAME --kind free-spectrum|amplitude-gamma`: reads a measurement
-// file (CSV or JSON) and stores it in the sheet as the cell NAME (added, or replaced keeping its note
+// `strainsheet import SHEET DATA --as NAME --kind free-spectrum|amplitude-gamma|merger-table`: reads a
+// measurement file (CSV or JSON) or a table of merger densities (CSV) and stores it in the sheet as the cell NAME (added, or replaced keeping its note
 // and section). On any error the sheet file is left exactly as it was.
 import { readFileSync, renameSync, writeFileSync } from 'node:fs';
 import type { Command } from './commands';
@@ -9,17 +9,23 @@ import { SheetLoadError } from './sheetLoading';
 import { parseSheetFile, serializeSheetFile, SheetFileError } from '../sheet/sheetFile';
 import { Sheet } from '../sheet/sheet';
 import { measurementCell, type MeasurementKind } from '../builtins/measurementCells';
+import { mergerEventsCell, mergerTableCell } from '../builtins/mergerTable';
+import { DEFAULT_EVENT_BINNING, type EventBinning } from '../statistics/mergerEventsImport';
 import { ImportError } from '../statistics/importText';
 import type { ImportedQuantity } from '../statistics/freeSpectrumImport';
 import { math } from '../sheet/mathInstance';
 
-const USAGE = `strainsheet import SHEET DATA --as NAME --kind free-spectrum|amplitude-gamma [options]
+const USAGE = `strainsheet import SHEET DATA --as NAME --kind free-spectrum|amplitude-gamma|merger-table|merger-events [options]
 
 Reads measured posterior samples from DATA (CSV or JSON) and stores them inside SHEET as the cell
 NAME (added, or its formula replaced). Layouts are described in docs/freeSpectrum.md.
   --kind free-spectrum     per-bin samples: wide CSV (header "2.26 nHz,4.53 nHz,..."), long CSV
                            (header "f_nHz,value") or JSON
   --kind amplitude-gamma   CSV with columns log10_A (or A) and gamma
+  --kind merger-table      CSV z,log10_M_Msun,q,density_Mpc^-3 (d^3n/(dz dlog10M dq) on a grid, z slowest,
+                           q fastest; docs/mergerTables.md), stored as a population cell
+  --kind merger-events     CSV z,log10_M_Msun,q,weight_Mpc^-3 (one merger per row), binned into a population
+  --bins Z,M,Q             bins in z, log10 M and q for merger-events (default 16,24,8)
   --quantity Q             free spectrum values: log10_rho (default), log10_hc, rho or hc
   --prior LO:HI            uniform prior of the analysis on the sampled quantity, divided out
   --span T                 span of the data with a unit (default 1/f_1), e.g. 14yr
@@ -35,6 +41,13 @@ function quantityOf(v: string | undefined): ImportedQuantity | undefined {
   return v as ImportedQuantity;
 }
 
+function binningOf(v: string | undefined): EventBinning {
+  if (v === undefined) return DEFAULT_EVENT_BINNING;
+  const parts = v.split(',').map((p) => Number(p.trim()));
+  if (parts.length !== 3 || !parts.every((n) => Number.isInteger(n) && n >= 1 && n <= 1000)) throw new UsageError(`--bins needs three whole numbers Z,M,Q (bins in z, log10 M, q), e.g. 16,24,8; got "${v}"`);
+  return { zBins: parts[0], massBins: parts[1], qBins: parts[2] };
+}
+
 function siOf(text: string | undefined, base: string, option: string): number | undefined {
   if (text === undefined) return undefined;
   try {
@@ -46,10 +59,10 @@ function siOf(text: string | undefined, base: string, option: string): number | 
 }
 
 export const importCommand: Command = {
-  summary: 'store measured posterior samples (free spectrum or (A, gamma)) inside a sheet',
+  summary: 'store measured posterior samples (free spectrum or (A, gamma)) or a table of merger densities inside a sheet',
   usage: USAGE,
   async run(args, io) {
-    const opts = parseOptions(args, { flags: ['help', 'thin'], values: ['as', 'kind', 'quantity', 'prior', 'span', 'fref', 'output'] });
+    const opts = parseOptions(args, { flags: ['help', 'thin'], values: ['as', 'kind', 'quantity', 'prior', 'span', 'fref', 'output', 'bins'] });
     if (opts.flags.has('help')) {
       io.out(USAGE + '\n');
       return EXIT_OK;
@@ -58,8 +71,9 @@ export const importCommand: Command = {
     const [sheetPath, dataPath] = opts.positional;
     const name = opts.values.get('as')?.[0];
     if (!name) throw new UsageError('--as NAME is required: the cell that will hold the data');
-    const kind = opts.values.get('kind')?.[0] as MeasurementKind | undefined;
-    if (kind !== 'free-spectrum' && kind !== 'amplitude-gamma') throw new UsageError('--kind must be free-spectrum or amplitude-gamma');
+    const kind = opts.values.get('kind')?.[0] as MeasurementKind | 'merger-table' | 'merger-events' | undefined;
+    if (kind !== 'free-spectrum' && kind !== 'amplitude-gamma' && kind !== 'merger-table' && kind !== 'merger-events') throw new UsageError('--kind must be free-spectrum, amplitude-gamma, merger-table or merger-events');
+    const binning = binningOf(opts.values.get('bins')?.[0]);
     let prior: { lower: number; upper: number } | undefined;
     const p = opts.values.get('prior')?.[0];
     if (p !== undefined) {
@@ -88,7 +102,7 @@ export const importCommand: Command = {
     }
     let cell;
     try {
-      cell = measurementCell(name, dataText, dataPath, {
+      cell = kind === 'merger-table' ? mergerTableCell(name, dataText, dataPath) : kind === 'merger-events' ? mergerEventsCell(name, dataText, dataPath, binning) : measurementCell(name, dataText, dataPath, {
         kind,
         quantity: quantityOf(opts.values.get('quantity')?.[0]),
         spanS: siOf(opts.values.get('span')?.[0], 's', '--span'),

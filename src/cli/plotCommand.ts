@@ -6,7 +6,7 @@ import type { Command } from './commands';
 import { parseOptions, UsageError } from './optionParsing';
 import { applySetOptions, loadSheet } from './sheetLoading';
 import { EXIT_BAD_INPUT, EXIT_CELL_ERROR, EXIT_OK } from './exitCodes';
-import { sheetSpectrumModel } from '../../web/plots/sheetSpectrumModel';
+import { sheetSpectrumModel, spectrumCurves } from '../../web/plots/sheetSpectrumModel';
 import { breakdownModels } from '../../web/plots/breakdownPlotModel';
 import { plotFigure } from '../../web/plots/svgWriter';
 import { FIGURE_SIZE_IDS, FIGURE_SIZES, type FigureSizeId } from '../../web/plots/figureSizes';
@@ -15,6 +15,9 @@ import type { PlotModel } from '../../web/plots/plotModel';
 import { amplitudeGammaPosteriors, freeSpectra, realisationCells, sheetFreeSpectrumModel, sheetRealisationModel } from '../../web/plots/sheetFreeSpectrumModel';
 import { sheetAmplitudeGammaModel } from '../../web/plots/sheetAmplitudeGammaModel';
 import type { FreeSpectrumAxis } from '../../web/plots/freeSpectrumPlotModel';
+import { monteCarloBands, monteCarloCloud, spectrumSampleOptions } from '../../web/plots/spectrumMonteCarlo';
+import { spectrumSampleJob, type SpectrumSampleResult } from '../statistics/spectrumMonteCarloJob';
+import { runChunkedJob } from '../jobs/runChunks';
 
 const QUANTITIES: VerticalQuantity[] = ['hc', 'omega', 'psd'];
 const FREE_SPECTRUM_AXES: FreeSpectrumAxis[] = ['hc', 'rho', 'psd'];
@@ -22,6 +25,7 @@ const FREE_SPECTRUM_AXES: FreeSpectrumAxis[] = ['hc', 'rho', 'psd'];
 const MEASUREMENT_PLOTS = ['free-spectrum', 'amplitude-gamma', 'realisations'];
 
 const USAGE = `strainsheet plot FILE [--plot NAME] [--quantity hc|omega|psd] [--size SIZE] (--svg OUT | --pdf OUT)... [--set name=formula]...
+                 [--monte-carlo N [--seed S] [--spectrum CELL]]
 
 Draws one of the app's plots of the sheet FILE as a figure file.
   --plot NAME          spectrum (default); free-spectrum (violins per bin with the model spectra);
@@ -35,13 +39,17 @@ Draws one of the app's plots of the sheet FILE as a figure file.
   --svg OUT            write an SVG 1.1 file
   --pdf OUT            write a vector PDF with its font embedded
   --set name=formula   replace a cell's formula, or add the cell (repeatable)
+  --monte-carlo N      free-spectrum and amplitude-gamma plots: draw the uncertain cells N times and
+                       add the spectrum's 68%/95% band per bin and the cloud of fitted (A, gamma) points
+  --seed S             seed of that Monte Carlo (default 1; the same seed gives the same figure)
+  --spectrum CELL      the spectrum cell the Monte Carlo draws (default: spectrum, else the first)
 Exit status: 0 written, 1 the plot has nothing to draw, 2 bad file or command line.`;
 
 export const plotCommand: Command = {
   summary: 'draw a plot of a sheet as an SVG or PDF figure',
   usage: USAGE,
   async run(args, io) {
-    const opts = parseOptions(args, { flags: ['help'], values: ['plot', 'quantity', 'size', 'svg', 'pdf', 'set'] });
+    const opts = parseOptions(args, { flags: ['help'], values: ['plot', 'quantity', 'size', 'svg', 'pdf', 'set', 'monte-carlo', 'seed', 'spectrum'] });
     if (opts.flags.has('help')) {
       io.out(USAGE + '\n');
       return EXIT_OK;
@@ -68,7 +76,35 @@ export const plotCommand: Command = {
     if (plot === 'spectrum') model = sheetSpectrumModel(reader, quantity as VerticalQuantity);
     else if (MEASUREMENT_PLOTS.includes(plot)) {
       const axis = quantity as FreeSpectrumAxis;
-      model = plot === 'free-spectrum' ? sheetFreeSpectrumModel(reader, axis) : plot === 'realisations' ? sheetRealisationModel(reader, axis) : sheetAmplitudeGammaModel(reader);
+      const mcText = one('monte-carlo', '');
+      let mc: SpectrumSampleResult | null = null;
+      if (mcText) {
+        if (plot === 'realisations') throw new UsageError('--monte-carlo goes with the free-spectrum and amplitude-gamma plots');
+        const n = Number(mcText);
+        const seed = Number(one('seed', '1'));
+        if (!Number.isInteger(n) || n < 2) throw new UsageError(`--monte-carlo must be a whole number of draws, at least 2, got "${mcText}"`);
+        if (!Number.isInteger(seed) || seed < 0) throw new UsageError(`--seed must be a whole number >= 0, got "${one('seed', '1')}"`);
+        const spectra = spectrumCurves(reader).map((c) => c.label);
+        const cell = one('spectrum', spectra[0] ?? 'spectrum');
+        const options = spectrumSampleOptions(reader, cell, n, seed);
+        if ('reason' in options) {
+          io.err(`strainsheet plot: no Monte Carlo: ${options.reason}\n`);
+          return EXIT_CELL_ERROR;
+        }
+        try {
+          mc = await runChunkedJob(spectrumSampleJob, sheet, options);
+        } catch (err) {
+          io.err(`strainsheet plot: the Monte Carlo failed: ${err instanceof Error ? err.message : String(err)}\n`);
+          return EXIT_CELL_ERROR;
+        }
+        if (mc.failures) io.err(`note: ${mc.failures} of ${n} draws failed (first: ${mc.firstError})\n`);
+      }
+      model =
+        plot === 'free-spectrum'
+          ? sheetFreeSpectrumModel(reader, axis, [], mc ? monteCarloBands(mc) : [])
+          : plot === 'realisations'
+            ? sheetRealisationModel(reader, axis)
+            : sheetAmplitudeGammaModel(reader, [], mc ? [monteCarloCloud(mc)] : []);
       if (!model) {
         const what =
           plot === 'free-spectrum'
@@ -100,7 +136,7 @@ export const plotCommand: Command = {
       const { svgElementToPdf, toBase64 } = await import('../../web/plots/pdfWriter');
       const require = createRequire(import.meta.url);
       const font = toBase64(readFileSync(require.resolve('dejavu-fonts-ttf/ttf/DejaVuSans.ttf')));
-      writeFileSync(pdfOut, await svgElementToPdf(svgElementFromText(svg), layout.width, layout.height, font, model.title));
+      writeFileSync(pdfOut, await svgElementToPdf(await svgElementFromText(svg), layout.width, layout.height, font, model.title));
     }
     return EXIT_OK;
   },

@@ -5,6 +5,7 @@ import { scan2dJob } from '../statistics/scan2dJob';
 import { monteCarloJob } from '../statistics/monteCarloJob';
 import { inferBatchJob } from '../statistics/inferBatchJob';
 import { realiseJob } from '../statistics/realiseJob';
+import { spectrumSampleJob } from '../statistics/spectrumMonteCarloJob';
 
 export function registerJobKinds(): void {
   registerChunkedJob(scan1dJob);
@@ -12,4 +13,5 @@ export function registerJobKinds(): void {
   registerChunkedJob(monteCarloJob);
   registerChunkedJob(inferBatchJob);
   registerChunkedJob(realiseJob);
+  registerChunkedJob(spectrumSampleJob);
 }

@@ -58,7 +58,11 @@ function cachedLifetime(lifetimeOf: LifetimeOf): LifetimeOf {
  */
 export function delayedPopulationByMass(base: BinaryPopulation, cosmo: FlatLambdaCdm, lifetimeOf: LifetimeOf): BinaryPopulation {
   checkPopulation(base);
-  const { min, max } = lifetimeRange(base, lifetimeOf);
+  const range = lifetimeRange(base, lifetimeOf);
+  if (range.max === 0) return base; // no delay: the population unchanged
+  // The range comes from a grid; widen it so that lifetimes between grid points stay inside the limits.
+  const min = 0.95 * range.min;
+  const max = 1.05 * range.max;
   const tau = cachedLifetime(lifetimeOf);
   const now = cosmo.ageS(0);
   const masses = { log10MMin: base.log10MMin, log10MMax: base.log10MMax, qMin: base.qMin, qMax: base.qMax };

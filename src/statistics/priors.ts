@@ -63,12 +63,17 @@ export function freeParameters(sheet: Sheet, named?: string[]): FreeParameter[] 
   return cells.map((c) => freeParameter(sheet, c));
 }
 
-export function freeParameter(sheet: Sheet, cell: string): FreeParameter {
+/**
+ * The free parameter of a cell, from its prior (else its uncertainty). `proposed` checks a prior text
+ * before it is stored (the app's row editor): the same refusals, with that text in place of the field.
+ */
+export function freeParameter(sheet: Sheet, cell: string, proposed?: { prior: string }): FreeParameter {
   const spec = sheet.get(cell);
   if (!spec) throw new SheetJobError(`free cell ${cell}: there is no cell of that name`);
-  const from = spec.prior && spec.prior.trim() !== '' ? 'prior' : spec.uncertainty && spec.uncertainty.trim() !== '' ? 'uncertainty' : null;
+  const prior = proposed ? proposed.prior : spec.prior;
+  const from = prior && prior.trim() !== '' ? 'prior' : spec.uncertainty && spec.uncertainty.trim() !== '' ? 'uncertainty' : null;
   if (!from) throw new SheetJobError(`free cell ${cell} has neither a prior nor an uncertainty; give it a prior such as logUniformDist(...)`);
-  const formula = spec[from]!;
+  const formula = from === 'prior' ? prior! : spec.uncertainty!;
   let value: unknown;
   try {
     value = sheet.overridesFromFormulas({ [cell]: formula })[cell];

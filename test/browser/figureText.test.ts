@@ -11,6 +11,7 @@ describe('trade notation in figure text', () => {
     expect(richRuns('Omega_gw(f)')).toEqual([{ text: 'Ω', shift: 'normal' }, { text: 'gw', shift: 'sub' }, { text: '(f)', shift: 'normal' }]);
     expect(richRuns('A_yr')).toEqual([{ text: 'A', shift: 'normal' }, { text: 'yr', shift: 'sub' }]);
     expect(richRuns('rate_norm = 2e-3')).toEqual([{ text: 'rate_norm = 2e-3', shift: 'normal' }]);
+    expect(richRuns('by redshift (z_origin), f_ref')).toEqual([{ text: 'by redshift (z_origin), f', shift: 'normal' }, { text: 'ref', shift: 'sub' }]);
   });
   it('writes powers as superscripts with a typographic minus (Unicode U+2212)', () => {
     expect(richRuns('10^{-15}')).toEqual([{ text: '10', shift: 'normal' }, { text: '−15', shift: 'super' }]);

@@ -1,7 +1,7 @@
 // Opening files that are not sheets, in node: binary content named by its kind and never printed,
 // and repeated messages merged with a count.
 import { describe, expect, it } from 'vitest';
-import { firstBinaryCharacter, knownBinaryKind, lineAndColumn, printable } from '../../web/files/binaryContent';
+import { firstBinaryCharacter, knownBinaryKind, lineAndColumn, notTextMessage, printable } from '../../web/files/binaryContent';
 import { openSheetFile } from '../../web/files/openSheetFile';
 import { MAX_MESSAGES, withMessage, type Message } from '../../web/app/messageList';
 
@@ -53,6 +53,18 @@ describe('opening a file that is not a sheet', () => {
     });
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.message).not.toMatch(GARBAGE);
+  });
+});
+
+describe('a data file that is not text', () => {
+  it('is named by its kind or as binary data before any parser sees it; text, UTF-8 or UTF-16, passes', async () => {
+    expect(await notTextMessage(fileOf(PNG, 'bins.png'), 'a data file (CSV or JSON)')).toBe('"bins.png" was not read: it is a PNG image, not a data file (CSV or JSON). The sheet is unchanged.');
+    expect(await notTextMessage(fileOf(new Uint8Array([0x66, 0x2c, 0x0a, 0x31, 0x2c, 0x1b, 0x0a]), 'x.csv'), 'a data file (CSV or JSON)')).toBe(
+      '"x.csv" was not read: it holds binary data, not text (at line 2, column 3); a data file (CSV or JSON) is text. The sheet is unchanged.',
+    );
+    expect(await notTextMessage(fileOf('freq,rho\n2.26 nHz,-7.1\n', 'ok.csv'), 'a data file')).toBeNull();
+    // "f," in UTF-16LE with a byte-order mark: zero bytes, yet text.
+    expect(await notTextMessage(fileOf(new Uint8Array([0xff, 0xfe, 0x66, 0x00, 0x2c, 0x00]), 'u16.csv'), 'a data file')).toBeNull();
   });
 });
 

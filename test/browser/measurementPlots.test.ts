@@ -11,6 +11,9 @@ import { buildAndServe, PROJECT_ROOT, type ServedApp } from './appServer';
 import { browserAvailability, launchChromium, type LaunchedBrowser } from './chromiumBrowser';
 import { canvasInk, download } from './pageHelpers';
 import type { FreeSpectrumData } from '../../src/statistics/freeSpectrum';
+import { runChunkedJob } from '../../src/jobs/runChunks';
+import { spectrumSampleJob } from '../../src/statistics/spectrumMonteCarloJob';
+import { spectrumSampleOptions } from '../../web/plots/spectrumMonteCarlo';
 
 const availability = browserAvailability();
 const runSuite = availability.ok || availability.required;
@@ -137,6 +140,38 @@ describe.runIf(runSuite)('free-spectrum and (A, gamma) plots in the browser', { 
     expect(medians.length).toBe(2);
     expect(pageErrors).toEqual([]);
   });
+  it('runs a Monte Carlo of the spectrum: its band on the free spectrum and its cloud on the (A, gamma) plane, the numbers of the same job in node for the same seed', async () => {
+    await page.evaluate(() => localStorage.clear());
+    await page.reload();
+    await page.waitForSelector(`[data-measurement-plot="free-spectrum"] [data-monte-carlo]`);
+    await page.fill('[data-field="mc-draws"]', '40');
+    await page.fill('[data-field="mc-seed"]', '7');
+    await page.click('[data-action="run-monte-carlo"]');
+    await page.waitForSelector('[data-mc-state]', { timeout: 60_000 });
+    await page.waitForFunction((s) => (document.querySelector(s) as HTMLElement | null)?.dataset.legend?.includes('Monte Carlo of spectrum (40 draws, seed 7): 95%'), FS);
+    await page.waitForFunction((s) => (document.querySelector(s) as HTMLElement | null)?.dataset.legend?.includes('Monte Carlo of spectrum (40 draws, seed 7): fitted (A, γ)'), AG);
+    const csv = await download(page, () => page.click(`${FS} [data-action="export-csv"]`));
+    // The label holds a comma, so the CSV quotes it (RFC 4180); the numbers follow it.
+    const head = '"Monte Carlo of spectrum (40 draws, seed 7): 95%",';
+    const rows = csv.bytes.toString('utf8').trim().split('\r\n').filter((l) => l.startsWith(head)).map((l) => ['', ...l.slice(head.length).split(',')]);
+    // The same job run headless in this process (Node's V8) on the demo, seed 7.
+    const sheet = Sheet.fromFile(DEMO_TEXT);
+    const reader = { cells: sheet.cells(), valueOf: (n: string) => sheet.value(n), stateOf: (n: string) => sheet.state(n) };
+    const opts = spectrumSampleOptions(reader, 'spectrum', 40, 7);
+    if ('reason' in opts) throw new Error(opts.reason);
+    const r = await runChunkedJob(spectrumSampleJob, sheet, opts);
+    expect(rows.length).toBe(r.frequencyHz.length);
+    rows.forEach((f, k) => {
+      // Equal to 1e-9: ECMA-262 leaves Math.pow's last bit to the engine (browser vs Node V8).
+      expect(Math.abs(Number(f[3]) / r.lower95[k] - 1), `bin ${k + 1}`).toBeLessThan(1e-9);
+      expect(Math.abs(Number(f[4]) / r.upper95[k] - 1), `bin ${k + 1}`).toBeLessThan(1e-9);
+    });
+    await page.locator(AG).screenshot({ path: join(ARTIFACTS, 'amplitude-gamma-monte-carlo.png') });
+    await page.click('[data-action="clear-monte-carlo"]');
+    await page.waitForFunction((s) => !(document.querySelector(s) as HTMLElement | null)?.dataset.legend?.includes('Monte Carlo'), FS);
+    expect(pageErrors).toEqual([]);
+  });
+
   it('draws the realisations of a realiseBackground cell with the free spectrum’s violins, following the axis switch', async () => {
     const demo = JSON.parse(DEMO_TEXT);
     const text = JSON.stringify({ ...demo, title: 'realisations plot', cells: [...demo.cells, { name: 'real', formula: 'realiseBackground(pop, freqs, array_span, 30, 2)' }] });

@@ -1,6 +1,7 @@
 // Regression tests, in chromium, for issue 15's "Confusing" items finished here: the sheet's notes
 // and the docs pages shipped with the app, file-open messages, map legends and breakdown titles.
 import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Sheet } from '../../src/sheet/sheet';
@@ -10,12 +11,13 @@ import { ARTIFACTS, startAppSession, type AppSession } from './appSession';
 import { download } from './pageHelpers';
 import { inside, readSvgFigure } from '../support/svgFigure';
 import { FIGURE_SIZES } from '../../web/plots/figureSizes';
-import { unicodeText } from '../../web/plots/figureText';
+import { richRuns, unicodeText } from '../../web/plots/figureText';
 
 const availability = browserAvailability();
 const runSuite = availability.ok || availability.required;
 const DEMO = Sheet.fromFile(readFileSync(join(PROJECT_ROOT, 'examples/demo.json'), 'utf8'));
 /** The first heading of a docs page as the repository has it (the shipped page must be this file). */
+const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
 const hexRgb = (hex: string) => [1, 3, 5].map((i) => parseInt(hex.slice(i, i + 2), 16));
 const docTitle = (page: string) => /^# (.+)$/m.exec(readFileSync(join(PROJECT_ROOT, 'docs', `${page}.md`), 'utf8'))![1];
 
@@ -53,6 +55,16 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     expect(await page.textContent('.doc-page h1')).toBe(docTitle('freeSpectrum'));
     await page.click('.docs-back');
     await page.waitForSelector('.doc-page[data-doc="statistics"] h1');
+    // A page's plain-text reference to another page ("docs/orbits.md" in physics.md) is a link too.
+    await page.click('[data-doc-page="physics"]');
+    await page.waitForSelector('.doc-page[data-doc="physics"] h1');
+    await page.click('.doc-page a[href="orbits.md"] >> nth=0');
+    await page.waitForSelector('.doc-page[data-doc="orbits"] h1');
+    expect(await page.textContent('.doc-page h1')).toBe(docTitle('orbits'));
+    // The side panel's tabs stay on one line each, side by side (six tabs at 1400 px).
+    const tabs = await page.$$eval('[role="tab"]', (els) => els.map((e) => e.getBoundingClientRect()).map((r) => ({ top: Math.round(r.top), height: Math.round(r.height) })));
+    expect(new Set(tabs.map((r) => r.top)).size, JSON.stringify(tabs)).toBe(1);
+    expect(Math.max(...tabs.map((r) => r.height)), JSON.stringify(tabs)).toBeLessThan(40);
     expect(await page.evaluate(() => (window as unknown as { cspViolations: string[] }).cspViolations)).toEqual([]);
 
     // Editing the notes is one undoable step; Escape leaves them as they were.
@@ -89,6 +101,12 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     expect(await formulas()).toEqual(before);
     await errors.locator('button.dismiss').click();
     await page.waitForFunction(() => document.querySelectorAll('.message.error').length === 0);
+    // The same image given as a data file is refused before any parser reads it.
+    await page.setInputFiles('input[data-action="open-data-file"]', { name: 'figure.png', mimeType: 'image/png', buffer: png });
+    await page.waitForSelector('.message.error');
+    expect(await page.textContent('.message.error .message-text')).toBe('"figure.png" was not read: it is a PNG image, not a data file (CSV or JSON). The sheet is unchanged.');
+    expect(await formulas()).toEqual(before);
+    await page.click('.message.error button.dismiss');
     expect(s.pageErrors).toEqual([]);
   });
 
@@ -259,5 +277,51 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
       for (const c of bar.titles) expect(c.title).toBe(`${c.name}: ${c.raw}`);
     }
     await page.setViewportSize({ width: 1400, height: 900 });
+  });
+
+  it('sets titles on screen in the trade’s notation, as the figures do: h_c and Ω_gw with subscripts, nothing upper-cased', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    const canvas = '[data-plot="spectrum"] canvas';
+    await page.waitForSelector(`${canvas}[data-y-title-runs]`);
+    const runsOf = async (sel: string, attr: string) => (JSON.parse((await page.getAttribute(sel, attr)) ?? '[]') as { text: string; shift: string }[][]).flat();
+    // richRuns is the figure writer's notation (figureText.ts, tested in figureText.test.ts).
+    expect(await runsOf(canvas, 'data-y-title-runs')).toEqual(richRuns('characteristic strain h_c'));
+    await page.click('input[name="quantity"][value="omega"]');
+    await page.waitForFunction((c) => document.querySelector(c)?.getAttribute('data-y-title-runs')?.includes('"gw"'), canvas);
+    const omega = await runsOf(canvas, 'data-y-title-runs');
+    expect(omega).toContainEqual({ text: 'gw', shift: 'sub' });
+    expect(omega.map((r) => r.text).join('')).not.toMatch(/_|Omega/);
+    // The switch's labels too: Ω with a subscript gw in the page's text.
+    expect(await page.$eval('input[name="quantity"][value="omega"]', (el) => el.parentElement!.innerHTML)).toMatch(/Ω<sub>gw<\/sub>/);
+    await page.click('input[name="quantity"][value="hc"]');
+    // Breakdown plot titles: "h_c²" as h with subscript c and the square.
+    const origin = '[data-plot^="origin:"] canvas';
+    await page.waitForSelector(`${origin}[data-title-runs]`);
+    const title = (JSON.parse((await page.getAttribute(origin, 'data-title-runs')) ?? '[]') as { text: string; shift: string }[]);
+    expect(title).toContainEqual({ text: 'c', shift: 'sub' });
+    // ... while a cell name in it stays as written (z_origin, mc_origin).
+    expect(title.filter((r) => r.shift === 'normal').map((r) => r.text).join('')).toMatch(/\((z|mc)_origin\)$/);
+  });
+
+  it('has no serious or critical axe-core violations with a docs page open, the notes being edited and a merged message shown', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    await page.click('[data-tab="docs"]');
+    await page.waitForSelector('.doc-page h1');
+    await page.click('[data-action="edit-notes"]');
+    await page.setInputFiles('input[data-action="open-file"]', { name: 'a.png', mimeType: 'image/png', buffer: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]) });
+    await page.setInputFiles('input[data-action="open-file"]', { name: 'a.png', mimeType: 'image/png', buffer: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0]) });
+    await page.waitForSelector('.message.error[data-message-count="2"]');
+    const violations = (await page.evaluate(async (src) => {
+      // axe-core is evaluated through the DevTools protocol, which the page's CSP does not govern.
+      (0, eval)(src);
+      const axe = (window as unknown as { axe: { run(ctx: Document, opts: object): Promise<{ violations: { id: string; impact: string | null; nodes: { target: string[] }[] }[] }> } }).axe;
+      const r = await axe.run(document, { resultTypes: ['violations'] });
+      return r.violations.map((v) => ({ id: v.id, impact: v.impact, nodes: v.nodes.slice(0, 3).map((n) => n.target) }));
+    }, AXE_SOURCE)) as { id: string; impact: string | null }[];
+    const bad = violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
+    expect(bad, JSON.stringify(bad, null, 1)).toEqual([]);
+    await page.screenshot({ path: join(ARTIFACTS, 'docs-notes-messages.png') });
   });
 });

@@ -107,4 +107,20 @@ describe.runIf(runSuite)('realisations in the app', { timeout: 120_000 }, () => 
     await page.waitForSelector('[data-job-result="realise"] [data-realisation-table]', { timeout: 60_000 });
     expect(s.pageErrors).toEqual([]);
   });
+
+  it('on the demo, offers to add a realisations cell from its population and frequency grid, and runs it', async () => {
+    const { page } = s;
+    await s.freshDemo();
+    await page.click('[data-tab="realise"]');
+    await page.click('[data-realisations-panel] [data-action="add-starter-cell"]');
+    await page.waitForSelector('[data-cell="realisations"]');
+    expect(await page.inputValue('input[data-formula="realisations"]')).toBe('realiseBackground(pop, freqs, array_span, 100, 1)');
+    await page.waitForSelector('[data-realisations-panel] select[aria-label="Realisations cell"] option[value="realisations"]', { state: 'attached' });
+    await page.fill('[data-realisations-panel] [data-field="count"]', '120');
+    await page.click('[data-action="run-realisations"]');
+    await page.waitForSelector('[data-job-result="realise"] [data-realisation-table]', { timeout: 90_000 });
+    expect(await page.textContent('[data-job-result="realise"] .job-time')).toMatch(/120 realisations of realisations, seed 1/);
+    await page.click('[data-action="undo"]');
+    await page.waitForSelector('[data-cell="realisations"]', { state: 'detached' });
+  });
 });

@@ -93,7 +93,7 @@ describe.runIf(runSuite)('what a researcher trips over', { timeout: 60_000 }, ()
       await page.$eval('.sheet-pane', (el, w) => (el.scrollTop = w === 'top' ? 0 : w === 'middle' ? el.scrollHeight / 2 : el.scrollHeight), where);
       // The page itself does not scroll: the sheet and the side panel scroll on their own.
       await page.evaluate(() => window.scrollTo(0, 10_000));
-      for (const tab of ['plots', 'scan', 'realise', 'reference']) expect(await visibleAtCentre(page, `[data-tab="${tab}"]`), `${tab} tab, ${where}`).toBe(true);
+      for (const tab of ['plots', 'scan', 'realise', 'infer', 'reference', 'docs']) expect(await visibleAtCentre(page, `[data-tab="${tab}"]`), `${tab} tab, ${where}`).toBe(true);
       for (const k of [1, 2, 3, 4, 5]) expect(await visibleAtCentre(page, `.sheet-head > span:nth-child(${k})`), `header ${k}, ${where}`).toBe(true);
     }
     // A tab focused from the keyboard is on screen and not covered.

@@ -132,6 +132,27 @@ describe('strainsheet plot: free spectrum and (A, gamma) plane', { timeout: 120_
     expect(none.err).toMatch(/has no cell holding realisations \(realiseBackground\)/);
   });
 
+  it('--monte-carlo N --seed S adds the band and the cloud; the same seed writes the same figure', async () => {
+    const a = join(dir, 'mc-a.svg');
+    const b = join(dir, 'mc-b.svg');
+    const ag = join(dir, 'mc-ag.svg');
+    expect((await run([DEMO, '--plot', 'free-spectrum', '--monte-carlo', '30', '--seed', '4', '--svg', a])).code).toBe(0);
+    expect((await run([DEMO, '--plot', 'free-spectrum', '--monte-carlo', '30', '--seed', '4', '--svg', b])).code).toBe(0);
+    expect(readFileSync(a, 'utf8')).toBe(readFileSync(b, 'utf8'));
+    const fig = readSvgFigure(readFileSync(a, 'utf8'));
+    expect(fig.legend.map((l) => l.label).slice(0, 3)).toEqual([
+      'Monte Carlo of spectrum (30 draws, seed 4): 95%',
+      'Monte Carlo of spectrum (30 draws, seed 4): 68%',
+      'Monte Carlo of spectrum (30 draws, seed 4): median',
+    ]);
+    checkLayout(fig);
+    expect((await run([DEMO, '--plot', 'amplitude-gamma', '--monte-carlo', '30', '--seed', '4', '--svg', ag])).code).toBe(0);
+    const g = readSvgFigure(readFileSync(ag, 'utf8'));
+    expect(g.legend[0].label).toBe('Monte Carlo of spectrum (30 draws, seed 4): fitted (A, γ)');
+    checkLayout(g);
+    await expect(run([DEMO, '--plot', 'free-spectrum', '--monte-carlo', 'many', '--svg', a])).rejects.toThrow(/--monte-carlo must be a whole number/);
+  });
+
   it('a sheet without the measurement gets a clear error, and the wrong axis for the plot is refused', async () => {
     const r = await run([SMALL, '--plot', 'free-spectrum', '--svg', join(dir, 'x.svg')]);
     expect(r.code).toBe(1);

@@ -97,6 +97,7 @@ describe('a lifetime that depends on mass and mass ratio, fed into the populatio
 
   it('a lifetime of 0 leaves the spectrum unchanged; one longer than the age of the universe removes the population (stalled share 1)', () => {
     const freqs = [2e-9, 3.17e-8];
+    expect(delayedPopulationByMass(base, cosmo, () => 0)).toBe(base);
     const same = characteristicStrainSquared(delayedPopulationByMass(base, cosmo, () => 0), freqs);
     const original = characteristicStrainSquared(base, freqs);
     for (let k = 0; k < freqs.length; k++) expect(rel(same[k], original[k])).toBeLessThan(1e-12);

@@ -3,6 +3,10 @@
 import { createSignal, For, Show } from 'solid-js';
 import type { Tone } from './services';
 import { withMessage, type Message } from './messageList';
+import { printable } from '../files/binaryContent';
+
+/** Longer messages are cut (the reason comes first in every message). */
+const MAX_MESSAGE_CHARS = 1200;
 
 /** How long a note (not an error) stays. */
 const INFO_MS = 8000;
@@ -16,7 +20,10 @@ export function createMessages() {
     timers.delete(id);
     setMessages((m) => m.filter((x) => x.id !== id));
   };
-  const notify = (text: string, tone: Tone = 'info') => {
+  const notify = (raw: string, tone: Tone = 'info') => {
+    // Whatever a message quotes (a file's name or content, a parser's excerpt), no control
+    // character or undecodable byte reaches the screen.
+    const text = printable(raw, MAX_MESSAGE_CHARS);
     const { list, shown } = withMessage(messages(), text, tone, nextId);
     if (shown.id === nextId) nextId++;
     for (const id of timers.keys()) if (!list.some((m) => m.id === id)) dismiss(id);

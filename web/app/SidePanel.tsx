@@ -9,14 +9,16 @@ import { createSignal, For, lazy, Show, Suspense, type Accessor } from 'solid-js
 const PlotsPanel = lazy(() => import('../plots/PlotsPanel').then((m) => ({ default: m.PlotsPanel })));
 const ScanPanel = lazy(() => import('../jobs/ScanPanel').then((m) => ({ default: m.ScanPanel })));
 const RealisationsPanel = lazy(() => import('../jobs/RealisationsPanel').then((m) => ({ default: m.RealisationsPanel })));
+const InferencePanel = lazy(() => import('../inference/InferencePanel').then((m) => ({ default: m.InferencePanel })));
 const ReferencePanel = lazy(() => import('../help/ReferencePanel').then((m) => ({ default: m.ReferencePanel })));
 const DocsPanel = lazy(() => import('../help/DocsPanel').then((m) => ({ default: m.DocsPanel })));
 
-export type SideTab = 'plots' | 'scan' | 'realise' | 'reference' | 'docs';
+export type SideTab = 'plots' | 'scan' | 'realise' | 'infer' | 'reference' | 'docs';
 const TABS: { id: SideTab; label: string }[] = [
   { id: 'plots', label: 'Plots' },
   { id: 'scan', label: 'Scan & sample' },
   { id: 'realise', label: 'Realisations' },
+  { id: 'infer', label: 'Inference' },
   { id: 'reference', label: 'Reference' },
   { id: 'docs', label: 'Docs' },
 ];
@@ -99,6 +101,13 @@ export function SidePanel(props: { control: SidePanelControl }) {
         <Show when={opened().has('realise')}>
           <Suspense fallback={loading}>
             <RealisationsPanel />
+          </Suspense>
+        </Show>
+      </div>
+      <div class="tab-body" role="tabpanel" id="panel-infer" aria-labelledby="tab-infer" data-panel="infer" hidden={tab() !== 'infer'}>
+        <Show when={opened().has('infer')}>
+          <Suspense fallback={loading}>
+            <InferencePanel />
           </Suspense>
         </Show>
       </div>

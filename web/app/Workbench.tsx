@@ -14,6 +14,7 @@ import { ViewSwitch, type WorkspaceView } from './ViewSwitch';
 import { restoreAutosave, writeAutosave } from '../files/autosave';
 import { openSheetFile, MAX_SHEET_FILE_BYTES } from '../files/openSheetFile';
 import { openDataFile } from '../files/openDataFile';
+import { notTextMessage } from '../files/binaryContent';
 import { createOpenDataDialog } from '../files/OpenDataDialog';
 import { downloadText, fileStem } from '../files/download';
 import { cellTableCsv } from '../files/cellTableCsv';
@@ -171,6 +172,11 @@ export function Workbench() {
   let dataPicker!: HTMLInputElement;
   const dataDialog = createOpenDataDialog(() => dataPicker.click());
   const openData = async (file: File) => {
+    const binary = await notTextMessage(file, 'a data file (CSV or JSON)');
+    if (binary) {
+      notify(binary, 'error');
+      return;
+    }
     const r = await openDataFile(file, session.cells(), dataDialog.control.prior());
     if (!r.ok) {
       notify(r.message, 'error');

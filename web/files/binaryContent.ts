@@ -57,3 +57,31 @@ export function printable(message: string, max = 400): string {
   const clean = message.replace(new RegExp(NOT_TEXT.source, 'g'), '?');
   return clean.length > max ? `${clean.slice(0, max - 1)}…` : clean;
 }
+
+/** Bytes looked at to tell text from binary data before a data file is parsed. */
+const SNIFF_BYTES = 65536;
+
+/**
+ * Why a file picked as text cannot be text (a known binary kind, or characters no text holds in its
+ * first 64 KiB), as a message naming the file; null when it looks like text. UTF-16 text (zero
+ * bytes in the pattern of RFC 4627, section 3) is left to the reader.
+ */
+export async function notTextMessage(file: Blob & { name?: string }, expected: string): Promise<string | null> {
+  const label = file.name ? `"${printable(file.name, 120)}"` : 'The file';
+  let head: Uint8Array;
+  try {
+    head = new Uint8Array(await file.slice(0, SNIFF_BYTES).arrayBuffer());
+  } catch {
+    return null;
+  }
+  const kind = knownBinaryKind(head);
+  if (kind) return `${label} was not read: it is ${kind}, not ${expected}. The sheet is unchanged.`;
+  if (head.length >= 2 && (head[0] === 0) !== (head[1] === 0)) return null;
+  if ((head[0] === 0xff && head[1] === 0xfe) || (head[0] === 0xfe && head[1] === 0xff)) return null;
+  // A multi-byte character cut at the end of the sample is not an error: drop the last 3 bytes' verdict.
+  const text = new TextDecoder('utf-8').decode(head.length === SNIFF_BYTES ? head.subarray(0, SNIFF_BYTES - 3) : head);
+  const bad = firstBinaryCharacter(text);
+  if (bad < 0) return null;
+  const at = lineAndColumn(text, bad);
+  return `${label} was not read: it holds binary data, not text (at line ${at.line}, column ${at.column}); ${expected} is text. The sheet is unchanged.`;
+}

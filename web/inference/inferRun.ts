@@ -6,6 +6,7 @@ import type { Sheet } from '../../src/sheet/sheet';
 import { runInference, type InferenceProgress, type InferenceResult } from '../../src/statistics/sheetInference';
 import type { JobControl } from '../../src/statistics/sheetValues';
 import type { ParallelOptions } from '../../src/jobs/runChunks';
+import { cornerModel, type CornerModel } from '../../src/statistics/cornerPlot';
 
 export interface InferJobSpec {
   kind: 'infer';
@@ -30,6 +31,16 @@ export interface InferJobResult {
   result: InferenceResult;
   /** Web Workers that evaluated the likelihood (1: the job worker itself). */
   workers: number;
+  /** The corner plot's histograms and contour levels of the kept draws, made here rather than on the page. */
+  corner: CornerModel;
+}
+
+/** The kept draws of a run as cornerModel takes them (free cells, then derived cells), as `strainsheet infer --corner` does. */
+export function cornerOf(r: InferenceResult): CornerModel {
+  return cornerModel([
+    ...r.parameters.map((p) => ({ name: p.cell, unit: p.unit, log: p.logScale, draws: r.samples[p.cell] })),
+    ...r.derived.map((d) => ({ name: d.cell, unit: d.unit, log: r.samples[d.cell].every((x) => !(x <= 0)), draws: r.samples[d.cell] })),
+  ]);
 }
 
 export async function runInferJob(sheet: Sheet, job: InferJobSpec, control: JobControl & { onStep(p: InferProgressDetail): void }, parallel?: ParallelOptions): Promise<InferJobResult> {
@@ -49,5 +60,5 @@ export async function runInferJob(sheet: Sheet, job: InferJobSpec, control: JobC
     control,
     { parallel },
   );
-  return { kind: 'infer', result, workers: parallel && parallel.pool ? Math.max(1, parallel.workers) : 1 };
+  return { kind: 'infer', result, workers: parallel && parallel.pool ? Math.max(1, parallel.workers) : 1, corner: cornerOf(result) };
 }

@@ -11,6 +11,8 @@ import { RealisationTable } from './RealisationTable';
 import { realisationRunModel } from './realisationRunModel';
 import { freeSpectra } from '../plots/sheetFreeSpectrumModel';
 import type { RealiseJobResult } from './realiseRun';
+import { realisationStarter } from './starterCells';
+import { StarterButton } from './StarterButton';
 import { PlotView } from '../plots/PlotView';
 import { realisationBinsCsv } from '../../src/statistics/realisationReport';
 import { downloadText, fileStem } from '../files/download';
@@ -102,7 +104,10 @@ export function RealisationsPanel() {
           </div>
         </Show>
         <Show when={cells().length === 0}>
-          <p class="form-hint">No cell of this sheet holds realisations yet: add one such as realiseBackground(pop, freqs, array_span, 100, 1).</p>
+          <p class="form-hint">
+            No cell of this sheet holds realisations yet: add one such as realiseBackground(pop, freqs, array_span, 100, 1) (its own 100 realisations are drawn on the page; the runs here draw their own count).{' '}
+            <StarterButton starter={realisationStarter(session.cells(), (n) => session.value(n))} onAdded={setCell} />
+          </p>
         </Show>
       </div>
       <JobStatusView status={status()} unit="realisations" />

@@ -5,12 +5,17 @@
 // when the sheet holds what it draws.
 import { createMemo, createSignal, For, Show, type Accessor } from 'solid-js';
 import { PlotView } from './PlotView';
+import { useServices } from '../app/services';
+import { MonteCarloControl } from './MonteCarloControl';
+import { monteCarloBands, monteCarloCloud } from './spectrumMonteCarlo';
+import type { SpectrumSampleResult } from '../../src/statistics/spectrumMonteCarloJob';
 import type { StrainCurve } from './spectrumPlotModel';
 import type { SheetReader } from './sheetSpectrumModel';
 import { sheetFreeSpectrumModel, sheetRealisationModel } from './sheetFreeSpectrumModel';
 import { sheetAmplitudeGammaModel } from './sheetAmplitudeGammaModel';
 import type { FreeSpectrumAxis, StrainBand } from './freeSpectrumPlotModel';
 import type { FittedCloud } from './amplitudeGammaPlotModel';
+import { RichLabel } from './RichLabel';
 
 const AXES: { id: FreeSpectrumAxis; label: string }[] = [
   { id: 'hc', label: 'h_c' },
@@ -26,7 +31,17 @@ export function MeasurementPlots(props: {
   clouds?: Accessor<FittedCloud[]>;
   onMessage: (text: string) => void;
 }) {
+  const { session } = useServices();
   const [axis, setAxis] = createSignal<FreeSpectrumAxis>('hc');
+  const [mc, setMc] = createSignal<{ run: SpectrumSampleResult; revision: number } | null>(null);
+  const mcBands = createMemo<StrainBand[]>(() => {
+    const r = mc();
+    return r ? monteCarloBands(r.run) : [];
+  });
+  const mcClouds = createMemo<FittedCloud[]>(() => {
+    const r = mc();
+    return r ? [monteCarloCloud(r.run)] : [];
+  });
   const safely = <T,>(what: string, make: () => T | null): T | null => {
     try {
       return make();
@@ -35,10 +50,10 @@ export function MeasurementPlots(props: {
       return null;
     }
   };
-  const freeSpectrum = createMemo(() => safely('free-spectrum', () => sheetFreeSpectrumModel(props.reader(), axis(), props.pinned(), props.bands?.() ?? [], props.spectra())));
+  const freeSpectrum = createMemo(() => safely('free-spectrum', () => sheetFreeSpectrumModel(props.reader(), axis(), props.pinned(), [...(props.bands?.() ?? []), ...mcBands()], props.spectra())));
   // Realisations of a realiseBackground cell, with the free spectrum's violins, on the same axis.
   const realisations = createMemo(() => safely('realisation', () => sheetRealisationModel(props.reader(), axis())));
-  const amplitudeGamma = createMemo(() => safely('(A, gamma)', () => sheetAmplitudeGammaModel(props.reader(), props.pinned(), props.clouds?.() ?? [], props.spectra())));
+  const amplitudeGamma = createMemo(() => safely('(A, gamma)', () => sheetAmplitudeGammaModel(props.reader(), props.pinned(), [...(props.clouds?.() ?? []), ...mcClouds()], props.spectra())));
   return (
     <>
       <Show when={freeSpectrum()}>
@@ -49,12 +64,21 @@ export function MeasurementPlots(props: {
               <For each={AXES}>
                 {(a) => (
                   <label>
-                    <input type="radio" name="free-spectrum-axis" value={a.id} checked={axis() === a.id} onChange={() => setAxis(a.id)} /> {a.label}
+                    <input type="radio" name="free-spectrum-axis" value={a.id} checked={axis() === a.id} onChange={() => setAxis(a.id)} /> <RichLabel text={a.label} />
                   </label>
                 )}
               </For>
             </fieldset>
             <PlotView model={m} onMessage={props.onMessage} />
+            <MonteCarloControl
+              reader={props.reader}
+              sheet={() => session.current}
+              revision={session.revision}
+              spectra={() => props.spectra().map((c) => c.label)}
+              result={mc}
+              setResult={setMc}
+              onMessage={props.onMessage}
+            />
           </section>
         )}
       </Show>

@@ -10,6 +10,7 @@ import { sheetSpectrumModel, spectrumCurves, type SheetReader } from './sheetSpe
 import { breakdownModels } from './breakdownPlotModel';
 import { loadPins, pinLabel, savePins, type PinnedCurve } from './pins';
 import { MeasurementPlots } from './MeasurementPlots';
+import { RichLabel } from './RichLabel';
 
 const QUANTITIES: { id: VerticalQuantity; label: string }[] = [
   { id: 'hc', label: 'h_c' },
@@ -86,7 +87,7 @@ export function PlotsPanel() {
           <For each={QUANTITIES}>
             {(q) => (
               <label>
-                <input type="radio" name="quantity" value={q.id} checked={quantity() === q.id} onChange={() => setQuantity(q.id)} /> {q.label}
+                <input type="radio" name="quantity" value={q.id} checked={quantity() === q.id} onChange={() => setQuantity(q.id)} /> <RichLabel text={q.label} />
               </label>
             )}
           </For>

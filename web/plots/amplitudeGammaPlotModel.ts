@@ -8,7 +8,10 @@ import { contours } from 'd3-contour';
 import { buildAmplitudeGammaRegion, type AmplitudeGammaPosterior, type AmplitudeGammaRegion } from '../../src/statistics/amplitudeGammaPosterior';
 import { F_YR_HZ } from '../../src/physics/constants';
 import type { PlotModel, PlotSeries } from './plotModel';
-import { MEASURED_COLOR, REALISATION_COLOR, curveColor } from './palette';
+import { MEASURED_COLOR, curveColor } from './palette';
+
+/** The Monte Carlo cloud: a light violet under the model points (drawn over it in their own colours). */
+const CLOUD_COLOR = '#a99bd0';
 
 /** Credible levels of the measured contours drawn. */
 export const CONTOUR_LEVELS = [0.68, 0.95];
@@ -125,7 +128,7 @@ export function amplitudeGammaPlotModel(input: AmplitudeGammaPlotInput, region: 
   const series: PlotSeries[] = [];
   const levels = [...CONTOUR_LEVELS].sort((a, b) => b - a);
   for (const cloud of input.clouds ?? []) {
-    series.push({ id: cloud.id, label: cloud.label, kind: 'points', x: cloud.gamma, y: cloud.log10A.map((a) => 10 ** a), color: REALISATION_COLOR, width: 0.6 });
+    series.push({ id: cloud.id, label: cloud.label, kind: 'points', x: cloud.gamma, y: cloud.log10A.map((a) => 10 ** a), color: CLOUD_COLOR, width: 0.6 });
   }
   levels.forEach((level, k) => {
     const x: number[] = [];

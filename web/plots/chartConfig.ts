@@ -18,7 +18,7 @@ import {
 } from 'chart.js';
 import { cellEdges, displayRange, heatColor, usableOnAxis, type PlotAxis, type PlotModel } from './plotModel';
 import { formatTick, ticksFor } from './axisTicks';
-import { unicodeText } from './figureText';
+import { richRuns, SCRIPT_SCALE, unicodeText, type TextRun } from './figureText';
 import { drawSwatch, swatchShapes, swatchWidth } from './legendSwatch';
 import type { PlotSeries } from './plotModel';
 
@@ -209,6 +209,79 @@ const wrapAxisTitles: Plugin<'line'> = {
   },
 };
 
+/** Colour of axis titles, drawn by richAxisTitles (chart.js draws them invisibly, keeping their place). */
+const TITLE_INK = '#1f2a36';
+
+/** Draws one line of rich text centred at (0, 0) of the current transform, baseline middle. */
+function drawRuns(ctx: CanvasRenderingContext2D, runs: TextRun[], size: number, family: string, weight = 'normal'): void {
+  const fontOf = (r: TextRun) => `${weight} ${r.shift === 'normal' ? size : size * SCRIPT_SCALE}px ${family}`;
+  const widths = runs.map((r) => {
+    ctx.font = fontOf(r);
+    return ctx.measureText(r.text).width;
+  });
+  let x = -widths.reduce((a, b) => a + b, 0) / 2;
+  runs.forEach((r, i) => {
+    ctx.font = fontOf(r);
+    const dy = r.shift === 'sub' ? size * 0.3 : r.shift === 'super' ? -size * 0.38 : 0;
+    ctx.fillText(r.text, x, dy);
+    x += widths[i];
+  });
+}
+
+/**
+ * Axis titles in the trade's notation on screen, as in the figures (figureText.ts): h_c with a
+ * subscript c, Omega_gw as Ω with subscript gw. Chart.js lays the title out (and draws it in a
+ * transparent colour); this draws the rich text in its place, line by line (core.scale drawTitle's
+ * geometry: the left title rotated a quarter turn, lines one line height apart).
+ */
+const richAxisTitles: Plugin<'line'> = {
+  id: 'strainsheetRichAxisTitles',
+  afterDraw(chart) {
+    const { ctx } = chart;
+    for (const id of ['x', 'y'] as const) {
+      const scale = chart.scales[id];
+      const title = (scale?.options as { title?: unknown } | undefined)?.title as { display?: boolean; text?: string | string[]; font?: { size?: number }; padding?: number | { top?: number; bottom?: number } } | undefined;
+      if (!scale || !title?.display || !title.text) continue;
+      const lines = Array.isArray(title.text) ? title.text : [title.text];
+      const size = title.font?.size ?? AXIS_TITLE_PX;
+      const lineHeight = size * 1.2;
+      const pad = typeof title.padding === 'number' ? { top: title.padding, bottom: title.padding } : { top: title.padding?.top ?? 4, bottom: title.padding?.bottom ?? 4 };
+      const runs = lines.map((l) => richRuns(l));
+      ctx.save();
+      ctx.fillStyle = TITLE_INK;
+      ctx.textBaseline = 'middle';
+      ctx.textAlign = 'left';
+      runs.forEach((line, k) => {
+        ctx.save();
+        if (id === 'y') {
+          ctx.translate(scale.left + lineHeight / 2 + pad.top + k * lineHeight, (scale.top + scale.bottom) / 2);
+          ctx.rotate(-Math.PI / 2);
+        } else {
+          const offset = lineHeight / 2 + pad.bottom + lineHeight * (lines.length - 1);
+          ctx.translate((scale.left + scale.right) / 2, scale.bottom - offset + k * lineHeight);
+        }
+        drawRuns(ctx, line, size, Chart.defaults.font.family ?? 'sans-serif');
+        ctx.restore();
+      });
+      ctx.restore();
+      chart.canvas.dataset[`${id}TitleRuns`] = JSON.stringify(runs);
+    }
+    // The plot's title, in the middle of the box the title plugin laid out.
+    const block = (chart as unknown as { titleBlock?: { left: number; right: number; top: number; bottom: number; options: { display?: boolean; text?: string | string[]; font?: { size?: number; weight?: string } } } }).titleBlock;
+    const text = block?.options.display ? block.options.text : undefined;
+    if (block && typeof text === 'string' && text) {
+      const size = block.options.font?.size ?? 14;
+      ctx.save();
+      ctx.fillStyle = TITLE_INK;
+      ctx.textBaseline = 'middle';
+      ctx.translate((block.left + block.right) / 2, (block.top + block.bottom) / 2);
+      drawRuns(ctx, richRuns(text), size, Chart.defaults.font.family ?? 'sans-serif', String(block.options.font?.weight ?? 'bold'));
+      ctx.restore();
+      chart.canvas.dataset.titleRuns = JSON.stringify(richRuns(text));
+    }
+  },
+};
+
 /** The whole title of each axis, before wrapping (the options hold the wrapped lines). */
 const fullTitles = new WeakMap<object, { x?: string; y?: string }>();
 
@@ -261,7 +334,8 @@ function scaleFor(model: PlotModel, which: 'x' | 'y') {
     type: axis.scale === 'log' ? ('logarithmic' as const) : ('linear' as const),
     min: lo * f,
     max: hi * f,
-    title: { display: true, text: unicodeText(axis.label), color: '#1f2a36', font: { size: AXIS_TITLE_PX } },
+    // Drawn by richAxisTitles in the trade's notation; chart.js only keeps its place.
+    title: { display: true, text: unicodeText(axis.label), color: 'rgba(0, 0, 0, 0)', font: { size: AXIS_TITLE_PX } },
     // Grid lines at the major ticks only; tick marks at every tick (minor ones too).
     grid: {
       color: (ctx: { tick?: { value: number } }) => (ctx.tick && majors.has(ctx.tick.value) ? '#e6e3dc' : 'rgba(0, 0, 0, 0)'),
@@ -283,7 +357,7 @@ export function chartConfig(model: PlotModel, opts: { devicePixelRatio?: number;
   return {
     type: 'line',
     data: { datasets: datasetsFor(model) },
-    plugins: [whitePage, heatmapLayer, wrapAxisTitles],
+    plugins: [whitePage, heatmapLayer, wrapAxisTitles, richAxisTitles],
     options: {
       animation: false,
       responsive: opts.responsive ?? true,
@@ -298,7 +372,8 @@ export function chartConfig(model: PlotModel, opts: { devicePixelRatio?: number;
         y: scaleFor(model, 'y'),
       },
       plugins: {
-        title: { display: true, text: unicodeText(model.title), color: '#1f2a36', font: { size: 14, weight: 'bold' } },
+        // Drawn by richAxisTitles in the trade's notation; chart.js only keeps its place.
+        title: { display: true, text: unicodeText(model.title), color: 'rgba(0, 0, 0, 0)', font: { size: 14, weight: 'bold' } },
         legend: {
           position: 'bottom',
           labels: {

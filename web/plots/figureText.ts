@@ -1,7 +1,8 @@
 // Axis, tick and legend text in the trade's notation, as runs of normal, subscript and superscript
 // text: h_c -> h with subscript c, Omega_gw -> Ω with subscript gw, 10^-15 -> 10 with superscript
-// −15, Mpc^-3 -> Mpc with superscript −3. Only one-letter (or Greek) bases take a subscript, so a
-// cell name such as rate_norm stays as written; nothing is ever upper-cased (A_yr stays A_yr).
+// −15, Mpc^-3 -> Mpc with superscript −3. Only one-letter (or Greek) bases take a subscript of at
+// most three characters, so cell names such as rate_norm or z_origin stay as written; nothing is
+// ever upper-cased (A_yr stays A_yr).
 // DOM-free: used by the SVG figure writer, the screen's labels and the command line.
 import { WIDTHS_EM } from './textWidths';
 
@@ -36,7 +37,8 @@ export function richRuns(raw: string): TextRun[] {
     if (last && last.shift === shift) last.text += t;
     else runs.push({ text: t, shift });
   };
-  const re = /(?<![A-Za-z0-9_])([A-Za-zΑ-Ωα-ωµ])_(\{[^}]*\}|[A-Za-z0-9]+)|\^(\{[^}]*\}|[-+−]?[0-9A-Za-z./]+)/g;
+  // A subscript is short (c, gw, yr, ref): a longer word after the underscore is part of a name (z_origin).
+  const re = /(?<![A-Za-z0-9_])([A-Za-zΑ-Ωα-ωµ])_(\{[^}]*\}|[A-Za-z0-9]{1,3}(?![A-Za-z0-9_]))|\^(\{[^}]*\}|[-+−]?[0-9A-Za-z./]+)/g;
   let at = 0;
   for (let m = re.exec(text); m; m = re.exec(text)) {
     push(text.slice(at, m.index), 'normal');

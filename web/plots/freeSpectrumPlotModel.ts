@@ -26,8 +26,9 @@ export interface StrainBand {
   frequencyHz: number[];
   lower: number[];
   upper: number[];
-  /** Mid-line drawn with the band (median), may be empty. */
+  /** Mid-line drawn with the band (median), may be empty, and its legend label. */
   middle?: number[];
+  middleLabel?: string;
   color: string;
 }
 
@@ -125,7 +126,7 @@ export function violinSeries(label: string, data: FreeSpectrumData, q: FreeSpect
 export function bandSeries(b: StrainBand, q: FreeSpectrumAxis, spanS: number): PlotSeries[] {
   const on = (hs: number[]) => hs.map((h, i) => strainOnAxis(q, h, b.frequencyHz[i], spanS));
   const out: PlotSeries[] = [{ id: b.id, label: b.label, kind: 'band', x: b.frequencyHz, y: on(b.middle ?? []), yLow: on(b.lower), yHigh: on(b.upper), color: b.color }];
-  if (b.middle?.length) out.push({ id: `${b.id}:middle`, label: `${b.label}: median`, kind: 'line', x: b.frequencyHz, y: on(b.middle), color: b.color, width: 1.4 });
+  if (b.middle?.length) out.push({ id: `${b.id}:middle`, label: b.middleLabel ?? `${b.label}: median`, kind: 'line', x: b.frequencyHz, y: on(b.middle), color: b.color, width: 1.4 });
   return out;
 }
 

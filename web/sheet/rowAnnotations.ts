@@ -28,14 +28,21 @@ export const UNCERTAINTY: RowAnnotationKind = {
   patch: (text) => ({ uncertainty: text }),
   async check(sheet, cell, text) {
     // Loaded on first use: the Monte Carlo code is not needed to show the sheet.
-    const { cellDistribution } = await import('../../src/statistics/sheetMonteCarlo');
-    try {
-      cellDistribution(sheet, cell, text);
-      return null;
-    } catch (err) {
-      return err instanceof Error ? err.message : String(err);
-    }
+    return (await import('./annotationChecks')).uncertaintyProblem(sheet, cell, text);
   },
 };
 
-export const ROW_ANNOTATION_KINDS: RowAnnotationKind[] = [UNCERTAINTY];
+/** The prior of a free cell of inference (docs/inference.md); refused as `strainsheet infer` refuses it. */
+export const PRIOR: RowAnnotationKind = {
+  id: 'prior',
+  label: 'prior',
+  symbol: 'π',
+  placeholder: 'e.g. logUniformDist(1e-5 Mpc^-3 Gyr^-1, 1e-1 Mpc^-3 Gyr^-1)',
+  read: (spec) => spec.prior,
+  patch: (text) => ({ prior: text }),
+  async check(sheet, cell, text) {
+    return (await import('./annotationChecks')).priorProblem(sheet, cell, text);
+  },
+};
+
+export const ROW_ANNOTATION_KINDS: RowAnnotationKind[] = [UNCERTAINTY, PRIOR];
