@@ -74,10 +74,10 @@ export function canonicalCell(spec: CellSpec): CellSpec {
 
 /** The canonical text of a sheet file. */
 export function serializeSheetFile(file: SheetFile, cellText: (cell: CellSpec) => string = cellFileText): string {
-  const cells = file.cells.map(canonicalCell);
+  const cells = file.cells;
   const header = {
     format: FILE_FORMAT,
-    version: cells.some((c) => c.prior !== undefined) ? FILE_VERSION : FILE_VERSION_WITHOUT_PRIORS,
+    version: cells.some((c) => typeof c.prior === 'string' && c.prior !== '') ? FILE_VERSION : FILE_VERSION_WITHOUT_PRIORS,
     title: file.title ?? '',
     notes: file.notes ?? '',
     cells: [],
@@ -86,7 +86,7 @@ export function serializeSheetFile(file: SheetFile, cellText: (cell: CellSpec) =
   // keeps, so that saving a long sheet after an edit does not write every cell again).
   const head = JSON.stringify(header, null, 2);
   if (cells.length === 0) return `${head}\n`;
-  return `${head.slice(0, -'[]\n}'.length)}[\n${file.cells.map(cellText).join(',\n')}\n  ]\n}\n`;
+  return `${head.slice(0, -'[]\n}'.length)}[\n${cells.map(cellText).join(',\n')}\n  ]\n}\n`;
 }
 
 /** A cell's text in a sheet file: canonical keys, indented for its place in the list of cells. */
