@@ -110,7 +110,7 @@ export const galaxyPairBuiltins: Builtin[] = [
       { name: 'maxMass', unit: 'Msun', description: 'highest total black-hole mass (default 1e11 Msun)', optional: true },
     ],
     returns: { unit: 'population', description: 'a binary population by merger redshift' },
-    source: `${CSC19}; time shift t(z_merger) = t(z_pair) + tau (same paper); Hogg 1999, astro-ph/9905116 (cosmic time)`,
+    source: `${CSC19}; time shift t(z_merger) = t(z_pair) + tau (same paper); Hogg 1999, astro-ph/9905116 (cosmic time); choices and limits in docs/galaxyRoute.md`,
     example: 'galaxyPairPopulation(cosmo, smf, pairFraction(0.025, 0.2, 1), mergerTimeScale(0.8 Gyr, -0.3, -0.3, -0.5), massRatioPowerLaw(-0.5, 0.2), 0.6, kormendyHoRelation(), 0.5)',
     fn: (cosmology: unknown, massFunction: unknown, pairFraction: unknown, mergerTime: unknown, galaxyQ: unknown, bulgeFraction: unknown, relation: unknown, relationZeta?: unknown, independentScatter?: unknown, timeShift?: unknown, zMax?: unknown, minMass?: unknown, maxMass?: unknown) => {
       const fn = 'galaxyPairPopulation';

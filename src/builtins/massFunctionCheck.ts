@@ -117,7 +117,7 @@ export const massFunctionCheckBuiltins: Builtin[] = [
       { name: 'reference', unit: 'referenceMassFunction', description: 'from referenceMassFunction' },
     ],
     returns: { unit: 'massFunctionCheck', description: 'number densities, reference ranges and ratios, merged mass density' },
-    source: `${REMNANTS}; local mass density 4.6 (+1.9, -1.4) x 1e5 Msun/Mpc^3 for h = 0.7 (Marconi et al. 2004, MNRAS 351, 169)`,
+    source: `${REMNANTS}; local mass density 4.6 (+1.9, -1.4) x 1e5 Msun/Mpc^3 for h = 0.7 (Marconi et al. 2004, MNRAS 351, 169); how to read it in docs/massFunctionCheck.md`,
     example: 'massFunctionCheck(pop, referenceMassFunction(1e-3 Mpc^-3, 5e8 Msun, -0.5, 0.3))',
     fn: (population: unknown, reference: unknown) => {
       const fn = 'massFunctionCheck';

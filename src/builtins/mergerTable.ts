@@ -46,7 +46,7 @@ export const mergerTableBuiltins: Builtin[] = [
       { name: 'cosmology', unit: 'cosmology', description: 'needed only by mergerRateDensityAt and for Omega_gw', optional: true },
     ],
     returns: { unit: 'population', description: 'a binary population for every population built-in (spectrum, counts per bin, realisations, checks)' },
-    source: 'Phinney 2001, astro-ph/0108028 (n is a comoving number density of remnants); interpolation common practice, no source',
+    source: 'Phinney 2001, astro-ph/0108028 (n is a comoving number density of remnants); interpolation common practice, no source; file layouts and errors in docs/mergerTables.md',
     example: 'mergerTable("mt1;z=0,1,2;log10M=7,8,9;q=0.1,1;density=...")',
     fn: (table: unknown, cosmology?: unknown) => {
       const fn = 'mergerTable';

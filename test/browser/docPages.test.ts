@@ -30,6 +30,13 @@ describe('Markdown of the docs pages (markdown-it documentation, "Safety": html 
     expect(html).toContain('<h2 id="doc-formulas-and-sources-1">');
     expect(headingSlug('What this is, and what it is not')).toBe('what-this-is-and-what-it-is-not');
   });
+  it('links plain-text references to shipped pages, not those in code or links, nor unknown pages', () => {
+    const html = markdownToHtml('See docs/orbits.md#finite-number and docs/nothing.md; `docs/array.md`; [x](docs/physics.md).', PAGES);
+    expect(html).toContain('<a href="orbits.md#finite-number">docs/orbits.md#finite-number</a>');
+    expect(html).toContain('docs/nothing.md;');
+    expect(html).toContain('<code>docs/array.md</code>');
+    expect(html).toContain('<a href="docs/physics.md">x</a>');
+  });
   it('renders tables and code as the pages use them (GitHub-style tables, fenced code)', () => {
     const html = markdownToHtml('| a | b |\n| --- | --- |\n| 1 | 2 |\n\n```ts\nconst x = 1 < 2;\n```');
     expect(html).toMatch(/<table>[\s\S]*<td>1<\/td>/);

@@ -159,8 +159,16 @@ describe.runIf(runSuite)('inference in the app', { timeout: 120_000 }, () => {
     expect(await page.textContent('[data-prior-of="rate_norm"]')).toMatch(/^no prior; its uncertainty lognormalDist\(/);
     await page.check('[data-free-cell="rate_norm"] input[type="checkbox"]');
     await fill({ walkers: '4', steps: '12', seed: '2', workers: '2' });
+    // Also the local merger-rate density's posterior and the posterior-predictive h_c of the spectrum.
+    await page.click('[data-inference-panel] details.derived-cells summary');
+    await page.check('[data-inference-panel] input[data-derived="rate_today"]');
+    await page.selectOption('[data-inference-panel] select[aria-label="Spectrum cell for the predictive band"]', 'spectrum');
     await page.click('[data-action="run-inference"]');
     await page.waitForSelector('[data-job-result="infer"] [data-posterior="rate_norm"]', { timeout: 90_000 });
     expect(await page.textContent('[data-job-result="infer"] .job-time')).toMatch(/4 walkers x 12 steps, seed 2, burn-in 6/);
+    await page.waitForSelector('[data-job-result="infer"] [data-posterior="rate_today"]');
+    await page.waitForSelector('[data-job-result="infer"] [data-plot="predictive-band"] canvas');
+    // rate_norm and rate_today in the corner plot: two histograms and their pair.
+    expect(await page.$$eval('[data-corner-plot="2"] [data-plot^="corner-"]', (els) => els.length)).toBe(3);
   });
 });

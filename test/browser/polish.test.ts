@@ -1,6 +1,7 @@
 // Regression tests, in chromium, for issue 15's "Confusing" items finished here: the sheet's notes
 // and the docs pages shipped with the app, file-open messages, map legends and breakdown titles.
 import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Sheet } from '../../src/sheet/sheet';
@@ -16,6 +17,7 @@ const availability = browserAvailability();
 const runSuite = availability.ok || availability.required;
 const DEMO = Sheet.fromFile(readFileSync(join(PROJECT_ROOT, 'examples/demo.json'), 'utf8'));
 /** The first heading of a docs page as the repository has it (the shipped page must be this file). */
+const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
 const hexRgb = (hex: string) => [1, 3, 5].map((i) => parseInt(hex.slice(i, i + 2), 16));
 const docTitle = (page: string) => /^# (.+)$/m.exec(readFileSync(join(PROJECT_ROOT, 'docs', `${page}.md`), 'utf8'))![1];
 
@@ -53,6 +55,16 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     expect(await page.textContent('.doc-page h1')).toBe(docTitle('freeSpectrum'));
     await page.click('.docs-back');
     await page.waitForSelector('.doc-page[data-doc="statistics"] h1');
+    // A page's plain-text reference to another page ("docs/orbits.md" in physics.md) is a link too.
+    await page.click('[data-doc-page="physics"]');
+    await page.waitForSelector('.doc-page[data-doc="physics"] h1');
+    await page.click('.doc-page a[href="orbits.md"] >> nth=0');
+    await page.waitForSelector('.doc-page[data-doc="orbits"] h1');
+    expect(await page.textContent('.doc-page h1')).toBe(docTitle('orbits'));
+    // The side panel's tabs stay on one line each, side by side (six tabs at 1400 px).
+    const tabs = await page.$$eval('[role="tab"]', (els) => els.map((e) => e.getBoundingClientRect()).map((r) => ({ top: Math.round(r.top), height: Math.round(r.height) })));
+    expect(new Set(tabs.map((r) => r.top)).size, JSON.stringify(tabs)).toBe(1);
+    expect(Math.max(...tabs.map((r) => r.height)), JSON.stringify(tabs)).toBeLessThan(40);
     expect(await page.evaluate(() => (window as unknown as { cspViolations: string[] }).cspViolations)).toEqual([]);
 
     // Editing the notes is one undoable step; Escape leaves them as they were.
@@ -290,5 +302,26 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     expect(title).toContainEqual({ text: 'c', shift: 'sub' });
     // ... while a cell name in it stays as written (z_origin, mc_origin).
     expect(title.filter((r) => r.shift === 'normal').map((r) => r.text).join('')).toMatch(/\((z|mc)_origin\)$/);
+  });
+
+  it('has no serious or critical axe-core violations with a docs page open, the notes being edited and a merged message shown', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    await page.click('[data-tab="docs"]');
+    await page.waitForSelector('.doc-page h1');
+    await page.click('[data-action="edit-notes"]');
+    await page.setInputFiles('input[data-action="open-file"]', { name: 'a.png', mimeType: 'image/png', buffer: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]) });
+    await page.setInputFiles('input[data-action="open-file"]', { name: 'a.png', mimeType: 'image/png', buffer: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0]) });
+    await page.waitForSelector('.message.error[data-message-count="2"]');
+    const violations = (await page.evaluate(async (src) => {
+      // axe-core is evaluated through the DevTools protocol, which the page's CSP does not govern.
+      (0, eval)(src);
+      const axe = (window as unknown as { axe: { run(ctx: Document, opts: object): Promise<{ violations: { id: string; impact: string | null; nodes: { target: string[] }[] }[] }> } }).axe;
+      const r = await axe.run(document, { resultTypes: ['violations'] });
+      return r.violations.map((v) => ({ id: v.id, impact: v.impact, nodes: v.nodes.slice(0, 3).map((n) => n.target) }));
+    }, AXE_SOURCE)) as { id: string; impact: string | null }[];
+    const bad = violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
+    expect(bad, JSON.stringify(bad, null, 1)).toEqual([]);
+    await page.screenshot({ path: join(ARTIFACTS, 'docs-notes-messages.png') });
   });
 });

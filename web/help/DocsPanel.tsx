@@ -75,7 +75,7 @@ export function DocsPanel() {
       <Show when={text.state === 'ready' && text() === null}>
         <p class="trace-none">There is no page {services.docPage().page}.md in this build.</p>
       </Show>
-      <article class="doc-page" tabindex="-1" aria-label={`${services.docPage().page}.md`} data-doc={services.docPage().page} ref={article} onClick={onClick} innerHTML={text() ? markdownToHtml(text()!) : ''} />
+      <article class="doc-page" tabindex="-1" aria-label={`${services.docPage().page}.md`} data-doc={services.docPage().page} ref={article} onClick={onClick} innerHTML={text() ? markdownToHtml(text()!, DOC_PAGES) : ''} />
     </div>
   );
 }

@@ -13,9 +13,14 @@ import { PosteriorTable } from './PosteriorTable';
 import { loadInferencePins, pinOf, saveInferencePins, type PinnedInference } from './inferencePins';
 import type { InferJobResult, InferJobSpec } from './inferRun';
 import { fileStem } from '../files/download';
+import { isSheetObject } from '../engine/engine';
+import { math } from '../../src/sheet/mathInstance';
 import { likelihoodStarter } from '../jobs/starterCells';
+import { freeSpectra } from '../plots/sheetFreeSpectrumModel';
 import { StarterButton } from '../jobs/StarterButton';
 
+/** A number, or a quantity with a unit: what a posterior can be reported for. */
+const isScalar = (v: unknown) => (typeof v === 'number' && Number.isFinite(v)) || math.isUnit(v);
 const sameNames = (a: string[], b: string[]) => a.length === b.length && a.every((x, i) => x === b[i]);
 
 export function InferencePanel() {
@@ -29,6 +34,11 @@ export function InferencePanel() {
   // Cells holding a plain number: the likelihood candidates (ln L); those with no inputs: cells a prior can be given to.
   const numberCells = createMemo(() => session.cells().filter((c) => typeof session.value(c.name) === 'number').map((c) => c.name), undefined, { equals: sameNames });
   const inputs = createMemo(() => session.cells().filter((c) => session.value(c.name) !== undefined && session.dependencies(c.name).length === 0).map((c) => c.name), undefined, { equals: sameNames });
+  // Cells computed from others (a derived posterior), and spectrum cells (the posterior-predictive band).
+  const derivedChoices = createMemo(() => session.cells().filter((c) => session.dependencies(c.name).length > 0 && isScalar(session.value(c.name))).map((c) => c.name), undefined, { equals: sameNames });
+  const spectrumCells = createMemo(() => session.cells().filter((c) => isSheetObject(session.value(c.name)) && (session.value(c.name) as { kind: string }).kind === 'spectrum').map((c) => c.name), undefined, { equals: sameNames });
+  const [derived, setDerived] = createSignal<ReadonlySet<string>>(new Set());
+  const [bandCell, setBandCell] = createSignal('');
   const guessLikelihood = () => session.cells().find((c) => numberCells().includes(c.name) && (/LogLikelihood|binChiSquare/.test(c.formula) || /^(ln|log)_?L/i.test(c.name)))?.name ?? '';
   const [likelihood, setLikelihood] = createSignal(guessLikelihood());
   const [chosen, setChosen] = createSignal<ReadonlySet<string>>(new Set(session.cells().filter((c) => (c.prior ?? '').trim()).map((c) => c.name)));
@@ -66,7 +76,8 @@ export function InferencePanel() {
     if (S === null) return setFormError(`The seed must be a whole number of at least 0, got "${seed()}".`);
     const K = wholeIn(workers(), 1, 16);
     if (K === null) return setFormError(`Workers must be a whole number from 1 to 16, got "${workers()}".`);
-    const job: InferJobSpec = { kind: 'infer', likelihood: lik, free, walkers: W, steps: N, seed: S, burnIn: B, thin: T, derived: [], spectrumCell: null };
+    const extra = session.cells().filter((c) => derived().has(c.name) && !free.includes(c.name) && c.name !== lik).map((c) => c.name);
+    const job: InferJobSpec = { kind: 'infer', likelihood: lik, free, walkers: W, steps: N, seed: S, burnIn: B, thin: T, derived: extra, spectrumCell: bandCell() || null };
     client.start(session.toFileText(), job, K);
   };
 
@@ -122,6 +133,34 @@ export function InferencePanel() {
             <StarterButton starter={likelihoodStarter(session.cells(), (n) => session.value(n))} onAdded={setLikelihood} />
           </p>
         </Show>
+        <fieldset class="axis-fields">
+          <legend>also report</legend>
+          <label>
+            posterior-predictive h_c of
+            <CellSelect value={bandCell()} choices={spectrumCells()} label="Spectrum cell for the predictive band" emptyLabel="none" onChange={setBandCell} />
+          </label>
+          <details class="derived-cells">
+            <summary>derived cells ({derived().size} chosen)</summary>
+            <For each={derivedChoices()}>
+              {(name) => (
+                <label class="inline">
+                  <input
+                    type="checkbox"
+                    data-derived={name}
+                    checked={derived().has(name)}
+                    onChange={(e) => {
+                      const next = new Set(derived());
+                      if (e.currentTarget.checked) next.add(name);
+                      else next.delete(name);
+                      setDerived(next);
+                    }}
+                  />{' '}
+                  {name}
+                </label>
+              )}
+            </For>
+          </details>
+        </fieldset>
         <div class="job-buttons">
           <button type="button" class="primary" data-action="run-inference" disabled={busy()} onClick={run}>
             Run inference
@@ -154,6 +193,7 @@ export function InferencePanel() {
           <InferenceResultView
             result={d().result.result}
             corner={d().result.corner}
+            freeSpectrum={freeSpectra({ cells: session.cells(), valueOf: (n) => session.value(n) }).map((f) => ({ label: f.name, data: f.data }))[0]}
             workers={d().result.workers}
             elapsedMs={d().elapsedMs}
             fileStem={stem()}

@@ -3,13 +3,16 @@
 import { For, Show } from 'solid-js';
 import type { InferenceResult } from '../../src/statistics/sheetInference';
 import type { CornerModel } from '../../src/statistics/cornerPlot';
+import type { FreeSpectrumData } from '../../src/statistics/freeSpectrum';
+import { PlotView } from '../plots/PlotView';
+import { predictiveBandModel } from './predictiveBandModel';
 import { chainsCsv, inferenceSummary } from '../../src/statistics/inferenceReport';
 import { downloadText } from '../files/download';
 import { PosteriorTable } from './PosteriorTable';
 import { CornerPlot } from './CornerPlot';
 import { pinOf } from './inferencePins';
 
-export function InferenceResultView(props: { result: InferenceResult; corner: CornerModel; workers: number; elapsedMs: number; fileStem: string; onPin: (label: string) => void; onMessage: (t: string) => void }) {
+export function InferenceResultView(props: { result: InferenceResult; corner: CornerModel; freeSpectrum?: { label: string; data: FreeSpectrumData }; workers: number; elapsedMs: number; fileStem: string; onPin: (label: string) => void; onMessage: (t: string) => void }) {
   const r = () => props.result;
   const d = () => props.result.diagnostics;
   const stem = () => `${props.fileStem}-infer-seed${r().seed}`;
@@ -52,6 +55,7 @@ export function InferenceResultView(props: { result: InferenceResult; corner: Co
           Pin this result
         </button>
       </div>
+      <Show when={r().band}>{(b) => <PlotView model={() => predictiveBandModel(b(), props.freeSpectrum)} height={320} onMessage={props.onMessage} />}</Show>
       <CornerPlot result={r()} corner={props.corner} fileStem={stem()} onMessage={props.onMessage} />
     </div>
   );
