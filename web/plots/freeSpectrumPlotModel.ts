@@ -130,6 +130,15 @@ export function bandSeries(b: StrainBand, q: FreeSpectrumAxis, spanS: number): P
   return out;
 }
 
+/**
+ * The frequency axis of the bin plots: it starts at the power of ten below the lowest bin, so that at
+ * least two decades are labelled 10^n even when the bins span little more than one.
+ */
+export function binFrequencyAxis(lowestHz: number): PlotModel['x'] {
+  const min = Number.isFinite(lowestHz) && lowestHz > 0 ? 10 ** Math.floor(Math.log10(lowestHz / 1.3)) : undefined;
+  return { label: 'gravitational-wave frequency f (nHz)', scale: 'log', displayFactor: 1e9, min };
+}
+
 export function freeSpectrumPlotModel(input: FreeSpectrumPlotInput): PlotModel {
   const { quantity: q, data } = input;
   const series: PlotSeries[] = [];
@@ -158,7 +167,7 @@ export function freeSpectrumPlotModel(input: FreeSpectrumPlotInput): PlotModel {
   return {
     id: 'free-spectrum',
     title: `Free spectrum ${input.label}: posterior per frequency bin`,
-    x: { label: 'gravitational-wave frequency f (nHz)', scale: 'log', displayFactor: 1e9 },
+    x: binFrequencyAxis(data.frequencyHz[0]),
     y: { label: FREE_SPECTRUM_AXIS_LABELS[q], scale: 'log' },
     series,
     notes,
