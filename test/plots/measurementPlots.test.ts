@@ -111,6 +111,22 @@ describe('violins: the density of a bin drawn as an outline', () => {
     });
   });
 
+  it('samples of log10 h_c give the same medians on every axis as the same samples written as log10 rho_k', () => {
+    const d = demoFs.data;
+    // log10 h_c = log10 rho_k + (1/2) log10(12 pi^2 f^3 T), computed here from the convention.
+    const asHc = {
+      ...d,
+      quantity: 'log10Hc' as const,
+      prior: { kind: 'none' as const },
+      samples: d.samples.map((s, k) => Float64Array.from(s, (x) => x + 0.5 * Math.log10(12 * Math.PI ** 2 * d.frequencyHz[k] ** 3 * d.spanS))),
+    };
+    for (const q of ['hc', 'rho', 'psd'] as FreeSpectrumAxis[]) {
+      const a = freeSpectrumViolins(d, q).map((v) => v.median);
+      const b = freeSpectrumViolins(asHc, q).map((v) => v.median);
+      a.forEach((x, k) => expect(b[k] / x, `${q} bin ${k + 1}`).toBeCloseTo(1, 10));
+    }
+  });
+
   it('draws a model curve on the rho axis as h_c / sqrt(12 pi^2 f^3 T)', () => {
     const f = [2e-9, 5e-9, 1e-8];
     const hc = [1e-14, 6e-15, 4e-15];
