@@ -205,7 +205,8 @@ const wrapAxisTitles: Plugin<'line'> = {
       }
       if (id === 'y') chart.canvas.dataset.yTitleLines = JSON.stringify(lines);
     }
-    if (changed) queueMicrotask(() => chart.update('none'));
+    // A chart destroyed meanwhile (its panel closed) has no canvas any more: nothing to lay out.
+    if (changed) queueMicrotask(() => chart.canvas && chart.update('none'));
   },
 };
 
