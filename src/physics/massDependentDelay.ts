@@ -105,30 +105,39 @@ export function stalledFractionByMass(base: BinaryPopulation, cosmo: FlatLambdaC
   const mr = compositeNodes(base.log10MMin, base.log10MMax, PANELS, ORDER);
   const qr = compositeNodes(base.qMin, base.qMax, PANELS, ORDER);
   const zAll = compositeNodes(base.zMin, base.zMax, PANELS, ORDER);
+  // A separable base, density = zMass(z, M) massRatio(q): the z sums are taken of zMass and multiplied
+  // by massRatio(q) (the same sums of products, reordered), so the full-range sum is one per mass node.
+  const sep = base.separable;
+  const zSum = (zr: { nodes: Float64Array; weights: Float64Array }, lg: number, q: number): number => {
+    let s = 0;
+    if (sep) for (let c = 0; c < zr.nodes.length; c++) s += zr.weights[c] * sep.zMass(zr.nodes[c], lg);
+    else for (let c = 0; c < zr.nodes.length; c++) s += zr.weights[c] * base.density(zr.nodes[c], lg, q);
+    return s;
+  };
   let total = 0;
   let stalled = 0;
   for (let a = 0; a < mr.nodes.length; a++) {
+    const lg = mr.nodes[a];
+    const allOfMass = sep ? zSum(zAll, lg, NaN) : NaN;
     for (let b = 0; b < qr.nodes.length; b++) {
-      const lg = mr.nodes[a];
       const q = qr.nodes[b];
       const w = mr.weights[a] * qr.weights[b];
-      let all = 0;
-      for (let c = 0; c < zAll.nodes.length; c++) all += zAll.weights[c] * base.density(zAll.nodes[c], lg, q);
+      const ratio = sep ? sep.massRatio(q) : 1;
+      const all = sep ? allOfMass * ratio : zSum(zAll, lg, q);
       total += w * all;
       const t = lifetimeOf(lg, q);
       if (!(t >= 0 && Number.isFinite(t))) throw new RangeError(`lifetime must be finite and >= 0, got ${t} s at log10 M = ${lg}, q = ${q}`);
       if (t === 0) continue;
-      const zStall = redshiftOfAge(cosmo, now - t);
+      // the age table's inverse (ageInverse.ts, relative error in z below 1e-11)
+      const zStall = redshiftAtAge(cosmo, now - t);
       if (Number.isNaN(zStall)) {
         stalled += w * all; // the lifetime exceeds the age of the universe
         continue;
       }
       const hi = Math.min(base.zMax, zStall);
       if (!(hi > base.zMin)) continue;
-      const zr = compositeNodes(base.zMin, hi, PANELS, ORDER);
-      let part = 0;
-      for (let c = 0; c < zr.nodes.length; c++) part += zr.weights[c] * base.density(zr.nodes[c], lg, q);
-      stalled += w * part;
+      const part = zSum(compositeNodes(base.zMin, hi, PANELS, ORDER), lg, q);
+      stalled += w * (sep ? part * ratio : part);
     }
   }
   if (!(total > 0)) return 0;

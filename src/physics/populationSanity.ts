@@ -4,7 +4,7 @@
 // 2009, ApJ 690, 20).
 import { GYR_S } from './constants';
 import type { FlatLambdaCdm } from './cosmology';
-import { compositeNodes } from './gaussLegendre';
+import { compositeNodes, type QuadratureRule } from './gaussLegendre';
 import { checkPopulation } from './backgroundIntegral';
 import type { BinaryPopulation } from './populationTypes';
 
@@ -15,13 +15,38 @@ export const LOCAL_BLACK_HOLE_MASS_DENSITY_RANGE: readonly [number, number] = [3
 const PANELS = 4;
 const ORDER = 8;
 
-/** Int dlog10M dq n(z, ., .) at one z, Mpc^-3 per unit z. */
-function perUnitRedshift(pop: BinaryPopulation, z: number, weightOfMass: (msun: number) => number): number {
-  const mr = compositeNodes(pop.log10MMin, pop.log10MMax, PANELS, ORDER);
+/** The mass and mass-ratio rules of these checks, with Int dq p(q) once for a separable density. */
+interface MassRules {
+  mr: QuadratureRule;
+  qr: QuadratureRule;
+  /** Int dq massRatio(q) on qr for a separable density (density = zMass(z, M) massRatio(q)), else NaN. */
+  qIntegral: number;
+}
+
+function massRules(pop: BinaryPopulation): MassRules {
   const qr = compositeNodes(pop.qMin, pop.qMax, PANELS, ORDER);
+  let qIntegral = NaN;
+  if (pop.separable) {
+    qIntegral = 0;
+    for (let b = 0; b < qr.nodes.length; b++) qIntegral += qr.weights[b] * pop.separable.massRatio(qr.nodes[b]);
+  }
+  return { mr: compositeNodes(pop.log10MMin, pop.log10MMax, PANELS, ORDER), qr, qIntegral };
+}
+
+/**
+ * Int dlog10M dq n(z, ., .) at one z, Mpc^-3 per unit z. A separable density's q integral is the
+ * same at every (z, M) node, so it is taken once (the same sum of products, reordered).
+ */
+function perUnitRedshift(pop: BinaryPopulation, z: number, weightOfMass: (msun: number) => number, rules: MassRules = massRules(pop)): number {
+  const { mr, qr, qIntegral } = rules;
+  const sep = pop.separable;
   let s = 0;
   for (let a = 0; a < mr.nodes.length; a++) {
     const wm = mr.weights[a] * weightOfMass(Math.pow(10, mr.nodes[a]));
+    if (sep) {
+      s += wm * sep.zMass(z, mr.nodes[a]) * qIntegral;
+      continue;
+    }
     for (let b = 0; b < qr.nodes.length; b++) s += wm * qr.weights[b] * pop.density(z, mr.nodes[a], qr.nodes[b]);
   }
   return s;
@@ -44,8 +69,9 @@ export function mergedNumberDensityBetween(pop: BinaryPopulation, zLo: number, z
 function overRedshift(pop: BinaryPopulation, weightOfMass: (msun: number) => number, zLo = pop.zMin, zHi = pop.zMax): number {
   checkPopulation(pop);
   const zr = compositeNodes(zLo, zHi, PANELS, ORDER);
+  const rules = massRules(pop);
   let s = 0;
-  for (let c = 0; c < zr.nodes.length; c++) s += zr.weights[c] * perUnitRedshift(pop, zr.nodes[c], weightOfMass);
+  for (let c = 0; c < zr.nodes.length; c++) s += zr.weights[c] * perUnitRedshift(pop, zr.nodes[c], weightOfMass, rules);
   return s;
 }
 

@@ -7,7 +7,7 @@
 import type { RealisationSummary } from '../../src/statistics/realisationSummary';
 import type { FreeSpectrumData } from '../../src/statistics/freeSpectrum';
 import type { PlotModel, PlotSeries } from './plotModel';
-import { strainOnAxis, violinSeries, FREE_SPECTRUM_AXIS_LABELS, type FreeSpectrumAxis } from './freeSpectrumPlotModel';
+import { binFrequencyAxis, strainOnAxis, violinSeries, FREE_SPECTRUM_AXIS_LABELS, type FreeSpectrumAxis } from './freeSpectrumPlotModel';
 import { REALISATION_COLOR } from './palette';
 
 /** Single realisations drawn (thin lines). */
@@ -91,7 +91,7 @@ export function realisationPlotModel(input: RealisationPlotInput): PlotModel {
   return {
     id: 'realisations',
     title: input.freeSpectrum ? 'Realisations per bin and the free spectrum' : 'Realisations per bin',
-    x: { label: 'gravitational-wave frequency f (nHz)', scale: 'log', displayFactor: 1e9 },
+    x: binFrequencyAxis(Math.min(f[0], input.freeSpectrum?.data.frequencyHz[0] ?? Infinity)),
     y: { label: FREE_SPECTRUM_AXIS_LABELS[axis], scale: 'log' },
     series,
     notes,
