@@ -302,6 +302,10 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     expect(title).toContainEqual({ text: 'c', shift: 'sub' });
     // ... while a cell name in it stays as written (z_origin, mc_origin).
     expect(title.filter((r) => r.shift === 'normal').map((r) => r.text).join('')).toMatch(/\((z|mc)_origin\)$/);
+    // Its legend's "central 90% of h_c²" too.
+    const legend = JSON.parse((await page.getAttribute(origin, 'data-legend-runs')) ?? '[]') as { text: string; shift: string }[][];
+    expect(legend.length).toBeGreaterThan(0);
+    for (const entry of legend) expect(entry).toContainEqual({ text: 'c', shift: 'sub' });
   });
 
   it('has no serious or critical axe-core violations with a docs page open, the notes being edited and a merged message shown', async () => {
