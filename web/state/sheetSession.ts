@@ -2,7 +2,7 @@
 // performance marks the UI benchmark reads. Every edit goes through `edit()`, so every edit can be undone.
 // The sheet's recalculation is deferred and run here in slices of APP_SLICE_MS between the page's
 // events: a long recalculation never holds the page, and an edit made meanwhile joins it.
-import { batch, createSignal, type Accessor, type Setter } from 'solid-js';
+import { batch, createSignal, untrack, type Accessor, type Setter } from 'solid-js';
 import { Sheet, type CellSpec, type CellState } from '../engine/engine';
 import { APP_SLICE_MS, yieldToPage } from '../engine/slices';
 
@@ -120,9 +120,12 @@ export class SheetSession {
    * cell's signal, so a long sheet is not scanned again after every slice of a recalculation.
    */
   reader(): { cells: CellSpec[]; valueOf(name: string): unknown; stateOf(name: string): CellState } {
+    // Every change of the cells is followed by a completed recalculation (runSlice bumps `settled`
+    // when it finds no work too), so the cells are read untracked: a long sheet put in place is
+    // scanned once, when its values are there, not also while they are still pending.
     this.settled();
     const sheet = this.sheet;
-    return { cells: this.cells(), valueOf: (n) => sheet.value(n), stateOf: (n) => sheet.state(n) };
+    return { cells: untrack(() => this.cells()), valueOf: (n) => sheet.value(n), stateOf: (n) => sheet.state(n) };
   }
 
   /** Reactive value of a cell, or undefined when it has none (error, pending, absent). */
@@ -233,6 +236,7 @@ export class SheetSession {
   private replaceSheet(sheet: Sheet): void {
     this.unsubscribe();
     this.sheet = sheet;
+    this.cellList = null;
     this.attach();
     this.runSlice();
     this.refresh(true);
