@@ -217,7 +217,9 @@ export function galaxyPairRoutePopulation(p: GalaxyPairRouteParams): BinaryPopul
     return (s * Math.LN10) / (b * b);
   };
 
-  const qFloor = independent ? Math.max(1e-6, Math.pow(qgMin, b) * Math.pow(10, -2 * half)) : Math.pow(qgMin, b);
+  // Independent draws spread log10 q by sigma sqrt(2) about b log10 q_G: 6 sigma below the smallest q_G^b
+  // (4.2 of that spread) the density is negligible.
+  const qFloor = independent ? Math.max(1e-6, Math.pow(qgMin, b) * Math.pow(10, -half)) : Math.pow(qgMin, b);
   return {
     zMin: 0,
     zMax: p.zMax,

@@ -15,7 +15,7 @@ import { lockedMath } from './lockedMath';
 import { SheetEditError } from './sheetEditError';
 import { ALLOWED_CONSTANTS, ALLOWED_MATH_FUNCTIONS } from './allowedFunctions';
 import { renameInFormula, identifierTokens } from './renameReferences';
-import { canonicalCell, parseSheetFile, serializeSheetFile, SheetFileError, type SheetFile, FILE_FORMAT, FILE_VERSION } from './sheetFile';
+import { canonicalCell, cellFileText, parseSheetFile, serializeSheetFile, SheetFileError, type SheetFile, FILE_FORMAT, FILE_VERSION } from './sheetFile';
 
 export { SheetEditError } from './sheetEditError';
 export { SheetFileError } from './sheetFile';
@@ -33,6 +33,21 @@ interface CellRecord {
 }
 
 type Lookup = (name: string) => CellState | undefined;
+
+/** A recalculation under way: the cells in dependency order, how far it got, the cells it was
+ *  asked to recompute and those whose value it changed. */
+interface RecalcPass {
+  order: string[];
+  next: number;
+  edited: Set<string>;
+  changed: Set<string>;
+  notify: boolean;
+}
+
+/** A cell with no value yet, or a cycle error that may be stale (the cycle may be gone). */
+function isStale(state: CellState): boolean {
+  return state.status === 'pending' || (state.status === 'error' && state.error.kind === 'cycle');
+}
 
 const PENDING: CellState = Object.freeze({ status: 'pending' }) as CellState;
 
@@ -76,6 +91,9 @@ export class Sheet {
   /** Topological ranks of the whole sheet, kept while the graph does not change. */
   private ranked: { rank: Map<string, number>; order: string[]; cycles: ReadonlySet<string> } | null = null;
   private readonly builtinNames: ReadonlySet<string>;
+  /** The unfinished recalculation, when recalculation is deferred (see deferRecalculation). */
+  private pass: RecalcPass | null = null;
+  private deferred = false;
   private _title: string;
   private _notes: string;
 
@@ -83,14 +101,18 @@ export class Sheet {
     this.builtinNames = new Set(lockedMath().builtins.keys());
     this._title = typeof options.title === 'string' ? options.title : '';
     this._notes = typeof options.notes === 'string' ? options.notes : '';
-    for (const spec of options.cells ?? []) {
-      const s = this.normalize(spec);
-      if (this.records.has(s.name)) throw new SheetEditError(`cell name ${s.name} appears twice`, 'a cell name must be unique');
-      this.records.set(s.name, { spec: s, compiled: this.compile(s), state: PENDING });
-      this.order.push(s.name);
-      this.graph.setDependencies(s.name, this.records.get(s.name)!.compiled.deps);
-    }
+    for (const spec of options.cells ?? []) this.addLoaded(spec);
     this.recalculate(this.order, false);
+  }
+
+  /** Adds a cell of a sheet being built (compiled, not evaluated). */
+  private addLoaded(spec: CellSpec): void {
+    const s = this.normalize(spec);
+    if (this.records.has(s.name)) throw new SheetEditError(`cell name ${s.name} appears twice`, 'a cell name must be unique');
+    const compiled = this.compile(s);
+    this.records.set(s.name, { spec: s, compiled, state: PENDING });
+    this.order.push(s.name);
+    this.graph.setDependencies(s.name, compiled.deps);
   }
 
   // ---- files ---------------------------------------------------------------------------------
@@ -106,14 +128,50 @@ export class Sheet {
     }
   }
 
+  /**
+   * Builds a sheet from a parsed file a few cells at a time, for a page that must stay responsive:
+   * after each `sliceMs` of work it awaits `pause()`. The sheet comes back with its recalculation
+   * deferred and not yet run (see deferRecalculation). Throws SheetFileError as fromFile does.
+   */
+  static async fromFileInSlices(file: SheetFile, pause: () => Promise<void>, sliceMs: number): Promise<Sheet> {
+    const sheet = new Sheet({ title: file.title, notes: file.notes });
+    sheet.deferred = true;
+    let start = performance.now();
+    for (const spec of file.cells) {
+      try {
+        sheet.addLoaded(spec);
+        // The cell's file text now too, so the first save (an autosave) is not one long step.
+        const kept = sheet.records.get(sheet.order[sheet.order.length - 1])!.spec;
+        sheet.cellTexts.set(kept, cellFileText(kept));
+      } catch (e) {
+        if (e instanceof SheetEditError) throw new SheetFileError(`the sheet file has a bad cell: ${e.message}`);
+        throw e;
+      }
+      if (performance.now() - start > sliceMs) {
+        await pause();
+        start = performance.now();
+      }
+    }
+    sheet.recalculate(sheet.order);
+    return sheet;
+  }
+
   toFile(): SheetFile {
     return { format: FILE_FORMAT, version: FILE_VERSION, title: this._title, notes: this._notes, cells: this.cells() };
   }
 
   /** Stable JSON text (2-space indent, canonical key order, trailing newline). */
   toFileText(): string {
-    return serializeSheetFile(this.toFile());
+    const texts = this.cellTexts;
+    const file: SheetFile = { format: FILE_FORMAT, version: FILE_VERSION, title: this._title, notes: this._notes, cells: this.order.map((n) => this.records.get(n)!.spec) };
+    return serializeSheetFile(file, (spec) => {
+      let t = texts.get(spec);
+      if (t === undefined) texts.set(spec, (t = cellFileText(spec)));
+      return t;
+    });
   }
+  /** Each cell's file text, kept while its spec (replaced on every change) is the same object. */
+  private readonly cellTexts = new WeakMap<CellSpec, string>();
 
   // ---- reading -------------------------------------------------------------------------------
 
@@ -181,6 +239,60 @@ export class Sheet {
     return () => {
       this.observers.delete(observer);
     };
+  }
+
+  // ---- deferred recalculation ----------------------------------------------------------------
+
+  /**
+   * When on, an edit only plans its recalculation and the caller runs it in slices with
+   * recalculateSome (a page does, between its events); until it is complete some cells hold
+   * out-of-date values. An edit made meanwhile joins the unfinished work, so the values reached
+   * are those of a recalculation from scratch. Off (the default): every edit recalculates at once.
+   */
+  get deferRecalculation(): boolean {
+    return this.deferred;
+  }
+  set deferRecalculation(on: boolean) {
+    this.deferred = on;
+    if (!on) this.recalculateSome(() => false);
+  }
+
+  /** Whether a deferred recalculation is unfinished. */
+  get recalculating(): boolean {
+    return this.pass !== null;
+  }
+
+  /** Cells the unfinished recalculation has still to look at (0 when it is complete). */
+  get cellsToRecalculate(): number {
+    return this.pass ? this.pass.order.length - this.pass.next : 0;
+  }
+
+  /**
+   * Continues the unfinished recalculation until it is complete or `stop()`, asked after each cell
+   * evaluated, says to stop. True when it is complete.
+   */
+  recalculateSome(stop: () => boolean): boolean {
+    const pass = this.pass;
+    if (!pass) return true;
+    const lookup: Lookup = (n) => this.records.get(n)?.state;
+    let skipped = 0;
+    while (pass.next < pass.order.length) {
+      const name = pass.order[pass.next++];
+      const rec = this.records.get(name);
+      if (!rec) continue;
+      // Skip a cell none of whose inputs changed, unless it has no value yet or its cycle error
+      // is stale (it is no longer on a cycle).
+      if (!pass.edited.has(name) && !isStale(rec.state) && !rec.compiled.deps.some((d) => pass.changed.has(d))) {
+        if ((++skipped & 1023) === 0 && stop()) break;
+        continue;
+      }
+      if (pass.notify) this.emit((o) => o.pending?.(name));
+      this.store(pass, name, this.evaluateCompiled(name, rec.compiled, lookup));
+      if (stop()) break;
+    }
+    if (pass.next < pass.order.length) return false;
+    this.pass = null;
+    return true;
   }
 
   // ---- editing -------------------------------------------------------------------------------
@@ -281,6 +393,8 @@ export class Sheet {
     this.records.delete(oldName);
     this.records.set(newName, r);
     r.spec = { ...r.spec, name: newName };
+    // Its own messages name the cell (a syntax error's, say): compile it again under the new name.
+    if (!rewrites.has(oldName)) r.compiled = this.compile(r.spec);
     this.order = this.order.map((n) => (n === oldName ? newName : n));
     this.positions = null;
     this.graph.removeCell(oldName);
@@ -402,12 +516,12 @@ export class Sheet {
     const after = rec.compiled.deps;
     const sameInputs = before.length === after.length && after.every((d) => before.includes(d));
     this.structureChanged();
-    if (sameInputs) {
+    if (sameInputs && !this.deferred && !this.pass) {
       // The graph is as it was: recompute downstream in the cached topological order.
       this.propagate(name);
       return;
     }
-    this.graph.setDependencies(name, after);
+    if (!sameInputs) this.graph.setDependencies(name, after);
     this.recalculate([name]);
   }
 
@@ -467,40 +581,49 @@ export class Sheet {
   /**
    * Recomputes the edited cells and whatever reads them, in dependency order. A cell is
    * recomputed only when it was edited or one of its inputs changed; unchanged values stop
-   * the propagation there.
+   * the propagation there. With deferred recalculation this only plans the work (joined with
+   * the unfinished work of earlier edits); recalculateSome runs it.
    */
   private recalculate(edited: Iterable<string>, notify = true, alwaysChanged: Iterable<string> = []): void {
     this.ranked = null; // the graph or the set of cells changed
-    notify = notify && this.observers.size > 0;
     const editedSet = new Set(edited);
-    const affected = new Set([...this.graph.downstream(editedSet)].filter((n) => this.records.has(n)));
+    const changed = new Set(alwaysChanged);
+    const old = this.pass;
+    if (old) {
+      // The unfinished work joins this one: cells it has still to evaluate for its own edits or
+      // because they have no value yet, and the cells whose value it changed (their readers may
+      // not have been recomputed yet).
+      for (let i = old.next; i < old.order.length; i++) {
+        const n = old.order[i];
+        const rec = this.records.get(n);
+        if (old.edited.has(n) || (rec && isStale(rec.state))) editedSet.add(n);
+      }
+      for (const n of old.changed) changed.add(n);
+      notify ||= old.notify;
+    }
+    const all = editedSet.size === this.records.size && changed.size === 0 && [...editedSet].every((n) => this.records.has(n));
+    const affected = all ? new Set(this.order) : new Set([...this.graph.downstream([...editedSet, ...changed])].filter((n) => this.records.has(n)));
     const plan = this.graph.plan(affected, this.positionMap());
     // Edited names that are no longer cells (removed, renamed) count as changed, and so does a
     // renamed cell under its new name (cells waiting for that name must now read it).
-    const changed = new Set([...editedSet].filter((n) => !this.records.has(n)));
-    for (const n of alwaysChanged) changed.add(n);
-    const lookup: Lookup = (n) => this.records.get(n)?.state;
-    const store = (name: string, state: CellState) => {
-      const rec = this.records.get(name)!;
-      if (!sameState(rec.state, state)) changed.add(name);
-      rec.state = state;
-      if (!notify) return;
-      if (state.status === 'value') this.emit((o) => o.value?.(name, state.value));
-      else if (state.status === 'error') this.emit((o) => o.error?.(name, state.error));
-    };
+    for (const n of editedSet) if (!this.records.has(n)) changed.add(n);
+    const pass: RecalcPass = { order: plan.order, next: 0, edited: editedSet, changed, notify };
     for (const [name, cycle] of plan.cycles) {
       if (notify) this.emit((o) => o.pending?.(name));
-      store(name, { status: 'error', error: cycleError(name, cycle) });
+      this.store(pass, name, { status: 'error', error: cycleError(name, cycle) });
     }
-    for (const name of plan.order) {
-      const rec = this.records.get(name)!;
-      // Skip a cell none of whose inputs changed, unless it has no value yet or its cycle error
-      // is stale (it is no longer on a cycle).
-      const stale = rec.state.status === 'pending' || (rec.state.status === 'error' && rec.state.error.kind === 'cycle');
-      if (!editedSet.has(name) && !stale && !rec.compiled.deps.some((d) => changed.has(d))) continue;
-      if (notify) this.emit((o) => o.pending?.(name));
-      store(name, this.evaluateCompiled(name, rec.compiled, lookup));
-    }
+    this.pass = pass;
+    if (!this.deferred) this.recalculateSome(() => false);
+  }
+
+  /** Stores a cell's new state, noting whether it changed, and tells the observers. */
+  private store(pass: RecalcPass, name: string, state: CellState): void {
+    const rec = this.records.get(name)!;
+    if (!sameState(rec.state, state)) pass.changed.add(name);
+    rec.state = state;
+    if (!pass.notify || this.observers.size === 0) return;
+    if (state.status === 'value') this.emit((o) => o.value?.(name, state.value));
+    else if (state.status === 'error') this.emit((o) => o.error?.(name, state.error));
   }
 
   /** Evaluates one compiled formula with inputs read through `lookup`. Never throws. */

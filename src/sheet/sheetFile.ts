@@ -73,16 +73,25 @@ export function canonicalCell(spec: CellSpec): CellSpec {
 }
 
 /** The canonical text of a sheet file. */
-export function serializeSheetFile(file: SheetFile): string {
-  const cells = file.cells.map(canonicalCell);
-  const canonical = {
+export function serializeSheetFile(file: SheetFile, cellText: (cell: CellSpec) => string = cellFileText): string {
+  const cells = file.cells;
+  const header = {
     format: FILE_FORMAT,
-    version: cells.some((c) => c.prior !== undefined) ? FILE_VERSION : FILE_VERSION_WITHOUT_PRIORS,
+    version: cells.some((c) => typeof c.prior === 'string' && c.prior !== '') ? FILE_VERSION : FILE_VERSION_WITHOUT_PRIORS,
     title: file.title ?? '',
     notes: file.notes ?? '',
-    cells,
+    cells: [],
   };
-  return JSON.stringify(canonical, null, 2) + '\n';
+  // JSON.stringify(whole file, null, 2), put together from each cell's own text (which a sheet
+  // keeps, so that saving a long sheet after an edit does not write every cell again).
+  const head = JSON.stringify(header, null, 2);
+  if (cells.length === 0) return `${head}\n`;
+  return `${head.slice(0, -'[]\n}'.length)}[\n${cells.map(cellText).join(',\n')}\n  ]\n}\n`;
+}
+
+/** A cell's text in a sheet file: canonical keys, indented for its place in the list of cells. */
+export function cellFileText(cell: CellSpec): string {
+  return JSON.stringify(canonicalCell(cell), null, 2).replace(/^/gm, '    ');
 }
 
 function where(path: ReadonlyArray<PropertyKey>, version = FILE_VERSION): string {

@@ -273,7 +273,8 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     await page.waitForFunction((f) => (document.querySelector('.pin-label') as HTMLInputElement | null)?.value === `spectrum: rate_norm = ${f}`, rateFormula);
     await setFormula(page, 'rate_norm', rateFormula);
     await page.waitForFunction(() => (document.querySelector('.pin-label') as HTMLInputElement | null)?.value === 'spectrum: as now');
-    const spectra = headlessDemo().cells().filter((c) => isSheetObject(headlessDemo().value(c.name)) && (headlessDemo().value(c.name) as { kind: string }).kind === 'spectrum');
+    const demo = headlessDemo(); // built once: a demo built per cell took over a minute on a loaded machine
+    const spectra = demo.cells().filter((c) => isSheetObject(demo.value(c.name)) && (demo.value(c.name) as { kind: string }).kind === 'spectrum');
     expect(spectra.length).toBeGreaterThan(1);
     await page.selectOption('select[data-pin-choice]', spectra[1].name);
     await page.click('[data-action="pin"]');

@@ -77,4 +77,20 @@ describe('job client: cancel wins', () => {
     worker.reply({ type: 'result', jobId, result: RESULT, elapsedMs: 2 });
     expect(client.status()).toEqual({ state: 'done', result: RESULT, elapsedMs: 2 });
   });
+
+  it('progress carries the acceptance and autocorrelation estimate of an inference, kept until the next one', () => {
+    const { client, worker, jobId } = started();
+    const detail = { step: 30, steps: 100, acceptance: 0.41, tau: 3.2 };
+    worker.reply({ type: 'progress', jobId, done: 30, total: 100, detail });
+    expect(client.status()).toMatchObject({ state: 'running', done: 30, total: 100, detail });
+    worker.reply({ type: 'progress', jobId, done: 31, total: 100 });
+    expect(client.status()).toMatchObject({ state: 'running', done: 31, detail });
+  });
+
+  it('starts a job on the number of workers asked for', () => {
+    const worker = new StandInWorker();
+    const client = new JobClient(() => worker);
+    client.start('{}', JOB, 3);
+    expect(worker.sent[0]).toMatchObject({ type: 'start', workers: 3 });
+  });
 });

@@ -302,6 +302,10 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     expect(title).toContainEqual({ text: 'c', shift: 'sub' });
     // ... while a cell name in it stays as written (z_origin, mc_origin).
     expect(title.filter((r) => r.shift === 'normal').map((r) => r.text).join('')).toMatch(/\((z|mc)_origin\)$/);
+    // Its legend's "central 90% of h_c²" too.
+    const legend = JSON.parse((await page.getAttribute(origin, 'data-legend-runs')) ?? '[]') as { text: string; shift: string }[][];
+    expect(legend.length).toBeGreaterThan(0);
+    for (const entry of legend) expect(entry).toContainEqual({ text: 'c', shift: 'sub' });
   });
 
   it('has no serious or critical axe-core violations with a docs page open, the notes being edited and a merged message shown', async () => {
@@ -323,5 +327,35 @@ describe.runIf(runSuite)('issue 15, confusing items', { timeout: 60_000 }, () =>
     const bad = violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
     expect(bad, JSON.stringify(bad, null, 1)).toEqual([]);
     await page.screenshot({ path: join(ARTIFACTS, 'docs-notes-messages.png') });
+  });
+
+  it('keeps the label of a chosen switch readable under the pointer (view switch at 1000 px, current docs page)', async () => {
+    await s.freshDemo();
+    const { page } = s;
+    // WCAG 2.1 contrast ratio of two sRGB colours (W3C WCAG 2.1, relative luminance definition).
+    const contrastOf = (sel: string) =>
+      page.$eval(sel, (el) => {
+        const rgb = (c: string) => (c.match(/\d+(\.\d+)?/g) ?? []).slice(0, 3).map(Number);
+        const lum = (c: number[]) => {
+          const [r, g, b] = c.map((v) => v / 255).map((v) => (v <= 0.03928 ? v / 12.92 : ((v + 0.055) / 1.055) ** 2.4));
+          return 0.2126 * r + 0.7152 * g + 0.0722 * b;
+        };
+        const st = getComputedStyle(el);
+        const [a, b] = [lum(rgb(st.color)), lum(rgb(st.backgroundColor))].sort((x, y) => y - x);
+        return (a + 0.05) / (b + 0.05);
+      });
+    await page.setViewportSize({ width: 1000, height: 800 });
+    try {
+      await page.click('[data-view-button="side"]');
+      await page.hover('[data-view-button="side"]');
+      // WCAG 2.1 success criterion 1.4.3: at least 4.5:1 for text.
+      expect(await contrastOf('[data-view-button="side"]')).toBeGreaterThanOrEqual(4.5);
+      await page.click('[data-tab="docs"]');
+      await page.waitForSelector('[data-doc-page][aria-current="page"]');
+      await page.hover('[data-doc-page][aria-current="page"]');
+      expect(await contrastOf('[data-doc-page][aria-current="page"]')).toBeGreaterThanOrEqual(4.5);
+    } finally {
+      await page.setViewportSize({ width: 1400, height: 900 });
+    }
   });
 });

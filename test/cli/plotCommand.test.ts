@@ -52,7 +52,7 @@ describe('strainsheet plot', { timeout: 60_000 }, () => {
       }
     }
     // One legend entry per series, each inside the page, none overlapping another, the plot or the axis titles.
-    expect(fig.legend.map((l) => l.label)).toEqual(['spectrum', 'spectrum_eccentric', 'spectrum_stellar', 'measured: power law γ=4.333, 90% band', 'measured: amplitude at 31.7 nHz with 90% interval']);
+    expect(fig.legend.map((l) => l.label)).toEqual(['spectrum', 'spectrum_eccentric', 'spectrum_stellar', 'measured: power law γ=4.333, 90% band', 'measured: amplitude at 31.7 nHz with 90% interval', 'measured_free_spectrum: median and 90% per bin']);
     fig.legend.forEach((l, i) => {
       expect(inside(l.box, page), l.label).toBe(true);
       expect(overlap(l.box, fig.plot), l.label).toBe(false);

@@ -11,6 +11,7 @@ import { axisMap, freeSpectrumPlotModel, freeSpectrumViolins, type FreeSpectrumA
 import { amplitudeGammaPlotModel, posteriorContour, regionOf } from '../../web/plots/amplitudeGammaPlotModel';
 import { fitCurve } from '../../web/plots/sheetAmplitudeGammaModel';
 import { freeSpectra } from '../../web/plots/sheetFreeSpectrumModel';
+import { sheetSpectrumModel } from '../../web/plots/sheetSpectrumModel';
 import { gaussianAmplitudeGamma, sampledAmplitudeGamma } from '../../src/statistics/amplitudeGammaPosterior';
 import { F_YR_HZ } from '../../src/physics/constants';
 import { loadSheet } from '../../src/cli/sheetLoading';
@@ -125,6 +126,26 @@ describe('violins: the density of a bin drawn as an outline', () => {
       const b = freeSpectrumViolins(asHc, q).map((v) => v.median);
       a.forEach((x, k) => expect(b[k] / x, `${q} bin ${k + 1}`).toBeCloseTo(1, 10));
     }
+  });
+
+  it('on the spectrum plot, each bin shows the median and central 90% of its samples; on the residual-power axis at rho_k^2 T', () => {
+    const d = demoFs.data;
+    const model = sheetSpectrumModel(demoReader, 'psd');
+    const s = model.series.find((x) => x.label === 'measured_free_spectrum: median and 90% per bin')!;
+    expect(s.kind).toBe('interval');
+    d.samples.forEach((samples, k) => {
+      // Independent order: each sample to P = rho^2 T first (docs/freeSpectrum.md), then quantiles (definition 7, Hyndman & Fan 1996).
+      const p = Array.from(samples, (x) => 10 ** (2 * x) * d.spanS).sort((a, b) => a - b);
+      const q7 = (pr: number) => {
+        const h = (p.length - 1) * pr;
+        const i = Math.floor(h);
+        return p[i] + (h - i) * (p[Math.min(i + 1, p.length - 1)] - p[i]);
+      };
+      // Interpolating in log10 rho rather than in P differs by at most the gap between neighbouring samples (1,500 per bin).
+      expect(Math.abs(Math.log10(s.y[k] / q7(0.5))), `bin ${k + 1}`).toBeLessThan(0.01);
+      expect(Math.abs(Math.log10(s.yLow![k] / q7(0.05)))).toBeLessThan(0.02);
+      expect(Math.abs(Math.log10(s.yHigh![k] / q7(0.95)))).toBeLessThan(0.02);
+    });
   });
 
   it('draws a model curve on the rho axis as h_c / sqrt(12 pi^2 f^3 T)', () => {

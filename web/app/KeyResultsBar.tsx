@@ -53,7 +53,12 @@ export function KeyResultsBar() {
   const { session } = services;
   // A card keeps its cell while that cell exists: a cell in error or being edited (no value, so no
   // kind to recognise) shows its own state instead of another cell taking its place.
-  const results = createMemo<KeyResult[]>((previous) => keepPicks(previous, session.cells(), pickKeyResults(session.cells(), (n) => session.value(n)), (n) => session.state(n).status !== 'value'), []);
+  // Picks are made again when the cells change or a recalculation is complete (reading the
+  // engine's values directly, not one signal per cell, so a long sheet is not scanned per cell).
+  const results = createMemo<KeyResult[]>((previous) => {
+    const { cells, valueOf, stateOf } = session.reader();
+    return keepPicks(previous, cells, pickKeyResults(cells, valueOf), (n) => stateOf(n).status !== 'value');
+  }, []);
   // Keyed by role and name, so the bar's buttons are rebuilt only when a different cell is picked.
   const keys = createMemo(() => results().map((r) => `${r.role}\u0000${r.cell.name}`), undefined, {
     equals: (a, b) => a.length === b.length && a.every((x, i) => x === b[i]),

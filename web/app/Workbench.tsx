@@ -1,6 +1,7 @@
 // The whole screen: tool bar, key results, the sheet, and the side panel (plots, scans, reference).
-import { createEffect, createMemo, createSignal, onCleanup, onMount, Show } from 'solid-js';
+import { createEffect, createSignal, onCleanup, onMount, Show } from 'solid-js';
 import { Sheet } from '../engine/engine';
+import { loadSheet } from '../engine/loadSheet';
 import { SheetSession } from '../state/sheetSession';
 import { ServicesProvider, type DocLocation, type Services, type Tone } from './services';
 import { SheetNotes } from './SheetNotes';
@@ -20,10 +21,18 @@ import { cellTableCsv } from '../files/cellTableCsv';
 import type { Completion } from '../help/formulaContext';
 import { DEMO_TEXT } from './demoSheet';
 
-function initialSheet(notify: (t: string, tone?: Tone) => void): { sheet: Sheet; autosaveAllowed: boolean } {
-  const restored = restoreAutosave((text) => Sheet.fromFile(text));
+/** Autosaved sheets at least this long (about 1,500 cells) are loaded in slices once the page is up. */
+const LOAD_LATER_FROM = 200_000;
+
+function initialSheet(notify: (t: string, tone?: Tone) => void): { sheet: Sheet; autosaveAllowed: boolean; later?: string } {
+  let later: string | undefined;
+  const restored = restoreAutosave((text) => {
+    if (text.length < LOAD_LATER_FROM) return Sheet.fromFile(text);
+    later = text;
+    return new Sheet({ title: 'Loading the autosaved sheet…' });
+  });
   if (restored.message) notify(restored.message, restored.sheet ? 'info' : 'error');
-  if (restored.sheet) return { sheet: restored.sheet, autosaveAllowed: restored.safeToWrite };
+  if (restored.sheet) return { sheet: restored.sheet, autosaveAllowed: restored.safeToWrite, later };
   return { sheet: demoSheet(notify), autosaveAllowed: restored.safeToWrite };
 }
 
@@ -46,12 +55,41 @@ export function Workbench() {
 
   const start = initialSheet(notify);
   const session = new SheetSession(start.sheet);
-  let autosaveAllowed = start.autosaveAllowed;
+  // A long autosave is loaded after the page is up; until then nothing is autosaved over it.
+  let autosaveAllowed = start.later === undefined && start.autosaveAllowed;
+  if (start.later !== undefined) {
+    loadSheet(start.later).then(
+      (sheet) => {
+        autosaveAllowed = start.autosaveAllowed;
+        session.restore(sheet);
+      },
+      (err: unknown) => {
+        // Set the unreadable autosave aside (once), as a small one is, and show the demo.
+        const aside = restoreAutosave(() => {
+          throw err;
+        });
+        if (aside.message) notify(aside.message, 'error');
+        autosaveAllowed = aside.safeToWrite;
+        session.restore(demoSheet(notify));
+      },
+    );
+  }
   const [autosaveState, setAutosaveState] = createSignal(autosaveAllowed ? 'autosave on' : 'autosave off');
   let lastAutosaveError = '';
-  session.onChange = (s) => {
+  // The autosave is written in a task of its own (a long sheet's text and its storage take a
+  // while; they are not added to the edit's task), and at once when the page is left.
+  let autosaveQueued = false;
+  session.onChange = () => {
+    if (!autosaveAllowed || autosaveQueued) return;
+    autosaveQueued = true;
+    setTimeout(saveNow, 0);
+  };
+  window.addEventListener('pagehide', () => saveNow());
+  const saveNow = () => {
+    if (!autosaveQueued) return;
+    autosaveQueued = false;
     if (!autosaveAllowed) return;
-    const r = writeAutosave(s.toFileText());
+    const r = writeAutosave(session.toFileText());
     if (r.ok) {
       lastAutosaveError = '';
       setAutosaveState(`autosaved ${new Date().toLocaleTimeString()}`);
@@ -82,14 +120,20 @@ export function Workbench() {
     }
   })();
   const builtins = () => builtinList;
-  const completions = createMemo<Completion[]>(() => {
-    const cells = session.cells().map<Completion>((c) => {
+  // Built when a formula box first asks after the cells changed (not on every change: a long
+  // sheet would pay for it at each structure change, typed into or not).
+  let completionList: { cells: unknown; list: Completion[] } | null = null;
+  const completions = (): Completion[] => {
+    const all = session.cells();
+    if (completionList?.cells === all) return completionList.list;
+    const cells = all.map<Completion>((c) => {
       const fn = /^\s*[A-Za-z_][A-Za-z0-9_]*\s*\(/.test(c.formula) && /\)\s*=(?!=)/.test(c.formula);
       return { name: c.name, kind: fn ? 'function' : 'cell', detail: c.unit ? `cell [${c.unit}]` : 'cell' };
     });
     const fns = builtins().map<Completion>((b) => ({ name: b.name, kind: 'built-in', detail: b.summary }));
-    return [...cells, ...fns];
-  });
+    completionList = { cells: all, list: [...cells, ...fns] };
+    return completionList.list;
+  };
 
   // The Docs tab opens on the physics page until a reference asks for another page.
   const [docPage, setDocPage] = createSignal<DocLocation>({ page: 'physics' });
@@ -98,15 +142,19 @@ export function Workbench() {
     session,
     notify,
     focusCell(name, part = 'formula') {
-      const row = rows.get(name);
-      if (!row) return;
+      let row = rows.get(name);
+      if (!row?.isConnected) {
+        services.revealRow?.(name);
+        row = rows.get(name);
+      }
+      if (!row?.isConnected) return;
       row.scrollIntoView({ block: 'nearest' });
       const target = row.querySelector<HTMLElement>(part === 'formula' ? '.formula-input' : '.name-button');
       target?.focus();
     },
     registerRow(name, el) {
       if (el) rows.set(name, el);
-      else rows.delete(name);
+      else if (!rows.get(name)?.isConnected) rows.delete(name);
     },
     rowOrder: () => groupBySection(session.cells()).flatMap((g) => g.cells.map((c) => c.name)),
     builtins,
@@ -124,7 +172,7 @@ export function Workbench() {
   // Files.
   let filePicker!: HTMLInputElement;
   const openFile = async (file: File) => {
-    const r = await openSheetFile(file, (text) => Sheet.fromFile(text));
+    const r = await openSheetFile(file, loadSheet);
     if (!r.ok) {
       notify(r.message, 'error');
       return;

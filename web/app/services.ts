@@ -12,6 +12,8 @@ export interface Services {
   /** Moves keyboard focus to a cell's formula box (and scrolls it into view). */
   focusCell(name: string, part?: 'formula' | 'name'): void;
   registerRow(name: string, el: HTMLElement | undefined): void;
+  /** Set by the sheet panel: scrolls a row that is not drawn (a long sheet draws the rows in view) into view, drawing it. */
+  revealRow?: (name: string) => void;
   /** Cell names in screen order, for keyboard navigation. */
   rowOrder(): string[];
   builtins: Accessor<Builtin[]>;

@@ -13,7 +13,7 @@ export type OpenOutcome<T> = { ok: true; sheet: T } | { ok: false; message: stri
 
 const SHEET_IS = 'a sheet file is JSON text (such as name.strainsheet.json)';
 
-export async function openSheetFile<T>(file: Blob & { name?: string }, parse: (text: string) => T): Promise<OpenOutcome<T>> {
+export async function openSheetFile<T>(file: Blob & { name?: string }, parse: (text: string) => T | Promise<T>): Promise<OpenOutcome<T>> {
   const label = file.name ? `"${printable(file.name, 120)}"` : 'The file';
   const refuse = (why: string): OpenOutcome<T> => ({ ok: false, message: printable(`${label} was not opened: ${sentence(why)} The sheet is unchanged.`) });
   if (file.size > MAX_SHEET_FILE_BYTES) {
@@ -40,7 +40,7 @@ export async function openSheetFile<T>(file: Blob & { name?: string }, parse: (t
     return refuse(`it holds binary data, not text (character U+${code} at line ${at.line}, column ${at.column}); ${SHEET_IS}`);
   }
   try {
-    return { ok: true, sheet: parse(text) };
+    return { ok: true, sheet: await parse(text) };
   } catch (err) {
     return refuse(err instanceof Error ? err.message : String(err));
   }

@@ -6,7 +6,7 @@ import { createMemo, createSignal, For, onCleanup, Show } from 'solid-js';
 import { useServices } from '../app/services';
 import { JobClient } from '../jobs/jobClient';
 import { CellSelect } from '../jobs/CellSelect';
-import { coreCount, JobStatusView, wholeIn } from '../jobs/JobStatusView';
+import { JobStatusView, wholeIn, WORKERS_HINT } from '../jobs/JobStatusView';
 import { FreeCellList } from './FreeCellList';
 import { InferenceResultView } from './InferenceResultView';
 import { PosteriorTable } from './PosteriorTable';
@@ -53,7 +53,7 @@ export function InferencePanel() {
   const [burnIn, setBurnIn] = createSignal('');
   const [thin, setThin] = createSignal('1');
   const [seed, setSeed] = createSignal('1');
-  const [workers, setWorkers] = createSignal(String(coreCount()));
+  const [workers, setWorkers] = createSignal('1');
   const [formError, setFormError] = createSignal<string | null>(null);
 
   const run = () => {
@@ -124,7 +124,7 @@ export function InferencePanel() {
             seed <input type="number" min="0" step="1" data-field="seed" value={seed()} onInput={(e) => setSeed(e.currentTarget.value)} />
           </label>
           <label>
-            workers <input type="number" min="1" max="16" step="1" data-field="workers" value={workers()} onInput={(e) => setWorkers(e.currentTarget.value)} />
+            workers <input type="number" min="1" max="16" step="1" data-field="workers" title={WORKERS_HINT} value={workers()} onInput={(e) => setWorkers(e.currentTarget.value)} />
           </label>
         </fieldset>
         <Show when={numberCells().length > 0 && !guessLikelihood()}>

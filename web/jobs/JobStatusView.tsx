@@ -40,11 +40,12 @@ export function JobStatusView(props: { status: JobStatus; unit: string; detail?:
   );
 }
 
-/** The browser's logical cores (at least 1, at most 16): the default number of Web Workers. */
-export function coreCount(): number {
-  const n = globalThis.navigator?.hardwareConcurrency ?? 1;
-  return Math.max(1, Math.min(16, Math.floor(n)));
-}
+/**
+ * Why the run panels start with one worker: 1 runs in the job worker, which already holds the sheet;
+ * each further Web Worker first loads the engine and rebuilds the sheet (seconds; README, Performance),
+ * so more workers pay off only for runs much longer than that.
+ */
+export const WORKERS_HINT = '1 runs in the job worker itself; each further worker first rebuilds the sheet (seconds), so more pay off only for long runs. The numbers do not depend on it.';
 
 /** A whole number from a form field, or null when the text is not one within [min, max]. */
 export function wholeIn(text: string, min: number, max: number): number | null {

@@ -6,7 +6,7 @@ import { useServices } from '../app/services';
 import { isSheetObject } from '../engine/engine';
 import { JobClient } from './jobClient';
 import { CellSelect } from './CellSelect';
-import { coreCount, JobStatusView, wholeIn } from './JobStatusView';
+import { JobStatusView, wholeIn, WORKERS_HINT } from './JobStatusView';
 import { RealisationTable } from './RealisationTable';
 import { realisationRunModel } from './realisationRunModel';
 import { freeSpectra } from '../plots/sheetFreeSpectrumModel';
@@ -39,7 +39,7 @@ export function RealisationsPanel() {
   const [cell, setCell] = createSignal(cells()[0] ?? '');
   const [count, setCount] = createSignal('1000');
   const [seed, setSeed] = createSignal('1');
-  const [workers, setWorkers] = createSignal(String(coreCount()));
+  const [workers, setWorkers] = createSignal('1');
   const [formError, setFormError] = createSignal<string | null>(null);
   const status = client.status;
   const busy = () => status().state === 'running' || status().state === 'cancelling';
@@ -87,7 +87,7 @@ export function RealisationsPanel() {
             seed <input type="number" min="0" step="1" data-field="seed" value={seed()} onInput={(e) => setSeed(e.currentTarget.value)} />
           </label>
           <label>
-            workers <input type="number" min="1" max="16" step="1" data-field="workers" value={workers()} onInput={(e) => setWorkers(e.currentTarget.value)} />
+            workers <input type="number" min="1" max="16" step="1" data-field="workers" title={WORKERS_HINT} value={workers()} onInput={(e) => setWorkers(e.currentTarget.value)} />
           </label>
         </fieldset>
         <div class="job-buttons">

@@ -31,7 +31,8 @@ export function PlotsPanel() {
 
   /** Every cell's formula now, for naming pinned curves by what changed. */
   const formulas = createMemo(() => Object.fromEntries(session.cells().map((c) => [c.name, c.formula])));
-  const reader = (): SheetReader => ({ cells: session.cells(), valueOf: (n) => session.value(n), stateOf: (n) => session.state(n) });
+  // Plots scan every cell: they are drawn again when the cells change or a recalculation is complete.
+  const reader = (): SheetReader => session.reader();
   /** Every spectrum cell's current curve. */
   const spectra = createMemo<StrainCurve[]>(() => spectrumCurves(reader()));
 
@@ -53,7 +54,10 @@ export function PlotsPanel() {
     return { model: m, stale: null };
   });
 
-  const breakdowns = createMemo(() => breakdownModels(session.cells(), (n) => session.value(n)));
+  const breakdowns = createMemo(() => {
+    const r = session.reader();
+    return breakdownModels(r.cells, r.valueOf);
+  });
 
   const [pinChoice, setPinChoice] = createSignal('spectrum');
   const pinCurrent = () => {

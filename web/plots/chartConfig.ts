@@ -205,7 +205,8 @@ const wrapAxisTitles: Plugin<'line'> = {
       }
       if (id === 'y') chart.canvas.dataset.yTitleLines = JSON.stringify(lines);
     }
-    if (changed) queueMicrotask(() => chart.update('none'));
+    // A chart destroyed meanwhile (its panel closed) has no canvas any more: nothing to lay out.
+    if (changed) queueMicrotask(() => chart.canvas && chart.update('none'));
   },
 };
 
@@ -213,13 +214,13 @@ const wrapAxisTitles: Plugin<'line'> = {
 const TITLE_INK = '#1f2a36';
 
 /** Draws one line of rich text centred at (0, 0) of the current transform, baseline middle. */
-function drawRuns(ctx: CanvasRenderingContext2D, runs: TextRun[], size: number, family: string, weight = 'normal'): void {
+function drawRuns(ctx: CanvasRenderingContext2D, runs: TextRun[], size: number, family: string, weight = 'normal', align: 'center' | 'left' = 'center'): void {
   const fontOf = (r: TextRun) => `${weight} ${r.shift === 'normal' ? size : size * SCRIPT_SCALE}px ${family}`;
   const widths = runs.map((r) => {
     ctx.font = fontOf(r);
     return ctx.measureText(r.text).width;
   });
-  let x = -widths.reduce((a, b) => a + b, 0) / 2;
+  let x = align === 'left' ? 0 : -widths.reduce((a, b) => a + b, 0) / 2;
   runs.forEach((r, i) => {
     ctx.font = fontOf(r);
     const dy = r.shift === 'sub' ? size * 0.3 : r.shift === 'super' ? -size * 0.38 : 0;
@@ -266,6 +267,24 @@ const richAxisTitles: Plugin<'line'> = {
       ctx.restore();
       chart.canvas.dataset[`${id}TitleRuns`] = JSON.stringify(runs);
     }
+    // Legend entries with scripts (h_c²), drawn where the legend put their (transparent) text:
+    // after the sample and half a font size, in the middle of the entry's box.
+    const legend = chart.legend as unknown as { legendItems?: LegendItem[]; legendHitBoxes?: { left: number; top: number; height: number }[] } | undefined;
+    const items = legend?.legendItems ?? [];
+    const richLegend: TextRun[][] = [];
+    items.forEach((item, i) => {
+      const box = legend?.legendHitBoxes?.[i];
+      if (!box || !RICH_LEGEND.has(item)) return;
+      const runs = richRuns(item.text);
+      ctx.save();
+      ctx.fillStyle = TITLE_INK;
+      ctx.textBaseline = 'middle';
+      ctx.translate(box.left + swatchWidth(LEGEND_FONT_PX) + LEGEND_FONT_PX / 2, box.top + box.height / 2);
+      drawRuns(ctx, runs, LEGEND_FONT_PX, Chart.defaults.font.family ?? 'sans-serif', 'normal', 'left');
+      ctx.restore();
+      richLegend.push(runs);
+    });
+    chart.canvas.dataset.legendRuns = JSON.stringify(richLegend);
     // The plot's title, in the middle of the box the title plugin laid out.
     const block = (chart as unknown as { titleBlock?: { left: number; right: number; top: number; bottom: number; options: { display?: boolean; text?: string | string[]; font?: { size?: number; weight?: string } } } }).titleBlock;
     const text = block?.options.display ? block.options.text : undefined;
@@ -309,6 +328,8 @@ function swatchImage(series: PlotSeries): HTMLCanvasElement | undefined {
 }
 
 const swatchCache = new WeakMap<PlotSeries, HTMLCanvasElement | undefined>();
+/** Legend entries whose text richAxisTitles draws (in the trade's notation). */
+const RICH_LEGEND = new WeakSet<LegendItem>();
 
 /** Legend entries: one per series, with the series' own swatch. */
 function legendItems(chart: Chart): LegendItem[] {
@@ -318,7 +339,12 @@ function legendItems(chart: Chart): LegendItem[] {
     if (!series) return item;
     if (!swatchCache.has(series)) swatchCache.set(series, swatchImage(series));
     const image = swatchCache.get(series);
-    return image ? { ...item, pointStyle: image, lineWidth: 0 } : item;
+    const withSwatch = image ? { ...item, pointStyle: image, lineWidth: 0 } : item;
+    // Text with sub- or superscripts is drawn by richAxisTitles; chart.js keeps its place.
+    if (!richRuns(item.text).some((r) => r.shift !== 'normal')) return withSwatch;
+    const rich = { ...withSwatch, fontColor: 'rgba(0, 0, 0, 0)' };
+    RICH_LEGEND.add(rich);
+    return rich;
   });
 }
 

@@ -173,3 +173,40 @@ export function freeSpectrumPlotModel(input: FreeSpectrumPlotInput): PlotModel {
     notes,
   };
 }
+
+/** Central credibility of the per-bin intervals a free spectrum shows on the spectrum plot. */
+export const BIN_INTERVAL_LEVEL = 0.9;
+
+/**
+ * A free spectrum as per-bin intervals of h_c for the spectrum plot: the median and the central 90%
+ * of each bin's samples (Hyndman & Fan 1996 definition 7 quantiles), mapped to h_c(f_k) by the
+ * convention above.
+ */
+export function freeSpectrumBins(label: string, data: FreeSpectrumData): { label: string; legend: string; frequencyHz: number[]; hc: number[]; hcLower: number[]; hcUpper: number[] } {
+  const cached = binsCache.get(data);
+  if (cached && cached.label === label) return cached;
+  const made = computeBins(label, data);
+  binsCache.set(data, made);
+  return made;
+}
+
+/** Per-bin intervals are sorted out once per data object (the spectrum plot is redrawn on every edit). */
+const binsCache = new WeakMap<FreeSpectrumData, ReturnType<typeof computeBins>>();
+
+function computeBins(label: string, data: FreeSpectrumData) {
+  const q = (sorted: Float64Array, p: number) => {
+    const h = (sorted.length - 1) * p;
+    const i = Math.floor(h);
+    return sorted[i] + (h - i) * ((sorted[Math.min(i + 1, sorted.length - 1)] ?? sorted[i]) - sorted[i]);
+  };
+  const out = { label, legend: `${label}: median and ${Math.round(BIN_INTERVAL_LEVEL * 100)}% per bin`, frequencyHz: Array.from(data.frequencyHz), hc: [] as number[], hcLower: [] as number[], hcUpper: [] as number[] };
+  data.samples.forEach((s, k) => {
+    const { scale, shift } = axisMap(data, k, 'hc');
+    const sorted = Float64Array.from(s).sort();
+    const at = (p: number) => 10 ** (scale * q(sorted, p) + shift);
+    out.hc.push(at(0.5));
+    out.hcLower.push(at((1 - BIN_INTERVAL_LEVEL) / 2));
+    out.hcUpper.push(at((1 + BIN_INTERVAL_LEVEL) / 2));
+  });
+  return out;
+}

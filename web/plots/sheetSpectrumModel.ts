@@ -4,6 +4,8 @@ import { isSheetObject, type CellSpec, type CellState } from '../engine/engine';
 import { spectrumPlotModel, type BinnedStrain, type MeasuredAmplitude, type RealisationBands, type StrainCurve, type VerticalQuantity } from './spectrumPlotModel';
 import { binsFromJson, realisationBandsFromJson, curveFromSpectrumJson, drawingGrid, hubbleConstant, isOneArgumentFunction, measuredFromJson, sampleFrequencyFunction } from './sheetPlotData';
 import type { PlotModel } from './plotModel';
+import { freeSpectrumBins } from './freeSpectrumPlotModel';
+import type { FreeSpectrumData } from '../../src/statistics/freeSpectrum';
 
 export interface SheetReader {
   cells: CellSpec[];
@@ -52,6 +54,9 @@ export function sheetSpectrumModel(sheet: SheetReader, quantity: VerticalQuantit
     } else if (v.kind === 'realisations') {
       const r = realisationBandsFromJson(c.name, v.toJSON());
       if (r) realisations.push(r);
+    } else if (v.kind === 'freeSpectrum' && (v as unknown as { data?: FreeSpectrumData }).data) {
+      // A measured free spectrum: each bin's median and central 90% (the violins are on the free-spectrum plot).
+      bins.push(freeSpectrumBins(c.name, (v as unknown as { data: FreeSpectrumData }).data));
     } else if (/bin|freeSpectrum/i.test(v.kind)) {
       const b = binsFromJson(c.name, v.toJSON(), h0);
       if (b) bins.push(b);

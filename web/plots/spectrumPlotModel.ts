@@ -40,6 +40,8 @@ export interface MeasuredAmplitude {
 /** Measured values in frequency bins (free spectrum), converted to h_c by the extractor. */
 export interface BinnedStrain {
   label: string;
+  /** The legend's text, when more should be said than "per-bin values". */
+  legend?: string;
   frequencyHz: number[];
   hc: number[];
   hcLower: number[];
@@ -165,7 +167,7 @@ export function spectrumPlotModel(input: SpectrumPlotInput): PlotModel {
   for (const b of input.bins) {
     series.push({
       id: `${b.label}:bins`,
-      label: `${b.label}: per-bin values`,
+      label: b.legend ?? `${b.label}: per-bin values`,
       kind: 'interval',
       x: b.frequencyHz,
       y: b.hc.map((h, k) => conv(h, b.frequencyHz[k])),

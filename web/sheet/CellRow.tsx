@@ -1,6 +1,6 @@
 // One named cell on screen: name, formula (editable), value with unit, status, note and source,
 // and the row's actions (trace, rename, duplicate, move, delete).
-import { createMemo, createSignal, For, Show } from 'solid-js';
+import { createMemo, createSignal, For, onCleanup, Show } from 'solid-js';
 import { useServices } from '../app/services';
 import { formatValue, type CellSpec, type CellState } from '../engine/engine';
 import { FormulaBox } from './FormulaBox';
@@ -113,6 +113,11 @@ export function CellRow(props: { spec: CellSpec }) {
       ref={(el) => {
         rowEl = el;
         services.registerRow(name(), el);
+        // A long sheet drops rows scrolled out of view: forget this one once it is gone.
+        onCleanup(() => {
+          const n = name();
+          queueMicrotask(() => services.registerRow(n, undefined));
+        });
       }}
     >
       <div class="cell-name" role="cell">

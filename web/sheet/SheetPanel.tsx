@@ -1,10 +1,12 @@
-// The sheet: sections of named rows, and a form to add a cell to any section.
+// The sheet: sections of named rows (a long sheet draws only the rows in view), and a form to
+// add a cell to any section.
 import { createMemo, createSignal, For, Show } from 'solid-js';
 import { useServices } from '../app/services';
 import type { CellSpec } from '../engine/engine';
 import { CellRow } from './CellRow';
 import { FormulaBox } from './FormulaBox';
 import { groupBySection, LOOSE_SECTION, sectionChoices } from './sections';
+import { createRowWindow, titleKey } from './rowWindow';
 
 export function SheetPanel() {
   const services = useServices();
@@ -18,10 +20,15 @@ export function SheetPanel() {
   // keeps every row that is still there, with its focus and the text being typed.
   const groups = createMemo(() => groupBySection(session.cells()));
   const sectionNames = createMemo(() => groups().map((g) => g.name), undefined, { equals: sameList });
-  const namesIn = (section: string) => groups().find((g) => g.name === section)?.cells.map((c) => c.name) ?? [];
+  const rows = createRowWindow(services, groups);
 
   return (
     <div class="sheet">
+      <Show when={session.cellsToRecalculate() > 0}>
+        <p class="recalculating" role="status" data-recalculating={session.cellsToRecalculate()}>
+          Recalculating: {session.cellsToRecalculate().toLocaleString('en')} cells to look at; values shown may be out of date.
+        </p>
+      </Show>
       <div class="sheet-table" role="table" aria-label="Cells of the sheet">
         <div class="sheet-head" role="row">
           <span role="columnheader">name</span>
@@ -30,18 +37,41 @@ export function SheetPanel() {
           <span role="columnheader">status</span>
           <span role="columnheader">note · source</span>
         </div>
-        <For each={sectionNames()}>
-          {(section) => (
-            <section class="sheet-section" data-section={section} role="rowgroup" aria-label={section}>
-              <div class="section-title-row" role="row">
-                <div role="cell">
-                  <h2 class="section-title">{section}</h2>
+        <div class="sheet-rows" role="presentation" ref={rows.attach}>
+          <For each={sectionNames()}>
+            {(section) => (
+              <section class="sheet-section" data-section={section} role="rowgroup" aria-label={section}>
+                <div class="row-slot" data-row-slot={titleKey(section)} ref={rows.measure}>
+                  <div class="section-title-row" role="row">
+                    <div role="cell">
+                      <h2 class="section-title">{section}</h2>
+                    </div>
+                  </div>
                 </div>
-              </div>
-              <For each={namesIn(section)}>{(n) => <Show when={specs().get(n)}>{(spec) => <CellRow spec={spec()} />}</Show>}</For>
-            </section>
-          )}
-        </For>
+                <For each={rows.drawnIn(section)}>
+                  {(n) => {
+                    // The row's spec, or its last one while the row is being removed (a sheet
+                    // replaced): reads that come before the removal must not fail.
+                    let last: CellSpec | undefined;
+                    const spec = () => (last = specs().get(n) ?? last);
+                    // One element per row (the rows not drawn above it are its top margin), so
+                    // that drawing other rows never moves it (a moved element loses the focus).
+                    return (
+                      <div class="row-slot" data-row-slot={n} ref={rows.measure} style={{ 'margin-top': rows.gapBefore(n) > 0 ? `${rows.gapBefore(n)}px` : undefined }}>
+                        <Show when={spec()}>
+                          <CellRow spec={spec()!} />
+                        </Show>
+                      </div>
+                    );
+                  }}
+                </For>
+                <Show when={rows.gapAfter(section) > 0}>
+                  <div class="row-gap" aria-hidden="true" style={{ height: `${rows.gapAfter(section)}px` }} />
+                </Show>
+              </section>
+            )}
+          </For>
+        </div>
       </div>
       <Show when={sectionNames().length === 0}>
         <p class="empty-sheet">This sheet has no cells yet. Add one below.</p>

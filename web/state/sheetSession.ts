@@ -1,7 +1,10 @@
 // The live sheet behind the screen: one Sheet, per-cell signals the rows read, undo/redo, and
 // performance marks the UI benchmark reads. Every edit goes through `edit()`, so every edit can be undone.
+// The sheet's recalculation is deferred and run here in slices of APP_SLICE_MS between the page's
+// events: a long recalculation never holds the page, and an edit made meanwhile joins it.
 import { batch, createSignal, type Accessor, type Setter } from 'solid-js';
 import { Sheet, type CellSpec, type CellState } from '../engine/engine';
+import { APP_SLICE_MS, yieldToPage } from '../engine/slices';
 
 /** Outcome of an edit: refused edits (bad name, ...) carry the engine's reason for the user. */
 export type EditOutcome = { ok: true } | { ok: false; message: string };
@@ -31,6 +34,15 @@ export class SheetSession {
   private setCanUndo: Setter<string | null>;
   readonly canRedo: Accessor<string | null>;
   private setCanRedo: Setter<string | null>;
+  /** Cells the unfinished recalculation has still to look at (0 when the values are up to date). */
+  readonly cellsToRecalculate: Accessor<number>;
+  private setCellsToRecalculate: Setter<number>;
+  /** Bumps when a recalculation is complete (or a sheet is put in place). */
+  readonly settled: Accessor<number>;
+  private setSettled: Setter<number>;
+  private sliceQueued = false;
+  private measureEdit = false;
+  private settledWaiters: Array<() => void> = [];
   /** Called after each edit that changed the sheet (autosave listens here). */
   onChange: (session: SheetSession) => void = () => {};
 
@@ -39,8 +51,44 @@ export class SheetSession {
     [this.revision, this.setRevision] = createSignal(0);
     [this.canUndo, this.setCanUndo] = createSignal<string | null>(null);
     [this.canRedo, this.setCanRedo] = createSignal<string | null>(null);
+    [this.cellsToRecalculate, this.setCellsToRecalculate] = createSignal(0);
+    [this.settled, this.setSettled] = createSignal(0);
     this.sheet = sheet;
     this.attach();
+    this.runSlice();
+  }
+
+  /** Resolves once the values are up to date (at once when they are). */
+  whenSettled(): Promise<void> {
+    if (!this.sheet.recalculating) return Promise.resolve();
+    return new Promise((resolve) => this.settledWaiters.push(resolve));
+  }
+
+  /** Runs one slice of the sheet's recalculation now, and queues the next when work is left. */
+  private runSlice(): void {
+    const sheet = this.sheet;
+    sheet.deferRecalculation = true;
+    const end = performance.now() + APP_SLICE_MS;
+    const done = sheet.recalculateSome(() => performance.now() >= end);
+    this.setCellsToRecalculate(sheet.cellsToRecalculate);
+    if (done) {
+      this.setSettled((n) => n + 1);
+      if (this.measureEdit) {
+        // The engine's share of edit -> plot (the UI benchmark reports both).
+        this.measureEdit = false;
+        performance.measure('strainsheet:recalculate', 'strainsheet:edit');
+      }
+      const waiters = this.settledWaiters;
+      this.settledWaiters = [];
+      for (const w of waiters) w();
+      return;
+    }
+    if (this.sliceQueued) return;
+    this.sliceQueued = true;
+    void yieldToPage().then(() => {
+      this.sliceQueued = false;
+      this.runSlice();
+    });
   }
 
   /** The engine object, for read-only calls (builtins, evaluateWith, dependencies). */
@@ -48,10 +96,13 @@ export class SheetSession {
     return this.sheet;
   }
 
+  /** The cells in sheet order: one shared array per structure change (do not change it). */
   cells(): CellSpec[] {
     this.structure();
-    return this.sheet.cells();
+    this.cellList ??= this.sheet.cells();
+    return this.cellList;
   }
+  private cellList: CellSpec[] | null = null;
 
   /** Reactive state of one cell. */
   state(name: string): CellState {
@@ -61,6 +112,17 @@ export class SheetSession {
       this.states.set(name, entry);
     }
     return entry[0]();
+  }
+
+  /**
+   * The cells and a way to read any cell's value and state, for views that scan the whole sheet
+   * (plots, key results): reactive on the cells and on each completed recalculation, not on each
+   * cell's signal, so a long sheet is not scanned again after every slice of a recalculation.
+   */
+  reader(): { cells: CellSpec[]; valueOf(name: string): unknown; stateOf(name: string): CellState } {
+    this.settled();
+    const sheet = this.sheet;
+    return { cells: this.cells(), valueOf: (n) => sheet.value(n), stateOf: (n) => sheet.state(n) };
   }
 
   /** Reactive value of a cell, or undefined when it has none (error, pending, absent). */
@@ -100,8 +162,7 @@ export class SheetSession {
     try {
       performance.mark('strainsheet:edit');
       change(this.sheet);
-      // The engine's share of edit -> plot (the UI benchmark reports both).
-      performance.measure('strainsheet:recalculate', 'strainsheet:edit');
+      this.measureEdit = true;
     } catch (err) {
       // A refused edit may have been partly applied: restore the text we had.
       if (this.sheet.toFileText() !== before) this.replaceSheet(Sheet.fromFile(before));
@@ -120,6 +181,7 @@ export class SheetSession {
       this.openGroup = opts.group ?? null;
       this.updateHistorySignals();
     }
+    this.runSlice();
     this.refresh(true);
     this.onChange(this);
     return { ok: true };
@@ -163,19 +225,28 @@ export class SheetSession {
     this.onChange(this);
   }
 
+  /** Puts a sheet in place without an undo step or a change (the autosave loaded after start). */
+  restore(sheet: Sheet): void {
+    this.replaceSheet(sheet);
+  }
+
   private replaceSheet(sheet: Sheet): void {
     this.unsubscribe();
     this.sheet = sheet;
     this.attach();
+    this.runSlice();
     this.refresh(true);
   }
 
   private attach(): void {
     this.unsubscribe = this.sheet.subscribe({
-      pending: () => this.queueRefresh(false),
-      value: () => this.queueRefresh(false),
-      error: () => this.queueRefresh(false),
-      structure: () => this.queueRefresh(true),
+      pending: (name) => this.queueRefresh(false, name),
+      value: (name) => this.queueRefresh(false, name),
+      error: (name) => this.queueRefresh(false, name),
+      structure: () => {
+        this.cellList = null;
+        this.queueRefresh(true);
+      },
     });
   }
 
@@ -184,22 +255,36 @@ export class SheetSession {
     this.setCanRedo(this.redoStack.at(-1)?.label ?? null);
   }
 
-  private queueRefresh(structural: boolean): void {
+  private queueRefresh(structural: boolean, name?: string): void {
     if (structural) this.structuralPending = true;
+    if (name !== undefined) this.touched.add(name);
     if (this.refreshQueued) return;
     this.refreshQueued = true;
     queueMicrotask(() => this.refresh(this.structuralPending));
   }
   private structuralPending = false;
+  /** Cells whose state the engine reported since the last refresh. */
+  private touched = new Set<string>();
 
-  /** Copies the engine's states into the signals; only changed states notify. */
+  /**
+   * Copies the engine's states into the signals; only changed states notify. After a change of
+   * structure (or a new sheet) every signal is compared, else only those of the cells reported.
+   */
   private refresh(structural: boolean): void {
     this.refreshQueued = false;
     this.structuralPending = false;
+    const touched = this.touched;
+    this.touched = new Set();
+    if (structural) this.cellList = null;
     batch(() => {
-      for (const [name, [get, set]] of this.states) {
+      const update = (name: string, entry: [Accessor<CellState>, Setter<CellState>]) => {
         const next = this.safeState(name);
-        if (!sameState(get(), next)) set(next);
+        if (!sameState(entry[0](), next)) entry[1](next);
+      };
+      if (structural) for (const [name, entry] of this.states) update(name, entry);
+      else for (const name of touched) {
+        const entry = this.states.get(name);
+        if (entry) update(name, entry);
       }
       if (structural) this.setStructure((n) => n + 1);
       this.setRevision((n) => n + 1);
