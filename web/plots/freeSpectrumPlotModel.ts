@@ -183,6 +183,17 @@ export const BIN_INTERVAL_LEVEL = 0.9;
  * convention above.
  */
 export function freeSpectrumBins(label: string, data: FreeSpectrumData): { label: string; legend: string; frequencyHz: number[]; hc: number[]; hcLower: number[]; hcUpper: number[] } {
+  const cached = binsCache.get(data);
+  if (cached && cached.label === label) return cached;
+  const made = computeBins(label, data);
+  binsCache.set(data, made);
+  return made;
+}
+
+/** Per-bin intervals are sorted out once per data object (the spectrum plot is redrawn on every edit). */
+const binsCache = new WeakMap<FreeSpectrumData, ReturnType<typeof computeBins>>();
+
+function computeBins(label: string, data: FreeSpectrumData) {
   const q = (sorted: Float64Array, p: number) => {
     const h = (sorted.length - 1) * p;
     const i = Math.floor(h);
