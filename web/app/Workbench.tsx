@@ -76,9 +76,20 @@ export function Workbench() {
   }
   const [autosaveState, setAutosaveState] = createSignal(autosaveAllowed ? 'autosave on' : 'autosave off');
   let lastAutosaveError = '';
-  session.onChange = (s) => {
+  // The autosave is written in a task of its own (a long sheet's text and its storage take a
+  // while; they are not added to the edit's task), and at once when the page is left.
+  let autosaveQueued = false;
+  session.onChange = () => {
+    if (!autosaveAllowed || autosaveQueued) return;
+    autosaveQueued = true;
+    setTimeout(saveNow, 0);
+  };
+  window.addEventListener('pagehide', () => saveNow());
+  const saveNow = () => {
+    if (!autosaveQueued) return;
+    autosaveQueued = false;
     if (!autosaveAllowed) return;
-    const r = writeAutosave(s.toFileText());
+    const r = writeAutosave(session.toFileText());
     if (r.ok) {
       lastAutosaveError = '';
       setAutosaveState(`autosaved ${new Date().toLocaleTimeString()}`);
