@@ -7,7 +7,7 @@ import type { FlatLambdaCdm } from './cosmology';
 import { redshiftOfAge } from './delayedPopulation';
 import { ageAtRedshift, redshiftAtAge } from './ageInverse';
 import { adaptiveZRule } from './adaptiveZRule';
-import { compositeNodes, gaussLegendreRule } from './gaussLegendre';
+import { compositeNodes, compositeSum, gaussLegendreRule } from './gaussLegendre';
 import { checkPopulation } from './backgroundIntegral';
 import type { BinaryPopulation, ZRule } from './populationTypes';
 
@@ -190,7 +190,8 @@ export function stalledFractionByMass(base: BinaryPopulation, cosmo: FlatLambdaC
       }
       const hi = Math.min(base.zMax, zStall);
       if (!(hi > base.zMin)) continue;
-      const part = zSum(compositeNodes(base.zMin, hi, PANELS, ORDER), lg, q);
+      // the rule compositeNodes(base.zMin, hi, PANELS, ORDER), summed without allocating it per (M, q)
+      const part = sep ? compositeSum(base.zMin, hi, PANELS, ORDER, (z) => sep.zMass(z, lg)) : compositeSum(base.zMin, hi, PANELS, ORDER, (z) => base.density(z, lg, q));
       stalled += w * (sep ? part * ratio : part);
     }
   }
