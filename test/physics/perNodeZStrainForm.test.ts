@@ -73,6 +73,22 @@ describe('per-(M, q) z integral of a mass-dependent delay', () => {
     }
   });
 
+  it('a base starting at z = 0.5 (coalescences bounded below too): constant lifetimes equal the fixed-lifetime form to 1e-4; lifetimes growing with M and q converge (default vs finer resolution) to 1e-5', () => {
+    // an invented general density (not separable as given), zero below z = 0.5
+    const late: BinaryPopulation = { zMin: 0.5, zMax: 3, log10MMin: 7, log10MMax: 10.5, qMin: 0.1, qMax: 1, density: (z, x, q) => 1e-3 * Math.pow(1 + z, 1.5) * Math.exp(-Math.pow(10, x - 9.5)) * Math.pow(q, -0.3) };
+    const freqs = [1e-9, 3e-8, 2e-7];
+    const fine = { zPanels: 4, log10MPanels: 8, qPanels: 4, order: 8 };
+    for (const tauGyr of [0.3, 2, 6]) {
+      const perNode = characteristicStrainSquared(delayedPopulationByMass(late, cosmo, () => tauGyr * GYR_S), freqs);
+      const fixed = characteristicStrainSquared(delayedPopulation(late, cosmo, tauGyr * GYR_S), freqs);
+      for (let k = 0; k < freqs.length; k++) expect(rel(perNode[k], fixed[k]), `tau ${tauGyr} Gyr, f = ${freqs[k]} Hz`).toBeLessThan(1e-4);
+      const byMass = delayedPopulationByMass(late, cosmo, (x, q) => tauGyr * GYR_S * (0.5 + 0.2 * (x - 7) + 0.3 * q));
+      const coarse = characteristicStrainSquared(byMass, freqs);
+      const finer = characteristicStrainSquared(byMass, freqs, { resolution: fine });
+      for (let k = 0; k < freqs.length; k++) expect(rel(coarse[k], finer[k]), `by mass, tau ${tauGyr} Gyr, f = ${freqs[k]} Hz`).toBeLessThan(1e-5);
+    }
+  });
+
   // H = 16 is the demo's (lifetimes 0.03-0.3 Gyr), H = 1 gives Gyr lifetimes. (With H = 0.05 lifetimes pass
   // the age of the universe inside the mass range, a kink in M and q that both forms resolve only to
   // about 1% at the default resolution.)
