@@ -16,13 +16,14 @@ import { adaptiveZRule, type PanelledRule } from './adaptiveZRule';
 import { massModelOf, type MassModel } from './circularMassModels';
 import { KINK_TOL, kinkRedshifts, withKinkBreaks } from './zKinks';
 import { cutOffsetLog10 } from './iscoCut';
+import { perNodeZStrainForm } from './perNodeZStrainForm';
 import type { BinaryPopulation } from './populationTypes';
 import type { IntegrationResolution } from './backgroundIntegral';
 
 /** 4 G^(5/3) / (3 pi^(1/3) c^2) Msun^(5/3) Mpc^-3: the strain form with M in Msun and n in Mpc^-3. */
-const STRAIN_FORM_MSUN_MPC = (((4 * Math.pow(G_SI, 5 / 3)) / (3 * Math.pow(Math.PI, 1 / 3) * C_SI * C_SI)) * Math.pow(M_SUN_KG, 5 / 3)) / (MPC_M * MPC_M * MPC_M);
+export const STRAIN_FORM_MSUN_MPC = (((4 * Math.pow(G_SI, 5 / 3)) / (3 * Math.pow(Math.PI, 1 / 3) * C_SI * C_SI)) * Math.pow(M_SUN_KG, 5 / 3)) / (MPC_M * MPC_M * MPC_M);
 /** Error control of the z panels: a panel's estimated error relative to the whole z integral. */
-const Z_TOL = 1e-6;
+export const Z_TOL = 1e-6;
 
 /** The z rule of every form of the spectrum integral: the composite rule refined by error control on the model's indicator. */
 export function spectrumZRule(pop: BinaryPopulation, res: IntegrationResolution, model: MassModel = massModelOf(pop, res)): PanelledRule {
@@ -31,6 +32,8 @@ export function spectrumZRule(pop: BinaryPopulation, res: IntegrationResolution,
 
 /** h_c^2 at each frequency (Hz); see the file comment. */
 export function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, cutFactor: number, res: IntegrationResolution, shape?: (ratio: number) => number, scaleHz = 1): Float64Array {
+  // a density with steps in z that move with (M, q): z integrated inside each (M, q)
+  if (pop.zIntegral) return perNodeZStrainForm(pop, freqsHz, cutFactor, res, shape, scaleHz);
   const model = massModelOf(pop, res);
   const zr = spectrumZRule(pop, res, model);
   const nz = zr.nodes.length;

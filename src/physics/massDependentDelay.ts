@@ -5,10 +5,11 @@
 // coalescence redshift with dn/dz_c = dn/dz_f |dt/dz|(z_c) / |dt/dz|(z_f); those reaching past today stall.
 import type { FlatLambdaCdm } from './cosmology';
 import { redshiftOfAge } from './delayedPopulation';
-import { redshiftAtAge } from './ageInverse';
-import { compositeNodes } from './gaussLegendre';
+import { ageAtRedshift, redshiftAtAge } from './ageInverse';
+import { adaptiveZRule } from './adaptiveZRule';
+import { compositeNodes, compositeSum, gaussLegendreRule } from './gaussLegendre';
 import { checkPopulation } from './backgroundIntegral';
-import type { BinaryPopulation } from './populationTypes';
+import type { BinaryPopulation, ZRule } from './populationTypes';
 
 /** Lifetime from formation to coalescence, s, of a binary of log10(M/Msun) and q. */
 export type LifetimeOf = (log10M: number, q: number) => number;
@@ -70,6 +71,25 @@ export function delayedPopulationByMass(base: BinaryPopulation, cosmo: FlatLambd
   if (!(tEarliest < now)) return { ...masses, zMin: base.zMin, zMax: base.zMax, density: () => 0 };
   const tLatest = cosmo.ageS(base.zMin) + max;
   const limits = { ...masses, zMin: tLatest < now ? redshiftOfAge(cosmo, tLatest) : 0, zMax: redshiftOfAge(cosmo, tEarliest) };
+  // Panel edges in formation redshift for zIntegral: error control (adaptiveZRule.ts) on the base's z
+  // factor, or on its density summed over one panel of (M, q) nodes, so that kinks of the base in z
+  // (a power z^a at z = 0) get small panels; the steps that move with (M, q) are the limits of each
+  // (M, q)'s integral and never fall inside a panel.
+  let panelsFor: { rule: ZRule; edges: Float64Array } | undefined;
+  const basePanels = (rule: ZRule): Float64Array => {
+    if (panelsFor && panelsFor.rule.panels === rule.panels && panelsFor.rule.order === rule.order && panelsFor.rule.tol === rule.tol) return panelsFor.edges;
+    const zFactor = base.separable?.redshift;
+    const mr = compositeNodes(base.log10MMin, base.log10MMax, 1, rule.order);
+    const qr = compositeNodes(base.qMin, base.qMax, 1, rule.order);
+    const indicator = zFactor ?? ((z: number) => {
+      let s = 0;
+      for (let a = 0; a < mr.nodes.length; a++) for (let b = 0; b < qr.nodes.length; b++) s += mr.weights[a] * qr.weights[b] * base.density(z, mr.nodes[a], qr.nodes[b]);
+      return s;
+    });
+    const edges = adaptiveZRule(base.zMin, base.zMax, rule.panels, rule.order, indicator, rule.tol).edges;
+    panelsFor = { rule, edges };
+    return edges;
+  };
   // The integrators ask for every (M, q) at one z before moving on: remember t(z_c) and |dt/dz|(z_c).
   let lastZ = NaN;
   let lastAge = NaN;
@@ -87,6 +107,40 @@ export function delayedPopulationByMass(base: BinaryPopulation, cosmo: FlatLambd
       const zf = t === 0 ? zc : redshiftAtAge(cosmo, lastAge - t);
       if (!(zf >= base.zMin && zf <= base.zMax)) return 0; // NaN (before the big bang) or outside the formation range
       return base.density(zf, log10M, q) * (lastDtdz / cosmo.dtdzS(zf));
+    },
+    zIntegral: (log10M, q, weight, zTop, rule) => {
+      // Counted by formation redshift: n_c dz_c = n_f dz_f (dt_c = dt_f for a fixed lifetime), so the
+      // integrand n_f(z_f) weight(z_c(z_f)) is smooth; z_c in [zMin, min(zTop, zMax)] bounds z_f.
+      const t = tau(log10M, q);
+      const top = Math.min(zTop, limits.zMax);
+      if (!(top > limits.zMin)) return 0;
+      const ageMin = Math.min(now, ageAtRedshift(cosmo, limits.zMin)) - t; // latest formation age counted
+      const ageMax = ageAtRedshift(cosmo, top) - t; // earliest
+      if (!(ageMin > 0)) return 0;
+      const lo = Math.max(base.zMin, redshiftAtAge(cosmo, ageMin));
+      const hi = ageMax > 0 ? Math.min(base.zMax, redshiftAtAge(cosmo, ageMax)) : base.zMax;
+      if (!(hi > lo)) return 0;
+      const g = (zf: number): number => {
+        const n = base.density(zf, log10M, q);
+        if (n === 0) return 0;
+        const zc = t === 0 ? zf : redshiftAtAge(cosmo, ageAtRedshift(cosmo, zf) + t);
+        return n * weight(zc >= 0 ? zc : 0); // NaN only by rounding at today's age
+      };
+      // the base's own panels (refined where the base is not smooth in z), clipped to [lo, hi]
+      const edges = basePanels(rule);
+      const unit = gaussLegendreRule(rule.order);
+      let sum = 0;
+      for (let p = 0; p + 1 < edges.length; p++) {
+        const a = Math.max(lo, edges[p]);
+        const b = Math.min(hi, edges[p + 1]);
+        if (!(b > a)) continue;
+        const mid = 0.5 * (a + b);
+        const half = 0.5 * (b - a);
+        let s = 0;
+        for (let i = 0; i < rule.order; i++) s += unit.weights[i] * g(mid + half * unit.nodes[i]);
+        sum += half * s;
+      }
+      return sum;
     },
   };
 }
@@ -136,7 +190,8 @@ export function stalledFractionByMass(base: BinaryPopulation, cosmo: FlatLambdaC
       }
       const hi = Math.min(base.zMax, zStall);
       if (!(hi > base.zMin)) continue;
-      const part = zSum(compositeNodes(base.zMin, hi, PANELS, ORDER), lg, q);
+      // the rule compositeNodes(base.zMin, hi, PANELS, ORDER), summed without allocating it per (M, q)
+      const part = sep ? compositeSum(base.zMin, hi, PANELS, ORDER, (z) => sep.zMass(z, lg)) : compositeSum(base.zMin, hi, PANELS, ORDER, (z) => base.density(z, lg, q));
       stalled += w * (sep ? part * ratio : part);
     }
   }

@@ -21,6 +21,22 @@ export interface BinaryPopulation {
    * integral is done once. The factors must multiply to `density` exactly.
    */
   separable?: SeparableFactors;
+  /**
+   * Optional (added for the integrator's speed): a density that, at each (log10M, q), is smooth in z on
+   * one interval and 0 outside it, the interval depending on (M, q) (a delay that depends on mass), may
+   * integrate itself in z: Int dz weight(z) density(z, log10M, q) over z <= zTop (weight smooth, >= 0),
+   * with `rule` panels of `order` Gauss-Legendre points and error control to relative tol. It must
+   * agree with integrating `density`. The circular spectrum then integrates z inside each (M, q), so no
+   * step of the density falls inside a z panel (perNodeZStrainForm.ts).
+   */
+  zIntegral?: (log10M: number, q: number, weight: (z: number) => number, zTop: number, rule: ZRule) => number;
+}
+
+/** Panels, points per panel and relative error tolerance of a z integral (BinaryPopulation.zIntegral). */
+export interface ZRule {
+  panels: number;
+  order: number;
+  tol: number;
 }
 
 /**

@@ -4,7 +4,7 @@
 import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';
 import { symmetricMassRatio } from './binaryMasses';
 import { circularGwKernel, iscoTotalMassKg } from './circularKernel';
-import { compositeNodes } from './gaussLegendre';
+import { compositeNodes, compositeSum } from './gaussLegendre';
 import { checkPopulation } from './backgroundIntegral';
 import type { BinaryPopulation, EmissionKernel } from './populationTypes';
 
@@ -120,18 +120,18 @@ export function chirpMassOrigin(pop: BinaryPopulation, fHz: number, opts: Origin
       const qa = Math.max(pop.qMin, massRatioForEta(etaLo));
       const qb = Math.min(pop.qMax, massRatioForEta(Math.min(etaHi, 0.25)));
       if (!(qb > qa)) continue;
-      const qr = compositeNodes(qa, qb, panels, 8);
-      let inner = 0;
       if (kernel === circularGwKernel) {
-        // The circular kernel depends on M_c only (fixed here), so it multiplies the q integral of the density.
-        for (let b = 0; b < qr.nodes.length; b++) {
-          const q = qr.nodes[b];
+        // The circular kernel depends on M_c only (fixed here), so it multiplies the q integral of the
+        // density (the sum over compositeNodes(qa, qb, panels, 8), without allocating it per point).
+        const inner = compositeSum(qa, qb, panels, 8, (q) => {
           const d = pop.density(z, y - 0.6 * Math.log10(symmetricMassRatio(q)), q);
-          if (d > 0) inner += qr.weights[b] * d;
-        }
+          return d > 0 ? d : 0;
+        });
         s += (zr.weights[c] / (1 + z)) * inner * circularGwKernel(fr, M_SUN_KG * Math.pow(10, y), 0, 0, z);
         continue;
       }
+      const qr = compositeNodes(qa, qb, panels, 8);
+      let inner = 0;
       for (let b = 0; b < qr.nodes.length; b++) {
         const q = qr.nodes[b];
         const eta = symmetricMassRatio(q);

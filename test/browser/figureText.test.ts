@@ -37,6 +37,11 @@ describe('ticks shared by the screen and the figures', () => {
     expect(t.filter((x) => x.label).map((x) => x.label)).toEqual(['10^{-8}', '10^{-7}']);
     expect(t.filter((x) => !x.major).length).toBe(8 + 8 + 2); // 2..9e-9, 2..9e-8, 2e-7, 3e-7
   });
+  it('labels every whole mantissa on an axis much shorter than a decade (an (A, gamma) amplitude axis: 2.2e-15 to 7e-15), where 2 and 5 alone would give one label (common practice, no source)', () => {
+    const t = ticksFor('log', 2.2e-15, 7e-15);
+    expect(t.filter((x) => x.label).map((x) => Number(x.value.toPrecision(12)))).toEqual([3e-15, 4e-15, 5e-15, 6e-15, 7e-15]);
+    expect(ticksFor('log', 1.5e-15, 6e-15).filter((x) => x.label).map((x) => Number(x.value.toPrecision(12)))).toEqual([2e-15, 3e-15, 4e-15, 5e-15, 6e-15]);
+  });
   it('labels every third decade of eighteen (at most eight labels), keeping a major tick at each', () => {
     const t = ticksFor('log', 1e-20, 1e-3);
     expect(t.filter((x) => x.label).map((x) => x.label)).toEqual(['10^{-18}', '10^{-15}', '10^{-12}', '10^{-9}', '10^{-6}', '10^{-3}']);

@@ -4,6 +4,7 @@
 // autocorrelation estimate, a run that is long by construction cancels cleanly, and a prior is
 // edited with the row's editor, refused as the command line refuses it.
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -20,6 +21,7 @@ toy.updateCell('measured', { formula: 'measuredLog10Amplitude(-14.6, 0.2)' });
 toy.setCell({ name: 'logL', formula: 'amplitudeLogLikelihood(A_yr, measured)' });
 toy.title = 'inference check';
 const SHEET_TEXT = toy.toFileText();
+const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
 
 describe.runIf(runSuite)('inference in the app', { timeout: 120_000 }, () => {
   let s: AppSession;
@@ -95,6 +97,19 @@ describe.runIf(runSuite)('inference in the app', { timeout: 120_000 }, () => {
     }
     const summary = JSON.parse(readFileSync(join(dir, 'summary.json'), 'utf8'));
     expect(Math.abs(median - summary.parameters[0].median) / summary.parameters[0].median).toBeLessThanOrEqual(1e-9);
+
+    // Accessibility of the panel with a result, its corner plot and the prior editor open (axe-core rules).
+    await page.click('[data-action="edit-prior-rate_norm"]');
+    const violations = (await page.evaluate(async (src) => {
+      // axe-core is evaluated through the DevTools protocol, which the page's CSP does not govern.
+      (0, eval)(src);
+      const axe = (window as unknown as { axe: { run(ctx: Element, opts: object): Promise<{ violations: { id: string; impact: string | null; nodes: { target: string[] }[] }[] }> } }).axe;
+      const r = await axe.run(document.querySelector('[data-panel="infer"]')!, { resultTypes: ['violations'] });
+      return r.violations.map((v) => ({ id: v.id, impact: v.impact, nodes: v.nodes.slice(0, 3).map((n) => n.target) }));
+    }, AXE_SOURCE)) as { id: string; impact: string | null }[];
+    const bad = violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
+    expect(bad, JSON.stringify(bad, null, 1)).toEqual([]);
+    await page.keyboard.press('Escape');
 
     // Pinned, the result stays after a reload.
     await page.click('[data-action="pin-inference"]');

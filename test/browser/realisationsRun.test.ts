@@ -2,6 +2,7 @@
 // `strainsheet realise` run in this process with one worker (the same seed; an independent path to
 // the same numbers), shows its progress, and a run that is long by construction cancels cleanly.
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -11,6 +12,7 @@ import { browserAvailability } from './chromiumBrowser';
 import { startAppSession, type AppSession } from './appSession';
 import { download } from './pageHelpers';
 
+const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
 const availability = browserAvailability();
 const runSuite = availability.ok || availability.required;
 const demo = JSON.parse(readFileSync(join(PROJECT_ROOT, 'examples/demo.json'), 'utf8'));
@@ -61,6 +63,15 @@ describe.runIf(runSuite)('realisations in the app', { timeout: 120_000 }, () => 
     expect(await page.textContent('[data-job-result="realise"] .job-time')).toMatch(/250 realisations of rz, seed 5, on 3 workers/);
     expect(await page.$$eval('[data-realisation-table] tbody tr', (rows) => rows.length)).toBe(12);
     await page.waitForSelector('[data-job-result="realise"] [data-plot="realisation-run"] canvas');
+    // Accessibility of the panel with its result (axe-core rules, serious and critical).
+    const violations = (await page.evaluate(async (src) => {
+      // axe-core is evaluated through the DevTools protocol, which the page's CSP does not govern.
+      (0, eval)(src);
+      const axe = (window as unknown as { axe: { run(ctx: Element, opts: object): Promise<{ violations: { id: string; impact: string | null; nodes: { target: string[] }[] }[] }> } }).axe;
+      const r = await axe.run(document.querySelector('[data-panel="realise"]')!, { resultTypes: ['violations'] });
+      return r.violations.map((v) => ({ id: v.id, impact: v.impact, nodes: v.nodes.slice(0, 3).map((n) => n.target) }));
+    }, AXE_SOURCE)) as { id: string; impact: string | null }[];
+    expect(violations.filter((v) => v.impact === 'serious' || v.impact === 'critical'), JSON.stringify(violations, null, 1)).toEqual([]);
     // In the browser the split over workers changes no bit.
     expect(await runAndExport('250', '5', '1')).toBe(three);
 

@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { GYR_S, KM_S_MPC_SI, M_SUN_KG } from '../../src/physics/constants';
 import { FlatLambdaCdm } from '../../src/physics/cosmology';
 import { redshiftOfAge } from '../../src/physics/delayedPopulation';
-import { compositeNodes } from '../../src/physics/gaussLegendre';
+import { compositeNodes, compositeSum } from '../../src/physics/gaussLegendre';
 import { lifetimeFunction } from '../../src/physics/hardeningLifetime';
 import { massScaledEnvironment, MCCONNELL_MA_2013_M_SIGMA } from '../../src/physics/hostEnvironment';
 import { stalledFractionByMass, type LifetimeOf } from '../../src/physics/massDependentDelay';
@@ -80,5 +80,18 @@ describe('stalled share with a lifetime per (M, q)', () => {
   it('a lifetime of 12 Gyr for the heavy half only: the stall redshift per node from the table, = the Newton-inverse sum to 1e-9', () => {
     const lifetime: LifetimeOf = (x) => (x > 8.5 ? 12 * GYR_S : 1 * GYR_S);
     expect(rel(stalledFractionByMass(sep, cosmo, lifetime), stalledByNewton(general, lifetime))).toBeLessThan(1e-9);
+  });
+});
+
+describe('compositeSum (no arrays allocated) against the sum over compositeNodes', () => {
+  it('is the same number bit for bit, and 0 on an empty interval', () => {
+    const f = (x: number) => Math.exp(-x) * Math.pow(1 + x, 2.1);
+    for (const [a, b, panels, order] of [[0, 5, 4, 8], [0.05, 1, 2, 8], [1.3, 1.30001, 1, 6], [-2, 7, 3, 10]]) {
+      const r = compositeNodes(a, b, panels, order);
+      let s = 0;
+      for (let i = 0; i < r.nodes.length; i++) s += r.weights[i] * f(r.nodes[i]);
+      expect(compositeSum(a, b, panels, order, f)).toBe(s);
+    }
+    expect(compositeSum(2, 2, 4, 8, f)).toBe(0);
   });
 });

@@ -40,14 +40,13 @@ export function InferencePanel() {
   const [derived, setDerived] = createSignal<ReadonlySet<string>>(new Set());
   const [bandCell, setBandCell] = createSignal('');
   const guessLikelihood = () => session.cells().find((c) => numberCells().includes(c.name) && (/LogLikelihood|binChiSquare/.test(c.formula) || /^(ln|log)_?L/i.test(c.name)))?.name ?? '';
-  const [likelihood, setLikelihood] = createSignal(guessLikelihood());
-  const [chosen, setChosen] = createSignal<ReadonlySet<string>>(new Set(session.cells().filter((c) => (c.prior ?? '').trim()).map((c) => c.name)));
-  const toggle = (cell: string, on: boolean) => {
-    const next = new Set(chosen());
-    if (on) next.add(cell);
-    else next.delete(cell);
-    setChosen(next);
-  };
+  // The user's own picks; until then (and for a sheet opened later) the defaults of the command line:
+  // the likelihood-looking cell, and every cell with a prior ticked.
+  const [likelihoodPick, setLikelihood] = createSignal('');
+  const likelihood = () => likelihoodPick() || guessLikelihood();
+  const [picked, setPicked] = createSignal<Record<string, boolean>>({});
+  const chosen = createMemo<ReadonlySet<string>>(() => new Set(session.cells().filter((c) => picked()[c.name] ?? !!(c.prior ?? '').trim()).map((c) => c.name)));
+  const toggle = (cell: string, on: boolean) => setPicked({ ...picked(), [cell]: on });
   const [walkers, setWalkers] = createSignal('16');
   const [steps, setSteps] = createSignal('1000');
   const [burnIn, setBurnIn] = createSignal('');
@@ -58,7 +57,7 @@ export function InferencePanel() {
 
   const run = () => {
     setFormError(null);
-    const lik = likelihood() || guessLikelihood();
+    const lik = likelihood();
     if (!lik) return setFormError('Choose the likelihood cell: a cell holding ln L, e.g. amplitudeLogLikelihood(A_yr, measured).');
     // The free cells in the sheet's order (the order of `strainsheet infer`), among those that can be free now.
     const free = session.cells().filter((c) => chosen().has(c.name) && ((c.prior ?? '').trim() || (c.uncertainty ?? '').trim())).map((c) => c.name);

@@ -36,7 +36,9 @@ export function RealisationsPanel() {
     undefined,
     { equals: (a, b) => a.length === b.length && a.every((x, i) => x === b[i]) },
   );
-  const [cell, setCell] = createSignal(cells()[0] ?? '');
+  // The user's pick; until then the first cell holding realisations (also in a sheet opened later).
+  const [cellPick, setCell] = createSignal('');
+  const cell = () => cellPick() || cells()[0] || '';
   const [count, setCount] = createSignal('1000');
   const [seed, setSeed] = createSignal('1');
   const [workers, setWorkers] = createSignal('1');

@@ -29,17 +29,23 @@ function logTicks(lo: number, hi: number): Tick[] {
   const every = Math.max(1, Math.ceil(decadesInside / MAX_DECADE_LABELS));
   // Few decades: label 2 and 5 too, else an axis shorter than a decade would have no label at all.
   const fewDecades = Math.log10(hi / lo) < 1.2;
-  const out: Tick[] = [];
-  for (let k = first; k <= last; k++) {
-    for (let m = 1; m <= 9; m++) {
-      const v = m * 10 ** k;
-      if (v < lo * (1 - 1e-12) || v > hi * (1 + 1e-12)) continue;
-      const major = m === 1;
-      const labelled = major ? k % every === 0 : fewDecades && (m === 2 || m === 5);
-      out.push({ value: v, major, label: labelled ? (major ? `10^{${k}}` : formatTick(v)) : '' });
+  const build = (labelAll: boolean): Tick[] => {
+    const out: Tick[] = [];
+    for (let k = first; k <= last; k++) {
+      for (let m = 1; m <= 9; m++) {
+        const v = m * 10 ** k;
+        if (v < lo * (1 - 1e-12) || v > hi * (1 + 1e-12)) continue;
+        const major = m === 1;
+        const labelled = major ? k % every === 0 : fewDecades && (labelAll || m === 2 || m === 5);
+        out.push({ value: v, major, label: labelled ? (major ? `10^{${k}}` : formatTick(v)) : '' });
+      }
     }
-  }
-  return out;
+    return out;
+  };
+  const ticks = build(false);
+  // An axis much shorter than a decade (an amplitude posterior) would show one or two labels: label
+  // every whole mantissa then.
+  return fewDecades && ticks.filter((t) => t.label !== '').length < 3 ? build(true) : ticks;
 }
 
 function linearTicks(lo: number, hi: number): Tick[] {
