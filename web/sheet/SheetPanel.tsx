@@ -26,7 +26,7 @@ export function SheetPanel() {
     <div class="sheet">
       <Show when={session.cellsToRecalculate() > 0}>
         <p class="recalculating" role="status" data-recalculating={session.cellsToRecalculate()}>
-          Recalculating: {session.cellsToRecalculate().toLocaleString('en')} cells to look at; values shown may be out of date.
+          Recalculating: {thousands(session.cellsToRecalculate())} cells to look at; values shown may be out of date.
         </p>
       </Show>
       <div class="sheet-table" role="table" aria-label="Cells of the sheet">
@@ -79,6 +79,11 @@ export function SheetPanel() {
       <AddCellForm />
     </div>
   );
+}
+
+/** 20000 as "20,000" (not toLocaleString: its first call loads locale data, tens of milliseconds). */
+function thousands(n: number): string {
+  return String(n).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
 }
 
 function sameList(a: string[], b: string[]): boolean {
