@@ -14,6 +14,8 @@ export interface AppSession {
   pageErrors: string[];
   /** Reload on the demo with no autosave and no pins, and wait for A_yr. */
   freshDemo(): Promise<void>;
+  /** freshDemo, then open a sheet file's text as `fileName`, wait for `cell`'s row and show side-panel tab `tab`. */
+  openSheetInTab(fileName: string, text: string, cell: string, tab: string): Promise<void>;
   close(): Promise<void>;
 }
 
@@ -33,15 +35,22 @@ export async function startAppSession(viewport = { width: 1400, height: 900 }): 
   await page.goto(app.url);
   await page.waitForSelector('[data-key-value="A_yr"]');
   const browser = chromium;
+  const freshDemo = async (): Promise<void> => {
+    await page.evaluate(() => localStorage.clear());
+    await page.reload();
+    await page.waitForSelector('[data-key-value="A_yr"]');
+    await page.waitForFunction(() => document.querySelector('[data-key-value="A_yr"]')?.getAttribute('data-raw')?.match(/\d/));
+  };
   return {
     page,
     url: app.url,
     pageErrors,
-    async freshDemo() {
-      await page.evaluate(() => localStorage.clear());
-      await page.reload();
-      await page.waitForSelector('[data-key-value="A_yr"]');
-      await page.waitForFunction(() => document.querySelector('[data-key-value="A_yr"]')?.getAttribute('data-raw')?.match(/\d/));
+    freshDemo,
+    async openSheetInTab(fileName, text, cell, tab) {
+      await freshDemo();
+      await page.setInputFiles('input[data-action="open-file"]', { name: fileName, mimeType: 'application/json', buffer: Buffer.from(text) });
+      await page.waitForSelector(`[data-cell="${cell}"]`);
+      await page.click(`[data-tab="${tab}"]`);
     },
     async close() {
       await browser.close();

@@ -36,10 +36,7 @@ describe.runIf(runSuite)('inference in the app', { timeout: 120_000 }, () => {
   });
 
   async function openToySheet(): Promise<void> {
-    await s.freshDemo();
-    await s.page.setInputFiles('input[data-action="open-file"]', { name: 'toy.json', mimeType: 'application/json', buffer: Buffer.from(SHEET_TEXT) });
-    await s.page.waitForSelector('[data-cell="logL"]');
-    await s.page.click('[data-tab="infer"]');
+    await s.openSheetInTab('toy.json', SHEET_TEXT, 'logL', 'infer');
     await s.page.waitForSelector('[data-inference-panel] [data-free-cell="rate_norm"]');
   }
 

@@ -37,10 +37,7 @@ describe.runIf(runSuite)('realisations in the app', { timeout: 120_000 }, () => 
   });
 
   async function openSheetWithRealisations(): Promise<void> {
-    await s.freshDemo();
-    await s.page.setInputFiles('input[data-action="open-file"]', { name: 'rz.json', mimeType: 'application/json', buffer: Buffer.from(SHEET_TEXT) });
-    await s.page.waitForSelector('[data-cell="rz"]');
-    await s.page.click('[data-tab="realise"]');
+    await s.openSheetInTab('rz.json', SHEET_TEXT, 'rz', 'realise');
     await s.page.waitForSelector('[data-realisations-panel] select[aria-label="Realisations cell"] option[value="rz"]', { state: 'attached' });
   }
 
