@@ -70,7 +70,7 @@ export function dispersionPerLnSigma(sigmaKmS: number, d: DispersionFunction, no
 }
 
 /** Panels over the +-8 eps window in ln sigma around the mean relation (Gauss-Legendre, 8 points each). */
-const WINDOW_PANELS = 24;
+const WINDOW_PANELS = 12;
 const HALF_WINDOW = 8;
 
 /** The black-hole mass function per dex, Mpc^-3, at log10(M/Msun) (formula at the top). */
