@@ -17,6 +17,7 @@ import {
 } from '../physics/hostEnvironment';
 import { frictionPhaseTime } from '../physics/hardeningLifetime';
 import { PC_M } from '../physics/constants';
+import { threeSignificant as g } from './threeSignificant';
 import { stellarEccentricKernel, stellarEmissionKernel, transitionFrequencyFunction } from '../physics/stellarHardening';
 import { objectOf, scalarSI, where } from './args';
 import { elementwise, guardedPhysics } from './physicsArgs';
@@ -39,7 +40,7 @@ export class EnvironmentValue implements SheetObject {
     const p = this.scaled.profile;
     const profile = p?.kind === 'dehnen' ? `Dehnen density (gamma ${p.gamma})` : 'isothermal density';
     const f = this.scaled.friction;
-    const friction = f ? `, dynamical friction from ${(f.startRadiusM / PC_M).toPrecision(3)} pc (ln Lambda ${f.coulombLog})` : '';
+    const friction = f ? `, dynamical friction from ${g(f.startRadiusM / (1e3 * PC_M))} kpc (ln Lambda ${g(f.coulombLog)})` : '';
     return `host-scaled stars: M-sigma ${norm} + ${slope} log10(sigma/200 km/s), ${profile} at the influence radius, H ${this.scaled.hardeningRate}${friction}`;
   }
   toJSON(): unknown {
@@ -50,7 +51,7 @@ export class EnvironmentValue implements SheetObject {
       mSigmaSlope: s.mSigma.slope,
       hardeningRate: s.hardeningRate,
       ...(s.profile?.kind === 'dehnen' ? { dehnenGamma: s.profile.gamma } : {}),
-      ...(s.friction ? { frictionStartPc: s.friction.startRadiusM / PC_M, coulombLog: s.friction.coulombLog } : {}),
+      ...(s.friction ? { frictionStartKpc: s.friction.startRadiusM / (1e3 * PC_M), coulombLog: s.friction.coulombLog } : {}),
     };
   }
 }
