@@ -21,12 +21,12 @@ interface Budget {
 }
 const budget = JSON.parse(readFileSync(join(ROOT, 'test/bundle/budget.json'), 'utf8')) as Budget;
 
-/** Sizes in bytes of the .js/.mjs files of a folder, by name without the content hash. */
+/** Sizes in bytes of the .js/.mjs/.cjs files of a folder, by name without the content hash. */
 function sizes(dir: string): Map<string, number> {
   const out = new Map<string, number>();
   for (const f of readdirSync(dir)) {
-    if (!/\.m?js$/.test(f)) continue;
-    const name = f.replace(/\.m?js$/, '').replace(/-[A-Za-z0-9_-]{8}$/, '');
+    if (!/\.[mc]?js$/.test(f)) continue;
+    const name = f.replace(/\.[mc]?js$/, '').replace(/-[A-Za-z0-9_-]{8}$/, '');
     out.set(name, (out.get(name) ?? 0) + statSync(join(dir, f)).size);
   }
   return out;
