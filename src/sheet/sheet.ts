@@ -5,7 +5,7 @@ import type { CellError } from './cellError';
 import type { CellSpec, CellState, SheetObserver } from './types';
 import type { Builtin } from './builtin';
 import { compileFormula, makeCellFunction, type CompiledFormula } from './formulaCompiler';
-import { DependencyGraph, type CycleThrough } from './dependencyGraph';
+import { DependencyGraph, type CycleThrough, type EvaluationPlan } from './dependencyGraph';
 import { RankQueue } from './rankQueue';
 import { checkResult, errorFromException, explainUnitMismatch, nearestName } from './evaluationError';
 import { sameValue } from './valueEquality';
@@ -167,7 +167,11 @@ export class Sheet {
         start = performance.now();
       }
     }
-    sheet.recalculate(sheet.order);
+    // The evaluation order of every cell, worked out in slices too; the recalculation is planned
+    // from it and left to the caller (recalculateSome).
+    const all = new Set(sheet.order);
+    const plan = await sheet.graph.planInSlices(all, sheet.positionMap(), pause, sliceMs);
+    sheet.startPass(plan, all, new Set(), true);
     return sheet;
   }
 
@@ -185,6 +189,26 @@ export class Sheet {
       return t;
     });
   }
+  /**
+   * The same text, for a page that must stay responsive: the cells' texts are made a few at a time
+   * (awaiting `pause()` after each `sliceMs`), then put together in one step. The text is that of
+   * the sheet when the call was made, whatever edits come meanwhile.
+   */
+  async toFileTextInSlices(pause: () => Promise<void>, sliceMs: number): Promise<string> {
+    const file: SheetFile = { format: FILE_FORMAT, version: FILE_VERSION, title: this._title, notes: this._notes, cells: this.specList() as CellSpec[] };
+    const texts = this.cellTexts;
+    let start = performance.now();
+    for (let i = 0; i < file.cells.length; i++) {
+      const spec = file.cells[i];
+      if (!texts.has(spec)) texts.set(spec, cellFileText(spec));
+      if ((i & 63) === 63 && performance.now() - start > sliceMs) {
+        await pause();
+        start = performance.now();
+      }
+    }
+    return serializeSheetFile(file, (spec) => texts.get(spec) ?? cellFileText(spec));
+  }
+
   /** Each cell's file text, kept while its spec (replaced on every change) is the same object. */
   private readonly cellTexts = new WeakMap<CellSpec, string>();
 
@@ -208,6 +232,14 @@ export class Sheet {
   /** The cells in sheet order (copies). */
   cells(): CellSpec[] {
     return this.order.map((n) => ({ ...this.records.get(n)!.spec }));
+  }
+
+  /**
+   * The cells in sheet order, not copied: read them, never change them (a changed cell gets a new
+   * spec object, so comparing two lists by identity finds the cells that changed).
+   */
+  specList(): readonly Readonly<CellSpec>[] {
+    return this.order.map((n) => this.records.get(n)!.spec);
   }
 
   get(name: string): CellSpec | undefined {
@@ -651,7 +683,11 @@ export class Sheet {
     }
     const all = editedSet.size === this.records.size && changed.size === 0 && [...editedSet].every((n) => this.records.has(n));
     const affected = all ? new Set(this.order) : new Set([...this.graph.downstream([...editedSet, ...changed])].filter((n) => this.records.has(n)));
-    const plan = this.graph.plan(affected, this.positionMap());
+    this.startPass(this.graph.plan(affected, this.positionMap()), editedSet, changed, notify);
+  }
+
+  /** Starts the recalculation of a plan (run at once unless recalculation is deferred). */
+  private startPass(plan: EvaluationPlan, editedSet: Set<string>, changed: Set<string>, notify: boolean): void {
     // Edited names that are no longer cells (removed, renamed) count as changed, and so does a
     // renamed cell under its new name (cells waiting for that name must now read it).
     for (const n of editedSet) if (!this.records.has(n)) changed.add(n);
