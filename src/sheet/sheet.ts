@@ -30,6 +30,8 @@ export interface SheetOptions {
    * the values of a full recalculation; cells nothing reads are never evaluated.
    */
   evaluateOnRead?: boolean;
+  /** Start with the recalculation deferred: planned, not run (see deferRecalculation). */
+  deferRecalculation?: boolean;
 }
 
 interface CellRecord {
@@ -52,6 +54,8 @@ interface RecalcPass {
   settled: Set<string>;
   /** Position of each cell in `order`, made on the first read. */
   index?: Map<string, number>;
+  /** Where the cells the first cells need end in `order` (see firstCells). */
+  firstEnd?: number;
 }
 
 /** A cell with no value yet, or a cycle error that may be stale (the cycle may be gone). */
@@ -115,7 +119,7 @@ export class Sheet {
     this._notes = typeof options.notes === 'string' ? options.notes : '';
     this.onRead = options.evaluateOnRead === true;
     // A sheet evaluated on read keeps its recalculation deferred: reads run the part they need.
-    this.deferred = this.onRead;
+    this.deferred = this.onRead || options.deferRecalculation === true;
     for (const spec of options.cells ?? []) this.addLoaded(spec);
     this.recalculate(this.order, false);
   }
@@ -133,10 +137,10 @@ export class Sheet {
   // ---- files ---------------------------------------------------------------------------------
 
   /** Reads a sheet file; throws SheetFileError naming the problem. */
-  static fromFile(text: string, options: { evaluateOnRead?: boolean } = {}): Sheet {
+  static fromFile(text: string, options: { evaluateOnRead?: boolean; deferRecalculation?: boolean } = {}): Sheet {
     const file = parseSheetFile(text);
     try {
-      return new Sheet({ title: file.title, notes: file.notes, cells: file.cells, evaluateOnRead: options.evaluateOnRead });
+      return new Sheet({ title: file.title, notes: file.notes, cells: file.cells, ...options });
     } catch (e) {
       if (e instanceof SheetEditError) throw new SheetFileError(`the sheet file has a bad cell: ${e.message}`);
       throw e;
@@ -307,6 +311,44 @@ export class Sheet {
   set deferRecalculation(on: boolean) {
     this.deferred = on;
     if (!on) this.recalculateSome(() => false);
+  }
+
+  /**
+   * Cells whose values are wanted first, such as a page's key results: an unfinished recalculation
+   * evaluates what they need (they and the cells they read, directly or not) before the rest. Each
+   * part keeps its order, so the values reached are the same; they are only final sooner.
+   */
+  get firstCells(): readonly string[] {
+    return this.first;
+  }
+  set firstCells(names: readonly string[]) {
+    this.first = [...names];
+    if (this.pass) this.putFirst(this.pass);
+  }
+  private first: readonly string[] = [];
+
+  /**
+   * Moves the cells the first cells need to the front of what a pass has still to do. The pass's
+   * order is topological and the moved set holds every cell its members read, so both parts stay so.
+   */
+  private putFirst(pass: RecalcPass): void {
+    if (this.first.length === 0) return;
+    const needed = this.graph.upstream(this.first);
+    const rest = pass.order.slice(pass.next);
+    const front = rest.filter((n) => needed.has(n));
+    pass.firstEnd = pass.next + front.length;
+    if (front.length === 0 || front.length === rest.length) return;
+    pass.order = [...pass.order.slice(0, pass.next), ...front, ...rest.filter((n) => !needed.has(n))];
+    pass.index = undefined;
+  }
+
+  /**
+   * Whether the unfinished recalculation has still to bring the first cells up to date (a caller
+   * running it in slices may end a slice when this turns false, to show them at once).
+   */
+  get firstCellsPending(): boolean {
+    const pass = this.pass;
+    return pass !== null && pass.firstEnd !== undefined && pass.next < pass.firstEnd;
   }
 
   /** Whether a deferred recalculation is unfinished. */
@@ -696,6 +738,7 @@ export class Sheet {
       if (notify) this.emit((o) => o.pending?.(name));
       this.store(pass, name, { status: 'error', error: cycleError(name, cycle) });
     }
+    this.putFirst(pass);
     this.pass = pass;
     if (!this.deferred) this.recalculateSome(() => false);
   }

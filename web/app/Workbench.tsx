@@ -28,7 +28,7 @@ const LOAD_LATER_FROM = 200_000;
 function initialSheet(notify: (t: string, tone?: Tone) => void): { sheet: Sheet; autosaveAllowed: boolean; later?: string } {
   let later: string | undefined;
   const restored = restoreAutosave((text) => {
-    if (text.length < LOAD_LATER_FROM) return Sheet.fromFile(text);
+    if (text.length < LOAD_LATER_FROM) return Sheet.fromFile(text, { deferRecalculation: true });
     later = text;
     return new Sheet({ title: 'Loading the autosaved sheet…' });
   });
@@ -44,7 +44,8 @@ function demoSheet(notify: (t: string, tone?: Tone) => void): Sheet {
     return new Sheet({ title: 'Untitled sheet' });
   }
   try {
-    return Sheet.fromFile(DEMO_TEXT);
+    // Evaluated by the session in slices, A_yr and its inputs first (FIRST_RESULTS).
+    return Sheet.fromFile(DEMO_TEXT, { deferRecalculation: true });
   } catch (err) {
     notify(`The demo sheet could not be read: ${err instanceof Error ? err.message : String(err)}`, 'error');
     return new Sheet({ title: 'Untitled sheet' });

@@ -30,6 +30,13 @@ interface Snapshot {
 
 const HISTORY_LIMIT = 200;
 
+/**
+ * Cells the recalculation brings up to date before the rest (Sheet.firstCells): the key result
+ * every sheet of this kind leads with (KeyResultsBar picks it by name), so that it shows as soon as
+ * its inputs are evaluated, whatever slow cells the sheet holds.
+ */
+export const FIRST_RESULTS: readonly string[] = ['A_yr'];
+
 export class SheetSession {
   private sheet: Sheet;
   private unsubscribe: () => void = () => {};
@@ -84,7 +91,9 @@ export class SheetSession {
     const sheet = this.sheet;
     sheet.deferRecalculation = true;
     const end = performance.now() + APP_SLICE_MS;
-    const done = sheet.recalculateSome(() => performance.now() >= end);
+    // The slice that brings the first results up to date ends there, so they are shown at once.
+    const firstPending = sheet.firstCellsPending;
+    const done = sheet.recalculateSome(() => performance.now() >= end || (firstPending && !sheet.firstCellsPending));
     this.setCellsToRecalculate(sheet.cellsToRecalculate);
     if (done) {
       this.setSettled((n) => n + 1);
@@ -308,6 +317,7 @@ export class SheetSession {
   }
 
   private attach(): void {
+    this.sheet.firstCells = FIRST_RESULTS;
     this.unsubscribe = this.sheet.subscribe({
       pending: (name) => this.queueRefresh(false, name),
       value: (name) => this.queueRefresh(false, name),
