@@ -121,7 +121,8 @@ export class Sheet {
     // A sheet evaluated on read keeps its recalculation deferred: reads run the part they need.
     this.deferred = this.onRead || options.deferRecalculation === true;
     for (const spec of options.cells ?? []) this.addLoaded(spec);
-    this.recalculate(this.order, false);
+    // Observers hear about a deferred recalculation's cells (they subscribe before it runs).
+    this.recalculate(this.order, this.deferred);
   }
 
   /** Adds a cell of a sheet being built (compiled, not evaluated). */

@@ -64,6 +64,8 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     await page.reload();
     await page.waitForSelector('[data-key-value="A_yr"]');
     await page.waitForFunction(() => document.querySelector('[data-key-value="A_yr"]')?.getAttribute('data-raw')?.match(/\d/));
+    // A_yr comes first (its inputs are evaluated before the rest); then wait for every other cell.
+    await page.waitForFunction(() => !document.querySelector('[data-recalculating]'));
   }
 
   it('opens the demo and shows the engine’s A_yr in the key results and in its row', async () => {

@@ -90,6 +90,14 @@ describe('cells wanted first', () => {
     );
   });
 
+  it('a sheet built with its recalculation deferred tells its observers each cell as it is evaluated', () => {
+    const s = new Sheet({ cells: [{ name: 'x1', formula: '2' }, { name: 'x2', formula: 'x1 * 3' }, { name: 'x3', formula: 'x2 +' }], deferRecalculation: true });
+    const heard: string[] = [];
+    s.subscribe({ value: (n, v) => heard.push(`${n}=${String(v)}`), error: (n) => heard.push(`${n} error`) });
+    expect(s.recalculateSome(() => false)).toBe(true);
+    expect(heard.sort()).toEqual(['x1=2', 'x2=6', 'x3 error']);
+  });
+
   it('on the demo, A_yr is final after its inputs only: a few of the sheet’s cells, not the eccentric, hardening or comparison cells', () => {
     const text = readFileSync(new URL('../../examples/demo.json', import.meta.url), 'utf8');
     const oracle = Sheet.fromFile(text);
