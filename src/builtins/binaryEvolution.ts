@@ -30,6 +30,7 @@ function populationAndLifetime(population: unknown, lifetime: unknown, fn: strin
   const none = { env: undefined as EnvironmentValue | undefined, phenom: undefined as PhenomHardeningValue | undefined };
   if (isSheetObject(lifetime) && lifetime.kind === 'phenomHardening') return { p, cosmology: p.cosmology, tau: 0, ...none, phenom: lifetime as PhenomHardeningValue };
   if (isSheetObject(lifetime)) {
+    if (lifetime.kind !== 'environment') throw new BuiltinError(`${where(fn, 'lifetime')} must be a time, an environment or a phenomHardening, got ${lifetime.kind}`, 'domain');
     const env = environmentArg(lifetime, fn, 'lifetime');
     return { p, cosmology: p.cosmology, tau: 0, ...none, env };
   }

@@ -211,13 +211,14 @@ export function phenomLifetime(mKg: number, q: number, h: PhenomHardening): numb
 /**
  * The normalisation A (m/s) for which T(A) = tau_f, by safeguarded Newton steps on ln T(A) in ln A
  * (T falls monotonically from the GW time at A = 0 to 0); 0 when GW emission alone takes no longer than
- * tau_f. Relative error of T(A) against tau_f below 1e-12.
+ * tau_f; Infinity for tau_f = 0. Relative error of T(A) against tau_f below 1e-12.
  */
 export function phenomNormalisation(integral: LifetimeIntegral, q: number): number {
   const h = integral.h;
   const mKg = integral.mKg;
   if (!(gwOnlyLifetime(mKg, q, h) > h.lifetimeS)) return 0;
   const tau = h.lifetimeS;
+  if (tau === 0) return Infinity; // coalescence at formation: no time at any separation
   const B = gwHardeningConstant(mKg, q);
   // Without GW emission T = I_env / A, so A_env = I_env / tau bounds the root from above.
   let hi = Math.log(integral.environmentOnly() / tau); // T(e^hi) <= tau

@@ -58,9 +58,9 @@ const TABLE_W = TABLE_X.map((_, j) => (j % 2 ? -1 : 1) * (j === 0 || j === TABLE
  * The normalisation A(M, q) for many binaries: for each mass ratio and each decade [k, k+1] of
  * log10(M/Msun) that is asked for, ln A at 17 Chebyshev points of the decade (root solves), then the
  * barycentric interpolant (Berrut & Trefethen 2004, SIAM Rev. 46, 501) between them. ln A is analytic in
- * log10 M, and the interpolant agrees with the root solve to 1e-9 relative or better (test/physics/
- * phenomHardening.test.ts); a decade where GW emission alone is faster somewhere (A = 0) is solved
- * directly at every mass.
+ * log10 M, and the interpolant agrees with scipy's root solve to 1e-9 relative or better (test/physics/
+ * phenomHardening.test.ts); a decade where GW emission alone is faster somewhere (A = 0), or where
+ * tau_f = 0 (A infinite), is solved directly at every mass.
  */
 export function normalisationTable(h: PhenomHardening, mSunKg: number): (mKg: number, q: number) => number {
   const grid = new LifetimeGrid(h);
@@ -82,7 +82,7 @@ export function normalisationTable(h: PhenomHardening, mSunKg: number): (mKg: nu
       let direct = false;
       for (let j = 0; j <= TABLE_ORDER && !direct; j++) {
         const A = solve(mSunKg * Math.pow(10, k + TABLE_X[j]), q);
-        if (A > 0) values[j] = Math.log(A);
+        if (A > 0 && A < Infinity) values[j] = Math.log(A);
         else direct = true;
       }
       lnA = direct ? null : values;
