@@ -20,6 +20,7 @@ import { downloadText, fileStem } from '../files/download';
 import { cellTableCsv } from '../files/cellTableCsv';
 import type { Completion } from '../help/formulaContext';
 import { DEMO_TEXT } from './demoSheet';
+import { builtinDocs } from '../help/builtinDocs';
 
 /** Autosaved sheets at least this long (about 1,500 cells) are loaded in slices once the page is up. */
 const LOAD_LATER_FROM = 200_000;
@@ -50,6 +51,11 @@ function demoSheet(notify: (t: string, tone?: Tone) => void): Sheet {
   }
 }
 
+/** 14:05:09 (not toLocaleTimeString: its first call loads locale data, tens of milliseconds). */
+function clockTime(d: Date): string {
+  return [d.getHours(), d.getMinutes(), d.getSeconds()].map((x) => String(x).padStart(2, '0')).join(':');
+}
+
 export function Workbench() {
   const { messages, notify, dismiss } = createMessages();
 
@@ -76,23 +82,35 @@ export function Workbench() {
   }
   const [autosaveState, setAutosaveState] = createSignal(autosaveAllowed ? 'autosave on' : 'autosave off');
   let lastAutosaveError = '';
-  // The autosave is written in a task of its own (a long sheet's text and its storage take a
-  // while; they are not added to the edit's task), and at once when the page is left.
-  let autosaveQueued = false;
+  // The autosave is written after the edit's task: the text is put together a slice at a time
+  // (a long sheet's text takes a while) and stored in one step; at once when the page is left.
+  let changes = 0;
+  let written = 0;
+  let saving = false;
   session.onChange = () => {
-    if (!autosaveAllowed || autosaveQueued) return;
-    autosaveQueued = true;
-    setTimeout(saveNow, 0);
-  };
-  window.addEventListener('pagehide', () => saveNow());
-  const saveNow = () => {
-    if (!autosaveQueued) return;
-    autosaveQueued = false;
     if (!autosaveAllowed) return;
-    const r = writeAutosave(session.toFileText());
+    changes++;
+    if (saving) return;
+    saving = true;
+    setTimeout(() => void saveInSlices(), 0);
+  };
+  const saveInSlices = async () => {
+    while (written < changes && autosaveAllowed) {
+      const at = changes;
+      const text = await session.toFileTextInSlices();
+      if (written < at) store(text, at);
+    }
+    saving = false;
+  };
+  window.addEventListener('pagehide', () => {
+    if (written < changes && autosaveAllowed) store(session.toFileText(), changes);
+  });
+  const store = (text: string, upTo: number) => {
+    written = upTo;
+    const r = writeAutosave(text);
     if (r.ok) {
       lastAutosaveError = '';
-      setAutosaveState(`autosaved ${new Date().toLocaleTimeString()}`);
+      setAutosaveState(`autosaved ${clockTime(new Date())}`);
     } else {
       setAutosaveState('autosave failed');
       if (r.message !== lastAutosaveError) notify(r.message, 'error');
@@ -111,27 +129,19 @@ export function Workbench() {
 
   const rows = new Map<string, HTMLElement>();
   const [traced, setTraced] = createSignal<string | null>(null);
-  // The built-ins are the same for every sheet (one locked math instance): read them once.
-  const builtinList = (() => {
-    try {
-      return session.current.builtins();
-    } catch {
-      return [];
-    }
-  })();
-  const builtins = () => builtinList;
-  // Built when a formula box first asks after the cells changed (not on every change: a long
-  // sheet would pay for it at each structure change, typed into or not).
-  let completionList: { cells: unknown; list: Completion[] } | null = null;
+  // Built when a formula box first asks after the cells (or the built-ins' documentation, loaded on
+  // first use) changed; not on every change: a long sheet would pay for it at each structure change.
+  let completionList: { cells: unknown; docs: unknown; list: Completion[] } | null = null;
   const completions = (): Completion[] => {
     const all = session.cells();
-    if (completionList?.cells === all) return completionList.list;
+    const docs = builtinDocs();
+    if (completionList?.cells === all && completionList.docs === docs) return completionList.list;
     const cells = all.map<Completion>((c) => {
       const fn = /^\s*[A-Za-z_][A-Za-z0-9_]*\s*\(/.test(c.formula) && /\)\s*=(?!=)/.test(c.formula);
       return { name: c.name, kind: fn ? 'function' : 'cell', detail: c.unit ? `cell [${c.unit}]` : 'cell' };
     });
-    const fns = builtins().map<Completion>((b) => ({ name: b.name, kind: 'built-in', detail: b.summary }));
-    completionList = { cells: all, list: [...cells, ...fns] };
+    const fns = docs.map<Completion>((b) => ({ name: b.name, kind: 'built-in', detail: b.summary }));
+    completionList = { cells: all, docs, list: [...cells, ...fns] };
     return completionList.list;
   };
 
@@ -157,7 +167,7 @@ export function Workbench() {
       else if (!rows.get(name)?.isConnected) rows.delete(name);
     },
     rowOrder: () => groupBySection(session.cells()).flatMap((g) => g.cells.map((c) => c.name)),
-    builtins,
+    builtins: builtinDocs,
     completions,
     traced,
     setTraced,
@@ -209,7 +219,12 @@ export function Workbench() {
     return session.current.title || 'Untitled sheet';
   };
   const saveFile = () => downloadText(session.toFileText(), `${fileStem(title(), 'sheet')}.strainsheet.json`, 'application/json');
-  const exportCells = () => downloadText(cellTableCsv(session), `${fileStem(title(), 'sheet')}-cells.csv`, 'text/csv');
+  // The table holds the values: it is written once a recalculation under way is complete.
+  const exportCells = async () => {
+    await session.whenSettled();
+    const sheet = session.current;
+    downloadText(cellTableCsv({ cells: () => session.cells(), state: (n) => sheet.state(n) }), `${fileStem(title(), 'sheet')}-cells.csv`, 'text/csv');
+  };
 
   // Drag and drop a sheet file anywhere on the page.
   const [dropping, setDropping] = createSignal(false);
@@ -301,7 +316,7 @@ export function Workbench() {
             </button>
             <button type="button" data-action="save-sheet" onClick={saveFile}>Save</button>
             <button type="button" onClick={loadDemo}>Demo</button>
-            <button type="button" data-action="export-cells" onClick={exportCells}>Cells CSV</button>
+            <button type="button" data-action="export-cells" onClick={() => void exportCells()}>Cells CSV</button>
             <span class="toolbar-gap" />
             <button type="button" data-action="undo" disabled={!session.canUndo()} title={session.canUndo() ? `Undo ${session.canUndo()}` : 'Nothing to undo'} onClick={() => session.undo()}>
               Undo
