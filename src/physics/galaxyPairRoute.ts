@@ -1,10 +1,11 @@
 // The galaxy route with pair fraction and merger time-scale depending on mass, mass ratio and redshift
-// (the parametrisation of Chen, Sesana & Conselice 2019, MNRAS 488, 401, section 2):
+// (after Chen, Sesana & Conselice 2019, MNRAS 488, 401, arXiv:1810.04184; unverified: only their abstract
+// was reachable, so the pivots, the q_G term and which galaxy mass they use are ours, docs/galaxyRoute.md):
 //   d^3n_G/(dt dlog10M_G dq_G) = Phi(M_G, z_p) f_pair(M_G, z_p) p(q_G) / tau(M_G, q_G, z_p),
 //   f_pair = f0 (M_G/1e11)^alphaF (1+z_p)^betaF,  tau = tau0 (M_G/1e11)^alphaT (1+z_p)^betaT q_G^gammaT,
 // M_G the primary galaxy's stellar mass, z_p the redshift of the pair, Phi the Schechter stellar mass
-// function per dex of galaxyMergerPopulation.ts. The q_G^gammaF term of the paper's pair fraction is p(q_G)
-// (a power law normalised on [q_G,min, 1] is theirs up to the normalisation of f0).
+// function per dex of galaxyMergerPopulation.ts. A q_G^gammaF term in the pair fraction is p(q_G) here
+// (a power law normalised on [q_G,min, 1], equal to such a term up to the normalisation of f0).
 // Time shift (optional): the pair observed at z_p merges a time tau later, t(z_m) = t(z_p) + tau; counted
 // per unit merger redshift, n(z_m) = R(z_p) |dt/dz|(z_m) / (dt_m/dt_p), dt_m/dt_p = 1 + dtau/dt_p (the
 // same mergers, number conserved; Phinney 2001, astro-ph/0108028, n = rate x |dt/dz|).
