@@ -104,13 +104,43 @@ export function normalisationTable(h: PhenomHardening, mSunKg: number): (mKg: nu
 }
 
 /**
- * Emission kernel: the circular GW-driven kernel times residenceRatio, A from normalisationTable.
- * Where A = 0 the factor is exactly 1.
+ * Emission kernel: the circular GW-driven kernel times residenceRatio, A from normalisationTable. Per
+ * (M, q) node the kernel keeps A / B, so a call costs the separation and g(x):
+ * factor = 1 / (1 + (A/B) g(x) a^3), a^3 = G M / (pi f_r)^2. Where A = 0 the factor is exactly 1.
  */
 export function phenomEmissionKernel(h: PhenomHardening, mSunKg: number): EmissionKernel {
   checkPhenomHardening(h);
   const normOf = normalisationTable(h, mSunKg);
-  return (fr, mc, m, q, z) => circularGwKernel(fr, mc, m, q, z) * residenceRatio(fr, m, q, normOf(m, q), h);
+  const ratios = new Map<number, Map<number, number>>();
+  const ratioOf = (mKg: number, q: number): number => {
+    let row = ratios.get(mKg);
+    if (!row) {
+      if (ratios.size > 4096) ratios.clear();
+      row = new Map();
+      ratios.set(mKg, row);
+    }
+    let k = row.get(q);
+    if (k === undefined) {
+      const A = normOf(mKg, q);
+      k = A === 0 ? 0 : A / gwHardeningConstant(mKg, q);
+      row.set(q, k);
+    }
+    return k;
+  };
+  const a0 = h.initialSeparationM;
+  const ac = h.breakSeparationM;
+  const p1 = 1 - h.innerIndex;
+  const p2 = h.innerIndex - h.outerIndex;
+  return (fr, mc, m, q, z) => {
+    const a3 = (G_SI * m) / (Math.PI * Math.PI * fr * fr);
+    const a = Math.cbrt(a3);
+    if (a > a0) return 0;
+    const k = ratioOf(m, q);
+    const base = circularGwKernel(fr, mc, m, q, z);
+    if (k === 0) return base;
+    const x = a / ac;
+    return base / (1 + k * Math.pow(x, p1) * Math.pow(1 + x, p2) * a3);
+  };
 }
 
 /** Lifetime of each binary, s, as a function of (log10 M/Msun, q). */
