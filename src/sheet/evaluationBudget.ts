@@ -110,6 +110,15 @@ export function checkTime(): void {
   readClock();
 }
 
+/**
+ * As checkTime, where a cell that runs out of time is handed off (the app's page) and nowhere else:
+ * built-ins' own long loops call it, so the page hands them off while the command line, whose
+ * built-in loops are not interrupted, lets them run to the end.
+ */
+export function checkTimeIfHandingOff(): void {
+  if (handOff) checkTime();
+}
+
 /** As checkTime, reading the clock every time (for operations that take longer than a clock read). */
 export function checkTimeNow(): void {
   if (active) readClock();

@@ -118,7 +118,8 @@ export class Sheet {
     this._notes = typeof options.notes === 'string' ? options.notes : '';
     for (const spec of options.cells ?? []) this.addLoaded(spec);
     this.deferred = options.deferRecalculation === true;
-    this.recalculate(this.order, false);
+    // Deferred, the recalculation runs later, when observers may be listening: they hear it.
+    this.recalculate(this.order, this.deferred);
   }
 
   /** Adds a cell of a sheet being built (compiled, not evaluated). */

@@ -4,6 +4,7 @@
 // asks again (a late reply is dropped); Cancel gives a 'limit' error; undo and redo put a sheet
 // with a slow cell in place without evaluating it on the page. Values are checked against a sheet
 // evaluated from scratch with the command line's budget (the oracle of deferredRecalculation.test.ts).
+import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Sheet } from '../../web/engine/engine';
 import { SheetSession } from '../../web/state/sheetSession';
@@ -150,5 +151,20 @@ describe('a session with cells evaluated off the page', () => {
     live()[0].answer();
     await session.whenSettled();
     expect(session.current.value('slow')).toBe(5451);
+  });
+});
+
+describe('a spectrum held off the page', () => {
+  it('is drawn from its JSON as the spectrum itself is', async () => {
+    const { spectrumCurves } = await import('../../web/plots/sheetSpectrumModel');
+    const { stateFromTransfer } = await import('../../src/sheet/valueTransfer');
+    const demo = asCommandLine(() => Sheet.fromFile(readFileSync(new URL('../../examples/demo.json', import.meta.url), 'utf8')));
+    const held = stateFromTransfer(structuredClone(stateToTransfer(demo.state('spectrum'))));
+    expect(held.status === 'value' && (held.value as { kind: string }).kind).toBe('offPage');
+    const cells = demo.cells().filter((c) => c.name === 'spectrum');
+    const reader = (value: unknown) => ({ cells, valueOf: () => value, stateOf: () => ({ status: 'value', value }) as const });
+    const direct = spectrumCurves(reader(demo.value('spectrum')));
+    expect(direct.length).toBe(1);
+    expect(spectrumCurves(reader(held.status === 'value' && held.value))).toEqual(direct);
   });
 });

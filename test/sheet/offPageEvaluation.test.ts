@@ -85,6 +85,15 @@ describe('evaluation off the page', () => {
     expect(s.offPageCells()).toEqual([]);
   });
 
+  it('a sheet built with its recalculation deferred tells its observers the values when it runs', () => {
+    const s = Sheet.fromFile(JSON.stringify({ format: 'strainsheet', version: 2, title: '', notes: '', cells: [{ name: 'x', formula: '2' }, { name: 'y', formula: 'x * 3' }] }), { deferRecalculation: true });
+    expect(s.state('y').status).toBe('pending');
+    const heard: string[] = [];
+    s.subscribe({ value: (name, v) => heard.push(`${name}=${String(v)}`) });
+    expect(s.recalculateSome(() => false)).toBe(true);
+    expect(heard).toEqual(['x=2', 'y=6']);
+  });
+
   it('without hand-off (the command line) the short budget gives a limit error', () => {
     setCellBudget(1e-9);
     const s = new Sheet({ cells: SLOW });
