@@ -5,7 +5,7 @@ import type { Builtin } from '../sheet/builtin';
 import { BuiltinError } from '../sheet/cellError';
 import { delayedPopulation, stalledFraction } from '../physics/delayedPopulation';
 import { GYR_S, M_SUN_KG } from '../physics/constants';
-import { hardBinaryLifetime, lifetimeFunction } from '../physics/hardeningLifetime';
+import { frictionPhaseTime, hardBinaryLifetime, lifetimeFunction } from '../physics/hardeningLifetime';
 import { environmentOfMass, massScaledEnvironment } from '../physics/hostEnvironment';
 import { delayedPopulationByMass, stalledFractionByMass } from '../physics/massDependentDelay';
 import { isSheetObject } from '../sheet/sheetObject';
@@ -16,7 +16,7 @@ import { elementwise, guardedPhysics, nonNegativeSI, populationArg } from './phy
 import { PopulationValue } from './populationValue';
 
 const SOURCE = 'Agazie et al. 2023, ApJL 952, L37 (a total lifetime from formation to coalescence); times from Hogg 1999, astro-ph/9905116';
-const HARDENING_SOURCE = 'hardening from a_h = G m2/(4 sigma^2) by stars (Quinlan 1996, New Astron. 1, 35) and GW emission (Peters 1964, Phys. Rev. 136, B1224) in a mass-scaled environment (McConnell & Ma 2013, ApJ 764, 184; Sesana & Khan 2015, MNRAS 454, L66)';
+const HARDENING_SOURCE = 'hardening from a_h = G m2/(4 sigma^2) by stars (Quinlan 1996, New Astron. 1, 35) and GW emission (Peters 1964, Phys. Rev. 136, B1224) in a mass-scaled environment (McConnell & Ma 2013, ApJ 764, 184; Sesana & Khan 2015, MNRAS 454, L66); with frictionPhase, a dynamical-friction phase before it (Binney & Tremaine 2008, Galactic Dynamics, 2nd ed., section 8.1; Kelley, Blecha & Hernquist 2017, MNRAS 464, 3131)';
 
 /** The population (which must know its cosmology) and the lifetime: a time in s, or a mass-scaled environment. */
 function populationAndLifetime(population: unknown, lifetime: unknown, fn: string) {
@@ -29,6 +29,12 @@ function populationAndLifetime(population: unknown, lifetime: unknown, fn: strin
   const tau = nonNegativeSI(lifetime, 'time', fn, 'lifetime');
   if (!Number.isFinite(tau)) throw new BuiltinError(`${where(fn, 'lifetime')} must be finite`);
   return { p, cosmology: p.cosmology, tau, env: undefined as EnvironmentValue | undefined };
+}
+
+/** The environment's numbers for a population's parameters (without its kind). */
+function environmentParameters(env: EnvironmentValue): Record<string, number> {
+  const { kind: _kind, ...rest } = env.toJSON() as Record<string, number | string>;
+  return rest as Record<string, number>;
 }
 
 const lifetimeArgDoc = { name: 'lifetime', unit: 'Gyr or environment', description: 'time from formation to coalescence, >= 0, the same for every binary; or a hostEnvironment, whose hardening from the hard-binary separation sets each binary\'s lifetime by its mass and mass ratio' };
@@ -50,11 +56,12 @@ export const binaryEvolutionBuiltins: Builtin[] = [
       const fn = 'delayedPopulation';
       const { p, cosmology, tau, env } = populationAndLifetime(population, lifetime, fn);
       if (env) {
-        const lifetimeOf = lifetimeFunction(massScaledEnvironment(env.scaled), M_SUN_KG);
+        const lifetimeOf = lifetimeFunction(massScaledEnvironment(env.scaled), M_SUN_KG, env.scaled.friction);
+        const friction = env.scaled.friction ? 'dynamical friction, then ' : '';
         return new PopulationValue(
           guardedPhysics(fn, () => delayedPopulationByMass(p.population, cosmology, lifetimeOf)),
-          `${p.label}, coalescing after hardening by stars (H ${env.scaled.hardeningRate}) and GW emission`,
-          { ...p.parameters, hardeningRate: env.scaled.hardeningRate, mSigmaNorm: env.scaled.mSigma.norm, mSigmaSlope: env.scaled.mSigma.slope },
+          `${p.label}, coalescing after ${friction}hardening by stars (H ${env.scaled.hardeningRate}) and GW emission`,
+          { ...p.parameters, ...environmentParameters(env) },
           cosmology,
         );
       }
@@ -81,7 +88,7 @@ export const binaryEvolutionBuiltins: Builtin[] = [
       const fn = 'stalledFraction';
       const { p, cosmology, tau, env } = populationAndLifetime(population, lifetime, fn);
       if (env) {
-        const lifetimeOf = lifetimeFunction(massScaledEnvironment(env.scaled), M_SUN_KG);
+        const lifetimeOf = lifetimeFunction(massScaledEnvironment(env.scaled), M_SUN_KG, env.scaled.friction);
         return guardedPhysics(fn, () => stalledFractionByMass(p.population, cosmology, lifetimeOf));
       }
       return stalledFraction(p.population, cosmology, tau);
@@ -90,7 +97,7 @@ export const binaryEvolutionBuiltins: Builtin[] = [
   {
     name: 'hardeningLifetime',
     category: 'population',
-    summary: 'Time a circular binary takes from the hard-binary separation a_h = G m2/(4 sigma^2) to coalescence, hardened by stars (da/dt = -G rho H a^2/sigma) and by GW emission, in a mass-scaled environment.',
+    summary: 'Time a circular binary takes from the hard-binary separation a_h = G m2/(4 sigma^2) to coalescence, hardened by stars (da/dt = -G rho H a^2/sigma) and by GW emission, in a mass-scaled environment; with a friction phase (frictionPhase), plus the dynamical-friction time to a_h.',
     args: [
       { name: 'environment', unit: 'environment', description: 'from hostEnvironment' },
       { name: 'totalMass', unit: 'Msun', description: 'total mass > 0 (or a list)' },
@@ -106,7 +113,14 @@ export const binaryEvolutionBuiltins: Builtin[] = [
       if (!(qq > 0 && qq <= 1)) throw new BuiltinError(`${where(fn, 'q')} must be a mass ratio in (0, 1], got ${qq}`);
       return elementwise(totalMass, 'mass', fn, 'totalMass', (m, arg) => {
         if (!(m > 0) || !Number.isFinite(m)) throw new BuiltinError(`${where(fn, arg)} must be a positive mass, got ${m} kg`);
-        return quantity(guardedPhysics(fn, () => hardBinaryLifetime(m, qq, environmentOfMass(m, env.scaled))), 'Gyr');
+        return quantity(
+          guardedPhysics(fn, () => {
+            const local = environmentOfMass(m, env.scaled);
+            const friction = env.scaled.friction;
+            return hardBinaryLifetime(m, qq, local) + (friction ? frictionPhaseTime(m, qq, local, friction) : 0);
+          }),
+          'Gyr',
+        );
       });
     },
   },

@@ -6,7 +6,8 @@ import { BuiltinError } from '../sheet/cellError';
 import { quantity } from '../sheet/mathInstance';
 import type { SheetObject } from '../sheet/sheetObject';
 import { MPC_M, M_SUN_KG } from '../physics/constants';
-import { CHECK_MASSES, massFunctionCheck, type MassFunctionCheck, type ReferenceMassFunction } from '../physics/massFunctionCheck';
+import { CHECK_MASSES, massFunctionCheck, referencePerDex, type AnyReference, type MassFunctionCheck, type ReferenceMassFunction } from '../physics/massFunctionCheck';
+import { dispersionReference, type DispersionReference } from '../physics/dispersionReference';
 import { remnantMassFunction, remnantNumberAbove } from '../physics/remnantMassFunction';
 import { objectOf, scalarSI, where } from './args';
 import { elementwise, populationArg, positiveSI } from './physicsArgs';
@@ -26,6 +27,25 @@ class ReferenceMassFunctionValue implements SheetObject {
     return { kind: this.kind, phiStar_Mpc3: this.ref.phiStar, mStar_Msun: this.ref.mStar, alpha: this.ref.alpha, uncertaintyDex: this.ref.uncertaintyDex, log10MMaxMsun: this.ref.log10MMax };
   }
 }
+
+/** The velocity-dispersion route to the local mass function, chosen by name. */
+class LocalMassFunctionValue implements SheetObject {
+  readonly kind = 'referenceMassFunction';
+  constructor(readonly ref: DispersionReference) {}
+  describe(): string {
+    return `reference mass function: ${this.ref.label}`;
+  }
+  toJSON(): unknown {
+    const o = this.ref.options;
+    return { kind: this.kind, name: 'velocityDispersion', h: o.h, scatterDex: o.scatterDex, bandDex: o.bandDex, mSigmaNorm: o.mSigma?.norm, mSigmaSlope: o.mSigma?.slope };
+  }
+}
+
+type AnyReferenceValue = ReferenceMassFunctionValue | LocalMassFunctionValue;
+
+const LOCAL_NAMES = ['velocityDispersion'] as const;
+const LOCAL_SOURCE =
+  'velocity-dispersion function of early-type galaxies, Sheth et al. 2003, ApJ 594, 225, eq. 4: (phi*, sigma*, alpha, beta) = (0.0020 h^3 Mpc^-3, 88.8 km/s, 6.5, 1.93) (units of phi* unverified); M-sigma of McConnell & Ma 2013, ApJ 764, 184 (8.32 + 5.64 log10(sigma/200 km/s)); default intrinsic scatter 0.38 dex (unverified: the paper\'s table was not read); band from the normalisation shifted by +-bandDex (our choice)';
 
 class MassFunctionCheckValue implements SheetObject {
   readonly kind = 'massFunctionCheck';
@@ -109,12 +129,59 @@ export const massFunctionCheckBuiltins: Builtin[] = [
     },
   },
   {
+    name: 'localMassFunction',
+    category: 'population',
+    summary: 'A local black-hole mass function built from published relations, chosen by name, for massFunctionCheck and referencePhi. "velocityDispersion": the velocity-dispersion function of early-type galaxies carried through the M-sigma relation with log-normal intrinsic scatter, phi_BH(log10 M) = Int dln sigma phi(ln sigma) N(log10 M; a + b log10(sigma/200 km/s), eps); its band shifts the normalisation a by +-bandDex.',
+    args: [
+      { name: 'name', unit: 'text', description: '"velocityDispersion" (the only one so far)' },
+      { name: 'scatterDex', unit: 'dimensionless', description: 'intrinsic scatter eps of log10 M at fixed sigma, in [0, 2] dex (default 0.38)', optional: true },
+      { name: 'bandDex', unit: 'dimensionless', description: 'shift of the M-sigma normalisation that bounds the uncertainty band, in [0, 2] dex (default 0.1)', optional: true },
+      { name: 'h', unit: 'dimensionless', description: 'Hubble parameter H0/(100 km/s/Mpc) for phi* (default 0.7)', optional: true },
+    ],
+    returns: { unit: 'referenceMassFunction', description: 'a reference mass function' },
+    source: LOCAL_SOURCE,
+    example: 'localMassFunction("velocityDispersion")',
+    fn: (name: unknown, scatterDex?: unknown, bandDex?: unknown, h?: unknown) => {
+      const fn = 'localMassFunction';
+      if (typeof name !== 'string' || !(LOCAL_NAMES as readonly string[]).includes(name)) {
+        throw new BuiltinError(`${where(fn, 'name')} must be one of ${LOCAL_NAMES.map((n) => `"${n}"`).join(', ')}, got ${typeof name === 'string' ? `"${name}"` : 'no text'}`);
+      }
+      const eps = scatterDex === undefined ? 0.38 : scalarSI(scatterDex, 'dimensionless', fn, 'scatterDex');
+      if (!(eps >= 0 && eps <= 2)) throw new BuiltinError(`${where(fn, 'scatterDex')} must lie in [0, 2] dex, got ${eps}`);
+      const band = bandDex === undefined ? 0.1 : scalarSI(bandDex, 'dimensionless', fn, 'bandDex');
+      if (!(band >= 0 && band <= 2)) throw new BuiltinError(`${where(fn, 'bandDex')} must lie in [0, 2] dex, got ${band}`);
+      const hh = h === undefined ? 0.7 : scalarSI(h, 'dimensionless', fn, 'h');
+      if (!(hh > 0 && hh <= 2)) throw new BuiltinError(`${where(fn, 'h')} must lie in (0, 2], got ${hh}`);
+      return new LocalMassFunctionValue(dispersionReference({ h: hh, scatterDex: eps, bandDex: band }));
+    },
+  },
+  {
+    name: 'referencePhi',
+    category: 'population',
+    summary: 'Value per dex of a reference local mass function (referenceMassFunction or localMassFunction) at the given black-hole masses.',
+    args: [
+      { name: 'reference', unit: 'referenceMassFunction', description: 'from referenceMassFunction or localMassFunction' },
+      { name: 'mass', unit: 'Msun', description: 'mass > 0 (or a list)' },
+    ],
+    returns: { unit: 'Mpc^-3', description: 'black holes per comoving volume per dex of mass' },
+    source: `Schechter 1976, ApJ 203, 297 (referenceMassFunction); ${LOCAL_SOURCE} (localMassFunction)`,
+    example: 'referencePhi(localMassFunction("velocityDispersion"), [1e8, 1e9, 1e10] Msun)',
+    fn: (reference: unknown, mass: unknown) => {
+      const fn = 'referencePhi';
+      const ref: AnyReference = objectOf<AnyReferenceValue>(reference, 'referenceMassFunction', fn, 'reference').ref;
+      return elementwise(mass, 'mass', fn, 'mass', (m, arg) => {
+        if (!(m > 0)) throw new BuiltinError(`${where(fn, arg)} must be positive`);
+        return quantity(referencePerDex(ref, m / M_SUN_KG) / TO_PER_MPC3, 'Mpc^-3');
+      });
+    },
+  },
+  {
     name: 'massFunctionCheck',
     category: 'population',
     summary: 'Remnants of the population at z = 0 above 1e9 and 1e10 Msun against a reference local mass function and its range, and the merged mass density (an upper bound on the remnants\' mass density) against the local black-hole mass density.',
     args: [
       { name: 'population', unit: 'population', description: 'any population' },
-      { name: 'reference', unit: 'referenceMassFunction', description: 'from referenceMassFunction' },
+      { name: 'reference', unit: 'referenceMassFunction', description: 'from referenceMassFunction or localMassFunction' },
     ],
     returns: { unit: 'massFunctionCheck', description: 'number densities, reference ranges and ratios, merged mass density' },
     source: `${REMNANTS}; local mass density 4.6 (+1.9, -1.4) x 1e5 Msun/Mpc^3 for h = 0.7 (Marconi et al. 2004, MNRAS 351, 169); how to read it in docs/massFunctionCheck.md`,
@@ -122,7 +189,7 @@ export const massFunctionCheckBuiltins: Builtin[] = [
     fn: (population: unknown, reference: unknown) => {
       const fn = 'massFunctionCheck';
       const pop = populationArg(population, fn).population;
-      const ref = objectOf<ReferenceMassFunctionValue>(reference, 'referenceMassFunction', fn, 'reference').ref;
+      const ref = objectOf<AnyReferenceValue>(reference, 'referenceMassFunction', fn, 'reference').ref;
       return new MassFunctionCheckValue(massFunctionCheck(pop, ref));
     },
   },

@@ -1,40 +1,13 @@
-// A population from a table of merger densities stored inside the sheet (mergerTable("mt1;...")), and
-// the cell the command line's `import --kind merger-table` writes (src/statistics/mergerTableImport.ts).
+// A population from a table of merger densities stored inside the sheet (mergerTable("mt1;...")). The
+// cells that `import --kind merger-table` writes from a file are made in mergerTableCells.ts, so the
+// engine (and the app's bundles) do not carry the CSV reader.
 import type { Builtin } from '../sheet/builtin';
 import { BuiltinError } from '../sheet/cellError';
-import type { CellSpec } from '../sheet/types';
 import { tabulatedPopulation } from '../physics/tabulatedPopulation';
-import { decodeDensityTable, encodeDensityTable, TableEncodingError } from '../statistics/mergerTableEncoding';
-import { importMergerTable } from '../statistics/mergerTableImport';
-import { DEFAULT_EVENT_BINNING, importMergerEvents, type EventBinning } from '../statistics/mergerEventsImport';
+import { decodeDensityTable, TableEncodingError } from '../statistics/mergerTableEncoding';
 import { kindOf, where } from './args';
 import { cosmologyArg } from './physicsArgs';
 import { PopulationValue } from './populationValue';
-
-/** The cell holding the table read from `text` (file `file`); throws ImportError naming file, line and column. */
-export function mergerTableCell(name: string, text: string, file: string): CellSpec {
-  const t = importMergerTable(text, file);
-  const base = file.split(/[\\/]/).pop() ?? file;
-  return {
-    name,
-    formula: `mergerTable("${encodeDensityTable(t)}")`,
-    note: `merger densities d^3n/(dz dlog10M dq) read from ${base}: ${t.z.length} z x ${t.log10M.length} mass x ${t.q.length} q nodes`,
-    section: 'population',
-  };
-}
-
-/** The cell holding the histogram of the merger events in `text` (file `file`); throws ImportError naming file, line and column. */
-export function mergerEventsCell(name: string, text: string, file: string, binning: EventBinning = DEFAULT_EVENT_BINNING): CellSpec {
-  const r = importMergerEvents(text, file, binning);
-  const t = r.table;
-  const base = file.split(/[\\/]/).pop() ?? file;
-  return {
-    name,
-    formula: `mergerTable("${encodeDensityTable(t)}")`,
-    note: `${r.events} merger events read from ${base} (${r.totalWeight.toPrecision(6)} Mpc^-3 in all), binned into ${binning.zBins} z x ${binning.massBins} mass x ${binning.qBins} q bins (z 0 to ${t.z[t.z.length - 1].toPrecision(4)}, log10 M ${t.log10M[0].toFixed(1)} to ${t.log10M[t.log10M.length - 1].toFixed(1)}, q ${t.q[0].toPrecision(3)} to 1)`,
-    section: 'population',
-  };
-}
 
 export const mergerTableBuiltins: Builtin[] = [
   {

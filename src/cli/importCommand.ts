@@ -9,7 +9,7 @@ import { SheetLoadError } from './sheetLoading';
 import { parseSheetFile, serializeSheetFile, SheetFileError } from '../sheet/sheetFile';
 import { Sheet } from '../sheet/sheet';
 import { measurementCell, type MeasurementKind } from '../builtins/measurementCells';
-import { mergerEventsCell, mergerTableCell } from '../builtins/mergerTable';
+import { mergerEventsCell, mergerTableCell } from '../builtins/mergerTableCells';
 import { DEFAULT_EVENT_BINNING, type EventBinning } from '../statistics/mergerEventsImport';
 import { ImportError } from '../statistics/importText';
 import type { ImportedQuantity } from '../statistics/freeSpectrumImport';

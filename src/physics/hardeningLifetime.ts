@@ -3,9 +3,11 @@
 // da/dt = -(64/5) G^3 m1 m2 M / (c^5 a^3), Peters 1964, Phys. Rev. 136, B1224, eq. 5.6):
 //   T = Int_0^{a_h} da / (A a^2 + B a^-3) = I(a_h / a_t) / (A a_t),  a_t = (B / A)^(1/5),
 //   I(X) = Int_0^X x^3 / (1 + x^5) dx,
-// with A = G rho H / sigma, B = (64/5) G^3 m1 m2 M / c^5. The dynamical-friction phase before the binary
-// is bound, and the eccentricity, are not modelled (docs/orbits.md).
+// with A = G rho H / sigma, B = (64/5) G^3 m1 m2 M / c^5. Optionally the dynamical-friction phase that
+// brings the lighter black hole from a start radius to a_h is added before it (dynamicalFriction.ts, in
+// the singular isothermal sphere of the same sigma). The eccentricity is not modelled (docs/orbits.md).
 import { C_SI, G_SI } from './constants';
+import { frictionTime, type FrictionPhase } from './dynamicalFriction';
 import { compositeNodes } from './gaussLegendre';
 import { checkEnvironment, type MassEnvironment, type StellarEnvironment } from './stellarHardening';
 
@@ -59,10 +61,25 @@ export function hardBinaryLifetime(mKg: number, q: number, env: StellarEnvironme
   return hardeningTime(mKg, q, env, hardSeparation(m2, env.dispersionMS));
 }
 
-/** The lifetime of each binary in a mass-scaled environment, as a function of (log10 M/Msun, q), s. */
-export function lifetimeFunction(env: MassEnvironment, mSunKg: number): (log10M: number, q: number) => number {
+/**
+ * Time the lighter black hole m2 takes to sink by dynamical friction from the phase's start radius to the
+ * hard-binary separation G m2 / (4 sigma^2), s (Chandrasekhar's drag in a singular isothermal sphere; 0 when
+ * it starts inside a_h).
+ */
+export function frictionPhaseTime(mKg: number, q: number, env: StellarEnvironment, friction: FrictionPhase): number {
+  const m2 = mKg - mKg / (1 + q);
+  return frictionTime(m2, env.dispersionMS, friction.startRadiusM, hardSeparation(m2, env.dispersionMS), friction.coulombLog);
+}
+
+/**
+ * The lifetime of each binary in a mass-scaled environment, as a function of (log10 M/Msun, q), s: the
+ * hardening time from a_h, plus the dynamical-friction time to a_h when a friction phase is given.
+ */
+export function lifetimeFunction(env: MassEnvironment, mSunKg: number, friction?: FrictionPhase): (log10M: number, q: number) => number {
   return (log10M, q) => {
     const m = Math.pow(10, log10M) * mSunKg;
-    return hardBinaryLifetime(m, q, env.ofMass(m));
+    const local = env.ofMass(m);
+    const hard = hardBinaryLifetime(m, q, local);
+    return friction ? hard + frictionPhaseTime(m, q, local, friction) : hard;
   };
 }

@@ -2,6 +2,9 @@
 // relation and the stellar density at the binary's influence radius from a density profile, so the
 // stellar-hardening transition frequency moves with the binary's mass. SI in and out.
 import { G_SI, M_SUN_KG } from './constants';
+import { MCCONNELL_MA_2013 } from './blackHoleBulgeRelation';
+import { checkInnerSlope, dehnenInfluence } from './dehnenProfile';
+import { checkFrictionPhase, type FrictionPhase } from './dynamicalFriction';
 import type { MassEnvironment, StellarEnvironment } from './stellarHardening';
 
 /** log10(M / Msun) = norm + slope log10(sigma / 200 km/s). */
@@ -41,33 +44,66 @@ export function isothermalDensity(rM: number, sigmaMS: number): number {
   return (sigmaMS * sigmaMS) / (2 * Math.PI * G_SI * rM * rM);
 }
 
+/** The stellar density profile of the host: singular isothermal sphere, or Dehnen with inner slope gamma. */
+export type HostProfile = { kind: 'isothermal' } | { kind: 'dehnen'; gamma: number };
+
 /** How the stellar environment of a binary follows its total mass. */
 export interface MassScaledEnvironment {
   mSigma: MSigmaRelation;
   /** Dimensionless hardening rate H (Quinlan 1996, New Astron. 1, 35). */
   hardeningRate: number;
+  /** Density profile at the influence radius (isothermal when absent). */
+  profile?: HostProfile;
+  /** Dynamical-friction phase before the hard binary forms (none when absent): lengthens lifetimes only. */
+  friction?: FrictionPhase;
 }
 
 export function checkMassScaledEnvironment(s: MassScaledEnvironment): void {
   checkMSigma(s.mSigma);
   if (!(s.hardeningRate > 0) || !Number.isFinite(s.hardeningRate)) throw new RangeError(`hardening rate H must be positive and finite, got ${s.hardeningRate}`);
+  if (s.profile?.kind === 'dehnen') checkInnerSlope(s.profile.gamma);
+  if (s.friction) checkFrictionPhase(s.friction);
+}
+
+/**
+ * Stellar (bulge) mass of the host of a black hole (or binary) of mass mKg, kg: the median
+ * M_BH-M_bulge relation log10 M = 8.46 + 1.05 log10(M_bulge / 1e11 Msun) inverted (McConnell & Ma 2013, ApJ 764, 184).
+ */
+export function bulgeMassOfMass(mKg: number): number {
+  const r = MCCONNELL_MA_2013;
+  return 1e11 * M_SUN_KG * Math.pow(10, (Math.log10(mKg / M_SUN_KG) - r.a) / r.b);
+}
+
+/** Stellar density at the influence radius of a binary of mass mKg with host dispersion sigmaMS, kg/m^3. */
+export function influenceDensity(mKg: number, sigmaMS: number, profile: HostProfile = { kind: 'isothermal' }): number {
+  if (profile.kind === 'dehnen') return dehnenInfluence(mKg, sigmaMS, bulgeMassOfMass(mKg), profile.gamma).densityKgM3;
+  return isothermalDensity(isothermalInfluenceRadius(mKg, sigmaMS), sigmaMS);
 }
 
 /**
  * The stellar environment of a binary of total mass mKg: sigma from the M-sigma relation, rho the
  * density at the influence radius (the environment at the influence radius sets the hardening rate:
- * Sesana & Khan 2015, MNRAS 454, L66), rho = sigma^6 / (2 pi G^3 M^2) for the isothermal sphere.
+ * Sesana & Khan 2015, MNRAS 454, L66), rho = sigma^6 / (2 pi G^3 M^2) for the isothermal sphere,
+ * (3 - gamma) M (1 - x) / (2 pi r_inf^3) for the Dehnen profile (dehnenProfile.ts).
  */
 export function environmentOfMass(mKg: number, s: MassScaledEnvironment): StellarEnvironment {
   const sigma = dispersionOfMass(mKg, s.mSigma);
-  const rho = isothermalDensity(isothermalInfluenceRadius(mKg, sigma), sigma);
-  return { densityKgM3: rho, dispersionMS: sigma, hardeningRate: s.hardeningRate };
+  return { densityKgM3: influenceDensity(mKg, sigma, s.profile), dispersionMS: sigma, hardeningRate: s.hardeningRate };
+}
+
+/** A copy of the plain data of s (so later edits of the caller's object change nothing). */
+export function copyMassScaledEnvironment(s: MassScaledEnvironment): MassScaledEnvironment {
+  return {
+    mSigma: { norm: s.mSigma.norm, slope: s.mSigma.slope },
+    hardeningRate: s.hardeningRate,
+    ...(s.profile ? { profile: { ...s.profile } } : {}),
+    ...(s.friction ? { friction: { ...s.friction } } : {}),
+  };
 }
 
 /** The environment as a function of the binary's total mass, for the stellar kernels (stellarHardening.ts). */
 export function massScaledEnvironment(s: MassScaledEnvironment): MassEnvironment {
   checkMassScaledEnvironment(s);
-  const mSigma = { norm: s.mSigma.norm, slope: s.mSigma.slope };
-  const scaled = { mSigma, hardeningRate: s.hardeningRate };
+  const scaled = copyMassScaledEnvironment(s);
   return { ofMass: (mKg) => environmentOfMass(mKg, scaled) };
 }

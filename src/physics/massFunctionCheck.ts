@@ -26,6 +26,30 @@ export interface ReferenceMassFunction {
  */
 export const MARCONI_2004_MASS_DENSITY = Object.freeze({ value: 4.6e5, low: 3.2e5, high: 6.5e5, source: 'Marconi et al. 2004, MNRAS 351, 169 (h = 0.7)' });
 
+/**
+ * A reference local mass function of any form: its value per dex and its number density above a mass
+ * with a 1-sigma range (e.g. the velocity-dispersion route of localMassFunction.ts).
+ */
+export interface LocalMassFunction {
+  label: string;
+  /** Mpc^-3 per dex at massMsun. */
+  phiPerDex(massMsun: number): number;
+  /** Mpc^-3 above massMsun, with its range. */
+  numberAbove(massMsun: number): { value: number; low: number; high: number };
+}
+
+export type AnyReference = ReferenceMassFunction | LocalMassFunction;
+
+function isLocal(ref: AnyReference): ref is LocalMassFunction {
+  return typeof (ref as LocalMassFunction).numberAbove === 'function';
+}
+
+/** phi per dex of either kind of reference, Mpc^-3. */
+export function referencePerDex(ref: AnyReference, massMsun: number): number {
+  if (isLocal(ref)) return ref.phiPerDex(massMsun);
+  return massMsun <= Math.pow(10, ref.log10MMax) ? schechterPerDex(massMsun, ref.phiStar, ref.mStar, ref.alpha) : 0;
+}
+
 export interface ThresholdRow {
   massMsun: number;
   /** Remnants of the population above the mass, Mpc^-3. */
@@ -48,13 +72,14 @@ export interface MassFunctionCheck {
 export const CHECK_MASSES: readonly number[] = [1e9, 1e10];
 
 /** Number density above massMsun of the reference, with the 1-sigma range from its uncertainty in dex. */
-export function referenceNumberAbove(ref: ReferenceMassFunction, massMsun: number): { value: number; low: number; high: number } {
+export function referenceNumberAbove(ref: AnyReference, massMsun: number): { value: number; low: number; high: number } {
+  if (isLocal(ref)) return ref.numberAbove(massMsun);
   const value = numberAbove((m) => schechterPerDex(m, ref.phiStar, ref.mStar, ref.alpha), massMsun, ref.log10MMax);
   const f = Math.pow(10, ref.uncertaintyDex);
   return { value, low: value / f, high: value * f };
 }
 
-export function massFunctionCheck(pop: BinaryPopulation, ref: ReferenceMassFunction, masses: readonly number[] = CHECK_MASSES): MassFunctionCheck {
+export function massFunctionCheck(pop: BinaryPopulation, ref: AnyReference, masses: readonly number[] = CHECK_MASSES): MassFunctionCheck {
   const rows = masses.map((m) => {
     const r = referenceNumberAbove(ref, m);
     const remnants = remnantNumberAbove(pop, m);

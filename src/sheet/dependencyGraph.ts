@@ -105,7 +105,52 @@ export class DependencyGraph {
    * `tieOrder` gives the position of each cell in the sheet, used to break ties stably.
    */
   plan(subset: ReadonlySet<string>, tieOrder?: ReadonlyMap<string, number>): EvaluationPlan {
-    const order = this.kahn(subset, new Set(), tieOrder);
+    return this.planRest(subset, this.kahn(subset, new Set(), tieOrder), tieOrder);
+  }
+
+  /**
+   * The same plan, worked out a slice at a time: after each `sliceMs` of ordering it awaits
+   * `pause()` (a page gives itself back to its events). Only the cycles part, when there are
+   * cycles, is done in one step.
+   */
+  async planInSlices(subset: ReadonlySet<string>, tieOrder: ReadonlyMap<string, number>, pause: () => Promise<void>, sliceMs: number): Promise<EvaluationPlan> {
+    let start = performance.now();
+    const check = async () => {
+      if (performance.now() - start < sliceMs) return;
+      await pause();
+      start = performance.now();
+    };
+    const indegree = new Map<string, number>();
+    let k = 0;
+    for (const n of subset) {
+      let d = 0;
+      for (const r of this.reads.get(n) ?? []) if (subset.has(r)) d++;
+      indegree.set(n, d);
+      if ((++k & 1023) === 0) await check();
+    }
+    const position = (n: string) => tieOrder.get(n) ?? 0;
+    let ready = [...subset].filter((n) => indegree.get(n) === 0).sort((a, b) => position(a) - position(b));
+    const order: string[] = [];
+    while (ready.length > 0) {
+      const next: string[] = [];
+      for (const n of ready) {
+        order.push(n);
+        for (const d of this.readBy.get(n) ?? []) {
+          if (!subset.has(d)) continue;
+          const left = indegree.get(d)! - 1;
+          indegree.set(d, left);
+          if (left === 0) next.push(d);
+        }
+        if ((++k & 1023) === 0) await check();
+      }
+      ready = next.sort((a, b) => position(a) - position(b));
+      await check();
+    }
+    return this.planRest(subset, order, tieOrder);
+  }
+
+  /** The plan from Kahn's order of `subset`: the cells left over are on cycles or below them. */
+  private planRest(subset: ReadonlySet<string>, order: string[], tieOrder?: ReadonlyMap<string, number>): EvaluationPlan {
     const cycles = new Map<string, CycleThrough>();
     if (order.length === subset.size) return { order, cycles };
     const placed = new Set(order);

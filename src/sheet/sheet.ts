@@ -5,7 +5,7 @@ import type { CellError } from './cellError';
 import type { CellSpec, CellState, OffPageTicket, SheetObserver } from './types';
 import type { Builtin } from './builtin';
 import { compileFormula, makeCellFunction, type CompiledFormula } from './formulaCompiler';
-import { DependencyGraph, type CycleThrough } from './dependencyGraph';
+import { DependencyGraph, type CycleThrough, type EvaluationPlan } from './dependencyGraph';
 import { RankQueue } from './rankQueue';
 import { checkResult, errorFromException, explainUnitMismatch, nearestName } from './evaluationError';
 import { sameValue } from './valueEquality';
@@ -25,6 +25,12 @@ export interface SheetOptions {
   title?: string;
   notes?: string;
   cells?: CellSpec[];
+  /**
+   * Evaluate a cell only when it, or a cell that reads it, is read (state, value, evaluateWith):
+   * for one-off uses such as the command line's jobs, which need a few cells of a sheet. Reads give
+   * the values of a full recalculation; cells nothing reads are never evaluated.
+   */
+  evaluateOnRead?: boolean;
   /** Start with the recalculation deferred (planned, not run; see deferRecalculation). */
   deferRecalculation?: boolean;
 }
@@ -45,6 +51,10 @@ interface RecalcPass {
   edited: Set<string>;
   changed: Set<string>;
   notify: boolean;
+  /** Cells already brought up to date by reads (sheets that evaluate on read). */
+  settled: Set<string>;
+  /** Position of each cell in `order`, made on the first read. */
+  index?: Map<string, number>;
 }
 
 /**
@@ -109,6 +119,8 @@ export class Sheet {
   /** The unfinished recalculation, when recalculation is deferred (see deferRecalculation). */
   private pass: RecalcPass | null = null;
   private deferred = false;
+  /** Cells are evaluated when read (SheetOptions.evaluateOnRead). */
+  private readonly onRead: boolean;
   private _title: string;
   private _notes: string;
 
@@ -116,10 +128,12 @@ export class Sheet {
     this.builtinNames = new Set(lockedMath().builtins.keys());
     this._title = typeof options.title === 'string' ? options.title : '';
     this._notes = typeof options.notes === 'string' ? options.notes : '';
+    this.onRead = options.evaluateOnRead === true;
+    // A sheet evaluated on read keeps its recalculation deferred: reads run the part they need.
+    this.deferred = this.onRead || options.deferRecalculation === true;
     for (const spec of options.cells ?? []) this.addLoaded(spec);
-    this.deferred = options.deferRecalculation === true;
     // Deferred, the recalculation runs later, when observers may be listening: they hear it.
-    this.recalculate(this.order, this.deferred);
+    this.recalculate(this.order, options.deferRecalculation === true);
   }
 
   /** Adds a cell of a sheet being built (compiled, not evaluated). */
@@ -135,10 +149,10 @@ export class Sheet {
   // ---- files ---------------------------------------------------------------------------------
 
   /** Reads a sheet file; throws SheetFileError naming the problem. */
-  static fromFile(text: string, options: { deferRecalculation?: boolean } = {}): Sheet {
+  static fromFile(text: string, options: { evaluateOnRead?: boolean; deferRecalculation?: boolean } = {}): Sheet {
     const file = parseSheetFile(text);
     try {
-      return new Sheet({ title: file.title, notes: file.notes, cells: file.cells, deferRecalculation: options.deferRecalculation });
+      return new Sheet({ title: file.title, notes: file.notes, cells: file.cells, evaluateOnRead: options.evaluateOnRead, deferRecalculation: options.deferRecalculation });
     } catch (e) {
       if (e instanceof SheetEditError) throw new SheetFileError(`the sheet file has a bad cell: ${e.message}`);
       throw e;
@@ -169,7 +183,11 @@ export class Sheet {
         start = performance.now();
       }
     }
-    sheet.recalculate(sheet.order);
+    // The evaluation order of every cell, worked out in slices too; the recalculation is planned
+    // from it and left to the caller (recalculateSome).
+    const all = new Set(sheet.order);
+    const plan = await sheet.graph.planInSlices(all, sheet.positionMap(), pause, sliceMs);
+    sheet.startPass(plan, all, new Set(), true);
     return sheet;
   }
 
@@ -187,6 +205,26 @@ export class Sheet {
       return t;
     });
   }
+  /**
+   * The same text, for a page that must stay responsive: the cells' texts are made a few at a time
+   * (awaiting `pause()` after each `sliceMs`), then put together in one step. The text is that of
+   * the sheet when the call was made, whatever edits come meanwhile.
+   */
+  async toFileTextInSlices(pause: () => Promise<void>, sliceMs: number): Promise<string> {
+    const file: SheetFile = { format: FILE_FORMAT, version: FILE_VERSION, title: this._title, notes: this._notes, cells: this.specList() as CellSpec[] };
+    const texts = this.cellTexts;
+    let start = performance.now();
+    for (let i = 0; i < file.cells.length; i++) {
+      const spec = file.cells[i];
+      if (!texts.has(spec)) texts.set(spec, cellFileText(spec));
+      if ((i & 63) === 63 && performance.now() - start > sliceMs) {
+        await pause();
+        start = performance.now();
+      }
+    }
+    return serializeSheetFile(file, (spec) => texts.get(spec) ?? cellFileText(spec));
+  }
+
   /** Each cell's file text, kept while its spec (replaced on every change) is the same object. */
   private readonly cellTexts = new WeakMap<CellSpec, string>();
 
@@ -212,6 +250,14 @@ export class Sheet {
     return this.order.map((n) => ({ ...this.records.get(n)!.spec }));
   }
 
+  /**
+   * The cells in sheet order, not copied: read them, never change them (a changed cell gets a new
+   * spec object, so comparing two lists by identity finds the cells that changed).
+   */
+  specList(): readonly Readonly<CellSpec>[] {
+    return this.order.map((n) => this.records.get(n)!.spec);
+  }
+
   get(name: string): CellSpec | undefined {
     const r = this.records.get(name);
     return r ? { ...r.spec } : undefined;
@@ -223,12 +269,17 @@ export class Sheet {
 
   state(name: string): CellState {
     const r = this.records.get(name);
-    if (r) return r.state;
+    if (r) {
+      this.settle([name]);
+      return r.state;
+    }
     return { status: 'error', error: { kind: 'name', message: `${name}: there is no cell of that name` } };
   }
 
   /** The cell's value, or undefined when it has none (error, pending or no such cell). */
   value(name: string): unknown {
+    if (!this.records.has(name)) return undefined;
+    this.settle([name]);
     const s = this.records.get(name)?.state;
     return s && s.status === 'value' ? s.value : undefined;
   }
@@ -295,21 +346,47 @@ export class Sheet {
     let skipped = 0;
     while (pass.next < pass.order.length) {
       const name = pass.order[pass.next++];
-      const rec = this.records.get(name);
-      if (!rec) continue;
-      // Skip a cell none of whose inputs changed, unless it has no value yet or its cycle error
-      // is stale (it is no longer on a cycle).
-      if (!pass.edited.has(name) && !isStale(rec.state) && !rec.compiled.deps.some((d) => pass.changed.has(d))) {
+      if (!this.step(pass, name, lookup)) {
         if ((++skipped & 1023) === 0 && stop()) break;
         continue;
       }
-      if (pass.notify) this.emit((o) => o.pending?.(name));
-      this.store(pass, name, this.evaluateCompiled(name, rec.compiled, lookup, true));
       if (stop()) break;
     }
     if (pass.next < pass.order.length) return false;
     this.pass = null;
     return true;
+  }
+
+  /**
+   * One cell of a recalculation: evaluated when it was edited, has no value yet, its cycle error
+   * may be stale (it is no longer on a cycle), or one of its inputs changed. True when evaluated.
+   */
+  private step(pass: RecalcPass, name: string, lookup: Lookup): boolean {
+    const rec = this.records.get(name);
+    if (!rec || pass.settled.has(name)) return false;
+    if (!pass.edited.has(name) && !isStale(rec.state) && !rec.compiled.deps.some((d) => pass.changed.has(d))) return false;
+    if (pass.notify) this.emit((o) => o.pending?.(name));
+    this.store(pass, name, this.evaluateCompiled(name, rec.compiled, lookup, true));
+    return true;
+  }
+
+  /**
+   * In a sheet evaluated on read: runs the part of the unfinished recalculation that `names` and
+   * the cells they read (directly or not) need, in the same order, so they hold their final values.
+   */
+  private settle(names: readonly string[]): void {
+    const pass = this.pass;
+    if (!this.onRead || !pass || names.every((n) => pass.settled.has(n))) return;
+    pass.index ??= new Map(pass.order.map((n, i) => [n, i]));
+    const index = pass.index;
+    const needed = [...this.graph.upstream(names)];
+    const ahead = needed.filter((n) => (index.get(n) ?? -1) >= pass.next).sort((a, b) => index.get(a)! - index.get(b)!);
+    const lookup: Lookup = (n) => this.records.get(n)?.state;
+    for (const name of ahead) {
+      this.step(pass, name, lookup);
+      pass.settled.add(name);
+    }
+    for (const n of needed) pass.settled.add(n);
   }
 
   // ---- evaluation off the page ---------------------------------------------------------------
@@ -481,6 +558,7 @@ export class Sheet {
     for (const [name] of entries) {
       if (!this.records.has(name)) throw new SheetEditError(`cannot override ${name}: there is no cell of that name`);
     }
+    this.settle(outputs);
     // Scans and samples ask with the same names again and again: compare with the last request
     // before building the cache key.
     const last = this.lastPlan;
@@ -521,6 +599,7 @@ export class Sheet {
     for (const [name, text] of Object.entries(formulas)) {
       if (!this.records.has(name)) throw new SheetEditError(`cannot override ${name}: there is no cell of that name`);
       const compiled = compileFormula(text, name, this.builtinNames);
+      this.settle(compiled.deps);
       const state = this.evaluateCompiled(name, compiled, (n) => this.records.get(n)?.state);
       if (state.status !== 'value') {
         throw new SheetEditError(state.status === 'error' ? state.error.message : `${name}: the formula has no value`);
@@ -654,11 +733,15 @@ export class Sheet {
     }
     const all = editedSet.size === this.records.size && changed.size === 0 && [...editedSet].every((n) => this.records.has(n));
     const affected = all ? new Set(this.order) : new Set([...this.graph.downstream([...editedSet, ...changed])].filter((n) => this.records.has(n)));
-    const plan = this.graph.plan(affected, this.positionMap());
+    this.startPass(this.graph.plan(affected, this.positionMap()), editedSet, changed, notify);
+  }
+
+  /** Starts the recalculation of a plan (run at once unless recalculation is deferred). */
+  private startPass(plan: EvaluationPlan, editedSet: Set<string>, changed: Set<string>, notify: boolean): void {
     // Edited names that are no longer cells (removed, renamed) count as changed, and so does a
     // renamed cell under its new name (cells waiting for that name must now read it).
     for (const n of editedSet) if (!this.records.has(n)) changed.add(n);
-    const pass: RecalcPass = { order: plan.order, next: 0, edited: editedSet, changed, notify };
+    const pass: RecalcPass = { order: plan.order, next: 0, edited: editedSet, changed, notify, settled: new Set() };
     for (const [name, cycle] of plan.cycles) {
       if (notify) this.emit((o) => o.pending?.(name));
       this.store(pass, name, { status: 'error', error: cycleError(name, cycle) });

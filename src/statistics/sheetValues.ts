@@ -117,7 +117,12 @@ export function checkCancelled(control?: JobControl): void {
   if (control?.signal?.aborted) throw new JobCancelledError();
 }
 
-/** Gives the event loop a turn so that a cancel message or a progress report can get through. */
+/**
+ * Gives the event loop a turn so that a cancel message or a progress report can get through: with
+ * setImmediate where there is one (Node: after pending input such as Ctrl-C, without the 1 ms a
+ * timer waits at least), else with a timer (browsers).
+ */
 export function yieldToEventLoop(): Promise<void> {
-  return new Promise((resolve) => setTimeout(resolve, 0));
+  const immediate = (globalThis as { setImmediate?: (f: () => void) => unknown }).setImmediate;
+  return new Promise((resolve) => (immediate ? immediate(resolve) : setTimeout(resolve, 0)));
 }

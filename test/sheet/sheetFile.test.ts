@@ -48,6 +48,15 @@ describe('sheet files', () => {
     expect(refusal(minimal([{ name: 'pi', formula: '1' }]))).toMatch(/pi cannot be a cell name/);
   });
 
+  it('names the field and the limit of a too-long name, unit, section or title (limits of this format)', () => {
+    expect(refusal(minimal([{ name: 'a'.repeat(65), formula: '1' }]))).toMatch(/cell 1\.name: the cell name is longer than 64 characters/);
+    expect(refusal(minimal([{ name: 'a', formula: '1', unit: 'm'.repeat(201) }]))).toMatch(/cell 1\.unit: longer than 200 characters/);
+    expect(refusal(minimal([{ name: 'a', formula: '1' }, { name: 'b', formula: '1', section: 's'.repeat(201) }]))).toMatch(/cell 2\.section: longer than 200 characters/);
+    expect(refusal(minimal([], { title: 't'.repeat(1001) }))).toMatch(/invalid at title: longer than 1000 characters/);
+    expect(refusal(minimal([{ name: '', formula: '1' }]))).toMatch(/cell 1\.name: the cell name is empty/);
+    expect(() => parseSheetFile(minimal([{ name: 'a', formula: '1', unit: 'm'.repeat(200) }, { name: 'b', formula: '2', section: 's'.repeat(200) }], { title: 't'.repeat(1000) }))).not.toThrow();
+  });
+
   it('refuses hostile prototype keys', () => {
     expect(refusal('{"format":"strainsheet","version":1,"cells":[],"__proto__":{"polluted":1}}')).toMatch(/__proto__/);
     expect(refusal(minimal([{ name: 'a', formula: '1', constructor: { prototype: {} } }]))).toMatch(/constructor|prototype/);

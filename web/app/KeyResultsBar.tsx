@@ -11,8 +11,11 @@ interface KeyResult {
   cell: CellSpec;
 }
 
-/** Picks the key-result cells: by name for A_yr, by value kind or name for the others. */
-export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unknown): KeyResult[] {
+/**
+ * Picks the key-result cells: by name for A_yr, by value kind or name for the others. `objects`
+ * are the cells that may hold a sheet object (every cell when not given), searched for kinds.
+ */
+export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unknown, objects: CellSpec[] = cells): KeyResult[] {
   const out: KeyResult[] = [];
   const ayr = cells.find((c) => c.name === 'A_yr');
   if (ayr) out.push({ role: 'predicted A_yr', cell: ayr });
@@ -21,13 +24,13 @@ export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unk
     return isSheetObject(v) && re.test(v.kind);
   };
   // The headline is the comparison across the band (free spectrum and (A, gamma)); the single number at f_yr follows.
-  const band = cells.find((c) => kindIs(c, /^bandComparison$/));
+  const band = objects.find((c) => kindIs(c, /^bandComparison$/));
   if (band) out.push({ role: 'across the band', cell: band });
   const comparison =
-    cells.find((c) => kindIs(c, /^comparison$/i)) ?? (band ? undefined : cells.find((c) => /compar|tension|ratio.*meas|meas.*ratio/i.test(c.name)));
+    objects.find((c) => kindIs(c, /^comparison$/i)) ?? (band ? undefined : cells.find((c) => /compar|tension|ratio.*meas|meas.*ratio/i.test(c.name)));
   if (comparison) out.push({ role: band ? 'at f_yr' : 'against the measurement', cell: comparison });
   const allowed =
-    cells.find((c) => kindIs(c, /allowed|rateSolution|rateRange/i)) ??
+    objects.find((c) => kindIs(c, /allowed|rateSolution|rateRange/i)) ??
     cells.find((c) => /allowed/i.test(c.name) && sectionOf(c) !== 'population');
   if (allowed) out.push({ role: 'allowed merger rate', cell: allowed });
   return out;
@@ -37,10 +40,9 @@ export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unk
  * The new picks, except while a card's cell has no value (an error, a recalculation, an edit under
  * way): then every card keeps its cell, so no other cell is swapped in (picks by kind need values).
  */
-export function keepPicks(previous: KeyResult[], cells: CellSpec[], fresh: KeyResult[], noValue: (name: string) => boolean): KeyResult[] {
-  const byName = new Map(cells.map((c) => [c.name, c]));
-  if (previous.length && previous.every((p) => byName.has(p.cell.name)) && previous.some((p) => noValue(p.cell.name))) {
-    return previous.map((p) => ({ role: p.role, cell: byName.get(p.cell.name)! }));
+export function keepPicks(previous: KeyResult[], specOf: (name: string) => CellSpec | undefined, fresh: KeyResult[], noValue: (name: string) => boolean): KeyResult[] {
+  if (previous.length && previous.every((p) => specOf(p.cell.name)) && previous.some((p) => noValue(p.cell.name))) {
+    return previous.map((p) => ({ role: p.role, cell: specOf(p.cell.name)! }));
   }
   return fresh;
 }
@@ -56,8 +58,8 @@ export function KeyResultsBar() {
   // Picks are made again when the cells change or a recalculation is complete (reading the
   // engine's values directly, not one signal per cell, so a long sheet is not scanned per cell).
   const results = createMemo<KeyResult[]>((previous) => {
-    const { cells, valueOf, stateOf } = session.reader();
-    return keepPicks(previous, cells, pickKeyResults(cells, valueOf), (n) => stateOf(n).status !== 'value');
+    const { cells, objects, valueOf, stateOf, specOf } = session.reader();
+    return keepPicks(previous, specOf, pickKeyResults(cells, valueOf, objects), (n) => stateOf(n).status !== 'value');
   }, []);
   // Keyed by role and name, so the bar's buttons are rebuilt only when a different cell is picked.
   const keys = createMemo(() => results().map((r) => `${r.role}\u0000${r.cell.name}`), undefined, {

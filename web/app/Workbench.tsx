@@ -50,6 +50,11 @@ function demoSheet(notify: (t: string, tone?: Tone) => void): Sheet {
   }
 }
 
+/** 14:05:09 (not toLocaleTimeString: its first call loads locale data, tens of milliseconds). */
+function clockTime(d: Date): string {
+  return [d.getHours(), d.getMinutes(), d.getSeconds()].map((x) => String(x).padStart(2, '0')).join(':');
+}
+
 export function Workbench() {
   const { messages, notify, dismiss } = createMessages();
 
@@ -76,23 +81,35 @@ export function Workbench() {
   }
   const [autosaveState, setAutosaveState] = createSignal(autosaveAllowed ? 'autosave on' : 'autosave off');
   let lastAutosaveError = '';
-  // The autosave is written in a task of its own (a long sheet's text and its storage take a
-  // while; they are not added to the edit's task), and at once when the page is left.
-  let autosaveQueued = false;
+  // The autosave is written after the edit's task: the text is put together a slice at a time
+  // (a long sheet's text takes a while) and stored in one step; at once when the page is left.
+  let changes = 0;
+  let written = 0;
+  let saving = false;
   session.onChange = () => {
-    if (!autosaveAllowed || autosaveQueued) return;
-    autosaveQueued = true;
-    setTimeout(saveNow, 0);
-  };
-  window.addEventListener('pagehide', () => saveNow());
-  const saveNow = () => {
-    if (!autosaveQueued) return;
-    autosaveQueued = false;
     if (!autosaveAllowed) return;
-    const r = writeAutosave(session.toFileText());
+    changes++;
+    if (saving) return;
+    saving = true;
+    setTimeout(() => void saveInSlices(), 0);
+  };
+  const saveInSlices = async () => {
+    while (written < changes && autosaveAllowed) {
+      const at = changes;
+      const text = await session.toFileTextInSlices();
+      if (written < at) store(text, at);
+    }
+    saving = false;
+  };
+  window.addEventListener('pagehide', () => {
+    if (written < changes && autosaveAllowed) store(session.toFileText(), changes);
+  });
+  const store = (text: string, upTo: number) => {
+    written = upTo;
+    const r = writeAutosave(text);
     if (r.ok) {
       lastAutosaveError = '';
-      setAutosaveState(`autosaved ${new Date().toLocaleTimeString()}`);
+      setAutosaveState(`autosaved ${clockTime(new Date())}`);
     } else {
       setAutosaveState('autosave failed');
       if (r.message !== lastAutosaveError) notify(r.message, 'error');
@@ -209,7 +226,12 @@ export function Workbench() {
     return session.current.title || 'Untitled sheet';
   };
   const saveFile = () => downloadText(session.toFileText(), `${fileStem(title(), 'sheet')}.strainsheet.json`, 'application/json');
-  const exportCells = () => downloadText(cellTableCsv(session), `${fileStem(title(), 'sheet')}-cells.csv`, 'text/csv');
+  // The table holds the values: it is written once a recalculation under way is complete.
+  const exportCells = async () => {
+    await session.whenSettled();
+    const sheet = session.current;
+    downloadText(cellTableCsv({ cells: () => session.cells(), state: (n) => sheet.state(n) }), `${fileStem(title(), 'sheet')}-cells.csv`, 'text/csv');
+  };
 
   // Drag and drop a sheet file anywhere on the page.
   const [dropping, setDropping] = createSignal(false);
@@ -301,7 +323,7 @@ export function Workbench() {
             </button>
             <button type="button" data-action="save-sheet" onClick={saveFile}>Save</button>
             <button type="button" onClick={loadDemo}>Demo</button>
-            <button type="button" data-action="export-cells" onClick={exportCells}>Cells CSV</button>
+            <button type="button" data-action="export-cells" onClick={() => void exportCells()}>Cells CSV</button>
             <span class="toolbar-gap" />
             <button type="button" data-action="undo" disabled={!session.canUndo()} title={session.canUndo() ? `Undo ${session.canUndo()}` : 'Nothing to undo'} onClick={() => session.undo()}>
               Undo

@@ -21,7 +21,7 @@ function parseInWorker(text: string): Promise<SheetFile> {
     worker.onmessage = (e: MessageEvent<ParseReply>) => {
       worker.terminate();
       const r = e.data;
-      if (r.ok) resolve(r.file);
+      if (r.ok) resolve(cellsInSlices(r.head, r.cellChunks));
       else reject(r.fileError ? new SheetFileError(r.message) : new Error(r.message));
     };
     worker.onerror = (e) => {
@@ -30,6 +30,16 @@ function parseInWorker(text: string): Promise<SheetFile> {
     };
     worker.postMessage({ text });
   });
+}
+
+/** The checked cells from the worker's chunks of JSON text, one chunk per task. */
+async function cellsInSlices(head: Omit<SheetFile, 'cells'>, chunks: string[]): Promise<SheetFile> {
+  const cells: SheetFile['cells'] = [];
+  for (const chunk of chunks) {
+    for (const c of JSON.parse(chunk) as SheetFile['cells']) cells.push(c);
+    await yieldToPage();
+  }
+  return { ...head, cells };
 }
 
 /** Parses, checks and builds a sheet from file text; rejects with SheetFileError naming the problem. */

@@ -1,8 +1,8 @@
 // Reading a measurement data file (free spectrum or (A, gamma) samples, CSV or JSON) into a cell of
 // the current sheet. The file is parsed completely first; a bad file changes nothing and the message
-// names the file, line and column.
+// names the file, line and column. The readers (CSV and JSON parsers) load on first use.
 import type { CellSpec } from '../engine/engine';
-import { measurementCell, type MeasurementKind } from '../../src/builtins/measurementCells';
+import type { MeasurementKind } from '../../src/builtins/measurementCells';
 
 export const MAX_DATA_FILE_BYTES = 50_000_000;
 
@@ -57,6 +57,7 @@ export async function openDataFile(file: Blob & { name: string }, cells: CellSpe
   const chosen = stated.kind === 'keep' ? kept : stated.kind === 'uniform' ? { lower: stated.lower, upper: stated.upper } : undefined;
   const prior = kind === 'free-spectrum' ? chosen : undefined;
   try {
+    const { measurementCell } = await import('../../src/builtins/measurementCells');
     const cell = measurementCell(name, text, file.name, { kind, prior, thin: true });
     const spec: CellSpec = existing ? { ...existing, formula: cell.formula, note: cell.note } : cell;
     const priorText =

@@ -13,8 +13,9 @@ export function FreeCellList(props: { chosen: ReadonlySet<string>; onToggle: (ce
   const [editing, setEditing] = createSignal<string | null>(null);
   const [other, setOther] = createSignal('');
   const candidates = createMemo(() => session.cells().filter((c) => (c.prior ?? '').trim() || (c.uncertainty ?? '').trim()));
-  const spec = (name: string): CellSpec | undefined => session.cells().find((c) => c.name === name);
-  const others = () => props.inputs.filter((n) => !candidates().some((c) => c.name === n));
+  const spec = (name: string): CellSpec | undefined => (session.cells(), session.current.get(name));
+  const candidateNames = createMemo(() => new Set(candidates().map((c) => c.name)));
+  const others = () => props.inputs.filter((n) => !candidateNames().has(n));
   return (
     <fieldset class="axis-fields free-cells" data-free-cells>
       <legend>free cells and their priors</legend>

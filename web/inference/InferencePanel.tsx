@@ -32,14 +32,31 @@ export function InferencePanel() {
   const busy = () => status().state === 'running' || status().state === 'cancelling';
 
   // Cells holding a plain number: the likelihood candidates (ln L); those with no inputs: cells a prior can be given to.
-  const numberCells = createMemo(() => session.cells().filter((c) => typeof session.value(c.name) === 'number').map((c) => c.name), undefined, { equals: sameNames });
-  const inputs = createMemo(() => session.cells().filter((c) => session.value(c.name) !== undefined && session.dependencies(c.name).length === 0).map((c) => c.name), undefined, { equals: sameNames });
+  // Read through session.reader(): once per completed recalculation, not one signal per cell.
+  const numberCells = createMemo(() => {
+    const r = session.reader();
+    return r.cells.filter((c) => typeof r.valueOf(c.name) === 'number').map((c) => c.name);
+  }, undefined, { equals: sameNames });
+  const inputs = createMemo(() => {
+    const r = session.reader();
+    return r.cells.filter((c) => r.valueOf(c.name) !== undefined && r.inputsOf(c.name).length === 0).map((c) => c.name);
+  }, undefined, { equals: sameNames });
   // Cells computed from others (a derived posterior), and spectrum cells (the posterior-predictive band).
-  const derivedChoices = createMemo(() => session.cells().filter((c) => session.dependencies(c.name).length > 0 && isScalar(session.value(c.name))).map((c) => c.name), undefined, { equals: sameNames });
-  const spectrumCells = createMemo(() => session.cells().filter((c) => isSheetObject(session.value(c.name)) && (session.value(c.name) as { kind: string }).kind === 'spectrum').map((c) => c.name), undefined, { equals: sameNames });
+  const derivedChoices = createMemo(() => {
+    const r = session.reader();
+    return r.cells.filter((c) => r.inputsOf(c.name).length > 0 && isScalar(r.valueOf(c.name))).map((c) => c.name);
+  }, undefined, { equals: sameNames });
+  const spectrumCells = createMemo(() => {
+    const r = session.reader();
+    return r.objects.filter((c) => {
+      const v = r.valueOf(c.name);
+      return isSheetObject(v) && v.kind === 'spectrum';
+    }).map((c) => c.name);
+  }, undefined, { equals: sameNames });
+  const numberSet = createMemo(() => new Set(numberCells()));
   const [derived, setDerived] = createSignal<ReadonlySet<string>>(new Set());
   const [bandCell, setBandCell] = createSignal('');
-  const guessLikelihood = () => session.cells().find((c) => numberCells().includes(c.name) && (/LogLikelihood|binChiSquare/.test(c.formula) || /^(ln|log)_?L/i.test(c.name)))?.name ?? '';
+  const guessLikelihood = () => session.cells().find((c) => numberSet().has(c.name) && (/LogLikelihood|binChiSquare/.test(c.formula) || /^(ln|log)_?L/i.test(c.name)))?.name ?? '';
   // The user's own picks; until then (and for a sheet opened later) the defaults of the command line:
   // the likelihood-looking cell, and every cell with a prior ticked.
   const [likelihoodPick, setLikelihood] = createSignal('');
@@ -129,7 +146,7 @@ export function InferencePanel() {
         <Show when={numberCells().length > 0 && !guessLikelihood()}>
           <p class="form-hint">
             No cell looks like a likelihood (ln L) yet.{' '}
-            <StarterButton starter={likelihoodStarter(session.cells(), (n) => session.value(n))} onAdded={setLikelihood} />
+            <StarterButton starter={likelihoodStarter(session.reader().cells, session.reader().valueOf)} onAdded={setLikelihood} />
           </p>
         </Show>
         <fieldset class="axis-fields">
@@ -192,7 +209,7 @@ export function InferencePanel() {
           <InferenceResultView
             result={d().result.result}
             corner={d().result.corner}
-            freeSpectrum={freeSpectra({ cells: session.cells(), valueOf: (n) => session.value(n) }).map((f) => ({ label: f.name, data: f.data }))[0]}
+            freeSpectrum={freeSpectra(session.reader()).map((f) => ({ label: f.name, data: f.data }))[0]}
             workers={d().result.workers}
             elapsedMs={d().elapsedMs}
             fileStem={stem()}

@@ -25,14 +25,16 @@ export function RealisationsPanel() {
   const client = new JobClient();
   onCleanup(() => client.dispose());
   const cells = createMemo(
-    () =>
-      session
-        .cells()
+    () => {
+      // Read through session.reader(): once per completed recalculation, not one signal per cell.
+      const r = session.reader();
+      return r.objects
         .filter((c) => {
-          const v = session.value(c.name);
+          const v = r.valueOf(c.name);
           return isSheetObject(v) && v.kind === 'realisations';
         })
-        .map((c) => c.name),
+        .map((c) => c.name);
+    },
     undefined,
     { equals: (a, b) => a.length === b.length && a.every((x, i) => x === b[i]) },
   );
@@ -108,7 +110,7 @@ export function RealisationsPanel() {
         <Show when={cells().length === 0}>
           <p class="form-hint">
             No cell of this sheet holds realisations yet: add one such as realiseBackground(pop, freqs, array_span, 100, 1) (its own 100 realisations are drawn on the page; the runs here draw their own count).{' '}
-            <StarterButton starter={realisationStarter(session.cells(), (n) => session.value(n))} onAdded={setCell} />
+            <StarterButton starter={realisationStarter(session.reader().cells, session.reader().valueOf)} onAdded={setCell} />
           </p>
         </Show>
       </div>
@@ -123,7 +125,7 @@ export function RealisationsPanel() {
             <button type="button" data-action="export-realisations-csv" onClick={() => exportCsv(r())}>
               Export CSV
             </button>
-            <PlotView model={() => realisationRunModel(r(), freeSpectra({ cells: session.cells(), valueOf: (n) => session.value(n) }).map((f) => ({ label: f.name, data: f.data }))[0])} height={320} onMessage={(t) => services.notify(t, 'error')} />
+            <PlotView model={() => realisationRunModel(r(), freeSpectra(session.reader()).map((f) => ({ label: f.name, data: f.data }))[0])} height={320} onMessage={(t) => services.notify(t, 'error')} />
             <RealisationTable result={r()} />
           </div>
         )}

@@ -79,26 +79,31 @@ export function ScanPanel() {
 
   // Lists of names (strings, compared by content) so that the option lists are rebuilt only when
   // the set of eligible cells changes, not on every recalculation.
-  const scalarCells = createMemo(() => session.cells().filter((c) => scalarInUnit(session.value(c.name), c.unit) !== null).map((c) => c.name), undefined, { equals: sameNames });
+  // Read through session.reader(): once per completed recalculation, not one signal per cell.
+  const scalarCells = createMemo(() => {
+    const r = session.reader();
+    return r.cells.filter((c) => scalarInUnit(r.valueOf(c.name), c.unit) !== null).map((c) => c.name);
+  }, undefined, { equals: sameNames });
   const measurementCells = createMemo(
-    () =>
-      session
-        .cells()
+    () => {
+      const r = session.reader();
+      return r.objects
         .filter((c) => {
-          const v = session.value(c.name);
+          const v = r.valueOf(c.name);
           return isSheetObject(v) && v.kind === 'measurement';
         })
-        .map((c) => c.name),
+        .map((c) => c.name);
+    },
     undefined,
     { equals: sameNames },
   );
   const defaultAxis = (cell: string | undefined): ScanAxisSpec => {
-    const spec = session.cells().find((c) => c.name === cell);
-    const s = spec ? scalarInUnit(session.value(spec.name), spec.unit) : null;
+    const spec = cell === undefined ? undefined : session.current.get(cell);
+    const s = spec ? scalarInUnit(session.current.value(spec.name), spec.unit) : null;
     if (!spec || !s) return { cell: cell ?? '', lo: 0, hi: 1, n: 41, log: false, unit: '' };
     return { cell: spec.name, ...defaultRange(s.value), n: 41, unit: s.unit };
   };
-  const [output, setOutput] = createSignal(session.cells().some((c) => c.name === 'A_yr') ? 'A_yr' : (scalarCells()[0] ?? ''));
+  const [output, setOutput] = createSignal(session.current.has('A_yr') ? 'A_yr' : (scalarCells()[0] ?? ''));
   // Inputs the output depends on (cells with no inputs of their own), the sheet's own sections
   // before cosmology: the merger rate and the mass slope for the demo's A_yr, not H0.
   const upstreamInputs = (out: string): string[] => {

@@ -5,6 +5,7 @@
 import { createSignal } from 'solid-js';
 import type { FromWorker, JobResult, JobSpec, ToWorker } from './jobProtocol';
 import type { InferProgressDetail } from '../inference/inferRun';
+import jobWorkerUrl from './jobWorker.ts?shared-worker-url';
 
 export type JobStatus =
   | { state: 'idle' }
@@ -22,7 +23,7 @@ export interface JobWorkerLike {
   terminate(): void;
 }
 
-const defaultWorker = (): JobWorkerLike => new Worker(new URL('./jobWorker.ts', import.meta.url), { type: 'module', name: 'strainsheet-jobs' });
+const defaultWorker = (): JobWorkerLike => new Worker(jobWorkerUrl, { type: 'module', name: 'strainsheet-jobs' });
 
 /** How long a cancelled job may take to stop before its worker is ended. */
 export const CANCEL_GRACE_MS = 1000;

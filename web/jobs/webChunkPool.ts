@@ -1,7 +1,7 @@
 // The app's pool of Web Workers for the chunks of a job (workerpool, as the command line's worker
 // threads): started by the job worker (jobWorker.ts) when a job has more than one chunk.
 import workerpool from 'workerpool';
-import chunkWorkerUrl from './chunkWebWorker?worker&url';
+import chunkWorkerUrl from './chunkWebWorker.ts?shared-worker-url';
 import type { ChunkExecutor } from '../../src/jobs/runChunks';
 import { SheetJobError } from '../../src/statistics/sheetValues';
 

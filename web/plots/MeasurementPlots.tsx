@@ -73,6 +73,7 @@ export function MeasurementPlots(props: {
             <MonteCarloControl
               reader={props.reader}
               sheet={() => session.current}
+              whenSettled={() => session.whenSettled()}
               revision={session.revision}
               spectra={() => props.spectra().map((c) => c.label)}
               result={mc}

@@ -13,6 +13,8 @@ import type { SheetReader } from './sheetSpectrumModel';
 export function MonteCarloControl(props: {
   reader: () => SheetReader;
   sheet: () => Sheet;
+  /** Resolves once the sheet's values are up to date (the draws start from them). */
+  whenSettled: () => Promise<void>;
   /** Sheet revision: a result from an older revision is marked as such. */
   revision: Accessor<number>;
   spectra: Accessor<string[]>;
@@ -30,6 +32,8 @@ export function MonteCarloControl(props: {
     const s = Number(seed());
     if (!(Number.isInteger(n) && n >= 2 && n <= MAX_SPECTRUM_SAMPLES)) return props.onMessage(`Monte Carlo: draws must be a whole number from 2 to ${MAX_SPECTRUM_SAMPLES}.`);
     if (!(Number.isInteger(s) && s >= 0)) return props.onMessage('Monte Carlo: the seed must be a whole number >= 0.');
+    // The draws vary the uncertain cells around the sheet's values: wait for a recalculation under way.
+    await props.whenSettled();
     const spectrum = cell() || props.spectra()[0];
     if (!spectrum) return props.onMessage('Monte Carlo: the sheet has no spectrum cell.');
     const options = spectrumSampleOptions(props.reader(), spectrum, n, s);

@@ -30,7 +30,9 @@ export function PlotsPanel() {
   };
 
   /** Every cell's formula now, for naming pinned curves by what changed. */
-  const formulas = createMemo(() => Object.fromEntries(session.cells().map((c) => [c.name, c.formula])));
+  const allFormulas = (): Record<string, string> => Object.fromEntries(session.cells().map((c) => [c.name, c.formula]));
+  /** The same, made only while there are pins to name (a long sheet does not pay for it at each change). */
+  const formulas = createMemo<Record<string, string>>(() => (pins().length ? allFormulas() : {}));
   // Plots scan every cell: they are drawn again when the cells change or a recalculation is complete.
   const reader = (): SheetReader => session.reader();
   /** Every spectrum cell's current curve. */
@@ -56,7 +58,7 @@ export function PlotsPanel() {
 
   const breakdowns = createMemo(() => {
     const r = session.reader();
-    return breakdownModels(r.cells, r.valueOf);
+    return breakdownModels(r.objects, r.valueOf);
   });
 
   const [pinChoice, setPinChoice] = createSignal('spectrum');
@@ -71,7 +73,7 @@ export function PlotsPanel() {
       id: `${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 7)}`,
       label: `${c.label} pinned at ${new Date().toLocaleTimeString([], { hour: '2-digit', minute: '2-digit', second: '2-digit' })}`,
       curve: c.label,
-      formulas: formulas(),
+      formulas: allFormulas(),
       frequencyHz: c.frequencyHz,
       hc: c.hc,
       visible: true,

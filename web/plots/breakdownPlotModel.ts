@@ -33,6 +33,7 @@ function trapezoid(x: number[], y: number[]): number | null {
   return Number.isFinite(sum) && sum > 0 ? sum : null;
 }
 
+/** The breakdowns held by `cells` (every cell, or only those holding sheet objects). */
 export function breakdownModels(cells: CellSpec[], valueOf: (name: string) => unknown): PlotModel[] {
   const models: PlotModel[] = [];
   for (const c of cells) {

@@ -7,7 +7,7 @@ import { strainAtFrequency } from '../../src/statistics/binnedComparison';
 import { arraySensitivity } from '../../src/physics/arraySensitivity';
 import type { PulsarArray } from '../../src/physics/pulsarArray';
 import type { SheetReader } from './sheetSpectrumModel';
-import { spectrumCurves } from './sheetSpectrumModel';
+import { objectCandidates, spectrumCurves } from './sheetSpectrumModel';
 import { amplitudeGammaPosteriors, freeSpectra } from './sheetFreeSpectrumModel';
 import { amplitudeGammaPlotModel, type FittedCloud, type FittedPoint } from './amplitudeGammaPlotModel';
 import type { StrainCurve } from './spectrumPlotModel';
@@ -30,12 +30,12 @@ function curveAt(fc: Float64Array, hc: Float64Array, f: number): number {
   return strainAtFrequency(fc, hc, x);
 }
 
-export function fitSetup(sheet: Pick<SheetReader, 'cells' | 'valueOf'>): FitSetup | null {
+export function fitSetup(sheet: Pick<SheetReader, 'cells' | 'objects' | 'valueOf'>): FitSetup | null {
   const fs = freeSpectra(sheet)[0];
   if (!fs) return null;
   let bins = DEFAULT_FIT_BINS;
   let array: PulsarArray | null = null;
-  for (const c of sheet.cells) {
+  for (const c of objectCandidates(sheet)) {
     const v = sheet.valueOf(c.name);
     if (!isSheetObject(v)) continue;
     if (v.kind === 'effectivePowerLaw') {

@@ -5,7 +5,7 @@ import { isSheetObject } from '../engine/engine';
 import type { FreeSpectrumData } from '../../src/statistics/freeSpectrum';
 import type { AmplitudeGammaPosterior } from '../../src/statistics/amplitudeGammaPosterior';
 import type { SheetReader } from './sheetSpectrumModel';
-import { spectrumCurves } from './sheetSpectrumModel';
+import { objectCandidates, spectrumCurves } from './sheetSpectrumModel';
 import { freeSpectrumPlotModel, type FreeSpectrumAxis, type StrainBand } from './freeSpectrumPlotModel';
 import type { StrainCurve } from './spectrumPlotModel';
 import type { PlotModel } from './plotModel';
@@ -22,9 +22,9 @@ export interface NamedAmplitudeGamma {
 }
 
 /** Every cell whose value is a measured free spectrum (kind 'freeSpectrum' carrying its data). */
-export function freeSpectra(sheet: Pick<SheetReader, 'cells' | 'valueOf'>): NamedFreeSpectrum[] {
+export function freeSpectra(sheet: Pick<SheetReader, 'cells' | 'objects' | 'valueOf'>): NamedFreeSpectrum[] {
   const out: NamedFreeSpectrum[] = [];
-  for (const c of sheet.cells) {
+  for (const c of objectCandidates(sheet)) {
     const v = sheet.valueOf(c.name);
     if (!isSheetObject(v) || v.kind !== 'freeSpectrum') continue;
     const data = (v as unknown as { data?: FreeSpectrumData }).data;
@@ -34,9 +34,9 @@ export function freeSpectra(sheet: Pick<SheetReader, 'cells' | 'valueOf'>): Name
 }
 
 /** Every cell whose value is a measured (A, gamma) posterior. */
-export function amplitudeGammaPosteriors(sheet: Pick<SheetReader, 'cells' | 'valueOf'>): NamedAmplitudeGamma[] {
+export function amplitudeGammaPosteriors(sheet: Pick<SheetReader, 'cells' | 'objects' | 'valueOf'>): NamedAmplitudeGamma[] {
   const out: NamedAmplitudeGamma[] = [];
-  for (const c of sheet.cells) {
+  for (const c of objectCandidates(sheet)) {
     const v = sheet.valueOf(c.name);
     if (!isSheetObject(v) || v.kind !== 'amplitudeGamma') continue;
     const posterior = (v as unknown as { posterior?: AmplitudeGammaPosterior }).posterior;
@@ -89,9 +89,9 @@ export function realisationViewOfValue(name: string, v: RealisationsLike): Reali
 }
 
 /** Every cell holding realisations (realiseBackground). */
-export function realisationCells(sheet: Pick<SheetReader, 'cells' | 'valueOf'>): { name: string; view: RealisationView }[] {
+export function realisationCells(sheet: Pick<SheetReader, 'cells' | 'objects' | 'valueOf'>): { name: string; view: RealisationView }[] {
   const out: { name: string; view: RealisationView }[] = [];
-  for (const c of sheet.cells) {
+  for (const c of objectCandidates(sheet)) {
     const v = sheet.valueOf(c.name);
     if (!isSheetObject(v) || v.kind !== 'realisations') continue;
     const r = v as unknown as RealisationsLike;

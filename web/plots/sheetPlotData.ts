@@ -106,16 +106,17 @@ export function binsFromJson(label: string, json: unknown, h0PerS: number | null
 }
 
 /** The Hubble constant in s^-1 from a cell holding a quantity like 70 km/s/Mpc, or a cosmology object. */
-export function hubbleConstant(cells: CellSpec[], valueOf: (name: string) => unknown): number | null {
+export function hubbleConstant(cells: CellSpec[], valueOf: (name: string) => unknown, objects: CellSpec[] = cells): number | null {
   const perSecond = math.unit('1 Hz');
   for (const c of cells) {
+    if (!/^(H0|H_0|hubble)/i.test(c.name)) continue;
     const v = valueOf(c.name);
-    if (math.isUnit(v) && /^(H0|H_0|hubble)/i.test(c.name) && v.equalBase(perSecond)) {
+    if (math.isUnit(v) && v.equalBase(perSecond)) {
       const si = (v as unknown as { value: number }).value;
       if (si > 0 && Number.isFinite(si)) return si;
     }
   }
-  for (const c of cells) {
+  for (const c of objects) {
     const v = valueOf(c.name);
     if (isSheetObject(v) && v.kind === 'cosmology') {
       const o = asRecord(v.toJSON());
@@ -178,8 +179,7 @@ export function frequencyList(v: unknown): number[] | null {
 /** Frequencies to draw function cells on: the first spectrum's, else the `freqs` cell, else 1 to 100 nHz. */
 export function drawingGrid(spectrumGrid: number[] | undefined, cells: CellSpec[], valueOf: (name: string) => unknown): number[] {
   if (spectrumGrid?.length) return spectrumGrid;
-  const named = cells.find((c) => c.name === 'freqs');
-  const fromCell = named ? frequencyList(valueOf(named.name)) : null;
+  const fromCell = frequencyList(valueOf('freqs'));
   if (fromCell) return fromCell;
   return Array.from({ length: 41 }, (_, k) => 1e-9 * Math.pow(100, k / 40));
 }

@@ -9,14 +9,24 @@ import type { FreeSpectrumData } from '../../src/statistics/freeSpectrum';
 
 export interface SheetReader {
   cells: CellSpec[];
+  /**
+   * The cells whose value is a sheet object or a function, in sheet order, when the reader keeps
+   * that list (the app does: a long sheet is then not scanned cell by cell); else every cell.
+   */
+  objects?: CellSpec[];
   valueOf(name: string): unknown;
   stateOf(name: string): CellState;
+}
+
+/** The cells that may hold a sheet object or a function (see SheetReader.objects). */
+export function objectCandidates(sheet: Pick<SheetReader, 'cells' | 'objects'>): CellSpec[] {
+  return sheet.objects ?? sheet.cells;
 }
 
 /** Every spectrum cell's current curve, the sheet's main `spectrum` first (it keeps the first colour). */
 export function spectrumCurves(sheet: SheetReader): StrainCurve[] {
   const out: StrainCurve[] = [];
-  for (const c of sheet.cells) {
+  for (const c of objectCandidates(sheet)) {
     const v = sheet.valueOf(c.name);
     // A spectrum computed off the page is drawn from its JSON, as one computed here is.
     if (isSheetObject(v) && (v.kind === 'spectrum' || (isOffPageValue(v) && v.heldKind === 'spectrum'))) {
@@ -31,10 +41,11 @@ export function spectrumCurves(sheet: SheetReader): StrainCurve[] {
 export function sheetSpectrumModel(sheet: SheetReader, quantity: VerticalQuantity, extra: StrainCurve[] = [], spectra = spectrumCurves(sheet)): PlotModel {
   const { cells, valueOf } = sheet;
   const notes: string[] = [];
-  const h0 = hubbleConstant(cells, valueOf);
+  const objects = objectCandidates(sheet);
+  const h0 = hubbleConstant(cells, valueOf, objects);
   const curves: StrainCurve[] = [...spectra];
   const grid = drawingGrid(curves[0]?.frequencyHz, cells, valueOf);
-  for (const c of cells) {
+  for (const c of objects) {
     const v = valueOf(c.name);
     if (!isOneArgumentFunction(v)) continue;
     const r = sampleFrequencyFunction(v, grid);
@@ -45,7 +56,7 @@ export function sheetSpectrumModel(sheet: SheetReader, quantity: VerticalQuantit
   const measured: MeasuredAmplitude[] = [];
   const bins: BinnedStrain[] = [];
   const realisations: RealisationBands[] = [];
-  for (const c of cells) {
+  for (const c of objects) {
     const v = valueOf(c.name);
     if (!isSheetObject(v)) continue;
     if (v.kind === 'measurement') {
@@ -66,8 +77,9 @@ export function sheetSpectrumModel(sheet: SheetReader, quantity: VerticalQuantit
   if (!spectra.length) {
     // A spectrum cell in error shows nothing: say which one and why, instead of "no spectrum".
     for (const c of cells) {
+      if (!/spectrum/i.test(c.name) && !/Spectrum\s*\(/.test(c.formula)) continue;
       const st = sheet.stateOf(c.name);
-      if (st.status === 'error' && (/spectrum/i.test(c.name) || /Spectrum\s*\(/.test(c.formula))) notes.push(`${c.name} has no value: ${st.error.message}`);
+      if (st.status === 'error') notes.push(`${c.name} has no value: ${st.error.message}`);
     }
   }
   return spectrumPlotModel({ quantity, curves, realisations, measured, bins, h0PerS: h0, notes });

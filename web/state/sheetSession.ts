@@ -7,6 +7,20 @@ import { batch, createSignal, untrack, type Accessor, type Setter } from 'solid-
 import { Sheet, type CellSpec, type CellState } from '../engine/engine';
 import { APP_SLICE_MS, yieldToPage } from '../engine/slices';
 import { OffPageRunner, type OffPageWorkerLike } from '../engine/offPageRunner';
+import { ObjectCells } from './objectCells';
+
+/** What views that scan the whole sheet read (see SheetSession.reader). */
+export interface WholeSheetReader {
+  cells: CellSpec[];
+  /** The cells whose value is a sheet object or a function, in sheet order. */
+  objects: CellSpec[];
+  valueOf(name: string): unknown;
+  stateOf(name: string): CellState;
+  /** A cell's spec (a copy), or undefined when there is no such cell. */
+  specOf(name: string): CellSpec | undefined;
+  /** Names a cell reads directly ([] for no such cell). */
+  inputsOf(name: string): string[];
+}
 
 /** Outcome of an edit: refused edits (bad name, ...) carry the engine's reason for the user. */
 export type EditOutcome = { ok: true } | { ok: false; message: string };
@@ -62,6 +76,7 @@ export class SheetSession {
     [this.cellsToRecalculate, this.setCellsToRecalculate] = createSignal(0);
     [this.settled, this.setSettled] = createSignal(0);
     this.sheet = sheet;
+    this.indexObjects();
     this.attach();
     this.runSlice();
   }
@@ -93,6 +108,11 @@ export class SheetSession {
       this.settle();
       return;
     }
+    this.queueSlice();
+  }
+
+  /** Runs the next slice in a task of its own, after the page's events. */
+  private queueSlice(): void {
     if (this.sliceQueued) return;
     this.sliceQueued = true;
     void yieldToPage().then(() => {
@@ -125,13 +145,24 @@ export class SheetSession {
     return this.sheet;
   }
 
-  /** The cells in sheet order: one shared array per structure change (do not change it). */
+  /** The cells in sheet order: one shared array per structure change, of the engine's own specs (change neither). */
   cells(): CellSpec[] {
     this.structure();
-    this.cellList ??= this.sheet.cells();
+    this.cellList ??= this.sheet.specList() as CellSpec[];
     return this.cellList;
   }
   private cellList: CellSpec[] | null = null;
+  /** Each cell's place in `cells()`, made when first asked after a structure change. */
+  private positions: Map<string, number> | null = null;
+  private position(name: string): number {
+    if (!this.positions) {
+      const list = untrack(() => this.cells());
+      this.positions = new Map(list.map((c, i) => [c.name, i]));
+    }
+    return this.positions.get(name) ?? Number.POSITIVE_INFINITY;
+  }
+  /** The cells holding a sheet object or a function, kept from the cells the engine reports. */
+  private objectCells = new ObjectCells();
 
   /** Reactive state of one cell. */
   state(name: string): CellState {
@@ -148,13 +179,16 @@ export class SheetSession {
    * (plots, key results): reactive on the cells and on each completed recalculation, not on each
    * cell's signal, so a long sheet is not scanned again after every slice of a recalculation.
    */
-  reader(): { cells: CellSpec[]; valueOf(name: string): unknown; stateOf(name: string): CellState } {
+  reader(): WholeSheetReader {
     // Every change of the cells is followed by a completed recalculation (runSlice bumps `settled`
     // when it finds no work too), so the cells are read untracked: a long sheet put in place is
     // scanned once, when its values are there, not also while they are still pending.
     this.settled();
     const sheet = this.sheet;
-    return { cells: untrack(() => this.cells()), valueOf: (n) => sheet.value(n), stateOf: (n) => sheet.state(n) };
+    const cells = untrack(() => this.cells());
+    this.syncObjects();
+    const objects = this.objectCells.size === 0 ? [] : this.objectCells.inOrder((n) => this.position(n)).map((n) => cells[this.position(n)]).filter((c) => c !== undefined);
+    return { cells, objects, valueOf: (n) => sheet.value(n), stateOf: (n) => sheet.state(n), specOf: (n) => sheet.get(n), inputsOf: (n) => (sheet.has(n) ? sheet.dependencies(n) : []) };
   }
 
   /** Reactive value of a cell, or undefined when it has none (error, pending, absent). */
@@ -183,6 +217,11 @@ export class SheetSession {
 
   toFileText(): string {
     return this.sheet.toFileText();
+  }
+
+  /** The sheet's file text as it is now, put together in slices (see Sheet.toFileTextInSlices). */
+  toFileTextInSlices(): Promise<string> {
+    return this.sheet.toFileTextInSlices(yieldToPage, APP_SLICE_MS);
   }
 
   /**
@@ -265,10 +304,36 @@ export class SheetSession {
   private replaceSheet(sheet: Sheet): void {
     this.unsubscribe();
     this.sheet = sheet;
+    sheet.deferRecalculation = true;
     this.cellList = null;
+    this.positions = null;
+    this.indexObjects();
     this.attach();
-    this.runSlice();
+    // The views follow the new cells in this task; the recalculation starts in the next.
+    this.setCellsToRecalculate(sheet.cellsToRecalculate);
+    this.queueSlice();
     this.refresh(true);
+  }
+
+  /** Brings the cells holding objects up to date with the cells reported since it was last read. */
+  private syncObjects(): void {
+    if (this.objectNamesToCheck) this.objectCells.keepOnly((n) => this.sheet.has(n));
+    for (const n of this.objectsToCheck) this.objectCells.update(n, this.sheet.value(n));
+    this.objectNamesToCheck = false;
+    this.objectsToCheck.clear();
+  }
+  private objectsToCheck = new Set<string>();
+  private objectNamesToCheck = false;
+
+  /** Finds the cells holding objects or functions in a sheet just put in place (one look at each cell). */
+  private indexObjects(): void {
+    const sheet = this.sheet;
+    this.objectsToCheck.clear();
+    this.objectNamesToCheck = false;
+    this.objectCells.rebuild(
+      sheet.specList().map((c) => c.name),
+      (n) => sheet.value(n),
+    );
   }
 
   private attach(): void {
@@ -278,6 +343,7 @@ export class SheetSession {
       error: (name) => this.queueRefresh(false, name),
       structure: () => {
         this.cellList = null;
+        this.positions = null;
         this.queueRefresh(true);
       },
     });
@@ -289,8 +355,11 @@ export class SheetSession {
   }
 
   private queueRefresh(structural: boolean, name?: string): void {
-    if (structural) this.structuralPending = true;
-    if (name !== undefined) this.touched.add(name);
+    if (structural) this.structuralPending = this.objectNamesToCheck = true;
+    if (name !== undefined) {
+      this.touched.add(name);
+      this.objectsToCheck.add(name);
+    }
     if (this.refreshQueued) return;
     this.refreshQueued = true;
     queueMicrotask(() => this.refresh(this.structuralPending));
@@ -308,7 +377,10 @@ export class SheetSession {
     this.structuralPending = false;
     const touched = this.touched;
     this.touched = new Set();
-    if (structural) this.cellList = null;
+    if (structural) {
+      this.cellList = null;
+      this.positions = null;
+    }
     batch(() => {
       const update = (name: string, entry: [Accessor<CellState>, Setter<CellState>]) => {
         const next = this.safeState(name);

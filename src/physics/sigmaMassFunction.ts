@@ -1,0 +1,113 @@
+// A local black-hole mass function built from published relations: the velocity-dispersion function of
+// early-type galaxies (Sheth et al. 2003, ApJ 594, 225, eq. 4),
+//   phi(sigma) dsigma = phi* (sigma/sigma*)^alpha exp[-(sigma/sigma*)^beta] beta / Gamma(alpha/beta) dsigma/sigma,
+// carried through an M-sigma relation log10 M = a + b log10(sigma / 200 km/s) with a log-normal intrinsic
+// scatter of eps dex (McConnell & Ma 2013, ApJ 764, 184 for a and b):
+//   phi_BH(log10 M) = Int dln sigma phi(ln sigma) N(log10 M; a + b log10(sigma/200 km/s), eps)   (per dex),
+// N the normal density. Masses in Msun, number densities in Mpc^-3.
+import { compositeNodes } from './gaussLegendre';
+import { M_SIGMA_REFERENCE_MS, type MSigmaRelation } from './hostEnvironment';
+import { integrateMassFunction } from './remnantMassFunction';
+
+/** The modified Schechter function in sigma: phi* (Mpc^-3 once h is applied), sigma* (km/s), alpha, beta. */
+export interface DispersionFunction {
+  phiStarMpc3: number;
+  sigmaStarKmS: number;
+  alpha: number;
+  beta: number;
+}
+
+/**
+ * Sheth et al. 2003 (ApJ 594, 225, eq. 4), early-type galaxies: (phi*, sigma*, alpha, beta) =
+ * (0.0020 +- 0.0001, 88.8 +- 17.7 km/s, 6.5 +- 1.0, 1.93 +- 0.22); phi* in h^3 Mpc^-3 (unverified: the
+ * units of phi* were not read here; the four values are checked).
+ */
+export const SHETH_2003_EARLY_TYPES = Object.freeze({ phiStarH3Mpc3: 0.002, sigmaStarKmS: 88.8, alpha: 6.5, beta: 1.93 });
+
+/** Sheth et al. 2003 with phi* in Mpc^-3 for the Hubble parameter h = H0 / (100 km/s/Mpc). */
+export function sheth2003(h: number): DispersionFunction {
+  const s = SHETH_2003_EARLY_TYPES;
+  return { phiStarMpc3: s.phiStarH3Mpc3 * h * h * h, sigmaStarKmS: s.sigmaStarKmS, alpha: s.alpha, beta: s.beta };
+}
+
+/** Range of x = sigma/sigma* the integrals cover, ln x in [LN_X_LO, LN_X_HI]: x^alpha e^(-x^beta) is below 1e-18 of its peak outside for the fits used. */
+const LN_X_LO = Math.log(1e-3);
+const LN_X_HI = Math.log(40);
+
+/**
+ * beta / Gamma(alpha/beta) = 1 / Int_0^inf x^alpha e^(-x^beta) dln x (the substitution u = x^beta gives
+ * Gamma(alpha/beta) / beta), by composite Gauss-Legendre in ln x.
+ */
+export function dispersionNormalisation(alpha: number, beta: number): number {
+  const r = compositeNodes(LN_X_LO, LN_X_HI, 64, 8);
+  let s = 0;
+  for (let i = 0; i < r.nodes.length; i++) {
+    const x = Math.exp(r.nodes[i]);
+    s += r.weights[i] * Math.pow(x, alpha) * Math.exp(-Math.pow(x, beta));
+  }
+  return 1 / s;
+}
+
+/** What the mass function is made of. */
+export interface SigmaMassFunctionSpec {
+  dispersion: DispersionFunction;
+  mSigma: MSigmaRelation;
+  /** Intrinsic scatter of log10 M at fixed sigma, dex (>= 0). */
+  scatterDex: number;
+}
+
+export function checkSigmaMassFunction(s: SigmaMassFunctionSpec): void {
+  const d = s.dispersion;
+  if (!(d.phiStarMpc3 > 0 && d.sigmaStarKmS > 0 && d.alpha > 0 && d.beta > 0)) throw new RangeError('dispersion function parameters must be positive');
+  if (!(s.mSigma.slope > 0) || !Number.isFinite(s.mSigma.norm)) throw new RangeError(`M-sigma slope must be positive and the normalisation finite, got ${s.mSigma.norm}, ${s.mSigma.slope}`);
+  if (!(s.scatterDex >= 0 && s.scatterDex <= 2)) throw new RangeError(`intrinsic scatter must lie in [0, 2] dex, got ${s.scatterDex}`);
+}
+
+/** Galaxies per ln sigma, Mpc^-3 (Sheth et al. 2003, eq. 4, per ln sigma). */
+export function dispersionPerLnSigma(sigmaKmS: number, d: DispersionFunction, normalisation = dispersionNormalisation(d.alpha, d.beta)): number {
+  const x = sigmaKmS / d.sigmaStarKmS;
+  return d.phiStarMpc3 * Math.pow(x, d.alpha) * Math.exp(-Math.pow(x, d.beta)) * normalisation;
+}
+
+/** Panels over the +-8 eps window in ln sigma around the mean relation (Gauss-Legendre, 8 points each). */
+const WINDOW_PANELS = 12;
+const HALF_WINDOW = 8;
+
+/** The black-hole mass function per dex, Mpc^-3, at log10(M/Msun) (formula at the top). */
+export function sigmaMassFunctionPerDex(log10M: number, s: SigmaMassFunctionSpec, normalisation = dispersionNormalisation(s.dispersion.alpha, s.dispersion.beta)): number {
+  const { norm, slope } = s.mSigma;
+  const ref = M_SIGMA_REFERENCE_MS / 1e3;
+  const eps = s.scatterDex;
+  // ln sigma where the mean relation gives log10 M: ln(200 km/s) + ln10 (log10 M - a) / b
+  const lnSigmaOf = (lg: number) => Math.log(ref) + (Math.LN10 * (lg - norm)) / slope;
+  if (eps === 0) return dispersionPerLnSigma(Math.exp(lnSigmaOf(log10M)), s.dispersion, normalisation) * (Math.LN10 / slope);
+  const lnStar = Math.log(s.dispersion.sigmaStarKmS);
+  const lo = Math.max(lnSigmaOf(log10M - HALF_WINDOW * eps), lnStar + LN_X_LO);
+  const hi = Math.min(lnSigmaOf(log10M + HALF_WINDOW * eps), lnStar + LN_X_HI);
+  if (!(hi > lo)) return 0;
+  const r = compositeNodes(lo, hi, WINDOW_PANELS, 8);
+  const gaussNorm = 1 / (Math.sqrt(2 * Math.PI) * eps);
+  let sum = 0;
+  for (let i = 0; i < r.nodes.length; i++) {
+    const sigma = Math.exp(r.nodes[i]);
+    const mean = norm + slope * Math.log10(sigma / ref);
+    const u = (log10M - mean) / eps;
+    sum += r.weights[i] * dispersionPerLnSigma(sigma, s.dispersion, normalisation) * gaussNorm * Math.exp(-0.5 * u * u);
+  }
+  return sum;
+}
+
+/** Largest mass of the integrals, log10 Msun (the function is below 1e-15 of its value at 1e10 Msun beyond). */
+export const SIGMA_MASS_FUNCTION_TOP = 12.5;
+
+/** Number density above massMsun, Mpc^-3: phi_BH integrated over log10 M. */
+export function sigmaNumberAbove(massMsun: number, s: SigmaMassFunctionSpec): number {
+  const c = dispersionNormalisation(s.dispersion.alpha, s.dispersion.beta);
+  return integrateMassFunction((x) => sigmaMassFunctionPerDex(x, s, c), Math.log10(massMsun), SIGMA_MASS_FUNCTION_TOP);
+}
+
+/** Mass density in black holes above massMsun, Msun Mpc^-3. */
+export function sigmaMassDensity(s: SigmaMassFunctionSpec, massMsun = 1e5): number {
+  const c = dispersionNormalisation(s.dispersion.alpha, s.dispersion.beta);
+  return integrateMassFunction((x) => sigmaMassFunctionPerDex(x, s, c), Math.log10(massMsun), SIGMA_MASS_FUNCTION_TOP, 1);
+}
