@@ -7,6 +7,7 @@ import type { Sheet } from '../../src/sheet/sheet';
 import type { CellState } from '../../src/sheet/types';
 import { stateFromTransfer } from '../../src/sheet/valueTransfer';
 import type { OffPageReply, OffPageRequest } from './offPageProtocol';
+import offPageWorkerUrl from './offPageWorker.ts?shared-worker-url';
 
 /** What the runner needs of a worker (a Web Worker in the page; a stand-in in unit tests). */
 export interface OffPageWorkerLike {
@@ -16,7 +17,8 @@ export interface OffPageWorkerLike {
   terminate(): void;
 }
 
-const defaultWorker = (): OffPageWorkerLike => new Worker(new URL('./offPageWorker.ts', import.meta.url), { type: 'module', name: 'strainsheet-off-page' });
+// Built as an entry of the app's build: it loads the engine chunks the page loads (scripts/sharedWorkerEntries.mjs).
+const defaultWorker = (): OffPageWorkerLike => new Worker(offPageWorkerUrl, { type: 'module', name: 'strainsheet-off-page' });
 
 interface Request {
   id: number;

@@ -1,12 +1,16 @@
 /// <reference lib="webworker" />
 // Evaluates the cells the page hands off (a cell that ran out of the page's budget, or one that
-// reads a value held here) with the command line's budget per cell (DEFAULT_CELL_SECONDS: this
-// thread never sets the page's budget, see engine.ts). One request at a time; the page ends this
+// reads a value held here) with the command line's budget per cell (DEFAULT_CELL_SECONDS) and no
+// hand-off (set here, whatever the shared chunks hold). One request at a time; the page ends this
 // worker to cancel one. The replica keeps the cells of earlier requests, so a slow cell read by
 // several handed-off cells is evaluated once.
 import { SheetReplica } from '../../src/sheet/sheetReplica';
 import { stateToTransfer } from '../../src/sheet/valueTransfer';
 import type { OffPageReply, OffPageRequest } from './offPageProtocol';
+import { DEFAULT_CELL_SECONDS, setCellBudget, setHandOffOnTimeout } from '../../src/sheet/evaluationBudget';
+
+setCellBudget(DEFAULT_CELL_SECONDS);
+setHandOffOnTimeout(false);
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 const replica = new SheetReplica();
