@@ -17,7 +17,7 @@ import type { CellSpec } from '../../src/sheet/types';
 
 let pageBudget = 0;
 beforeAll(() => {
-  pageBudget = cellBudgetSeconds(); // engine.ts set the page's budget and hand-off
+  pageBudget = cellBudgetSeconds(); // pageBudget.ts (imported by the session) set the page's budget and hand-off
   setCellBudget(1e-9); // so short that any cell reaching two time checks is handed off
 });
 afterAll(() => {

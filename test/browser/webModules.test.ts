@@ -359,7 +359,8 @@ describe('the app engine budget (issue 10)', () => {
   });
 
   it('hands a slow formula off the page after the page budget per cell, instead of failing it', async () => {
-    const { Sheet, APP_PAGE_CELL_SECONDS } = await import('../../web/engine/engine');
+    const { Sheet } = await import('../../web/engine/engine');
+    const { APP_PAGE_CELL_SECONDS } = await import('../../web/engine/pageBudget');
     const { cellBudgetSeconds, DEFAULT_CELL_SECONDS, handOffOnTimeout, setCellBudget, setHandOffOnTimeout } = await import('../../src/sheet/evaluationBudget');
     try {
       expect(cellBudgetSeconds()).toBe(APP_PAGE_CELL_SECONDS);

@@ -6,6 +6,7 @@
 import { batch, createSignal, untrack, type Accessor, type Setter } from 'solid-js';
 import { Sheet, type CellSpec, type CellState } from '../engine/engine';
 import { APP_SLICE_MS, yieldToPage } from '../engine/slices';
+import '../engine/pageBudget'; // the page's budget per cell and hand-off (not the command line's)
 import { OffPageRunner, type OffPageWorkerLike } from '../engine/offPageRunner';
 import { ObjectCells } from './objectCells';
 
