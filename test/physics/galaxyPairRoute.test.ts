@@ -126,6 +126,15 @@ describe('A_yr of the fast scatter sums against a converged reference', () => {
     expect(pop.qBreaks).toEqual([Math.pow(0.2, KORMENDY_HO_2013.b)]);
     expect(galaxyPairRoutePopulation(completed(t)).qBreaks).toBeUndefined();
   });
+  it('outside the population limits the grid routes give 0 (the population contract), inside a positive density', () => {
+    for (const scatter of ['shared', 'independent'] as const) {
+      const pop = galaxyPairRoutePopulation(completed(t, { scatter, timeShift: true }));
+      expect(pop.density(1, 11.2, 0.5)).toBe(0);
+      expect(pop.density(1, 5.8, 0.5)).toBe(0);
+      expect(pop.density(1, 9, pop.qMin / 2)).toBe(0);
+      expect(pop.density(1, 9, 0.5)).toBeGreaterThan(0);
+    }
+  });
   it('refuses a grid of fewer than 1 step per sigma', () => {
     expect(() => galaxyPairRoutePopulation({ ...completed(t, { scatter: 'independent' }), scatterStepsPerSigma: 0.5 })).toThrow(/scatterStepsPerSigma/);
   });
