@@ -28,7 +28,7 @@ const LOAD_LATER_FROM = 200_000;
 function initialSheet(notify: (t: string, tone?: Tone) => void): { sheet: Sheet; autosaveAllowed: boolean; later?: string } {
   let later: string | undefined;
   const restored = restoreAutosave((text) => {
-    if (text.length < LOAD_LATER_FROM) return Sheet.fromFile(text);
+    if (text.length < LOAD_LATER_FROM) return Sheet.fromFile(text, { deferRecalculation: true });
     later = text;
     return new Sheet({ title: 'Loading the autosaved sheet…' });
   });
