@@ -445,7 +445,7 @@ export const populationBuiltins: Builtin[] = [
       { name: 'alphaPerZ', unit: 'dimensionless', description: 'd alpha / dz' },
     ],
     returns: { unit: 'massFunction', description: 'a mass function for galaxyMergerPopulation' },
-    source: 'Chen, Sesana & Conselice 2019, MNRAS 488, 401 (parametrisation simplified; unverified: their exact form was not compared)',
+    source: 'Chen, Sesana & Conselice 2019, MNRAS 488, 401, arXiv:1810.04184 (parametrisation simplified; unverified: only their abstract was reachable, which names the ingredients but gives no formula)',
     example: 'stellarMassFunction(1e-3 Mpc^-3, -0.3, 1e11 Msun, -1.1, -0.1)',
     fn: (phiStar0: unknown, log10PhiStarPerZ: unknown, breakMass: unknown, alpha0: unknown, alphaPerZ: unknown) => {
       const fn = 'stellarMassFunction';

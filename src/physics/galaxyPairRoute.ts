@@ -323,6 +323,9 @@ export function galaxyPairRoutePopulation(p: GalaxyPairRouteParams): BinaryPopul
     qBreaks: independent ? [Math.pow(qgMin, b)] : undefined,
     density(z, log10M, q) {
       if (z > p.zMax) return 0;
+      // The grid rows cover the population's limits only; outside them the density is 0 (the contract).
+      const outside = log10M < p.log10MMin || log10M > p.log10MMax || q < qLow || q > 1;
+      if ((independent || sharedGrid) && outside) return 0;
       const st = stateAt(z);
       if (!independent) return sharedGrid ? sharedOnGrid(st, log10M, q) : sharedDensity(st, log10M, q);
       const xBig = log10M - Math.log10(1 + q);

@@ -73,6 +73,7 @@ function loads(output: Rolldown.OutputBundle[string][]): Map<string, { bytes: nu
     ['page before its first result', staticClosure(output, file((o) => o.type === 'chunk' && o.isEntry && /index\.html$/.test(o.facadeModuleId ?? ''), 'main entry'))],
     ['job worker', staticClosure(output, file(entryNamed('jobWorker'), 'job worker entry'))],
     ['chunk worker', staticClosure(output, file(entryNamed('chunkWebWorker'), 'chunk worker entry'))],
+    ['off-page worker', staticClosure(output, file(entryNamed('offPageWorker'), 'off-page worker entry'))],
     ['parse worker', staticClosure(output, file((o) => /parseWorker-[^/]*\.js$/.test(o.fileName), 'parse worker'))],
   ]);
 }

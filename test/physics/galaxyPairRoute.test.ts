@@ -14,6 +14,8 @@ import { errorOf, sheetOf, valueOf } from './sheetHelpers';
 import fixture from '../reference/galaxy_pairs.json';
 import { MIN_JACOBIAN, mergerShiftTable } from '../../src/physics/mergerTimeShift';
 import { characteristicStrainSquared } from '../../src/physics/backgroundIntegral';
+import { delayedPopulation } from '../../src/physics/delayedPopulation';
+import { delayedPopulationByMass } from '../../src/physics/massDependentDelay';
 
 const cosmo = new FlatLambdaCdm({ hubbleSI: 70 * KM_S_MPC_SI, omegaM: 0.3 });
 const massFunction = { log10PhiStar0: -2.8, log10PhiStarSlope: -0.25, mStar: 10 ** 10.9, alpha0: -1.2, alphaSlope: -0.05 };
@@ -125,6 +127,20 @@ describe('A_yr of the fast scatter sums against a converged reference', () => {
     const pop = galaxyPairRoutePopulation(completed(t, { scatter: 'independent' }));
     expect(pop.qBreaks).toEqual([Math.pow(0.2, KORMENDY_HO_2013.b)]);
     expect(galaxyPairRoutePopulation(completed(t)).qBreaks).toBeUndefined();
+  });
+  it('a delayed galaxy route (one lifetime, or one per mass) keeps the q break of its base', () => {
+    const base = galaxyPairRoutePopulation(completed(t, { scatter: 'independent' }));
+    expect(delayedPopulation(base, cosmo, 0.5 * GYR_S).qBreaks).toEqual(base.qBreaks);
+    expect(delayedPopulationByMass(base, cosmo, (x) => (0.2 + 0.05 * (x - 6)) * GYR_S).qBreaks).toEqual(base.qBreaks);
+  });
+  it('outside the population limits the grid routes give 0 (the population contract), inside a positive density', () => {
+    for (const scatter of ['shared', 'independent'] as const) {
+      const pop = galaxyPairRoutePopulation(completed(t, { scatter, timeShift: true }));
+      expect(pop.density(1, 11.2, 0.5)).toBe(0);
+      expect(pop.density(1, 5.8, 0.5)).toBe(0);
+      expect(pop.density(1, 9, pop.qMin / 2)).toBe(0);
+      expect(pop.density(1, 9, 0.5)).toBeGreaterThan(0);
+    }
   });
   it('refuses a grid of fewer than 1 step per sigma', () => {
     expect(() => galaxyPairRoutePopulation({ ...completed(t, { scatter: 'independent' }), scatterStepsPerSigma: 0.5 })).toThrow(/scatterStepsPerSigma/);

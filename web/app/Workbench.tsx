@@ -28,7 +28,7 @@ const LOAD_LATER_FROM = 200_000;
 function initialSheet(notify: (t: string, tone?: Tone) => void): { sheet: Sheet; autosaveAllowed: boolean; later?: string } {
   let later: string | undefined;
   const restored = restoreAutosave((text) => {
-    if (text.length < LOAD_LATER_FROM) return Sheet.fromFile(text);
+    if (text.length < LOAD_LATER_FROM) return Sheet.fromFile(text, { deferRecalculation: true });
     later = text;
     return new Sheet({ title: 'Loading the autosaved sheet…' });
   });
@@ -219,9 +219,10 @@ export function Workbench() {
     return session.current.title || 'Untitled sheet';
   };
   const saveFile = () => downloadText(session.toFileText(), `${fileStem(title(), 'sheet')}.strainsheet.json`, 'application/json');
-  // The table holds the values: it is written once a recalculation under way is complete.
+  // The table holds the values: it is written once a recalculation under way is complete and the
+  // cells evaluated off the page have their values.
   const exportCells = async () => {
-    await session.whenSettled();
+    await session.whenComplete();
     const sheet = session.current;
     downloadText(cellTableCsv({ cells: () => session.cells(), state: (n) => sheet.state(n) }), `${fileStem(title(), 'sheet')}-cells.csv`, 'text/csv');
   };

@@ -1,10 +1,13 @@
 // The live sheet behind the screen: one Sheet, per-cell signals the rows read, undo/redo, and
 // performance marks the UI benchmark reads. Every edit goes through `edit()`, so every edit can be undone.
 // The sheet's recalculation is deferred and run here in slices of APP_SLICE_MS between the page's
-// events: a long recalculation never holds the page, and an edit made meanwhile joins it.
+// events: a long recalculation never holds the page, and an edit made meanwhile joins it. A cell
+// that runs out of the page's budget is evaluated off the page (OffPageRunner) and supplied back.
 import { batch, createSignal, untrack, type Accessor, type Setter } from 'solid-js';
 import { Sheet, type CellSpec, type CellState } from '../engine/engine';
 import { APP_SLICE_MS, yieldToPage } from '../engine/slices';
+import '../engine/pageBudget'; // the page's budget per cell and hand-off (not the command line's)
+import { OffPageRunner, type OffPageWorkerLike } from '../engine/offPageRunner';
 import { ObjectCells } from './objectCells';
 
 /** What views that scan the whole sheet read (see SheetSession.reader). */
@@ -59,8 +62,14 @@ export class SheetSession {
   private settledWaiters: Array<() => void> = [];
   /** Called after each edit that changed the sheet (autosave listens here). */
   onChange: (session: SheetSession) => void = () => {};
+  /** Evaluates the cells the sheet hands off; an outcome the sheet takes is recalculated from like an edit. */
+  private readonly offPage: OffPageRunner;
 
-  constructor(sheet: Sheet) {
+  /** `offPageWorker` starts the worker for cells evaluated off the page (a Web Worker unless given). */
+  constructor(sheet: Sheet, offPageWorker?: () => OffPageWorkerLike) {
+    this.offPage = new OffPageRunner((name, ticket, state) => {
+      if (this.sheet.supplyOffPage(name, ticket, state)) this.runSlice();
+    }, offPageWorker);
     [this.structure, this.setStructure] = createSignal(0);
     [this.revision, this.setRevision] = createSignal(0);
     [this.canUndo, this.setCanUndo] = createSignal<string | null>(null);
@@ -79,23 +88,32 @@ export class SheetSession {
     return new Promise((resolve) => this.settledWaiters.push(resolve));
   }
 
+  /** Resolves once the values are up to date and no cell waits for its evaluation off the page. */
+  whenComplete(): Promise<void> {
+    if (!this.sheet.recalculating && !this.sheet.offPageCells().length) return Promise.resolve();
+    return new Promise((resolve) => this.completeWaiters.push(resolve));
+  }
+  private completeWaiters: Array<() => void> = [];
+
   /** Runs one slice of the sheet's recalculation now, and queues the next when work is left. */
   private runSlice(): void {
     const sheet = this.sheet;
     sheet.deferRecalculation = true;
-    const end = performance.now() + APP_SLICE_MS;
+    const start = performance.now();
+    const end = start + APP_SLICE_MS;
     const done = sheet.recalculateSome(() => performance.now() >= end);
     this.setCellsToRecalculate(sheet.cellsToRecalculate);
     if (done) {
-      this.setSettled((n) => n + 1);
-      if (this.measureEdit) {
-        // The engine's share of edit -> plot (the UI benchmark reports both).
-        this.measureEdit = false;
-        performance.measure('strainsheet:recalculate', 'strainsheet:edit');
+      this.offPage.sync(sheet);
+      // A slice that ran long (a cell used up the page's budget) gives the page back before the
+      // views read the new values, so that the two do not add up in one task.
+      if (performance.now() - start > APP_SLICE_MS) {
+        void yieldToPage().then(() => {
+          if (this.sheet === sheet && !sheet.recalculating) this.settle();
+        });
+        return;
       }
-      const waiters = this.settledWaiters;
-      this.settledWaiters = [];
-      for (const w of waiters) w();
+      this.settle();
       return;
     }
     this.queueSlice();
@@ -109,6 +127,30 @@ export class SheetSession {
       this.sliceQueued = false;
       this.runSlice();
     });
+  }
+
+  /** Tells the views and the waiters that the recalculation is complete. */
+  private settle(): void {
+    this.setSettled((n) => n + 1);
+    if (this.measureEdit) {
+      // The engine's share of edit -> plot (the UI benchmark reports both).
+      this.measureEdit = false;
+      performance.measure('strainsheet:recalculate', 'strainsheet:edit');
+    }
+    const waiters = this.settledWaiters;
+    this.settledWaiters = [];
+    for (const w of waiters) w();
+    if (this.completeWaiters.length && !this.sheet.offPageCells().length) {
+      const complete = this.completeWaiters;
+      this.completeWaiters = [];
+      for (const w of complete) w();
+    }
+  }
+
+  /** Stops the off-page evaluation of a cell (its row's Cancel): it gets a 'limit' error saying so. */
+  cancelOffPage(name: string): void {
+    const st = this.sheet.state(name);
+    if (st.status === 'pending' && st.offPage) this.offPage.cancel(name, st.offPage.ticket, st.offPage.since);
   }
 
   /** The engine object, for read-only calls (builtins, evaluateWith, dependencies). */
@@ -207,7 +249,7 @@ export class SheetSession {
       this.measureEdit = true;
     } catch (err) {
       // A refused edit may have been partly applied: restore the text we had.
-      if (this.sheet.toFileText() !== before) this.replaceSheet(Sheet.fromFile(before));
+      if (this.sheet.toFileText() !== before) this.replaceSheet(Sheet.fromFile(before, { deferRecalculation: true }));
       return { ok: false, message: err instanceof Error ? err.message : String(err) };
     }
     const after = this.sheet.toFileText();
@@ -240,7 +282,7 @@ export class SheetSession {
     const step = this.undoStack.pop();
     if (!step) return false;
     this.redoStack.push({ text: this.sheet.toFileText(), label: step.label });
-    this.replaceSheet(Sheet.fromFile(step.text));
+    this.replaceSheet(Sheet.fromFile(step.text, { deferRecalculation: true }));
     this.updateHistorySignals();
     this.onChange(this);
     return true;
@@ -251,7 +293,7 @@ export class SheetSession {
     const step = this.redoStack.pop();
     if (!step) return false;
     this.undoStack.push({ text: this.sheet.toFileText(), label: step.label });
-    this.replaceSheet(Sheet.fromFile(step.text));
+    this.replaceSheet(Sheet.fromFile(step.text, { deferRecalculation: true }));
     this.updateHistorySignals();
     this.onChange(this);
     return true;
@@ -380,6 +422,7 @@ function sameState(a: CellState, b: CellState): boolean {
   if (a === b) return true;
   if (a.status !== b.status) return false;
   if (a.status === 'value' && b.status === 'value') return a.value === b.value;
+  if (a.status === 'pending' && b.status === 'pending') return a.offPage?.ticket === b.offPage?.ticket && a.waitsFor === b.waitsFor;
   if (a.status === 'error' && b.status === 'error') {
     return a.error.message === b.error.message && a.error.kind === b.error.kind && a.error.position === b.error.position;
   }
