@@ -86,6 +86,7 @@ export function Workbench() {
   let changes = 0;
   let written = 0;
   let saving = false;
+  session.onHistoryProblem = (m) => notify(m, 'error');
   session.onChange = () => {
     if (!autosaveAllowed) return;
     changes++;
