@@ -129,6 +129,16 @@ export function Workbench() {
 
   const rows = new Map<string, HTMLElement>();
   const [traced, setTraced] = createSignal<string | null>(null);
+  const [found, setFound] = createSignal<string | null>(null);
+  /** The row of a cell, drawn and scrolled into view (a long sheet draws only the rows in view). */
+  const rowInView = (name: string): HTMLElement | undefined => {
+    // A long sheet draws the row (if it was not) and keeps it in view while rows around it are measured.
+    services.revealRow?.(name);
+    const row = rows.get(name);
+    if (!row?.isConnected) return undefined;
+    row.scrollIntoView({ block: 'nearest' });
+    return row;
+  };
   // The built-ins are the same for every sheet (one locked math instance): read them once.
   const builtinList = (() => {
     try {
@@ -160,13 +170,8 @@ export function Workbench() {
     session,
     notify,
     focusCell(name, part = 'formula') {
-      let row = rows.get(name);
-      if (!row?.isConnected) {
-        services.revealRow?.(name);
-        row = rows.get(name);
-      }
-      if (!row?.isConnected) return;
-      row.scrollIntoView({ block: 'nearest' });
+      const row = rowInView(name);
+      if (!row) return;
       const target = row.querySelector<HTMLElement>(part === 'formula' ? '.formula-input' : '.name-button');
       target?.focus();
     },
@@ -177,6 +182,9 @@ export function Workbench() {
     rowOrder: () => groupBySection(session.cells()).flatMap((g) => g.cells.map((c) => c.name)),
     builtins,
     completions,
+    showCell: (name) => rowInView(name) !== undefined,
+    found,
+    setFound,
     traced,
     setTraced,
     docPage,
