@@ -3,6 +3,7 @@ import { defineConfig } from 'vitest/config';
 import solid from 'vite-plugin-solid';
 import type { Plugin } from 'vite';
 import { sharedWorkerEntries } from './scripts/sharedWorkerEntries.mjs';
+import { builtinDocsInApp } from './scripts/builtinDocsInApp.mjs';
 
 const projectRoot = fileURLToPath(new URL('.', import.meta.url));
 
@@ -24,6 +25,7 @@ function sharedChunkName(chunk: { name: string; moduleIds: string[] }): string {
   if (has('/node_modules/mathjs/')) return 'mathjs';
   if (has('/src/sheet/sheet.ts')) return 'sheetEngine';
   if (has('/node_modules/workerpool/')) return 'jobRuntime';
+  if (has('virtual:builtin-docs')) return 'builtinDocs';
   return chunk.name;
 }
 
@@ -31,7 +33,7 @@ function sharedChunkName(chunk: { name: string; moduleIds: string[] }): string {
 export default defineConfig({
   root: 'web',
   base: './',
-  plugins: [solid(), devServerWebSockets, sharedWorkerEntries()],
+  plugins: [solid(), devServerWebSockets, sharedWorkerEntries(), builtinDocsInApp()],
   server: { port: 5173, strictPort: false },
   build: {
     outDir: '../dist',

@@ -32,7 +32,7 @@ describe('command line, whole process', () => {
   bench('strainsheet evaluate examples/demo.json (target <= 0.35 s)', () => void run(['evaluate', demo]), { iterations: 7, time: 0, warmupIterations: 1 });
   bench(
     'strainsheet sample: 10,000 samples, mass_slope and cutoff_mass uncertain, CSV written (target <= 0.6 s)',
-    () => void run(['sample', twoInputs, '--samples', '10000', '--seed', '1', '--output', 'A_yr', '--csv', join(dir, 'samples.csv'), '--quiet']),
+    () => void run(['sample', twoInputs, '--samples', '10000', '--seed', '1', '--output', 'A_yr', '--csv', join(dir, 'samples.csv'), '--quiet', '--workers', '1']),
     { iterations: 3, time: 0, warmupIterations: 0 },
   );
 });

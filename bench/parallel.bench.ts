@@ -1,7 +1,7 @@
 // Parallel jobs (src/jobs/): the same Monte Carlo and two-input map on 1 and 2 worker threads, the
 // start-up of the workers alone, and the command line end to end. Every run with workers starts
 // its own pool, so the figures include worker start-up (each worker loads the engine bundle
-// dist-cli/chunkWorker.mjs and builds the demo sheet from its file text). Run `npm run build:cli`
+// dist-cli/chunkWorker.cjs and builds the demo sheet from its file text). Run `npm run build:cli`
 // first (npm test and npm install do) so that the workers load the bundle, not the sources.
 import { readFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';

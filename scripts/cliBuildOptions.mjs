@@ -10,13 +10,13 @@ export function cliBuildOptions(outdir) {
     entryPoints: { strainsheet: `${root}src/cli/main.ts`, chunkWorker: `${root}src/jobs/nodeChunkWorker.ts` },
     bundle: true,
     platform: 'node',
-    // ESM builds first: jsonc-parser's CommonJS (UMD) build requires its own files at run time,
-    // which a bundle cannot resolve ("Cannot find module './impl/format'").
-    mainFields: ['module', 'main'],
-    format: 'esm',
+    // CommonJS: bin/codeCache.mjs compiles the bundle as a script (node:vm) with V8's code cache,
+    // which Node 20 offers for scripts only, not for ES modules. The worker is CommonJS too, so both
+    // come from one build.
+    format: 'cjs',
     target: 'node20',
     outdir,
-    outExtension: { '.js': '.mjs' },
+    outExtension: { '.js': '.cjs' },
     // Prefer a package's ES module build: jsonc-parser's default (UMD) build requires its own files
     // at run time, which a bundle cannot resolve; ES modules are also tree-shaken.
     mainFields: ['module', 'main'],
@@ -27,8 +27,8 @@ export function cliBuildOptions(outdir) {
     // Whitespace and syntax only: identifiers keep their names, so stack traces stay readable.
     minifyWhitespace: true,
     minifySyntax: true,
-    // workerpool is CommonJS and requires node:worker_threads at run time: give the ESM bundle a require
-    // (this real require is also why UMD builds must be avoided, see mainFields above).
-    banner: { js: "import { createRequire as __strainsheetCreateRequire } from 'node:module'; const require = __strainsheetCreateRequire(import.meta.url);" },
+    // import.meta does not exist in CommonJS: its url is the bundle's own file.
+    define: { 'import.meta.url': '__strainsheetBundleUrl' },
+    banner: { js: "var __strainsheetBundleUrl = require('node:url').pathToFileURL(__filename).href;" },
   };
 }

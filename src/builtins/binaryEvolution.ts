@@ -14,21 +14,29 @@ import { scalarSI, where } from './args';
 import { environmentArg, type EnvironmentValue } from './hostEnvironment';
 import { elementwise, guardedPhysics, nonNegativeSI, populationArg } from './physicsArgs';
 import { PopulationValue } from './populationValue';
+import { phenomDelayedPopulationValue, type PhenomHardeningValue } from './phenomHardening';
+import { phenomStalledFraction } from '../physics/phenomHardeningSpectrum';
 
-const SOURCE = 'Agazie et al. 2023, ApJL 952, L37 (a total lifetime from formation to coalescence); times from Hogg 1999, astro-ph/9905116';
+const SOURCE = 'Agazie et al. 2023, ApJL 952, L37 (a total lifetime from formation to coalescence); times from Hogg 1999, astro-ph/9905116; with phenomHardening, see that built-in';
 const HARDENING_SOURCE = 'hardening from a_h = G m2/(4 sigma^2) by stars (Quinlan 1996, New Astron. 1, 35) and GW emission (Peters 1964, Phys. Rev. 136, B1224) in a mass-scaled environment (McConnell & Ma 2013, ApJ 764, 184; Sesana & Khan 2015, MNRAS 454, L66); with frictionPhase, a dynamical-friction phase before it (Binney & Tremaine 2008, Galactic Dynamics, 2nd ed., section 8.1; Kelley, Blecha & Hernquist 2017, MNRAS 464, 3131)';
 
-/** The population (which must know its cosmology) and the lifetime: a time in s, or a mass-scaled environment. */
+/**
+ * The population (which must know its cosmology) and the lifetime: a time in s, a mass-scaled
+ * environment, or a phenomenological hardening model.
+ */
 function populationAndLifetime(population: unknown, lifetime: unknown, fn: string) {
   const p = populationArg(population, fn);
   if (!p.cosmology) throw new BuiltinError(`${where(fn, 'population')} has no cosmology, so a lifetime cannot be turned into redshifts (give customPopulation a cosmology argument)`);
+  const none = { env: undefined as EnvironmentValue | undefined, phenom: undefined as PhenomHardeningValue | undefined };
+  if (isSheetObject(lifetime) && lifetime.kind === 'phenomHardening') return { p, cosmology: p.cosmology, tau: 0, ...none, phenom: lifetime as PhenomHardeningValue };
   if (isSheetObject(lifetime)) {
+    if (lifetime.kind !== 'environment') throw new BuiltinError(`${where(fn, 'lifetime')} must be a time, an environment or a phenomHardening, got ${lifetime.kind}`, 'domain');
     const env = environmentArg(lifetime, fn, 'lifetime');
-    return { p, cosmology: p.cosmology, tau: 0, env };
+    return { p, cosmology: p.cosmology, tau: 0, ...none, env };
   }
   const tau = nonNegativeSI(lifetime, 'time', fn, 'lifetime');
   if (!Number.isFinite(tau)) throw new BuiltinError(`${where(fn, 'lifetime')} must be finite`);
-  return { p, cosmology: p.cosmology, tau, env: undefined as EnvironmentValue | undefined };
+  return { p, cosmology: p.cosmology, tau, ...none };
 }
 
 /** The environment's numbers for a population's parameters (without its kind). */
@@ -37,7 +45,7 @@ function environmentParameters(env: EnvironmentValue): Record<string, number> {
   return rest as Record<string, number>;
 }
 
-const lifetimeArgDoc = { name: 'lifetime', unit: 'Gyr or environment', description: 'time from formation to coalescence, >= 0, the same for every binary; or a hostEnvironment, whose hardening from the hard-binary separation sets each binary\'s lifetime by its mass and mass ratio' };
+const lifetimeArgDoc = { name: 'lifetime', unit: 'Gyr, environment or phenomHardening', description: 'time from formation to coalescence, >= 0, the same for every binary; or a hostEnvironment, whose hardening from the hard-binary separation sets each binary\'s lifetime by its mass and mass ratio; or a phenomHardening model (its lifetime, or the GW time where that is shorter)' };
 
 export const binaryEvolutionBuiltins: Builtin[] = [
   {
@@ -54,7 +62,8 @@ export const binaryEvolutionBuiltins: Builtin[] = [
     example: 'delayedPopulation(pop, 3 Gyr)',
     fn: (population: unknown, lifetime: unknown) => {
       const fn = 'delayedPopulation';
-      const { p, cosmology, tau, env } = populationAndLifetime(population, lifetime, fn);
+      const { p, cosmology, tau, env, phenom } = populationAndLifetime(population, lifetime, fn);
+      if (phenom) return phenomDelayedPopulationValue(population, phenom, fn);
       if (env) {
         const lifetimeOf = lifetimeFunction(massScaledEnvironment(env.scaled), M_SUN_KG, env.scaled.friction);
         const friction = env.scaled.friction ? 'dynamical friction, then ' : '';
@@ -86,7 +95,8 @@ export const binaryEvolutionBuiltins: Builtin[] = [
     example: 'stalledFraction(pop, 3 Gyr)',
     fn: (population: unknown, lifetime: unknown) => {
       const fn = 'stalledFraction';
-      const { p, cosmology, tau, env } = populationAndLifetime(population, lifetime, fn);
+      const { p, cosmology, tau, env, phenom } = populationAndLifetime(population, lifetime, fn);
+      if (phenom) return guardedPhysics(fn, () => phenomStalledFraction(p.population, cosmology, phenom.model, M_SUN_KG));
       if (env) {
         const lifetimeOf = lifetimeFunction(massScaledEnvironment(env.scaled), M_SUN_KG, env.scaled.friction);
         return guardedPhysics(fn, () => stalledFractionByMass(p.population, cosmology, lifetimeOf));

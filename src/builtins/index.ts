@@ -3,6 +3,7 @@ import type { Builtin } from '../sheet/builtin';
 import { cosmologyBuiltins } from './cosmology';
 import { populationBuiltins } from './population';
 import { binaryEvolutionBuiltins } from './binaryEvolution';
+import { phenomHardeningBuiltins } from './phenomHardening';
 import { spectrumBuiltins } from './spectrum';
 import { orbitBuiltins } from './orbits';
 import { environmentBuiltins } from './environment';
@@ -26,6 +27,7 @@ export function allBuiltins(): Builtin[] {
     ...galaxyPairBuiltins,
     ...mergerTableBuiltins,
     ...binaryEvolutionBuiltins,
+    ...phenomHardeningBuiltins,
     ...spectrumBuiltins,
     ...orbitBuiltins,
     ...environmentBuiltins,

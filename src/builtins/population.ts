@@ -20,7 +20,7 @@ import { dimensionOf, functionOf, objectOf, requireRange, scalarSI, where } from
 import { PopulationValue, ShapeValue } from './populationValue';
 import { cosmologyArg, elementwise, nonNegativeSI, populationArg, positiveSI, redshiftValue } from './physicsArgs';
 
-const MIDDLETON = 'Middleton et al. 2016, MNRAS 455, L72; mass-ratio term of Chen, Sesana & Del Pozzo 2017, arXiv:1612.00455';
+const MIDDLETON = 'Middleton, Del Pozzo, Farr, Sesana & Vecchio 2016, MNRAS 455, L72 (arXiv:1507.00992; volume and page unverified); mass-ratio term of Chen, Sesana & Del Pozzo 2017, arXiv:1612.00455';
 const GALAXY_ROUTE = 'Sesana 2013, MNRAS 433, L1; Chen, Sesana & Conselice 2019, MNRAS 488, 401';
 const DEFAULT_MIN_MASS = 1e6;
 const DEFAULT_MAX_MASS = 1e11;
@@ -396,7 +396,7 @@ export const populationBuiltins: Builtin[] = [
   {
     name: 'mcConnellMaRelation',
     category: 'population',
-    summary: 'Preset black-hole-bulge relation: a = 8.46, b = 1.05, scatter 0.34 dex (unverified: the scatter is quoted from their Table 2 by another code; the table was not seen).',
+    summary: 'Preset black-hole-bulge relation: a = 8.46, b = 1.05 (their abstract, checked), scatter 0.34 dex (unverified: the scatter is quoted from their Table 2 by another code; the table was not seen).',
     args: [],
     returns: { unit: 'bulgeRelation', description: 'the preset relation' },
     source: 'McConnell & Ma 2013, ApJ 764, 184',
@@ -406,10 +406,10 @@ export const populationBuiltins: Builtin[] = [
   {
     name: 'kormendyHoRelation',
     category: 'population',
-    summary: 'Preset black-hole-bulge relation: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.16, scatter 0.29 dex (unverified: two other codes quote their eq. 10 as exponent 1.17, scatter 0.28 dex; the paper text was not seen).',
+    summary: 'Preset black-hole-bulge relation: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.17, scatter 0.28 dex (their eq. 10; unverified against the paper text, which was not reachable: the values independent implementations quote; the preset had 1.16 and 0.29 dex before 2026-12-02).',
     args: [],
     returns: { unit: 'bulgeRelation', description: 'the preset relation' },
-    source: 'Kormendy & Ho 2013, ARA&A 51, 511',
+    source: 'Kormendy & Ho 2013, ARA&A 51, 511, eq. 10',
     example: 'kormendyHoRelation()',
     fn: () => new RelationValue(KORMENDY_HO_2013),
   },
@@ -445,7 +445,7 @@ export const populationBuiltins: Builtin[] = [
       { name: 'alphaPerZ', unit: 'dimensionless', description: 'd alpha / dz' },
     ],
     returns: { unit: 'massFunction', description: 'a mass function for galaxyMergerPopulation' },
-    source: 'Chen, Sesana & Conselice 2019, MNRAS 488, 401 (parametrisation simplified; unverified: their exact form was not compared)',
+    source: 'Chen, Sesana & Conselice 2019, MNRAS 488, 401, arXiv:1810.04184 (parametrisation simplified; unverified: only their abstract was reachable, which names the ingredients but gives no formula)',
     example: 'stellarMassFunction(1e-3 Mpc^-3, -0.3, 1e11 Msun, -1.1, -0.1)',
     fn: (phiStar0: unknown, log10PhiStarPerZ: unknown, breakMass: unknown, alpha0: unknown, alphaPerZ: unknown) => {
       const fn = 'stellarMassFunction';

@@ -3,17 +3,22 @@
 import type { BinaryPopulation } from '../physics/populationTypes';
 import type { FlatLambdaCdm } from '../physics/cosmology';
 import type { SheetObject } from '../sheet/sheetObject';
+import { timedPopulation } from './timedPopulation';
 
 export class PopulationValue implements SheetObject {
   readonly kind = 'population';
+  /** The population, its density timed where slow cells are handed off (timedPopulation.ts). */
+  readonly population: BinaryPopulation;
   constructor(
-    readonly population: BinaryPopulation,
+    population: BinaryPopulation,
     /** What the population is, e.g. 'phenomenological merger density'. */
     readonly label: string,
     /** The parameters as given (SI-free numbers with their units in the names), for JSON. */
     readonly parameters: Record<string, number | string>,
     readonly cosmology?: FlatLambdaCdm,
-  ) {}
+  ) {
+    this.population = timedPopulation(population);
+  }
   describe(): string {
     const p = this.population;
     return `${this.label}, z 0 to ${fmt(p.zMax)}, M 10^${fmt(p.log10MMin)} to 10^${fmt(p.log10MMax)} Msun, q ${fmt(p.qMin)} to ${fmt(p.qMax)}`;

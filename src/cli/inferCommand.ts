@@ -112,7 +112,7 @@ export const inferCommand: Command = {
     if (parallel.shard) throw new UsageError('infer runs one chain ensemble and cannot be split with --shard');
 
     const load = (path: string) => {
-      const s = loadSheet(path);
+      const s = loadSheet(path, { evaluateOnRead: true });
       applySetOptions(s, opts.values.get('set') ?? []);
       applyPriors(s, opts.values.get('prior') ?? []);
       return s;

@@ -95,7 +95,7 @@ export const mergeCommand: Command = {
     const first = ordered[0];
     let sheet: Sheet;
     try {
-      sheet = Sheet.fromFile(first.sheet);
+      sheet = Sheet.fromFile(first.sheet, { evaluateOnRead: true });
     } catch (e) {
       throw new SheetLoadError(`${paths[0]}: the sheet it holds cannot be read: ${(e as Error).message}`);
     }

@@ -69,7 +69,7 @@ export const plotCommand: Command = {
     const svgOut = one('svg', '');
     const pdfOut = one('pdf', '');
     if (!svgOut && !pdfOut) throw new UsageError('give --svg OUT or --pdf OUT (or both)');
-    const sheet = loadSheet(opts.positional[0]);
+    const sheet = loadSheet(opts.positional[0], { evaluateOnRead: true });
     applySetOptions(sheet, opts.values.get('set') ?? []);
     const reader = { cells: sheet.cells(), valueOf: (n: string) => sheet.value(n), stateOf: (n: string) => sheet.state(n) };
     let model: PlotModel | null | undefined;

@@ -61,7 +61,7 @@ export const realiseCommand: Command = {
     if (opts === null) return EXIT_OK;
     const count = wholeNumber(opts.values.get('count')?.at(-1), '--count', 1);
     const seed = wholeNumber(opts.values.get('seed')?.at(-1), '--seed', 0);
-    const sheet = loadSheet(opts.positional[0]);
+    const sheet = loadSheet(opts.positional[0], { evaluateOnRead: true });
     applySetOptions(sheet, opts.values.get('set') ?? []);
     const spec: JobSpec = {
       kind: 'realise',

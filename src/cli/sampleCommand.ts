@@ -52,7 +52,7 @@ export const sampleCommand: Command = {
     const outputs = opts.values.get('output') ?? [];
     if (outputs.length === 0) throw new UsageError('give an --output cell');
     const csvPath = opts.values.get('csv')?.at(-1);
-    const sheet = loadSheet(opts.positional[0]);
+    const sheet = loadSheet(opts.positional[0], { evaluateOnRead: true });
     applySetOptions(sheet, opts.values.get('set') ?? []);
     const spec: JobSpec = { kind: 'sample', samples, seed, outputs, measurementCell: opts.values.get('against')?.at(-1) };
     const parallel = parallelOptionsOf(opts);

@@ -55,7 +55,7 @@ export const scanCommand: Command = {
     }
     const csvPath = opts.values.get('csv')?.at(-1);
     const against = opts.values.get('against')?.at(-1);
-    const sheet = loadSheet(opts.positional[0]);
+    const sheet = loadSheet(opts.positional[0], { evaluateOnRead: true });
     applySetOptions(sheet, opts.values.get('set') ?? []);
     const spec: JobSpec = { kind: 'scan', vary, outputs, measurementCell: against };
     const parallel = parallelOptionsOf(opts);

@@ -12,8 +12,12 @@ export class SheetLoadError extends Error {
   }
 }
 
-/** Reads and parses a sheet file; throws SheetLoadError with a readable message. */
-export function loadSheet(path: string): Sheet {
+/**
+ * Reads and parses a sheet file; throws SheetLoadError with a readable message. With
+ * `evaluateOnRead` (commands that need only some cells: jobs, plots) a cell is evaluated when it or a
+ * cell reading it is first read (SheetOptions.evaluateOnRead); `evaluate` evaluates every cell.
+ */
+export function loadSheet(path: string, options: { evaluateOnRead?: boolean } = {}): Sheet {
   let bytes: Uint8Array;
   try {
     bytes = readFileSync(path);
@@ -23,7 +27,7 @@ export function loadSheet(path: string): Sheet {
     throw new SheetLoadError(`cannot read ${path}: ${why}`);
   }
   try {
-    return Sheet.fromFile(sheetTextFromBytes(bytes));
+    return Sheet.fromFile(sheetTextFromBytes(bytes), options);
   } catch (e) {
     if (e instanceof SheetFileError) throw new SheetLoadError(`${path}: ${e.message}`);
     throw e;

@@ -1,5 +1,6 @@
 // The worker's side of a parallel job (worker threads and Web Workers alike): rebuild the sheet from
-// its file text (kept while the same text comes again) and run one chunk of a registered job kind.
+// its file text (kept while the same text comes again; cells are evaluated when a chunk reads them)
+// and run one chunk of a registered job kind.
 import { Sheet } from '../sheet/sheet';
 import { chunkedJobOf } from './chunkedJob';
 import type { ChunkPlan } from './chunkedJob';
@@ -10,7 +11,7 @@ registerJobKinds();
 let cached: { text: string; sheet: Sheet } | null = null;
 
 function sheetFor(text: string): Sheet {
-  if (cached?.text !== text) cached = { text, sheet: Sheet.fromFile(text) };
+  if (cached?.text !== text) cached = { text, sheet: Sheet.fromFile(text, { evaluateOnRead: true }) };
   return cached.sheet;
 }
 

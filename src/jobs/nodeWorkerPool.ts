@@ -14,13 +14,13 @@ export function defaultWorkerCount(): number {
 }
 
 /**
- * The worker threads' entry. Inside the bundled CLI (dist-cli/strainsheet.mjs) it is the bundle built
- * with it (dist-cli/chunkWorker.mjs), so both run the same code; from the sources (tests, benchmarks)
+ * The worker threads' entry. Inside the bundled CLI (dist-cli/strainsheet.cjs) it is the bundle built
+ * with it (dist-cli/chunkWorker.cjs), so both run the same code; from the sources (tests, benchmarks)
  * it is bin/strainsheet-worker.mjs, which takes that bundle when it is fresh and the sources otherwise.
  */
 function workerScript(): string {
   const here = fileURLToPath(import.meta.url);
-  if (basename(dirname(here)) === 'dist-cli') return join(dirname(here), 'chunkWorker.mjs');
+  if (basename(dirname(here)) === 'dist-cli') return join(dirname(here), 'chunkWorker.cjs');
   let dir = dirname(here);
   for (let i = 0; i < 5; i++) {
     const candidate = join(dir, 'bin', 'strainsheet-worker.mjs');

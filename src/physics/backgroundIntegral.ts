@@ -28,7 +28,8 @@
 import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';
 import { symmetricMassRatio } from './binaryMasses';
 import { circularGwKernel } from './circularKernel';
-import { compositeNodes, type QuadratureRule } from './gaussLegendre';
+import { type QuadratureRule } from './gaussLegendre';
+import { massRatioRule } from './massRatioRule';
 import { circularStrainForm, spectrumZRule } from './circularStrainForm';
 import type { PanelledRule } from './adaptiveZRule';
 import { kinkRedshifts, withKinkBreaks } from './zKinks';
@@ -130,7 +131,7 @@ function factoredStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, d
   const scaleOf = desc.scaleHz as (mKg: number, q: number) => number;
   const shape = desc.shape;
   const zr = spectrumZRule(pop, res);
-  const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
+  const qr = massRatioRule(pop, res.qPanels, res.order);
   const nq = qr.nodes.length;
   const etaW = new Float64Array(nq);
   for (let j = 0; j < nq; j++) etaW[j] = qr.weights[j] * symmetricMassRatio(qr.nodes[j]);
@@ -246,7 +247,7 @@ function zIntegral(zr: PanelledRule, order: number, value: (z: number, iz: numbe
 /** Energy form with an arbitrary kernel; weighted densities and masses on the whole mass panels are cached per z node. */
 function energyForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, kernel: EmissionKernel, cutFactor: number, res: IntegrationResolution): Float64Array {
   const zr = spectrumZRule(pop, res);
-  const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
+  const qr = massRatioRule(pop, res.qPanels, res.order);
   const nq = qr.nodes.length;
   const eta06 = new Float64Array(nq);
   for (let j = 0; j < nq; j++) eta06[j] = Math.pow(symmetricMassRatio(qr.nodes[j]), 0.6);

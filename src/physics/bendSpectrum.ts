@@ -1,7 +1,8 @@
 // A generic low-frequency turnover of the background (Sampson, Cornish & McWilliams 2015, PRD 91, 084055):
 //   h_c(f) = A (f/f_yr)^(-2/3) [1 + (f_bend/f)^kappa]^(-1/2),
 // kappa = 10/3 for stellar hardening (the exponent of the Quinlan 1996 residence time, see
-// stellarHardening.ts) and 7/3 for a circumbinary gas disc (unverified: 7/3 not found in that paper's text here).
+// stellarHardening.ts) and 7/3 for a circumbinary gas disc (the paper's title, authors and journal checked
+// on its first page; unverified: 7/3, which is not in the reachable text).
 import { F_YR_HZ } from './constants';
 import { circularGwKernel } from './circularKernel';
 import { bendShape, circularTimesShapeKernel } from './factoredKernel';

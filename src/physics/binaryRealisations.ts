@@ -4,7 +4,7 @@
 // realisationCells.ts) are drawn binary by binary: the number in all sparse cells together is one
 // Poisson deviate of their summed mean, each binary falls in a cell with probability proportional to
 // the cell's expected count (a Poisson process split by independent marks; Kingman 1993, Poisson
-// Processes; section number unverified), and inside its cell it takes log10M and q uniformly over the
+// Processes, Oxford Studies in Probability: the book checked; unverified: the section number), and inside its cell it takes log10M and q uniformly over the
 // cell's box (its redshift stays at the cell's node, so the nearest redshift node acts as the
 // population's lowest redshift and the variance stays finite). Dense cells add their expected h^2 plus
 // sqrt(sum N h^4) times a standard normal deviate (clipped at zero), the Gaussian limit of their

@@ -3,7 +3,7 @@
 //   Int_{log10MMin}^{min(xCut, log10MMax)} dlog10M (M/Msun)^(5/3) Int dq n eta,
 // on the composite mass rule of massPanels.ts (whole panels cached, one partial panel at the cut).
 import { symmetricMassRatio } from './binaryMasses';
-import { compositeNodes } from './gaussLegendre';
+import { massRatioRule } from './massRatioRule';
 import { MassPanels } from './massPanels';
 import { checkedLog, checkedValue, densityAt } from './densityChecks';
 import type { BinaryPopulation } from './populationTypes';
@@ -44,7 +44,7 @@ export function massModelOf(pop: BinaryPopulation, res: IntegrationResolution): 
 
 /** Int dq p(q) eta(q) on the q rule (the q factor of a separable density, once per spectrum). */
 function etaIntegral(pop: BinaryPopulation, massRatio: (q: number) => number, res: IntegrationResolution): number {
-  const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
+  const qr = massRatioRule(pop, res.qPanels, res.order);
   let s = 0;
   for (let j = 0; j < qr.nodes.length; j++) s += qr.weights[j] * symmetricMassRatio(qr.nodes[j]) * checkedValue(massRatio(qr.nodes[j]), 'mass-ratio factor', qr.nodes[j]);
   return s;
@@ -107,7 +107,7 @@ function factoredModel(pop: BinaryPopulation, mp: MassPanels, res: IntegrationRe
 
 /** Any density: the q integral per (z, M) node (once per z node for zMass x massRatio), whole-panel sums cached per z node. */
 function generalModel(pop: BinaryPopulation, mp: MassPanels, res: IntegrationResolution): MassModel {
-  const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
+  const qr = massRatioRule(pop, res.qPanels, res.order);
   const etaW = Float64Array.from(qr.nodes, (q, j) => qr.weights[j] * symmetricMassRatio(q));
   const sep = pop.separable;
   const etaPdf = sep ? etaIntegral(pop, sep.massRatio, res) : 0;

@@ -75,7 +75,7 @@ export function delayedPopulation(base: BinaryPopulation, cosmo: FlatLambdaCdm, 
   // Coalescence-redshift limits: the images of the formation limits, so that the integrators see a
   // smooth density with no jump inside their range. All binaries stall when the latest-formed reach today.
   const now = cosmo.ageS(0);
-  const masses = { log10MMin: base.log10MMin, log10MMax: base.log10MMax, qMin: base.qMin, qMax: base.qMax };
+  const masses = { log10MMin: base.log10MMin, log10MMax: base.log10MMax, qMin: base.qMin, qMax: base.qMax, qBreaks: base.qBreaks };
   const tEarliest = cosmo.ageS(base.zMax) + tauS;
   const tLatest = cosmo.ageS(base.zMin) + tauS;
   if (!(tEarliest < now)) return { ...masses, zMin: base.zMin, zMax: base.zMax, density: () => 0, separable: { zMass: () => 0, massRatio: () => 0, redshift: () => 0, lnMass: () => -Infinity } };

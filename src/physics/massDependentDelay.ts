@@ -66,7 +66,7 @@ export function delayedPopulationByMass(base: BinaryPopulation, cosmo: FlatLambd
   const max = 1.05 * range.max;
   const tau = cachedLifetime(lifetimeOf);
   const now = cosmo.ageS(0);
-  const masses = { log10MMin: base.log10MMin, log10MMax: base.log10MMax, qMin: base.qMin, qMax: base.qMax };
+  const masses = { log10MMin: base.log10MMin, log10MMax: base.log10MMax, qMin: base.qMin, qMax: base.qMax, qBreaks: base.qBreaks };
   const tEarliest = cosmo.ageS(base.zMax) + min;
   if (!(tEarliest < now)) return { ...masses, zMin: base.zMin, zMax: base.zMax, density: () => 0 };
   const tLatest = cosmo.ageS(base.zMin) + max;

@@ -12,7 +12,8 @@
 import { symmetricMassRatio } from './binaryMasses';
 import { STRAIN_FORM_MSUN_MPC, Z_TOL } from './circularStrainForm';
 import { FIVE_THIRDS_LN10 } from './circularMassModels';
-import { compositeNodes, gaussLegendreRule } from './gaussLegendre';
+import { gaussLegendreRule } from './gaussLegendre';
+import { massRatioRule } from './massRatioRule';
 import { cutOffsetLog10 } from './iscoCut';
 import type { BinaryPopulation, ZRule } from './populationTypes';
 import type { IntegrationResolution } from './backgroundIntegral';
@@ -23,7 +24,7 @@ const MAX_DEPTH = 10;
 /** h_c^2 at each frequency (Hz) of a population with zIntegral; see the file comment. */
 export function perNodeZStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<number>, cutFactor: number, res: IntegrationResolution, shape?: (ratio: number) => number, scaleHz = 1): Float64Array {
   const zIntegral = pop.zIntegral!;
-  const qr = compositeNodes(pop.qMin, pop.qMax, res.qPanels, res.order);
+  const qr = massRatioRule(pop, res.qPanels, res.order);
   const nq = qr.nodes.length;
   const etaW = Float64Array.from(qr.nodes, (q, j) => qr.weights[j] * symmetricMassRatio(q));
   const zRule: ZRule = { panels: res.zPanels, order: res.order, tol: Z_TOL };

@@ -16,6 +16,11 @@ export interface BinaryPopulation {
   qMin: number;
   qMax: number;
   /**
+   * Optional (added for the integrator's accuracy): mass ratios inside (qMin, qMax) where the density
+   * in q changes character; the spectrum's q rule puts panel edges there (massRatioRule.ts).
+   */
+  qBreaks?: readonly number[];
+  /**
    * Optional (added for the integrator's speed): a density that factorises as
    * density(z, log10M, q) = zMass(z, log10M) * massRatio(q) may give its factors here, so that the q
    * integral is done once. The factors must multiply to `density` exactly.

@@ -23,6 +23,23 @@ let ticks = 0;
 let built = 0;
 /** Whether a cell is being evaluated (checks outside any cell, e.g. from a job, do nothing). */
 let active = false;
+/** Whether the current cell's time budget ran out (set even when a built-in caught the error). */
+let timedOut = false;
+/** Whether a recalculation hands a cell that runs out of time on to be evaluated elsewhere (the app's page). */
+let handOff = false;
+
+/**
+ * On: a cell whose evaluation in a recalculation runs out of the cell budget is not given a
+ * 'limit' error but left waiting to be evaluated elsewhere, with a longer budget (the app's page
+ * hands it to a worker; Sheet.offPageCells, Sheet.supplyOffPage). Off (the default): a 'limit' error.
+ */
+export function setHandOffOnTimeout(on: boolean): void {
+  handOff = on;
+}
+
+export function handOffOnTimeout(): boolean {
+  return handOff;
+}
 
 /** Sets the time budget of one cell's evaluation (seconds, > 0). */
 export function setCellBudget(seconds: number): void {
@@ -48,24 +65,29 @@ export interface BudgetMark {
   ticks: number;
   built: number;
   active: boolean;
+  timedOut: boolean;
 }
 
 /** Starts a cell's evaluation: its clock (read at the first check) and its element count. */
 export function beginCell(): BudgetMark {
-  const mark = { start: cellStart, ticks, built, active };
+  const mark = { start: cellStart, ticks, built, active, timedOut };
   cellStart = -1;
   ticks = 0;
   built = 0;
   active = true;
+  timedOut = false;
   return mark;
 }
 
-/** Ends a cell's evaluation, restoring the state beginCell() saved. */
-export function endCell(mark: BudgetMark): void {
+/** Ends a cell's evaluation, restoring the state beginCell() saved; true when the cell ran out of its time budget. */
+export function endCell(mark: BudgetMark): boolean {
+  const ranOut = timedOut;
   cellStart = mark.start;
   ticks = mark.ticks;
   built = mark.built;
   active = mark.active;
+  timedOut = mark.timedOut || ranOut;
+  return ranOut;
 }
 
 function seconds(ms: number): string {
@@ -76,6 +98,7 @@ function readClock(): void {
   const now = performance.now();
   if (cellStart < 0) cellStart = now;
   else if (now - cellStart > cellBudgetMs) {
+    timedOut = true;
     throw new BuiltinError(`the evaluation ran longer than its time budget of ${seconds(cellBudgetMs)} per cell (stopped after ${seconds(now - cellStart)})`, 'limit');
   }
   if (now > runDeadline) throw new BuiltinError(`the run's time budget of ${seconds(runBudgetSeconds * 1000)} is used up`, 'limit');
@@ -85,6 +108,15 @@ function readClock(): void {
 export function checkTime(): void {
   if (!active || (cellStart >= 0 && (++ticks & 15) !== 0)) return;
   readClock();
+}
+
+/**
+ * As checkTime, where a cell that runs out of time is handed off (the app's page) and nowhere else:
+ * built-ins' own long loops call it, so the page hands them off while the command line, whose
+ * built-in loops are not interrupted, lets them run to the end.
+ */
+export function checkTimeIfHandingOff(): void {
+  if (handOff) checkTime();
 }
 
 /** As checkTime, reading the clock every time (for operations that take longer than a clock read). */

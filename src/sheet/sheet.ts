@@ -2,14 +2,15 @@
 // each edit only, errors kept as values. The UI, the command line and the statistics code all
 // work through this class.
 import type { CellError } from './cellError';
-import type { CellSpec, CellState, SheetObserver } from './types';
+import type { CellSpec, CellState, OffPageTicket, SheetObserver } from './types';
 import type { Builtin } from './builtin';
 import { compileFormula, makeCellFunction, type CompiledFormula } from './formulaCompiler';
 import { DependencyGraph, type CycleThrough, type EvaluationPlan } from './dependencyGraph';
 import { RankQueue } from './rankQueue';
 import { checkResult, errorFromException, explainUnitMismatch, nearestName } from './evaluationError';
 import { sameValue } from './valueEquality';
-import { beginCell, endCell } from './evaluationBudget';
+import { beginCell, endCell, handOffOnTimeout } from './evaluationBudget';
+import { isOffPageValue } from './offPageValue';
 import { checkCellName } from './cellName';
 import { lockedMath } from './lockedMath';
 import { SheetEditError } from './sheetEditError';
@@ -24,6 +25,14 @@ export interface SheetOptions {
   title?: string;
   notes?: string;
   cells?: CellSpec[];
+  /**
+   * Evaluate a cell only when it, or a cell that reads it, is read (state, value, evaluateWith):
+   * for one-off uses such as the command line's jobs, which need a few cells of a sheet. Reads give
+   * the values of a full recalculation; cells nothing reads are never evaluated.
+   */
+  evaluateOnRead?: boolean;
+  /** Start with the recalculation deferred (planned, not run; see deferRecalculation). */
+  deferRecalculation?: boolean;
 }
 
 interface CellRecord {
@@ -42,11 +51,26 @@ interface RecalcPass {
   edited: Set<string>;
   changed: Set<string>;
   notify: boolean;
+  /** Cells already brought up to date by reads (sheets that evaluate on read). */
+  settled: Set<string>;
+  /** Position of each cell in `order`, made on the first read. */
+  index?: Map<string, number>;
 }
 
-/** A cell with no value yet, or a cycle error that may be stale (the cycle may be gone). */
+/**
+ * A cell with no value yet, or a cycle error that may be stale (the cycle may be gone). A cell
+ * waiting for an evaluation off the page is not stale: it is evaluated again when an input changes.
+ */
 function isStale(state: CellState): boolean {
-  return state.status === 'pending' || (state.status === 'error' && state.error.kind === 'cycle');
+  if (state.status === 'pending') return !state.offPage && state.waitsFor === undefined;
+  return state.status === 'error' && state.error.kind === 'cycle';
+}
+
+/** Tickets of evaluations handed off the page, unique in this thread. */
+let lastTicket = 0;
+
+function handedOff(): CellState {
+  return { status: 'pending', offPage: { ticket: ++lastTicket, since: performance.now() } };
 }
 
 const PENDING: CellState = Object.freeze({ status: 'pending' }) as CellState;
@@ -59,7 +83,8 @@ function sameState(a: CellState | undefined, b: CellState): boolean {
     // renamed): cells further down quote that problem, so compare it too.
     return a.error.kind === b.error.kind && a.error.message === b.error.message && rootCause.get(a.error)?.message === rootCause.get(b.error)?.message;
   }
-  return a.status === 'pending';
+  // A cell that starts or stops waiting for an off-page evaluation changes what its readers wait for.
+  return a.status === 'pending' && b.status === 'pending' && !a.offPage === !b.offPage && a.waitsFor === b.waitsFor;
 }
 
 function cycleError(name: string, cycle: CycleThrough): CellError {
@@ -94,6 +119,8 @@ export class Sheet {
   /** The unfinished recalculation, when recalculation is deferred (see deferRecalculation). */
   private pass: RecalcPass | null = null;
   private deferred = false;
+  /** Cells are evaluated when read (SheetOptions.evaluateOnRead). */
+  private readonly onRead: boolean;
   private _title: string;
   private _notes: string;
 
@@ -101,8 +128,12 @@ export class Sheet {
     this.builtinNames = new Set(lockedMath().builtins.keys());
     this._title = typeof options.title === 'string' ? options.title : '';
     this._notes = typeof options.notes === 'string' ? options.notes : '';
+    this.onRead = options.evaluateOnRead === true;
+    // A sheet evaluated on read keeps its recalculation deferred: reads run the part they need.
+    this.deferred = this.onRead || options.deferRecalculation === true;
     for (const spec of options.cells ?? []) this.addLoaded(spec);
-    this.recalculate(this.order, false);
+    // Deferred, the recalculation runs later, when observers may be listening: they hear it.
+    this.recalculate(this.order, options.deferRecalculation === true);
   }
 
   /** Adds a cell of a sheet being built (compiled, not evaluated). */
@@ -118,10 +149,10 @@ export class Sheet {
   // ---- files ---------------------------------------------------------------------------------
 
   /** Reads a sheet file; throws SheetFileError naming the problem. */
-  static fromFile(text: string): Sheet {
+  static fromFile(text: string, options: { evaluateOnRead?: boolean; deferRecalculation?: boolean } = {}): Sheet {
     const file = parseSheetFile(text);
     try {
-      return new Sheet({ title: file.title, notes: file.notes, cells: file.cells });
+      return new Sheet({ title: file.title, notes: file.notes, cells: file.cells, evaluateOnRead: options.evaluateOnRead, deferRecalculation: options.deferRecalculation });
     } catch (e) {
       if (e instanceof SheetEditError) throw new SheetFileError(`the sheet file has a bad cell: ${e.message}`);
       throw e;
@@ -238,12 +269,17 @@ export class Sheet {
 
   state(name: string): CellState {
     const r = this.records.get(name);
-    if (r) return r.state;
+    if (r) {
+      this.settle([name]);
+      return r.state;
+    }
     return { status: 'error', error: { kind: 'name', message: `${name}: there is no cell of that name` } };
   }
 
   /** The cell's value, or undefined when it has none (error, pending or no such cell). */
   value(name: string): unknown {
+    if (!this.records.has(name)) return undefined;
+    this.settle([name]);
     const s = this.records.get(name)?.state;
     return s && s.status === 'value' ? s.value : undefined;
   }
@@ -310,21 +346,81 @@ export class Sheet {
     let skipped = 0;
     while (pass.next < pass.order.length) {
       const name = pass.order[pass.next++];
-      const rec = this.records.get(name);
-      if (!rec) continue;
-      // Skip a cell none of whose inputs changed, unless it has no value yet or its cycle error
-      // is stale (it is no longer on a cycle).
-      if (!pass.edited.has(name) && !isStale(rec.state) && !rec.compiled.deps.some((d) => pass.changed.has(d))) {
+      if (!this.step(pass, name, lookup)) {
         if ((++skipped & 1023) === 0 && stop()) break;
         continue;
       }
-      if (pass.notify) this.emit((o) => o.pending?.(name));
-      this.store(pass, name, this.evaluateCompiled(name, rec.compiled, lookup));
       if (stop()) break;
     }
     if (pass.next < pass.order.length) return false;
     this.pass = null;
     return true;
+  }
+
+  /**
+   * One cell of a recalculation: evaluated when it was edited, has no value yet, its cycle error
+   * may be stale (it is no longer on a cycle), or one of its inputs changed. True when evaluated.
+   */
+  private step(pass: RecalcPass, name: string, lookup: Lookup): boolean {
+    const rec = this.records.get(name);
+    if (!rec || pass.settled.has(name)) return false;
+    if (!pass.edited.has(name) && !isStale(rec.state) && !rec.compiled.deps.some((d) => pass.changed.has(d))) return false;
+    if (pass.notify) this.emit((o) => o.pending?.(name));
+    this.store(pass, name, this.evaluateCompiled(name, rec.compiled, lookup, true));
+    return true;
+  }
+
+  /**
+   * In a sheet evaluated on read: runs the part of the unfinished recalculation that `names` and
+   * the cells they read (directly or not) need, in the same order, so they hold their final values.
+   */
+  private settle(names: readonly string[]): void {
+    const pass = this.pass;
+    if (!this.onRead || !pass || names.every((n) => pass.settled.has(n))) return;
+    pass.index ??= new Map(pass.order.map((n, i) => [n, i]));
+    const index = pass.index;
+    const needed = [...this.graph.upstream(names)];
+    const ahead = needed.filter((n) => (index.get(n) ?? -1) >= pass.next).sort((a, b) => index.get(a)! - index.get(b)!);
+    const lookup: Lookup = (n) => this.records.get(n)?.state;
+    for (const name of ahead) {
+      this.step(pass, name, lookup);
+      pass.settled.add(name);
+    }
+    for (const n of needed) pass.settled.add(n);
+  }
+
+  // ---- evaluation off the page ---------------------------------------------------------------
+
+  /** Cells handed off to be evaluated elsewhere and not yet supplied, in sheet order. */
+  offPageCells(): Array<{ name: string } & OffPageTicket> {
+    const out: Array<{ name: string } & OffPageTicket> = [];
+    for (const name of this.order) {
+      const st = this.records.get(name)!.state;
+      if (st.status === 'pending' && st.offPage) out.push({ name, ...st.offPage });
+    }
+    return out;
+  }
+
+  /**
+   * The outcome of an evaluation handed off the page. Taken (true) only while the cell still waits
+   * for that ticket: an edit that changed the cell or its inputs has handed it off again or given
+   * it a value. Its readers are then recalculated (deferred or not, as any edit).
+   */
+  supplyOffPage(name: string, ticket: number, state: CellState): boolean {
+    const rec = this.records.get(name);
+    if (!rec || rec.state.status !== 'pending' || rec.state.offPage?.ticket !== ticket) return false;
+    rec.state = state;
+    if (state.status === 'value') this.emit((o) => o.value?.(name, state.value));
+    else if (state.status === 'error') this.emit((o) => o.error?.(name, state.error));
+    this.recalculate([], true, [name]);
+    return true;
+  }
+
+  /** The file text of these cells and of every cell they read, directly or not (all their evaluation needs). */
+  closureText(names: string[]): string {
+    const needed = this.graph.upstream(names);
+    const cells = this.order.filter((n) => needed.has(n)).map((n) => this.records.get(n)!.spec);
+    return serializeSheetFile({ format: FILE_FORMAT, version: FILE_VERSION, title: '', notes: '', cells });
   }
 
   // ---- editing -------------------------------------------------------------------------------
@@ -474,6 +570,7 @@ export class Sheet {
     for (const [name] of entries) {
       if (!this.records.has(name)) throw new SheetEditError(`cannot override ${name}: there is no cell of that name`);
     }
+    this.settle(outputs);
     // Scans and samples ask with the same names again and again: compare with the last request
     // before building the cache key.
     const last = this.lastPlan;
@@ -514,6 +611,7 @@ export class Sheet {
     for (const [name, text] of Object.entries(formulas)) {
       if (!this.records.has(name)) throw new SheetEditError(`cannot override ${name}: there is no cell of that name`);
       const compiled = compileFormula(text, name, this.builtinNames);
+      this.settle(compiled.deps);
       const state = this.evaluateCompiled(name, compiled, (n) => this.records.get(n)?.state);
       if (state.status !== 'value') {
         throw new SheetEditError(state.status === 'error' ? state.error.message : `${name}: the formula has no value`);
@@ -593,7 +691,7 @@ export class Sheet {
       const name = order[queue.pop()];
       const rec = this.records.get(name)!;
       if (notify) this.emit((o) => o.pending?.(name));
-      const state = this.evaluateCompiled(name, rec.compiled, lookup);
+      const state = this.evaluateCompiled(name, rec.compiled, lookup, true);
       const changed = !sameState(rec.state, state);
       rec.state = state;
       if (notify) {
@@ -655,7 +753,7 @@ export class Sheet {
     // Edited names that are no longer cells (removed, renamed) count as changed, and so does a
     // renamed cell under its new name (cells waiting for that name must now read it).
     for (const n of editedSet) if (!this.records.has(n)) changed.add(n);
-    const pass: RecalcPass = { order: plan.order, next: 0, edited: editedSet, changed, notify };
+    const pass: RecalcPass = { order: plan.order, next: 0, edited: editedSet, changed, notify, settled: new Set() };
     for (const [name, cycle] of plan.cycles) {
       if (notify) this.emit((o) => o.pending?.(name));
       this.store(pass, name, { status: 'error', error: cycleError(name, cycle) });
@@ -674,10 +772,14 @@ export class Sheet {
     else if (state.status === 'error') this.emit((o) => o.error?.(name, state.error));
   }
 
-  /** Evaluates one compiled formula with inputs read through `lookup`. Never throws. */
-  private evaluateCompiled(name: string, compiled: CompiledFormula, lookup: Lookup): CellState {
+  /**
+   * Evaluates one compiled formula with inputs read through `lookup`. Never throws. In a
+   * recalculation (`mayHandOff`) with hand-off on (setHandOffOnTimeout), a cell that runs out of
+   * time, or reads a value held off the page, is handed off instead (see offPageCells).
+   */
+  private evaluateCompiled(name: string, compiled: CompiledFormula, lookup: Lookup, mayHandOff = false): CellState {
     try {
-      return this.evaluateInputsAndFormula(name, compiled, lookup);
+      return this.evaluateInputsAndFormula(name, compiled, lookup, mayHandOff && handOffOnTimeout());
     } catch (e) {
       // A last line of defence: whatever escaped (a value mathjs cannot copy, a failing check)
       // becomes the cell's error.
@@ -685,9 +787,10 @@ export class Sheet {
     }
   }
 
-  private evaluateInputsAndFormula(name: string, compiled: CompiledFormula, lookup: Lookup): CellState {
+  private evaluateInputsAndFormula(name: string, compiled: CompiledFormula, lookup: Lookup, handOff: boolean): CellState {
     if (compiled.kind === 'error') return { status: 'error', error: compiled.error };
     const inputs = new Map<string, unknown>();
+    let heldInput = false;
     for (const dep of compiled.deps) {
       const st = lookup(dep);
       if (!st) {
@@ -710,28 +813,34 @@ export class Sheet {
         return { status: 'error', error };
       }
       if (st.status === 'pending') {
+        if (st.offPage || st.waitsFor !== undefined) return { status: 'pending', waitsFor: st.offPage ? dep : st.waitsFor };
         return { status: 'error', error: { kind: 'input', message: `${name}: input ${dep} has no value yet`, inputs: [dep] } };
       }
+      if (isOffPageValue(st.value)) heldInput = true;
       inputs.set(dep, st.value);
     }
+    // A value held off the page cannot be used here: the cell is evaluated where it is.
+    if (heldInput && handOff) return handedOff();
     if (compiled.kind === 'function') {
       return { status: 'value', value: makeCellFunction(compiled.functionName, compiled.params, compiled.body, inputs) };
     }
     const budget = beginCell();
+    let state: CellState;
     try {
       const value = compiled.code.evaluate(inputs);
       const problem = checkResult(name, value);
-      return problem ? { status: 'error', error: problem } : { status: 'value', value };
+      state = problem ? { status: 'error', error: problem } : { status: 'value', value };
     } catch (e) {
       const error = errorFromException(name, e);
       if (error.kind === 'unit') {
         const why = explainUnitMismatch(compiled.tree, inputs);
         if (why) error.message = `${name}: ${why}`;
       }
-      return { status: 'error', error };
-    } finally {
-      endCell(budget);
+      state = { status: 'error', error };
     }
+    // Out of time (even if a built-in caught the error and went on): evaluated elsewhere, with a longer budget.
+    if (endCell(budget) && handOff) return handedOff();
+    return state;
   }
 
   private suggestionPool(): string[] {

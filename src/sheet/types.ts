@@ -26,9 +26,14 @@ export interface CellSpec {
   prior?: string;
 }
 
-/** Status of a cell as observers see it. */
+/**
+ * Status of a cell as observers see it. A pending cell may be waiting for an evaluation off the
+ * page (the app): `offPage` when it is evaluated elsewhere itself (the ticket names that
+ * evaluation, `since` is performance.now() when it was handed on), `waitsFor` when an input it
+ * reads, directly or not, is.
+ */
 export type CellState =
-  | { status: 'pending' }
+  | { status: 'pending'; offPage?: OffPageTicket; waitsFor?: string }
   | { status: 'value'; value: unknown }
   | { status: 'error'; error: CellError };
 
@@ -39,4 +44,10 @@ export interface SheetObserver {
   error?(name: string, error: CellError): void;
   /** A cell was added, removed, renamed or its spec changed (structure of the sheet). */
   structure?(): void;
+}
+
+/** An evaluation handed off the page: supplied back with Sheet.supplyOffPage(name, ticket, state). */
+export interface OffPageTicket {
+  ticket: number;
+  since: number;
 }

@@ -70,14 +70,12 @@ export function squareMatrix(m: BitMatrix): BitMatrix {
 
 /** Chunk indices up to 2^32 - 1 (far beyond any run's chunk count). */
 const MAX_CHUNK_BITS = 32;
-let jumpPowers: BitMatrix[] | null = null;
+const jumpPowers: BitMatrix[] = [];
 
-/** J^(2^k) for k = 0..31, built on first use (about a millisecond). */
-function powersOfJump(): BitMatrix[] {
-  if (!jumpPowers) {
-    jumpPowers = [matrixOf(jumpState)];
-    for (let k = 1; k < MAX_CHUNK_BITS; k++) jumpPowers.push(squareMatrix(jumpPowers[k - 1]));
-  }
+/** J^(2^k) for k = 0..bits-1, built on first use as far as asked (a run of n chunks needs log2(n) of them). */
+function powersOfJump(bits: number): BitMatrix[] {
+  if (bits > 0 && jumpPowers.length === 0) jumpPowers.push(matrixOf(jumpState));
+  while (jumpPowers.length < bits) jumpPowers.push(squareMatrix(jumpPowers[jumpPowers.length - 1]));
   return jumpPowers;
 }
 
@@ -85,7 +83,9 @@ function powersOfJump(): BitMatrix[] {
 export function chunkState(seed: number, chunk: number): State128 {
   if (!Number.isInteger(chunk) || chunk < 0 || chunk >= 2 ** MAX_CHUNK_BITS) throw new RangeError(`chunk index must be a whole number from 0 to 2^32 - 1, got ${chunk}`);
   let s: State128 = seedState(seed);
-  const powers = chunk > 0 ? powersOfJump() : [];
+  let bits = 0;
+  while (2 ** bits <= chunk) bits++;
+  const powers = powersOfJump(bits);
   for (let k = 0; chunk > 0 && k < MAX_CHUNK_BITS; k++) {
     if (Math.floor(chunk / 2 ** k) % 2 === 1) s = applyMatrix(powers[k], s);
   }

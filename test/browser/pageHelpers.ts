@@ -4,6 +4,8 @@ import type { Download, Page } from 'playwright-core';
 
 /** The value column text of a cell as the engine formatted it (data-raw holds formatValue's text). */
 export async function cellValueText(page: Page, name: string): Promise<string> {
+  // Once the recalculation is complete (a sheet put in place by undo or a reload is recalculated in slices).
+  await page.waitForFunction(() => !document.querySelector('[data-recalculating]'));
   return (await page.getAttribute(`[data-value="${name}"]`, 'data-raw')) ?? '';
 }
 

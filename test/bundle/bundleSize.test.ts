@@ -28,14 +28,14 @@ const budget = JSON.parse(readFileSync(join(ROOT, 'test/bundle/budget.json'), 'u
 
 /** A file's name without the content hash and extension: 'assets/index-AbCd1234.js' -> 'index'. */
 function chunkName(fileName: string): string {
-  return fileName.replace(/^.*\//, '').replace(/\.m?js$/, '').replace(/-[A-Za-z0-9_-]{8}$/, '');
+  return fileName.replace(/^.*\//, '').replace(/\.[mc]?js$/, '').replace(/-[A-Za-z0-9_-]{8}$/, '');
 }
 
-/** Sizes in bytes of the .js/.mjs files of a folder, by name without the content hash. */
+/** Sizes in bytes of the .js/.mjs/.cjs files of a folder, by name without the content hash. */
 function sizes(dir: string): Map<string, number> {
   const out = new Map<string, number>();
   for (const f of readdirSync(dir)) {
-    if (!/\.m?js$/.test(f)) continue;
+    if (!/\.[mc]?js$/.test(f)) continue;
     const name = chunkName(f);
     out.set(name, (out.get(name) ?? 0) + statSync(join(dir, f)).size);
   }
@@ -73,6 +73,7 @@ function loads(output: Rolldown.OutputBundle[string][]): Map<string, { bytes: nu
     ['page before its first result', staticClosure(output, file((o) => o.type === 'chunk' && o.isEntry && /index\.html$/.test(o.facadeModuleId ?? ''), 'main entry'))],
     ['job worker', staticClosure(output, file(entryNamed('jobWorker'), 'job worker entry'))],
     ['chunk worker', staticClosure(output, file(entryNamed('chunkWebWorker'), 'chunk worker entry'))],
+    ['off-page worker', staticClosure(output, file(entryNamed('offPageWorker'), 'off-page worker entry'))],
     ['parse worker', staticClosure(output, file((o) => /parseWorker-[^/]*\.js$/.test(o.fileName), 'parse worker'))],
   ]);
 }

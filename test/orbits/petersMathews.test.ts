@@ -34,7 +34,7 @@ describe('g(n, e) (Peters & Mathews 1963, eq. 20)', () => {
     expect(Math.abs(eccentricityEnhancement(0.5) / ((1 + 73 / 96 + 37 / 1536) / Math.pow(0.75, 3.5)) - 1)).toBeLessThan(1e-15);
   });
 
-  it('the harmonic of peak power follows the fit n_peak = 2 (1+e)^1.1954 / (1-e^2)^1.5 of Wen 2003 (ApJ 598, 419; unverified: volume, page and the fit formula were not seen in the paper) within 5% for e >= 0.7', () => {
+  it('the harmonic of peak power follows the fit n_peak = 2 (1+e)^1.1954 / (1-e^2)^1.5 of Wen 2003 (ApJ 598, 419, astro-ph/0211492: author and title checked; unverified: volume, page and the fit formula, which lies beyond the reachable abstract) within 5% for e >= 0.7', () => {
     for (const e of [0.7, 0.8, 0.9, 0.95]) {
       let best = 1;
       let bestG = 0;

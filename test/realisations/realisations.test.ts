@@ -145,7 +145,7 @@ describe('the loudest binary', () => {
   const A = perDexAt(8) / Math.pow(10, 8 * s);
   const countAbove = (x: number) => (A * (Math.pow(10, 10 * s) - Math.pow(10, s * x))) / (s * Math.LN10);
   const xOfStrain = (h: number) => 8 + 0.6 * Math.log10(h / strainAt(8));
-  /** P(loudest <= h) = exp(-N(>h)): the void probability of a Poisson process above h (derived here: the count above h is Poisson with mean N(>h), and P(0) = exp(-mean); Kingman 1993, Poisson Processes; unverified: section number). */
+  /** P(loudest <= h) = exp(-N(>h)): the void probability of a Poisson process above h (derived here: the count above h is Poisson with mean N(>h), and P(0) = exp(-mean); Kingman 1993, Poisson Processes, Oxford Studies in Probability; unverified: section number). */
   const closedCdf = (h: number) => Math.exp(-countAbove(Math.min(10, Math.max(8, xOfStrain(h)))));
 
   for (const threshold of [Infinity, 5]) {

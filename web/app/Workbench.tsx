@@ -20,6 +20,7 @@ import { downloadText, fileStem } from '../files/download';
 import { cellTableCsv } from '../files/cellTableCsv';
 import type { Completion } from '../help/formulaContext';
 import { DEMO_TEXT } from './demoSheet';
+import { builtinDocs } from '../help/builtinDocs';
 
 /** Autosaved sheets at least this long (about 1,500 cells) are loaded in slices once the page is up. */
 const LOAD_LATER_FROM = 200_000;
@@ -27,7 +28,7 @@ const LOAD_LATER_FROM = 200_000;
 function initialSheet(notify: (t: string, tone?: Tone) => void): { sheet: Sheet; autosaveAllowed: boolean; later?: string } {
   let later: string | undefined;
   const restored = restoreAutosave((text) => {
-    if (text.length < LOAD_LATER_FROM) return Sheet.fromFile(text);
+    if (text.length < LOAD_LATER_FROM) return Sheet.fromFile(text, { deferRecalculation: true });
     later = text;
     return new Sheet({ title: 'Loading the autosaved sheet…' });
   });
@@ -139,27 +140,19 @@ export function Workbench() {
     row.scrollIntoView({ block: 'nearest' });
     return row;
   };
-  // The built-ins are the same for every sheet (one locked math instance): read them once.
-  const builtinList = (() => {
-    try {
-      return session.current.builtins();
-    } catch {
-      return [];
-    }
-  })();
-  const builtins = () => builtinList;
-  // Built when a formula box first asks after the cells changed (not on every change: a long
-  // sheet would pay for it at each structure change, typed into or not).
-  let completionList: { cells: unknown; list: Completion[] } | null = null;
+  // Built when a formula box first asks after the cells (or the built-ins' documentation, loaded on
+  // first use) changed; not on every change: a long sheet would pay for it at each structure change.
+  let completionList: { cells: unknown; docs: unknown; list: Completion[] } | null = null;
   const completions = (): Completion[] => {
     const all = session.cells();
-    if (completionList?.cells === all) return completionList.list;
+    const docs = builtinDocs();
+    if (completionList?.cells === all && completionList.docs === docs) return completionList.list;
     const cells = all.map<Completion>((c) => {
       const fn = /^\s*[A-Za-z_][A-Za-z0-9_]*\s*\(/.test(c.formula) && /\)\s*=(?!=)/.test(c.formula);
       return { name: c.name, kind: fn ? 'function' : 'cell', detail: c.unit ? `cell [${c.unit}]` : 'cell' };
     });
-    const fns = builtins().map<Completion>((b) => ({ name: b.name, kind: 'built-in', detail: b.summary }));
-    completionList = { cells: all, list: [...cells, ...fns] };
+    const fns = docs.map<Completion>((b) => ({ name: b.name, kind: 'built-in', detail: b.summary }));
+    completionList = { cells: all, docs, list: [...cells, ...fns] };
     return completionList.list;
   };
 
@@ -180,7 +173,7 @@ export function Workbench() {
       else if (!rows.get(name)?.isConnected) rows.delete(name);
     },
     rowOrder: () => groupBySection(session.cells()).flatMap((g) => g.cells.map((c) => c.name)),
-    builtins,
+    builtins: builtinDocs,
     completions,
     showCell: (name) => rowInView(name) !== undefined,
     found,

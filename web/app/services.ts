@@ -1,7 +1,7 @@
 // What the components share: the live sheet, messages, row focus and the help topic.
 import { createContext, useContext, type Accessor } from 'solid-js';
 import type { SheetSession } from '../state/sheetSession';
-import type { Builtin } from '../engine/engine';
+import type { BuiltinDoc } from '../help/builtinDocs';
 import type { Completion } from '../help/formulaContext';
 
 export type Tone = 'info' | 'error';
@@ -21,7 +21,8 @@ export interface Services {
   revealRow?: (name: string) => void;
   /** Cell names in screen order, for keyboard navigation. */
   rowOrder(): string[];
-  builtins: Accessor<Builtin[]>;
+  /** The built-ins' documentation (loaded on first use; empty until then). */
+  builtins: Accessor<readonly BuiltinDoc[]>;
   completions: Accessor<Completion[]>;
   /** The cell whose trace is open. */
   traced: Accessor<string | null>;

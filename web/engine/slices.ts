@@ -1,6 +1,6 @@
 // Work on the page's thread is done in slices of APP_SLICE_MS, giving the page back between them
 // (to input, rendering and timers), so no task holds the page much longer than one slice. One
-// cell's evaluation is not split: it is bounded by the cell budget (APP_CELL_SECONDS, engine.ts).
+// cell's evaluation is not split: it is bounded by the page's cell budget (APP_PAGE_CELL_SECONDS, pageBudget.ts), after which the cell is evaluated off the page.
 
 /** Length of one slice of recalculation or loading, in milliseconds. */
 export const APP_SLICE_MS = 12;

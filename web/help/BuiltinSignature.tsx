@@ -1,9 +1,9 @@
 // One built-in as help text: call form with argument units, what it returns, and its source.
 import { For, Show } from 'solid-js';
-import type { Builtin } from '../engine/engine';
+import type { BuiltinDoc } from './builtinDocs';
 import { LinkedText } from './LinkedText';
 
-export function BuiltinSignature(props: { builtin: Builtin; activeArg?: number }) {
+export function BuiltinSignature(props: { builtin: BuiltinDoc; activeArg?: number }) {
   return (
     <div class="builtin-sig">
       <div class="sig-line">

@@ -3,13 +3,14 @@
 import { createMemo, createSignal, For, Show } from 'solid-js';
 import { useServices } from '../app/services';
 import { BuiltinSignature } from './BuiltinSignature';
+import type { BuiltinDoc } from './builtinDocs';
 
 export function ReferencePanel() {
   const services = useServices();
   const [filter, setFilter] = createSignal('');
   const matches = (text: string) => text.toLowerCase().includes(filter().trim().toLowerCase());
   const groups = createMemo(() => {
-    const byCategory = new Map<string, ReturnType<typeof services.builtins>>();
+    const byCategory = new Map<string, BuiltinDoc[]>();
     for (const b of services.builtins()) {
       if (filter() && !matches(`${b.name} ${b.summary} ${b.category}`)) continue;
       if (!byCategory.has(b.category)) byCategory.set(b.category, []);
@@ -35,6 +36,7 @@ export function ReferencePanel() {
           )}
         </For>
       </div>
+      <Show when={services.builtins().length} fallback={<p class="trace-none">Loading the built-ins’ reference…</p>}>
       <Show when={categories().length} fallback={<p class="trace-none">No built-in matches.</p>}>
         <For each={categories()}>
           {(category) => (
@@ -55,6 +57,7 @@ export function ReferencePanel() {
             </section>
           )}
         </For>
+      </Show>
       </Show>
       <p class="reference-foot">
         Formulas use arithmetic, units (e.g. <code>70 km/s/Mpc</code>, <code>3 weeks</code>), lists <code>[1, 2, 3]</code> and functions of cells{' '}

@@ -94,7 +94,7 @@ function toSample(job: Extract<JobSpec, { kind: 'sample' }>, r: Extract<Statisti
  * the same result as on one.
  */
 export async function runJob(sheetText: string, job: JobSpec, ctl: JobControl, parallel?: ParallelOptions): Promise<JobResult> {
-  const sheet = Sheet.fromFile(sheetText);
+  const sheet = Sheet.fromFile(sheetText, { evaluateOnRead: true });
   const par = parallel ? { ...parallel, sheetText } : undefined;
   const control = { signal: ctl.signal, onProgress: ctl.progress };
   try {

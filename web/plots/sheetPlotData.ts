@@ -3,6 +3,8 @@
 // only through toJSON() (plain SI numbers), so the plots follow the engine's own data.
 import { isSheetObject, type CellSpec } from '../engine/engine';
 import { math, quantity } from '../../src/sheet/mathInstance';
+import { beginCell, cellBudgetSeconds, checkTimeNow, endCell } from '../../src/sheet/evaluationBudget';
+import { BuiltinError } from '../../src/sheet/cellError';
 import type { BinnedStrain, MeasuredAmplitude, RealisationBands, StrainCurve, VerticalQuantity } from './spectrumPlotModel';
 import { strainFrom } from './spectrumPlotModel';
 
@@ -133,23 +135,28 @@ export function isOneArgumentFunction(v: unknown): v is ((x: unknown) => unknown
 /**
  * Samples a one-argument function cell on the frequencies given. It is called with a frequency
  * quantity; a dimensionless result (number or unitless quantity) is drawn. Returns null with a
- * reason when the function is not a dimensionless function of frequency.
+ * reason when the function is not a dimensionless function of frequency, or when drawing it runs
+ * out of one cell's time budget (the page's, APP_PAGE_CELL_SECONDS: drawing never holds the page longer).
  */
 export function sampleFrequencyFunction(fn: (x: unknown) => unknown, frequencyHz: number[]): { y: number[] } | { reason: string } {
   const y: number[] = [];
-  for (const f of frequencyHz) {
-    let r: unknown;
-    try {
-      r = fn(quantity(f, 'Hz'));
-    } catch (err) {
-      return { reason: err instanceof Error ? err.message : String(err) };
+  const budget = beginCell();
+  try {
+    for (const f of frequencyHz) {
+      checkTimeNow();
+      const r = fn(quantity(f, 'Hz'));
+      if (typeof r === 'number') y.push(r);
+      else if (math.isUnit(r)) {
+        const u = r as unknown as { dimensions: number[]; value: number | null };
+        if (!u.dimensions.every((d) => d === 0)) return { reason: `it returns ${String(r)}, not a dimensionless value` };
+        y.push(u.value ?? NaN);
+      } else return { reason: 'it does not return a number' };
     }
-    if (typeof r === 'number') y.push(r);
-    else if (math.isUnit(r)) {
-      const u = r as unknown as { dimensions: number[]; value: number | null };
-      if (!u.dimensions.every((d) => d === 0)) return { reason: `it returns ${String(r)}, not a dimensionless value` };
-      y.push(u.value ?? NaN);
-    } else return { reason: 'it does not return a number' };
+  } catch (err) {
+    if (err instanceof BuiltinError && err.kind === 'limit') return { reason: `drawing it takes longer than ${Number(cellBudgetSeconds().toPrecision(3))} s (one cell's time budget here)` };
+    return { reason: err instanceof Error ? err.message : String(err) };
+  } finally {
+    endCell(budget);
   }
   return { y };
 }

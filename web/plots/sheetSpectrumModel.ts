@@ -1,6 +1,6 @@
 // The spectrum plot of a sheet as a PlotModel, from the cells and their values alone (DOM-free):
 // the Plots panel and `strainsheet plot` draw the same figure from it.
-import { isSheetObject, type CellSpec, type CellState } from '../engine/engine';
+import { isOffPageValue, isSheetObject, type CellSpec, type CellState } from '../engine/engine';
 import { spectrumPlotModel, type BinnedStrain, type MeasuredAmplitude, type RealisationBands, type StrainCurve, type VerticalQuantity } from './spectrumPlotModel';
 import { binsFromJson, realisationBandsFromJson, curveFromSpectrumJson, drawingGrid, hubbleConstant, isOneArgumentFunction, measuredFromJson, sampleFrequencyFunction } from './sheetPlotData';
 import type { PlotModel } from './plotModel';
@@ -28,7 +28,8 @@ export function spectrumCurves(sheet: SheetReader): StrainCurve[] {
   const out: StrainCurve[] = [];
   for (const c of objectCandidates(sheet)) {
     const v = sheet.valueOf(c.name);
-    if (isSheetObject(v) && v.kind === 'spectrum') {
+    // A spectrum computed off the page is drawn from its JSON, as one computed here is.
+    if (isSheetObject(v) && (v.kind === 'spectrum' || (isOffPageValue(v) && v.heldKind === 'spectrum'))) {
       const curve = curveFromSpectrumJson(`cell:${c.name}`, c.name, v.toJSON());
       if (curve) out.push(curve);
     }

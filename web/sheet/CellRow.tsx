@@ -9,6 +9,7 @@ import { freshName, sectionChoices, sectionOf } from './sections';
 import { AnnotationBadges, AnnotationEditor } from './AnnotationBadges';
 import { ROW_ANNOTATION_KINDS } from './rowAnnotations';
 import { LinkedText } from '../help/LinkedText';
+import { OffPageStatus } from './OffPageStatus';
 
 export function CellRow(props: { spec: CellSpec }) {
   const services = useServices();
@@ -100,7 +101,7 @@ export function CellRow(props: { spec: CellSpec }) {
   const status = createMemo(() => {
     const s = state();
     if (s.status === 'value') return { label: 'ok', cls: 'ok' };
-    if (s.status === 'pending') return { label: 'computing', cls: 'pending' };
+    if (s.status === 'pending') return { label: s.offPage ? 'off page' : s.waitsFor !== undefined ? 'waiting' : 'computing', cls: 'pending' };
     return { label: s.error.kind, cls: 'error' };
   });
 
@@ -170,6 +171,9 @@ export function CellRow(props: { spec: CellSpec }) {
       </div>
       <div class="cell-value" role="cell" data-value={name()} data-raw={shown()} title={shown()}>
         <ScientificText text={shown()} />
+        <Show when={(() => { const s = state(); return s.status === 'pending' && (s.offPage || s.waitsFor !== undefined) ? s : null; })()}>
+          {(s) => <OffPageStatus name={name()} state={s()} onCancel={() => session.cancelOffPage(name())} />}
+        </Show>
         <AnnotationBadges spec={props.spec} onEdit={setAnnotating} />
       </div>
       <div class="cell-status" role="cell">

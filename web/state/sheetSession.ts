@@ -1,10 +1,13 @@
 // The live sheet behind the screen: one Sheet, per-cell signals the rows read, undo/redo, and
 // performance marks the UI benchmark reads. Every edit goes through `edit()`, so every edit can be undone.
 // The sheet's recalculation is deferred and run here in slices of APP_SLICE_MS between the page's
-// events: a long recalculation never holds the page, and an edit made meanwhile joins it.
+// events: a long recalculation never holds the page, and an edit made meanwhile joins it. A cell
+// that runs out of the page's budget is evaluated off the page (OffPageRunner) and supplied back.
 import { batch, createSignal, untrack, type Accessor, type Setter } from 'solid-js';
 import { Sheet, type CellSpec, type CellState } from '../engine/engine';
 import { APP_SLICE_MS, yieldToPage } from '../engine/slices';
+import '../engine/pageBudget'; // the page's budget per cell and hand-off (not the command line's)
+import { OffPageRunner, type OffPageWorkerLike } from '../engine/offPageRunner';
 import { ObjectCells } from './objectCells';
 import { applyChange, captureSheet, captureText, changeBetween, isEmptyChange, type SheetCapture } from './sheetChange';
 import { SheetHistory, type HistoryStep } from './sheetHistory';
@@ -53,8 +56,14 @@ export class SheetSession {
   private settledWaiters: Array<() => void> = [];
   /** Called after each edit that changed the sheet (autosave listens here). */
   onChange: (session: SheetSession) => void = () => {};
+  /** Evaluates the cells the sheet hands off; an outcome the sheet takes is recalculated from like an edit. */
+  private readonly offPage: OffPageRunner;
 
-  constructor(sheet: Sheet) {
+  /** `offPageWorker` starts the worker for cells evaluated off the page (a Web Worker unless given). */
+  constructor(sheet: Sheet, offPageWorker?: () => OffPageWorkerLike) {
+    this.offPage = new OffPageRunner((name, ticket, state) => {
+      if (this.sheet.supplyOffPage(name, ticket, state)) this.runSlice();
+    }, offPageWorker);
     [this.structure, this.setStructure] = createSignal(0);
     [this.revision, this.setRevision] = createSignal(0);
     [this.canUndo, this.setCanUndo] = createSignal<string | null>(null);
@@ -77,19 +86,21 @@ export class SheetSession {
   private runSlice(): void {
     const sheet = this.sheet;
     sheet.deferRecalculation = true;
-    const end = performance.now() + APP_SLICE_MS;
+    const start = performance.now();
+    const end = start + APP_SLICE_MS;
     const done = sheet.recalculateSome(() => performance.now() >= end);
     this.setCellsToRecalculate(sheet.cellsToRecalculate);
     if (done) {
-      this.setSettled((n) => n + 1);
-      if (this.measureEdit) {
-        // The engine's share of edit -> plot (the UI benchmark reports both).
-        this.measureEdit = false;
-        performance.measure('strainsheet:recalculate', 'strainsheet:edit');
+      this.offPage.sync(sheet);
+      // A slice that ran long (a cell used up the page's budget) gives the page back before the
+      // views read the new values, so that the two do not add up in one task.
+      if (performance.now() - start > APP_SLICE_MS) {
+        void yieldToPage().then(() => {
+          if (this.sheet === sheet && !sheet.recalculating) this.settle();
+        });
+        return;
       }
-      const waiters = this.settledWaiters;
-      this.settledWaiters = [];
-      for (const w of waiters) w();
+      this.settle();
       return;
     }
     this.queueSlice();
@@ -103,6 +114,25 @@ export class SheetSession {
       this.sliceQueued = false;
       this.runSlice();
     });
+  }
+
+  /** Tells the views and the waiters that the recalculation is complete. */
+  private settle(): void {
+    this.setSettled((n) => n + 1);
+    if (this.measureEdit) {
+      // The engine's share of edit -> plot (the UI benchmark reports both).
+      this.measureEdit = false;
+      performance.measure('strainsheet:recalculate', 'strainsheet:edit');
+    }
+    const waiters = this.settledWaiters;
+    this.settledWaiters = [];
+    for (const w of waiters) w();
+  }
+
+  /** Stops the off-page evaluation of a cell (its row's Cancel): it gets a 'limit' error saying so. */
+  cancelOffPage(name: string): void {
+    const st = this.sheet.state(name);
+    if (st.status === 'pending' && st.offPage) this.offPage.cancel(name, st.offPage.ticket, st.offPage.since);
   }
 
   /** The engine object, for read-only calls (builtins, evaluateWith, dependencies). */
@@ -257,7 +287,7 @@ export class SheetSession {
       this.runSlice();
       this.refresh(true);
     } catch {
-      this.replaceSheet(Sheet.fromFile(captureText(before)));
+      this.replaceSheet(Sheet.fromFile(captureText(before), { deferRecalculation: true }));
     }
   }
 
@@ -384,6 +414,7 @@ function sameState(a: CellState, b: CellState): boolean {
   if (a === b) return true;
   if (a.status !== b.status) return false;
   if (a.status === 'value' && b.status === 'value') return a.value === b.value;
+  if (a.status === 'pending' && b.status === 'pending') return a.offPage?.ticket === b.offPage?.ticket && a.waitsFor === b.waitsFor;
   if (a.status === 'error' && b.status === 'error') {
     return a.error.message === b.error.message && a.error.kind === b.error.kind && a.error.position === b.error.position;
   }

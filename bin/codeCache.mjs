@@ -1,0 +1,90 @@
+// Runs a CommonJS bundle (dist-cli/*.cjs) with V8's code cache, so that a start does not parse and
+// compile its 1.4 MB again: the bundle is compiled as a script (node:vm) with the cached data kept
+// next to it, and a run without a usable cache writes one after its work (node:vm, "cachedData",
+// "script.createCachedData()"; Node 20 has no compile cache for ES modules).
+//
+// The cache file holds a header line and V8's data. It is used only when the header names this Node
+// (version, architecture) and the SHA-1 of the bundle's text and of the data itself, so a cache left
+// by another bundle (V8 checks only the text's length), a different Node or a damaged file is never
+// handed to V8; V8's own checks (flags, version) come after. Writing goes through a temporary file
+// and a rename, so parallel runs never read half a file; a folder that cannot be written is no error.
+//
+// import() does not work in a script compiled with a code cache (Node issue 43663): commands that
+// load packages with it run the bundle through Node's loader instead (bin/strainsheet.mjs).
+import { createHash } from 'node:crypto';
+import { accessSync, constants, readFileSync, renameSync, unlinkSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { dirname } from 'node:path';
+import vm from 'node:vm';
+
+const MAGIC = 'strainsheet-code-cache 1';
+/** The header line is never longer than this (it is read before the data). */
+const MAX_HEADER = 512;
+
+/** The function CommonJS wraps a module's text in (as Node's loader does). */
+const wrap = (source) => `(function (exports, require, module, __filename, __dirname) { ${source}\n});`;
+
+const sha1 = (data) => createHash('sha1').update(data).digest('hex');
+
+function headerOf(sourceHash, dataHash, dataLength) {
+  return `${MAGIC} ${process.version} ${process.arch} ${sourceHash} ${dataHash} ${dataLength}\n`;
+}
+
+/** The cached data for a source of hash `sourceHash`, or why there is none ('absent', 'stale', 'damaged'). */
+function readCache(cachePath, sourceHash) {
+  let bytes;
+  try {
+    bytes = readFileSync(cachePath);
+  } catch {
+    return { state: 'absent' };
+  }
+  const end = bytes.subarray(0, MAX_HEADER).indexOf(10);
+  if (end < 0) return { state: 'damaged' };
+  const fields = bytes.subarray(0, end).toString('latin1').split(' ');
+  const data = bytes.subarray(end + 1);
+  if (fields.length !== 7 || `${fields[0]} ${fields[1]}` !== MAGIC) return { state: 'damaged' };
+  if (fields[2] !== process.version || fields[3] !== process.arch || fields[4] !== sourceHash) return { state: 'stale' };
+  if (Number(fields[6]) !== data.length || fields[5] !== sha1(data)) return { state: 'damaged' };
+  return { state: 'found', data };
+}
+
+function writeCache(cachePath, sourceHash, data) {
+  const temporary = `${cachePath}.${process.pid}.${Date.now()}.tmp`;
+  try {
+    accessSync(dirname(cachePath), constants.W_OK);
+    writeFileSync(temporary, Buffer.concat([Buffer.from(headerOf(sourceHash, sha1(data), data.length), 'latin1'), data]));
+    renameSync(temporary, cachePath);
+    return true;
+  } catch {
+    try {
+      unlinkSync(temporary);
+    } catch {
+      // nothing was written
+    }
+    return false;
+  }
+}
+
+/**
+ * Loads the CommonJS file `bundlePath` (its exports are returned) using the code cache at
+ * `cachePath`. `cache` says what was found: 'used', or 'absent', 'stale', 'damaged' or 'rejected'
+ * (refused by V8); call `save()` after the work, when the most functions are compiled: it writes a
+ * new cache unless one was used, and tells whether it did.
+ */
+export function loadWithCodeCache(bundlePath, cachePath = `${bundlePath}.codecache`) {
+  const source = readFileSync(bundlePath, 'utf8');
+  const sourceHash = sha1(source);
+  const found = readCache(cachePath, sourceHash);
+  const script = new vm.Script(wrap(source), {
+    filename: bundlePath,
+    cachedData: found.data,
+  });
+  const cache = found.state === 'found' ? (script.cachedDataRejected ? 'rejected' : 'used') : found.state;
+  const module = { exports: {} };
+  script.runInThisContext().call(module.exports, module.exports, createRequire(bundlePath), module, bundlePath, dirname(bundlePath));
+  return {
+    exports: module.exports,
+    cache,
+    save: () => cache !== 'used' && writeCache(cachePath, sourceHash, script.createCachedData()),
+  };
+}

@@ -1,0 +1,144 @@
+// Slow formulas in chromium (issue 10, item 1, the app): a cell that runs out of the page's budget
+// (APP_PAGE_CELL_SECONDS) is evaluated in a worker, its row says so while it runs, its value is the
+// command line's, and no main-thread task of the page takes more than 200 ms of the thread's own
+// time (CPU time from chromium's trace, so that other work on the machine does not count).
+// Cancel gives a 'limit' error; a slow formula in the autosave does not hold the next start.
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { browserAvailability } from './chromiumBrowser';
+import { startAppSession, type AppSession } from './appSession';
+import { PROJECT_ROOT } from './appServer';
+
+const availability = browserAvailability();
+const runSuite = availability.ok || availability.required;
+
+/** The target of issue 10: no main-thread task over 200 ms caused by a formula. */
+const LONGEST_TASK_MS = 200;
+
+/** The main thread's tasks while `run` runs: wall and thread (CPU) time of each, from a chromium trace. */
+async function mainThreadTasks(page: Page, run: () => Promise<void>): Promise<Array<{ wallMs: number; threadMs: number }>> {
+  const cdp = await page.context().newCDPSession(page);
+  const events: Array<{ name: string; ph: string; pid: number; tid: number; dur?: number; tdur?: number; args?: { name?: string } }> = [];
+  cdp.on('Tracing.dataCollected', (e) => events.push(...(e.value as unknown as typeof events)));
+  await cdp.send('Tracing.start', { categories: 'devtools.timeline,disabled-by-default-devtools.timeline', transferMode: 'ReportEvents' });
+  try {
+    await run();
+  } finally {
+    const complete = new Promise((resolve) => cdp.once('Tracing.tracingComplete', resolve));
+    await cdp.send('Tracing.end');
+    await complete;
+    await cdp.detach();
+  }
+  const main = new Set(events.filter((e) => e.ph === 'M' && e.name === 'thread_name' && e.args?.name === 'CrRendererMain').map((e) => `${e.pid}:${e.tid}`));
+  const tasks = events.filter((e) => e.ph === 'X' && e.name === 'RunTask' && main.has(`${e.pid}:${e.tid}`));
+  if (!tasks.length) throw new Error('the trace holds no task of the page\'s main thread');
+  if (tasks.some((t) => t.tdur === undefined)) throw new Error('the trace gives no thread time for the page\'s tasks');
+  return tasks.map((t) => ({ wallMs: (t.dur ?? 0) / 1000, threadMs: t.tdur! / 1000 }));
+}
+
+/** The command line's text for each cell of a sheet file (a long budget, so that a loaded machine does not stop it). */
+function commandLineTexts(cells: Array<{ name: string; formula: string }>): Record<string, string> {
+  const dir = mkdtempSync(join(tmpdir(), 'strainsheet-offpage-'));
+  const file = join(dir, 'slow.strainsheet.json');
+  writeFileSync(file, JSON.stringify({ format: 'strainsheet', version: 2, title: '', notes: '', cells }));
+  const out = execFileSync(process.execPath, [join(PROJECT_ROOT, 'bin/strainsheet.mjs'), 'evaluate', file, '--json', '--cell-budget', '120'], { encoding: 'utf8' });
+  const parsed = JSON.parse(out) as { cells: Array<{ name: string; text: string; error: string | null }> };
+  return Object.fromEntries(parsed.cells.map((c) => [c.name, c.error ?? c.text]));
+}
+
+async function addCell(page: Page, name: string, formula: string): Promise<void> {
+  await page.fill('form.add-cell input[name="name"]', name);
+  await page.fill('form.add-cell input[name="formula"]', formula);
+  await page.click('form.add-cell button[type="submit"]');
+}
+
+/** A fresh start, then the sheet of `cells` opened as a file; waits for the row of `cell`. */
+async function openSheet(s: AppSession, cells: Array<{ name: string; formula: string }>, cell: string): Promise<void> {
+  await s.freshDemo();
+  await s.page.setInputFiles('input[data-action="open-file"]', { name: 'slow.strainsheet.json', mimeType: 'application/json', buffer: Buffer.from(sheetText(cells)) });
+  await s.page.waitForSelector(`[data-cell="${cell}"]`);
+}
+
+const shown = (page: Page, name: string) => page.getAttribute(`[data-value="${name}"]`, 'data-raw');
+
+// Four function calls per element, a million elements, ten times: several seconds, past the
+// command line's budget of 5 s per cell on this machine.
+const ENDLESS = [
+  { name: 'step', formula: 'step(x) = x + 1' },
+  { name: 'steps', formula: 'steps(x) = step(step(step(step(x))))' },
+  { name: 'endless', formula: Array(10).fill('sum(map(1:1e6, steps))').join(' + ') },
+  { name: 'reader', formula: 'endless + 1' },
+];
+const sheetText = (cells: Array<{ name: string; formula: string }>) => JSON.stringify({ format: 'strainsheet', version: 2, title: 'slow', notes: '', cells });
+
+describe.runIf(runSuite)('slow formulas are evaluated off the page', { timeout: 120_000 }, () => {
+  let s: AppSession;
+  beforeAll(async () => {
+    if (!availability.ok) throw new Error(availability.reason);
+    s = await startAppSession();
+  }, 120_000);
+  afterAll(async () => {
+    await s?.close();
+  });
+
+  it('a slow formula typed in goes off the page, holds no task over 200 ms and gets the command line\'s value', async () => {
+    const { page } = s;
+    // A small sheet, so that the tasks measured are the formula's and not the demo's plots redrawn.
+    await openSheet(s, [{ name: 'free', formula: '1' }], 'free');
+    // heavy(x) = sum(1:1e6) (issue 10's example); twelve calls take about 0.3 s of CPU here, past the page's budget.
+    const cells = [
+      { name: 'heavy', formula: 'heavy(x) = sum(1:1e6)' },
+      { name: 'slowsum', formula: 'sum(map(1:12, heavy)) / 7' },
+    ];
+    await addCell(page, cells[0].name, cells[0].formula);
+    await page.waitForSelector('[data-cell="heavy"]');
+    // Whether the row ever said it was evaluating off the page (watched from now on).
+    await page.evaluate(() => {
+      const w = window as unknown as { __sawOffPage: boolean };
+      w.__sawOffPage = false;
+      new MutationObserver(() => {
+        if (document.querySelector('[data-off-page="slowsum"]')) w.__sawOffPage = true;
+      }).observe(document.body, { subtree: true, childList: true, attributes: true });
+    });
+    const tasks = await mainThreadTasks(page, async () => {
+      await addCell(page, cells[1].name, cells[1].formula);
+      await page.waitForFunction(() => /\d/.test(document.querySelector('[data-value="slowsum"]')?.getAttribute('data-raw') ?? ''), undefined, { timeout: 60_000 });
+    });
+    const longest = tasks.reduce((a, t) => (t.threadMs > a.threadMs ? t : a));
+    console.log(`longest main-thread task while typing and evaluating the slow formula: ${longest.threadMs.toFixed(0)} ms of thread time (${longest.wallMs.toFixed(0)} ms wall), ${tasks.length} tasks`);
+    expect(await page.evaluate(() => (window as unknown as { __sawOffPage: boolean }).__sawOffPage)).toBe(true);
+    expect(longest.threadMs).toBeLessThan(LONGEST_TASK_MS);
+    // The same text the command line prints for the same cells (formatValue on both sides).
+    expect(await shown(page, 'slowsum')).toBe(commandLineTexts(cells).slowsum);
+    expect(s.pageErrors).toEqual([]);
+  });
+
+  it('Cancel stops an evaluation off the page with a limit error that says so; its reader gets an input error', async () => {
+    const { page } = s;
+    await openSheet(s, ENDLESS, 'endless');
+    await page.waitForSelector('[data-off-page="endless"]');
+    expect(await page.textContent('[data-cell="reader"] .off-page')).toContain('waits for endless');
+    await page.click('[data-off-page="endless"] [data-action="cancel-off-page"]');
+    await page.waitForSelector('[data-cell="endless"].status-error');
+    expect(await page.textContent('[data-cell="endless"]')).toMatch(/the evaluation off the page was cancelled after \d+\.\d s/);
+    await page.waitForSelector('[data-cell="reader"].status-error');
+    expect(await page.textContent('[data-cell="reader"] .badge')).toBe('input');
+  });
+
+  it('a slow formula in the autosave does not hold the next start: the page comes up while it is evaluated off the page', async () => {
+    const { page } = s;
+    await page.evaluate((text) => localStorage.setItem('strainsheet:autosave:v1', text), sheetText(ENDLESS));
+    await page.reload();
+    // The evaluation takes seconds off the page (past 5 s it stops with a limit error); the row is
+    // there, saying so, while it runs.
+    await page.waitForSelector('[data-off-page="endless"]');
+    expect(await page.textContent('[data-cell="step"] .cell-value')).toContain('step(x)');
+    await page.click('[data-off-page="endless"] [data-action="cancel-off-page"]');
+    await page.waitForSelector('[data-cell="endless"].status-error');
+    expect(s.pageErrors).toEqual([]);
+  });
+});

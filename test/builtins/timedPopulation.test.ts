@@ -1,0 +1,42 @@
+// Populations check the clock where slow cells are handed off (the app's page) and nowhere else
+// (issue 10, item 1): on the demo sheet with a budget too short for anything, amplitudeAtYear of a
+// delayed population (a built-in's own integral over the density) is handed off on the page, and
+// the replica's value equals the command line's; without hand-off the built-in runs to the end.
+import { readFileSync } from 'node:fs';
+import { afterEach, describe, expect, it } from 'vitest';
+import { Sheet } from '../../src/sheet/sheet';
+import { SheetReplica } from '../../src/sheet/sheetReplica';
+import { DEFAULT_CELL_SECONDS, setCellBudget, setHandOffOnTimeout } from '../../src/sheet/evaluationBudget';
+import { stateFromTransfer, stateToTransfer } from '../../src/sheet/valueTransfer';
+import { formatValue } from '../../src/sheet/formatValue';
+
+const demo = readFileSync(new URL('../../examples/demo.json', import.meta.url), 'utf8');
+afterEach(() => {
+  setHandOffOnTimeout(false);
+  setCellBudget(DEFAULT_CELL_SECONDS);
+});
+
+describe('timed populations', () => {
+  it('on the page, a spectrum integral past the budget is handed off; off the page it gets the command line\'s value', () => {
+    const reference = Sheet.fromFile(demo); // the command line's settings
+    setHandOffOnTimeout(true);
+    setCellBudget(1e-9);
+    const page = Sheet.fromFile(demo);
+    const waiting = page.offPageCells();
+    expect(waiting.map((c) => c.name)).toContain('A_yr_hardened');
+    const ticket = waiting.find((c) => c.name === 'A_yr_hardened')!.ticket;
+    setHandOffOnTimeout(false);
+    setCellBudget(DEFAULT_CELL_SECONDS);
+    const outcome = stateFromTransfer(structuredClone(stateToTransfer(new SheetReplica().evaluate(page.closureText(['A_yr_hardened']), 'A_yr_hardened'))));
+    expect(page.supplyOffPage('A_yr_hardened', ticket, outcome)).toBe(true);
+    expect(formatValue(page.value('A_yr_hardened'))).toBe(formatValue(reference.value('A_yr_hardened')));
+    expect(page.value('A_yr_hardened')).toBe(reference.value('A_yr_hardened'));
+  });
+
+  it('without hand-off, a built-in\'s integral is not interrupted by the cell budget', () => {
+    const reference = Sheet.fromFile(demo);
+    setCellBudget(1e-9);
+    const s = Sheet.fromFile(demo);
+    expect(s.value('A_yr_hardened')).toBe(reference.value('A_yr_hardened'));
+  });
+});
