@@ -48,10 +48,19 @@ function readCache(cachePath, sourceHash) {
   return { state: 'found', data };
 }
 
+/** Whether the cache's folder can be written (checked before the data is made: making it takes time). */
+function writable(cachePath) {
+  try {
+    accessSync(dirname(cachePath), constants.W_OK);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
 function writeCache(cachePath, sourceHash, data) {
   const temporary = `${cachePath}.${process.pid}.${Date.now()}.tmp`;
   try {
-    accessSync(dirname(cachePath), constants.W_OK);
     writeFileSync(temporary, Buffer.concat([Buffer.from(headerOf(sourceHash, sha1(data), data.length), 'latin1'), data]));
     renameSync(temporary, cachePath);
     return true;
@@ -85,6 +94,6 @@ export function loadWithCodeCache(bundlePath, cachePath = `${bundlePath}.codecac
   return {
     exports: module.exports,
     cache,
-    save: () => cache !== 'used' && writeCache(cachePath, sourceHash, script.createCachedData()),
+    save: () => cache !== 'used' && writable(cachePath) && writeCache(cachePath, sourceHash, script.createCachedData()),
   };
 }

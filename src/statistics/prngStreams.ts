@@ -5,8 +5,9 @@
 // on the seed and the chunk's index, never on how many workers run the chunks. Chunk 0 is the
 // plain seeded stream, so a run of one chunk draws what seededRandom(S) draws.
 //
-// c jumps are applied at once through the matrices of the jump over GF(2) (xoshiro's state update
-// is linear in the 128 state bits): J^(2^k) for each bit k of c, built once by repeated squaring.
+// A few jumps are applied one by one, from the last chunk's state when chunks come in order; many
+// at once through the matrices of the jump over GF(2) (xoshiro's state update is linear in the 128
+// state bits): J^(2^k) for each bit k of c, built once by repeated squaring.
 import { seedState, xoshiroFromState, type RandomSource } from './prng';
 
 /** The jump polynomial of xoshiro128** (Blackman & Vigna 2021, reference code): 2^64 steps. */
@@ -79,17 +80,36 @@ function powersOfJump(bits: number): BitMatrix[] {
   return jumpPowers;
 }
 
+/** Up to this many jumps are applied one by one (a jump is 128 steps); further ones through the matrices. */
+const SEQUENTIAL_JUMPS = 64;
+/** The last chunk state given: chunks are mostly asked for in order, each one jump from the last. */
+let lastChunk: { seed: number; chunk: number; state: State128 } | null = null;
+
 /** The state of seededRandom(seed) advanced by `chunk` jumps. */
 export function chunkState(seed: number, chunk: number): State128 {
   if (!Number.isInteger(chunk) || chunk < 0 || chunk >= 2 ** MAX_CHUNK_BITS) throw new RangeError(`chunk index must be a whole number from 0 to 2^32 - 1, got ${chunk}`);
-  let s: State128 = seedState(seed);
-  let bits = 0;
-  while (2 ** bits <= chunk) bits++;
-  const powers = powersOfJump(bits);
-  for (let k = 0; chunk > 0 && k < MAX_CHUNK_BITS; k++) {
-    if (Math.floor(chunk / 2 ** k) % 2 === 1) s = applyMatrix(powers[k], s);
+  let s: State128;
+  let at: number;
+  const last = lastChunk;
+  if (last && last.seed === seed && last.chunk <= chunk && chunk - last.chunk <= SEQUENTIAL_JUMPS) {
+    s = last.state;
+    at = last.chunk;
+  } else if (chunk <= SEQUENTIAL_JUMPS) {
+    s = seedState(seed);
+    at = 0;
+  } else {
+    s = seedState(seed);
+    let bits = 0;
+    while (2 ** bits <= chunk) bits++;
+    const powers = powersOfJump(bits);
+    for (let k = 0; k < bits; k++) {
+      if (Math.floor(chunk / 2 ** k) % 2 === 1) s = applyMatrix(powers[k], s);
+    }
+    at = chunk;
   }
-  return s;
+  for (; at < chunk; at++) s = jumpState(s);
+  lastChunk = { seed, chunk, state: s };
+  return [...s] as State128;
 }
 
 /** The random stream of chunk `chunk` of a run with `seed` (see the top of this file). */

@@ -117,6 +117,34 @@ describe.runIf(runSuite)('slow formulas are evaluated off the page', { timeout: 
     expect(s.pageErrors).toEqual([]);
   });
 
+  it('a slow spectrum (the galaxy route with a scatter draw for each hole) is held off the page; its readers get the command line\'s values', async () => {
+    const { page } = s;
+    // Invented parameters (as bench/galaxyPairs.bench.ts); the spectrum integral takes about 1 s of CPU here.
+    const cells = [
+      { name: 'cosmo', formula: 'flatCosmology(70 km/s/Mpc, 0.3)' },
+      { name: 'smf', formula: 'stellarMassFunction(10^-2.8 Mpc^-3, -0.25, 10^10.9 Msun, -1.2, -0.05)' },
+      { name: 'pop', formula: 'galaxyPairPopulation(cosmo, smf, pairFraction(0.025, 0.2, 1), mergerTimeScale(0.8 Gyr, -0.3, -0.3, -0.5), massRatioPowerLaw(-0.5, 0.2), 0.5, kormendyHoRelation(), 0.5)' },
+      { name: 'freqs', formula: 'frequencyGrid(14 yr, 21 day, 40)' },
+      { name: 'spectrum', formula: 'strainSpectrum(pop, freqs)' },
+      { name: 'A_yr', formula: 'amplitudeAtYear(spectrum)' },
+      { name: 'twice_A', formula: '2 * A_yr' },
+    ];
+    await s.freshDemo();
+    const tasks = await mainThreadTasks(page, async () => {
+      await page.setInputFiles('input[data-action="open-file"]', { name: 'galaxy.strainsheet.json', mimeType: 'application/json', buffer: Buffer.from(sheetText(cells)) });
+      await page.waitForSelector('[data-off-page="spectrum"]');
+      await page.waitForFunction(() => /\d/.test(document.querySelector('[data-value="twice_A"]')?.getAttribute('data-raw') ?? ''), undefined, { timeout: 60_000 });
+    });
+    const longest = Math.max(...tasks.map((t) => t.threadMs));
+    console.log(`longest main-thread task while opening the galaxy-route sheet and evaluating it: ${longest.toFixed(0)} ms of thread time`);
+    expect(longest).toBeLessThan(LONGEST_TASK_MS);
+    expect(await shown(page, 'spectrum')).toMatch(/^spectrum, 40 frequencies, .* \(held off the page\)$/);
+    const cli = commandLineTexts(cells);
+    expect(await shown(page, 'A_yr')).toBe(cli.A_yr);
+    expect(await shown(page, 'twice_A')).toBe(cli.twice_A);
+    expect(s.pageErrors).toEqual([]);
+  });
+
   it('Cancel stops an evaluation off the page with a limit error that says so; its reader gets an input error', async () => {
     const { page } = s;
     await openSheet(s, ENDLESS, 'endless');

@@ -85,8 +85,12 @@ describe('a session with cells evaluated off the page', () => {
     expect(session.current.state('after')).toEqual({ status: 'pending', waitsFor: 'slow' });
     expect(workers.length).toBe(1);
     expect(workers[0].requests.map((r) => r.name)).toEqual(['slow']);
-    workers[0].answer();
+    let complete = false;
+    void session.whenComplete().then(() => (complete = true));
     await session.whenSettled();
+    expect(complete).toBe(false); // slow is still evaluated off the page
+    workers[0].answer();
+    await session.whenComplete();
     const expected = oracle(CELLS);
     expect(session.current.value('slow')).toBe(5451);
     expect(session.current.value('slow')).toBe(expected.value('slow'));

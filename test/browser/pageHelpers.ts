@@ -4,8 +4,9 @@ import type { Download, Page } from 'playwright-core';
 
 /** The value column text of a cell as the engine formatted it (data-raw holds formatValue's text). */
 export async function cellValueText(page: Page, name: string): Promise<string> {
-  // Once the recalculation is complete (a sheet put in place by undo or a reload is recalculated in slices).
-  await page.waitForFunction(() => !document.querySelector('[data-recalculating]'));
+  // Once the recalculation is complete (a sheet put in place by undo or a reload is recalculated in
+  // slices) and no cell is evaluated off the page (on a loaded machine a cell may run past the page's budget).
+  await page.waitForFunction(() => !document.querySelector('[data-recalculating], [data-off-page], [data-waits-for]'), undefined, { timeout: 60_000 });
   return (await page.getAttribute(`[data-value="${name}"]`, 'data-raw')) ?? '';
 }
 

@@ -24,6 +24,19 @@ describe('xoshiro128** jump and chunk streams (Blackman & Vigna 2021, ACM Trans.
     }
   });
 
+  it('chunks asked for out of order, and far chunks (through the jump matrices), equal successive reference jumps', () => {
+    const reference: State128[] = [seedState(9) as State128];
+    for (let c = 1; c <= 300; c++) reference.push(jumpState(reference[c - 1]));
+    for (const c of [5, 3, 3, 70, 69, 140, 0, 300, 299, 1, 236]) expect(chunkState(9, c), `chunk ${c}`).toEqual(reference[c]);
+    // Another seed in between does not disturb the next chunk of this one.
+    chunkState(10, 4);
+    expect(chunkState(9, 237)).toEqual(reference[237]);
+    // The state handed out is a copy: changing it changes no later answer.
+    const s = chunkState(9, 238);
+    s[0] ^= 1;
+    expect(chunkState(9, 238)).toEqual(reference[238]);
+  });
+
   it('chunk 0 is the plain seeded stream; other chunks differ from it and from each other', () => {
     const a = seededRandom(11);
     const b = chunkRandom(11, 0);

@@ -228,9 +228,10 @@ export function Workbench() {
     return session.current.title || 'Untitled sheet';
   };
   const saveFile = () => downloadText(session.toFileText(), `${fileStem(title(), 'sheet')}.strainsheet.json`, 'application/json');
-  // The table holds the values: it is written once a recalculation under way is complete.
+  // The table holds the values: it is written once a recalculation under way is complete and the
+  // cells evaluated off the page have their values.
   const exportCells = async () => {
-    await session.whenSettled();
+    await session.whenComplete();
     const sheet = session.current;
     downloadText(cellTableCsv({ cells: () => session.cells(), state: (n) => sheet.state(n) }), `${fileStem(title(), 'sheet')}-cells.csv`, 'text/csv');
   };

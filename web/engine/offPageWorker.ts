@@ -20,7 +20,10 @@ scope.onmessage = (e: MessageEvent<OffPageRequest>) => {
   const t0 = performance.now();
   let reply: OffPageReply;
   try {
-    reply = { id, state: stateToTransfer(replica.evaluate(text, name)), elapsedMs: performance.now() - t0 };
+    const state = replica.evaluate(text, name);
+    // Never pending here (nothing is handed off in this thread); were it so, the page would hand it off again.
+    const outcome: typeof state = state.status === 'pending' ? { status: 'error', error: { kind: 'eval', message: `${name}: no value came from the evaluation off the page` } } : state;
+    reply = { id, state: stateToTransfer(outcome), elapsedMs: performance.now() - t0 };
   } catch (err) {
     const message = `${name}: the evaluation off the page failed: ${err instanceof Error ? err.message : String(err)}`;
     reply = { id, state: { status: 'error', error: { kind: 'eval', message } }, elapsedMs: performance.now() - t0 };

@@ -82,6 +82,13 @@ export class SheetSession {
     return new Promise((resolve) => this.settledWaiters.push(resolve));
   }
 
+  /** Resolves once the values are up to date and no cell waits for its evaluation off the page. */
+  whenComplete(): Promise<void> {
+    if (!this.sheet.recalculating && !this.sheet.offPageCells().length) return Promise.resolve();
+    return new Promise((resolve) => this.completeWaiters.push(resolve));
+  }
+  private completeWaiters: Array<() => void> = [];
+
   /** Runs one slice of the sheet's recalculation now, and queues the next when work is left. */
   private runSlice(): void {
     const sheet = this.sheet;
@@ -127,6 +134,11 @@ export class SheetSession {
     const waiters = this.settledWaiters;
     this.settledWaiters = [];
     for (const w of waiters) w();
+    if (this.completeWaiters.length && !this.sheet.offPageCells().length) {
+      const complete = this.completeWaiters;
+      this.completeWaiters = [];
+      for (const w of complete) w();
+    }
   }
 
   /** Stops the off-page evaluation of a cell (its row's Cancel): it gets a 'limit' error saying so. */
