@@ -7,7 +7,7 @@ import { BuiltinError } from '../sheet/cellError';
 import type { SheetObject } from '../sheet/sheetObject';
 import { GYR_S, M_SUN_KG, PC_M } from '../physics/constants';
 import { checkPhenomHardening, PHENOM_HARDENING_DEFAULTS, type PhenomHardening } from '../physics/phenomHardening';
-import { normalisationOf, phenomDelayedPopulation, phenomEmissionKernel, residenceRatio } from '../physics/phenomHardeningSpectrum';
+import { normalisationOf, phenomDelayedPopulation, phenomEmissionKernel, phenomResidenceFactor, residenceRatio } from '../physics/phenomHardeningSpectrum';
 import { objectOf, scalarSI, where } from './args';
 import { elementwise, guardedPhysics, nonNegativeSI, populationArg } from './physicsArgs';
 import { checkSpectrumArgs, EmissionModel } from './orbits';
@@ -59,7 +59,8 @@ function separationArg(v: unknown, fallback: number, fn: string, arg: string): n
 
 function emissionModel(h: PhenomHardeningValue, fn: string): EmissionModel {
   const kernel = guardedPhysics(fn, () => phenomEmissionKernel(h.model, M_SUN_KG));
-  return new EmissionModel(kernel, `GW-driven with the residence time of ${h.describe()}`, phenomParameters(h));
+  const residence = guardedPhysics(fn, () => phenomResidenceFactor(h.model, M_SUN_KG));
+  return new EmissionModel(kernel, `GW-driven with the residence time of ${h.describe()}`, phenomParameters(h), 1, residence);
 }
 
 const hardeningArgDoc = { name: 'hardening', unit: 'phenomHardening', description: 'from phenomHardening' };
