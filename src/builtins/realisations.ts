@@ -147,7 +147,7 @@ export const realisationBuiltins: Builtin[] = [
   {
     name: 'realiseBackground',
     category: 'spectrum',
-    summary: 'Draws R realisations of a finite population of circular GW-driven binaries in each frequency bin of width 1/T: h_c per bin and the loudest binary of each bin.',
+    summary: 'Draws R realisations of a finite population of circular binaries (GW-driven, or with an environment\'s residence times) in each frequency bin of width 1/T: h_c per bin and the loudest binary of each bin.',
     args: [
       { name: 'population', unit: 'population', description: 'from mergerPopulation or customPopulation' },
       { name: 'freqs', unit: 'nHz', description: 'observed GW frequencies, the bin centres (e.g. from frequencyGrid)' },
