@@ -3,7 +3,8 @@
 //   dt/dln f_r = (2/3) a / |da/dt|   (f_orb proportional to a^(-3/2), Kepler)
 // there, and radiates L_GW dt/dln f_r, so with the environment the energy per ln f_r of one binary is the
 // GW-driven one times (dt/dln f_r)_total / (dt/dln f_r)_GW = B / (A g(a/a_c) a^3 + B) (Phinney 2001,
-// astro-ph/0108028; Sesana 2013, arXiv:1307.2600, whose journal reference CQG 30, 224014 is unverified); no energy is radiated below the frequency of a_0.
+// astro-ph/0108028; Sesana 2013, arXiv:1307.2600, whose journal reference CQG 30, 224014 is
+// unverified); no energy is radiated below the frequency of a_0.
 // The delay: each binary coalesces its lifetime (tau_f, phenomLifetime) after it forms, so the
 // population is counted by coalescence redshift (massDependentDelay.ts, delayedPopulation.ts).
 // Its emission at f_r is counted at the coalescence redshift: the remaining time from f_r to coalescence
