@@ -586,6 +586,18 @@ export class Sheet {
     this.emitStructure();
   }
 
+  /** Puts the cells in the order given: every cell's name, each once. */
+  reorder(names: readonly string[]): void {
+    const unique = new Set(names);
+    if (names.length !== this.order.length || unique.size !== names.length || names.some((n) => !this.records.has(n))) {
+      throw new SheetEditError('a new order of the cells must name every cell once');
+    }
+    this.order = [...names];
+    this.positions = null;
+    this.ranked = null; // ties between independent cells follow sheet order
+    this.emitStructure();
+  }
+
   // ---- evaluation with overrides ---------------------------------------------------------------
 
   /**

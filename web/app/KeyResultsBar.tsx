@@ -5,6 +5,7 @@ import { useServices } from './services';
 import { formatValue, isSheetObject, type CellSpec } from '../engine/engine';
 import { sectionOf } from '../sheet/sections';
 import { ScientificText } from '../sheet/ScientificText';
+import { matchingCells } from '../plots/matchingCells';
 
 interface KeyResult {
   role: string;
@@ -17,7 +18,7 @@ interface KeyResult {
  */
 export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unknown, objects: CellSpec[] = cells): KeyResult[] {
   const out: KeyResult[] = [];
-  const ayr = cells.find((c) => c.name === 'A_yr');
+  const ayr = matchingCells(cells, 'A_yr', (c) => c.name === 'A_yr')[0];
   if (ayr) out.push({ role: 'predicted A_yr', cell: ayr });
   const kindIs = (c: CellSpec, re: RegExp) => {
     const v = valueOf(c.name);
@@ -27,11 +28,11 @@ export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unk
   const band = objects.find((c) => kindIs(c, /^bandComparison$/));
   if (band) out.push({ role: 'across the band', cell: band });
   const comparison =
-    objects.find((c) => kindIs(c, /^comparison$/i)) ?? (band ? undefined : cells.find((c) => /compar|tension|ratio.*meas|meas.*ratio/i.test(c.name)));
+    objects.find((c) => kindIs(c, /^comparison$/i)) ?? (band ? undefined : matchingCells(cells, 'comparison by name', (c) => /compar|tension|ratio.*meas|meas.*ratio/i.test(c.name))[0]);
   if (comparison) out.push({ role: band ? 'at f_yr' : 'against the measurement', cell: comparison });
   const allowed =
     objects.find((c) => kindIs(c, /allowed|rateSolution|rateRange/i)) ??
-    cells.find((c) => /allowed/i.test(c.name) && sectionOf(c) !== 'population');
+    matchingCells(cells, 'allowed rate by name', (c) => /allowed/i.test(c.name) && sectionOf(c) !== 'population')[0];
   if (allowed) out.push({ role: 'allowed merger rate', cell: allowed });
   return out;
 }

@@ -88,6 +88,7 @@ export function Workbench() {
   let changes = 0;
   let written = 0;
   let saving = false;
+  session.onHistoryProblem = (m) => notify(m, 'error');
   session.onChange = () => {
     if (!autosaveAllowed) return;
     changes++;
@@ -130,6 +131,16 @@ export function Workbench() {
 
   const rows = new Map<string, HTMLElement>();
   const [traced, setTraced] = createSignal<string | null>(null);
+  const [found, setFound] = createSignal<string | null>(null);
+  /** The row of a cell, drawn and scrolled into view (a long sheet draws only the rows in view). */
+  const rowInView = (name: string): HTMLElement | undefined => {
+    // A long sheet draws the row (if it was not) and keeps it in view while rows around it are measured.
+    services.revealRow?.(name);
+    const row = rows.get(name);
+    if (!row?.isConnected) return undefined;
+    row.scrollIntoView({ block: 'nearest' });
+    return row;
+  };
   // Built when a formula box first asks after the cells (or the built-ins' documentation, loaded on
   // first use) changed; not on every change: a long sheet would pay for it at each structure change.
   let completionList: { cells: unknown; docs: unknown; list: Completion[] } | null = null;
@@ -153,13 +164,8 @@ export function Workbench() {
     session,
     notify,
     focusCell(name, part = 'formula') {
-      let row = rows.get(name);
-      if (!row?.isConnected) {
-        services.revealRow?.(name);
-        row = rows.get(name);
-      }
-      if (!row?.isConnected) return;
-      row.scrollIntoView({ block: 'nearest' });
+      const row = rowInView(name);
+      if (!row) return;
       const target = row.querySelector<HTMLElement>(part === 'formula' ? '.formula-input' : '.name-button');
       target?.focus();
     },
@@ -170,6 +176,9 @@ export function Workbench() {
     rowOrder: () => groupBySection(session.cells()).flatMap((g) => g.cells.map((c) => c.name)),
     builtins: builtinDocs,
     completions,
+    showCell: (name) => rowInView(name) !== undefined,
+    found,
+    setFound,
     traced,
     setTraced,
     docPage,

@@ -11,6 +11,11 @@ export interface Services {
   notify(text: string, tone?: Tone): void;
   /** Moves keyboard focus to a cell's formula box (and scrolls it into view). */
   focusCell(name: string, part?: 'formula' | 'name'): void;
+  /** Scrolls a cell's row into view (drawing it in a long sheet) without moving the focus; false when there is no such row. */
+  showCell(name: string): boolean;
+  /** The cell the find bar is showing (its row is marked). */
+  found: Accessor<string | null>;
+  setFound(name: string | null): void;
   registerRow(name: string, el: HTMLElement | undefined): void;
   /** Set by the sheet panel: scrolls a row that is not drawn (a long sheet draws the rows in view) into view, drawing it. */
   revealRow?: (name: string) => void;

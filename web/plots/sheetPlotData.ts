@@ -1,6 +1,7 @@
 // Finds what the plots draw among the sheet's values: spectrum objects, measurements, per-bin
 // values, the Hubble constant, and one-argument function cells of frequency. Reads SheetObjects
 // only through toJSON() (plain SI numbers), so the plots follow the engine's own data.
+import { matchingCells } from './matchingCells';
 import { isSheetObject, type CellSpec } from '../engine/engine';
 import { math, quantity } from '../../src/sheet/mathInstance';
 import { beginCell, cellBudgetSeconds, checkTimeNow, endCell } from '../../src/sheet/evaluationBudget';
@@ -108,8 +109,7 @@ export function binsFromJson(label: string, json: unknown, h0PerS: number | null
 /** The Hubble constant in s^-1 from a cell holding a quantity like 70 km/s/Mpc, or a cosmology object. */
 export function hubbleConstant(cells: CellSpec[], valueOf: (name: string) => unknown, objects: CellSpec[] = cells): number | null {
   const perSecond = math.unit('1 Hz');
-  for (const c of cells) {
-    if (!/^(H0|H_0|hubble)/i.test(c.name)) continue;
+  for (const c of matchingCells(cells, 'hubble by name', (x) => /^(H0|H_0|hubble)/i.test(x.name))) {
     const v = valueOf(c.name);
     if (math.isUnit(v) && v.equalBase(perSecond)) {
       const si = (v as unknown as { value: number }).value;

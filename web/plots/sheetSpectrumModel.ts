@@ -4,6 +4,7 @@ import { isOffPageValue, isSheetObject, type CellSpec, type CellState } from '..
 import { spectrumPlotModel, type BinnedStrain, type MeasuredAmplitude, type RealisationBands, type StrainCurve, type VerticalQuantity } from './spectrumPlotModel';
 import { binsFromJson, realisationBandsFromJson, curveFromSpectrumJson, drawingGrid, hubbleConstant, isOneArgumentFunction, measuredFromJson, sampleFrequencyFunction } from './sheetPlotData';
 import type { PlotModel } from './plotModel';
+import { matchingCells } from './matchingCells';
 import { freeSpectrumBins } from './freeSpectrumPlotModel';
 import type { FreeSpectrumData } from '../../src/statistics/freeSpectrum';
 
@@ -76,8 +77,7 @@ export function sheetSpectrumModel(sheet: SheetReader, quantity: VerticalQuantit
   }
   if (!spectra.length) {
     // A spectrum cell in error shows nothing: say which one and why, instead of "no spectrum".
-    for (const c of cells) {
-      if (!/spectrum/i.test(c.name) && !/Spectrum\s*\(/.test(c.formula)) continue;
+    for (const c of matchingCells(cells, 'spectrum by name or formula', (x) => /spectrum/i.test(x.name) || /Spectrum\s*\(/.test(x.formula))) {
       const st = sheet.stateOf(c.name);
       if (st.status === 'error') notes.push(`${c.name} has no value: ${st.error.message}`);
     }

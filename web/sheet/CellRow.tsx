@@ -108,7 +108,7 @@ export function CellRow(props: { spec: CellSpec }) {
   return (
     <div
       class={`cell-row status-${status().cls}`}
-      classList={{ traced: traced() }}
+      classList={{ traced: traced(), found: services.found() === name() }}
       data-cell={name()}
       role="row"
       ref={(el) => {

@@ -7,6 +7,7 @@ import { CellRow } from './CellRow';
 import { FormulaBox } from './FormulaBox';
 import { groupBySection, LOOSE_SECTION, sectionChoices } from './sections';
 import { createRowWindow, titleKey } from './rowWindow';
+import { FindBar } from './FindBar';
 
 export function SheetPanel() {
   const services = useServices();
@@ -24,6 +25,7 @@ export function SheetPanel() {
 
   return (
     <div class="sheet">
+      <FindBar />
       <Show when={session.cellsToRecalculate() > 0}>
         <p class="recalculating" role="status" data-recalculating={session.cellsToRecalculate()}>
           Recalculating: {thousands(session.cellsToRecalculate())} cells to look at; values shown may be out of date.

@@ -2,7 +2,7 @@
 // under the other with measured heights (an estimate until a row was drawn once), and only the
 // items that meet the view, plus a margin, are drawn; spacers stand for the rest.
 
-/** Sheets with at most this many cells draw every row (printing and find-in-page see them all). */
+/** Sheets with at most this many cells draw every row (longer ones draw them all only while printed; find: FindBar.tsx). */
 export const DRAW_ALL_UP_TO = 400;
 /** Pixels drawn above and below the view, so that a short scroll shows drawn rows at once. */
 export const OVERSCAN_PX = 600;

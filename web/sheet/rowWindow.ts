@@ -2,6 +2,8 @@
 // longer one draws the rows that meet the view of its scrolling box (plus OVERSCAN_PX), the row
 // that holds the keyboard focus, and spacers of the measured (or estimated) height of the rest.
 // focusCell reaches an undrawn row through `services.revealRow`, which scrolls it into view.
+// While the page is printed every row is drawn (`beforeprint` to `afterprint`, and the print media
+// query for browsers that print without those events), so a printout holds the whole sheet.
 import { batch, createMemo, createSignal, onCleanup, onMount, type Accessor } from 'solid-js';
 import type { Services } from '../app/services';
 import type { SectionGroup } from './sections';
@@ -39,7 +41,8 @@ function scrollingBox(el: HTMLElement): HTMLElement | null {
 export function createRowWindow(services: Services, groups: Accessor<SectionGroup[]>): RowWindow {
   const items = createMemo(() => groups().flatMap((g) => [titleKey(g.name), ...g.cells.map((c) => c.name)]));
   const cellCount = createMemo(() => items().length - groups().length);
-  const drawAll = createMemo(() => cellCount() <= DRAW_ALL_UP_TO);
+  const [printing, setPrinting] = createSignal(false);
+  const drawAll = createMemo(() => printing() || cellCount() <= DRAW_ALL_UP_TO);
   const indexOf = createMemo(() => new Map(items().map((k, i) => [k, i])));
   const heights = new Map<string, number>();
   let rowEstimate = ROW_ESTIMATE_PX;
@@ -117,8 +120,42 @@ export function createRowWindow(services: Services, groups: Accessor<SectionGrou
         if (!key.startsWith('title ')) rowEstimate += (h - rowEstimate) / Math.min(heights.size, 50);
       }
     }
-    if (changed && !drawAll()) setMeasured((v) => v + 1);
+    if (changed && !drawAll()) {
+      setMeasured((v) => v + 1);
+      holdInView();
+    }
   });
+
+  // A row revealed (focusCell, the find bar) is kept in view while the rows drawn around it are
+  // measured (their heights were estimates, so the rows above it move), until the view is scrolled
+  // by anything else (the user, a script) away from it.
+  let revealed: string | null = null;
+  /** Set while a scroll of ours (bringing the revealed row back) is under way. */
+  let holding = false;
+  const revealedSlot = () => (revealed === null || !box ? null : box.querySelector<HTMLElement>(`[data-row-slot="${CSS.escape(revealed)}"]`));
+  const inView = (el: HTMLElement) => {
+    const r = el.getBoundingClientRect();
+    const top = scroller ? scroller.getBoundingClientRect().top : 0;
+    const bottom = top + (scroller ? scroller.clientHeight : window.innerHeight);
+    return r.top >= top - 1 && r.bottom <= bottom + 1;
+  };
+  const holdInView = () => {
+    const slot = revealedSlot();
+    if (!slot || inView(slot)) return;
+    holding = true;
+    slot.scrollIntoView({ block: 'nearest' });
+  };
+  const letGo = () => {
+    revealed = null;
+  };
+  const onScroll = () => {
+    if (!holding && revealed !== null) {
+      const slot = revealedSlot();
+      if (!slot || !inView(slot)) letGo();
+    }
+    holding = false;
+    updateView();
+  };
 
   const onFocusIn = (e: FocusEvent) => {
     const slot = (e.target as HTMLElement).closest?.('[data-row-slot]') as HTMLElement | null;
@@ -131,7 +168,7 @@ export function createRowWindow(services: Services, groups: Accessor<SectionGrou
 
   const reveal = (name: string) => {
     const i = indexOf().get(name);
-    if (i === undefined || !box) return;
+    if (i === undefined || !box || drawAll()) return; // every row is drawn: the caller scrolls to it
     const { offsets } = layout();
     const top = box.getBoundingClientRect().top;
     const viewTop = scroller ? scroller.getBoundingClientRect().top : 0;
@@ -145,21 +182,38 @@ export function createRowWindow(services: Services, groups: Accessor<SectionGrou
       if (scroller) scroller.scrollTop += by;
       else window.scrollBy(0, by);
     }
-    batch(updateView);
+    // The row is drawn whatever the band (heights of rows not yet drawn are estimates, so the
+    // band reached may miss it); the caller scrolls the drawn row itself into view.
+    batch(() => {
+      setPinned(name);
+      updateView();
+    });
+    revealed = name;
+    holdInView();
   };
 
   onMount(() => {
     if (box) scroller = scrollingBox(box);
     services.revealRow = reveal;
     const target: HTMLElement | Window = scroller ?? window;
-    target.addEventListener('scroll', updateView, { passive: true });
+    target.addEventListener('scroll', onScroll, { passive: true });
     window.addEventListener('resize', updateView);
     box?.addEventListener('focusin', onFocusIn);
     box?.addEventListener('focusout', onFocusOut);
+    const printMedia = typeof window.matchMedia === 'function' ? window.matchMedia('print') : null;
+    const beforePrint = () => setPrinting(true);
+    const afterPrint = () => setPrinting(false);
+    const onPrintMedia = (e: MediaQueryListEvent) => setPrinting(e.matches);
+    window.addEventListener('beforeprint', beforePrint);
+    window.addEventListener('afterprint', afterPrint);
+    printMedia?.addEventListener('change', onPrintMedia);
     updateView();
     onCleanup(() => {
+      window.removeEventListener('beforeprint', beforePrint);
+      window.removeEventListener('afterprint', afterPrint);
+      printMedia?.removeEventListener('change', onPrintMedia);
       if (services.revealRow === reveal) services.revealRow = undefined;
-      target.removeEventListener('scroll', updateView);
+      target.removeEventListener('scroll', onScroll);
       window.removeEventListener('resize', updateView);
       box?.removeEventListener('focusin', onFocusIn);
       box?.removeEventListener('focusout', onFocusOut);

@@ -9,6 +9,8 @@ import { APP_SLICE_MS, yieldToPage } from '../engine/slices';
 import '../engine/pageBudget'; // the page's budget per cell and hand-off (not the command line's)
 import { OffPageRunner, type OffPageWorkerLike } from '../engine/offPageRunner';
 import { ObjectCells } from './objectCells';
+import { applyChange, captureSheet, captureText, changeBetween, isEmptyChange, type SheetCapture } from './sheetChange';
+import { SheetHistory, type HistoryStep } from './sheetHistory';
 
 /** What views that scan the whole sheet read (see SheetSession.reader). */
 export interface WholeSheetReader {
@@ -26,12 +28,6 @@ export interface WholeSheetReader {
 /** Outcome of an edit: refused edits (bad name, ...) carry the engine's reason for the user. */
 export type EditOutcome = { ok: true } | { ok: false; message: string };
 
-interface Snapshot {
-  text: string;
-  label: string;
-}
-
-const HISTORY_LIMIT = 200;
 
 /**
  * Cells the recalculation brings up to date before the rest (Sheet.firstCells): the key result
@@ -45,8 +41,6 @@ export class SheetSession {
   private unsubscribe: () => void = () => {};
   private states = new Map<string, [Accessor<CellState>, Setter<CellState>]>();
   private refreshQueued = false;
-  private undoStack: Snapshot[] = [];
-  private redoStack: Snapshot[] = [];
 
   /** Bumps when cells are added, removed, renamed, moved or their specs change. */
   readonly structure: Accessor<number>;
@@ -251,29 +245,19 @@ export class SheetSession {
    * sheet and history as they were and return the reason.
    */
   edit(label: string, change: (sheet: Sheet) => void, opts: { group?: string } = {}): EditOutcome {
-    const before = this.sheet.toFileText();
+    const before = captureSheet(this.sheet);
     try {
       performance.mark('strainsheet:edit');
       change(this.sheet);
       this.measureEdit = true;
     } catch (err) {
-      // A refused edit may have been partly applied: restore the text we had.
-      if (this.sheet.toFileText() !== before) this.replaceSheet(Sheet.fromFile(before, { deferRecalculation: true }));
+      // A refused edit may have been partly applied: take back what it changed.
+      this.bringBack(before);
       return { ok: false, message: err instanceof Error ? err.message : String(err) };
     }
-    const after = this.sheet.toFileText();
-    if (opts.group !== undefined && opts.group === this.openGroup && this.undoStack.length) {
-      // Same edit of a row (focus to Enter or blur): one undo step, whose text is from before the
-      // edit; an edit that came back to that text leaves no step at all.
-      if (this.undoStack.at(-1)!.text === after) this.undoStack.pop();
-      this.updateHistorySignals();
-    } else if (after !== before) {
-      this.undoStack.push({ text: before, label });
-      if (this.undoStack.length > HISTORY_LIMIT) this.undoStack.shift();
-      this.redoStack = [];
-      this.openGroup = opts.group ?? null;
-      this.updateHistorySignals();
-    }
+    // Same edit of a row (focus to Enter or blur): one undo step (sheetHistory.ts).
+    this.history.recordEdit(label, before, captureSheet(this.sheet), opts.group);
+    this.updateHistorySignals();
     this.runSlice();
     this.refresh(true);
     this.onChange(this);
@@ -282,45 +266,65 @@ export class SheetSession {
 
   /** Ends the current grouped edit: the next edit makes a new undo step. */
   closeGroup(group: string): void {
-    if (this.openGroup === group) this.openGroup = null;
+    this.history.closeGroup(group);
   }
-  private openGroup: string | null = null;
+  private history = new SheetHistory();
+  /** Told when an undo or redo could not be applied (the history is then cleared). */
+  onHistoryProblem: (message: string) => void = () => {};
 
+  /** Undoes the last step: an edit is taken back by edits (no rebuild), a replaced sheet is put back. */
   undo(): boolean {
-    this.openGroup = null;
-    const step = this.undoStack.pop();
-    if (!step) return false;
-    this.redoStack.push({ text: this.sheet.toFileText(), label: step.label });
-    this.replaceSheet(Sheet.fromFile(step.text, { deferRecalculation: true }));
-    this.updateHistorySignals();
-    this.onChange(this);
-    return true;
+    return this.step(this.history.takeUndo(), 'before');
   }
 
   redo(): boolean {
-    this.openGroup = null;
-    const step = this.redoStack.pop();
+    return this.step(this.history.takeRedo(), 'after');
+  }
+
+  private step(step: HistoryStep | undefined, to: 'before' | 'after'): boolean {
     if (!step) return false;
-    this.undoStack.push({ text: this.sheet.toFileText(), label: step.label });
-    this.replaceSheet(Sheet.fromFile(step.text, { deferRecalculation: true }));
+    if (step.kind === 'sheet') this.replaceSheet(to === 'before' ? step.before : step.after);
+    else {
+      try {
+        applyChange(this.sheet, step.change, to);
+      } catch (err) {
+        this.history.clear();
+        this.onHistoryProblem(`${to === 'before' ? 'Undo' : 'Redo'} of "${step.label}" could not be applied (${err instanceof Error ? err.message : String(err)}); the sheet is as it is now shown, and the undo history was cleared.`);
+      }
+      this.runSlice();
+      this.refresh(true);
+    }
     this.updateHistorySignals();
     this.onChange(this);
     return true;
   }
 
-  /** Replaces the whole sheet (open, new) as one undoable step. */
+  /** Takes the sheet back to a capture of it (a refused edit's partial changes). */
+  private bringBack(before: SheetCapture): void {
+    const back = changeBetween(before, captureSheet(this.sheet));
+    if (isEmptyChange(back)) return;
+    try {
+      applyChange(this.sheet, back, 'before');
+      this.runSlice();
+      this.refresh(true);
+    } catch {
+      this.replaceSheet(Sheet.fromFile(captureText(before), { deferRecalculation: true }));
+    }
+  }
+
+  /** Replaces the whole sheet (open, new) as one undoable step; undo puts the replaced one back as it was. */
   load(sheet: Sheet, label: string): void {
-    this.openGroup = null;
-    this.undoStack.push({ text: this.sheet.toFileText(), label });
-    this.redoStack = [];
+    this.history.recordSheet(label, this.sheet, sheet);
     this.replaceSheet(sheet);
     this.updateHistorySignals();
     this.onChange(this);
   }
 
-  /** Puts a sheet in place without an undo step or a change (the autosave loaded after start). */
+  /** Puts a sheet in place without an undo step or a change (the autosave loaded after start); the history starts again. */
   restore(sheet: Sheet): void {
+    this.history.clear();
     this.replaceSheet(sheet);
+    this.updateHistorySignals();
   }
 
   private replaceSheet(sheet: Sheet): void {
@@ -373,8 +377,8 @@ export class SheetSession {
   }
 
   private updateHistorySignals(): void {
-    this.setCanUndo(this.undoStack.at(-1)?.label ?? null);
-    this.setCanRedo(this.redoStack.at(-1)?.label ?? null);
+    this.setCanUndo(this.history.undoLabel);
+    this.setCanRedo(this.history.redoLabel);
   }
 
   private queueRefresh(structural: boolean, name?: string): void {
