@@ -3,7 +3,8 @@
 //   dt/dln f_r = (2/3) a / |da/dt|   (f_orb proportional to a^(-3/2), Kepler)
 // there, and radiates L_GW dt/dln f_r, so with the environment the energy per ln f_r of one binary is the
 // GW-driven one times (dt/dln f_r)_total / (dt/dln f_r)_GW = B / (A g(a/a_c) a^3 + B) (Phinney 2001,
-// astro-ph/0108028; Sesana 2013, arXiv:1307.2600, whose journal reference CQG 30, 224014 is unverified); no energy is radiated below the frequency of a_0.
+// astro-ph/0108028; Sesana 2013, arXiv:1307.2600, whose journal reference CQG 30, 224014 is
+// unverified); no energy is radiated below the frequency of a_0.
 // The delay: each binary coalesces its lifetime (tau_f, phenomLifetime) after it forms, so the
 // population is counted by coalescence redshift (massDependentDelay.ts, delayedPopulation.ts).
 // Its emission at f_r is counted at the coalescence redshift: the remaining time from f_r to coalescence
@@ -24,6 +25,7 @@ import {
   type PhenomHardening,
 } from './phenomHardening';
 import type { BinaryPopulation, EmissionKernel } from './populationTypes';
+import type { ResidenceFactor } from './residenceFactor';
 
 /** Separation of a circular binary radiating at rest-frame GW frequency f_r: (G M / (pi f_r)^2)^(1/3), m (Kepler). */
 export function separationAtGwFrequency(frHz: number, mKg: number): number {
@@ -104,15 +106,13 @@ export function normalisationTable(h: PhenomHardening, mSunKg: number): (mKg: nu
 }
 
 /**
- * Emission kernel: the circular GW-driven kernel times residenceRatio, A from normalisationTable. Per
- * (M, q) node the kernel keeps A / B, so a call costs the separation and g(x):
- * factor = 1 / (1 + (A/B) g(x) a^3), a^3 = G M / (pi f_r)^2. Where A = 0 the factor is exactly 1.
+ * A / B of each binary (M, q), A from normalisationTable (0 where GW emission alone is faster), kept
+ * per (M, q) so that repeated calls at the same binary cost a lookup.
  */
-export function phenomEmissionKernel(h: PhenomHardening, mSunKg: number): EmissionKernel {
-  checkPhenomHardening(h);
+function ratioTable(h: PhenomHardening, mSunKg: number): (mKg: number, q: number) => number {
   const normOf = normalisationTable(h, mSunKg);
   const ratios = new Map<number, Map<number, number>>();
-  const ratioOf = (mKg: number, q: number): number => {
+  return (mKg, q) => {
     let row = ratios.get(mKg);
     if (!row) {
       if (ratios.size > 4096) ratios.clear();
@@ -127,6 +127,16 @@ export function phenomEmissionKernel(h: PhenomHardening, mSunKg: number): Emissi
     }
     return k;
   };
+}
+
+/**
+ * Emission kernel: the circular GW-driven kernel times residenceRatio, A from normalisationTable. Per
+ * (M, q) node the kernel keeps A / B, so a call costs the separation and g(x):
+ * factor = 1 / (1 + (A/B) g(x) a^3), a^3 = G M / (pi f_r)^2. Where A = 0 the factor is exactly 1.
+ */
+export function phenomEmissionKernel(h: PhenomHardening, mSunKg: number): EmissionKernel {
+  checkPhenomHardening(h);
+  const ratioOf = ratioTable(h, mSunKg);
   const a0 = h.initialSeparationM;
   const ac = h.breakSeparationM;
   const p1 = 1 - h.innerIndex;
@@ -140,6 +150,29 @@ export function phenomEmissionKernel(h: PhenomHardening, mSunKg: number): Emissi
     if (k === 0) return base;
     const x = a / ac;
     return base / (1 + k * Math.pow(x, p1) * Math.pow(1 + x, p2) * a3);
+  };
+}
+
+/**
+ * The model's residence factor (residenceFactor.ts) for many binaries: residenceRatio with A from
+ * normalisationTable, 1 / (1 + (A/B) g(x) a^3), 0 above a_0; the factor phenomEmissionKernel puts on
+ * the circular kernel. For the counts per bin and the realisations.
+ */
+export function phenomResidenceFactor(h: PhenomHardening, mSunKg: number): ResidenceFactor {
+  checkPhenomHardening(h);
+  const ratioOf = ratioTable(h, mSunKg);
+  const a0 = h.initialSeparationM;
+  const ac = h.breakSeparationM;
+  const p1 = 1 - h.innerIndex;
+  const p2 = h.innerIndex - h.outerIndex;
+  return (fr, m, q) => {
+    const a3 = (G_SI * m) / (Math.PI * Math.PI * fr * fr);
+    const a = Math.cbrt(a3);
+    if (a > a0) return 0;
+    const k = ratioOf(m, q);
+    if (k === 0) return 1;
+    const x = a / ac;
+    return 1 / (1 + k * Math.pow(x, p1) * Math.pow(1 + x, p2) * a3);
   };
 }
 

@@ -5,7 +5,7 @@
 // per merger, and black holes that never merged are missing: compare with a local mass function as a
 // consistency check, not as a fit.
 import { checkPopulation } from './backgroundIntegral';
-import { compositeNodes } from './gaussLegendre';
+import { compositeNodes, type QuadratureRule } from './gaussLegendre';
 import type { BinaryPopulation } from './populationTypes';
 
 /** Quadrature of the sums: composite Gauss-Legendre panels x points. */
@@ -14,13 +14,48 @@ const Q_PANELS = 4;
 const MASS_PANELS_PER_DEX = 8;
 const ORDER = 8;
 
-/** Remnant mass function per dex at log10 M (Msun), Mpc^-3: Int dz Int dq n(z, log10M, q). */
+/** The z and q rules of a population, and Int dq massRatio(q) on the q rule for a separable density. */
+interface Rules {
+  zr: QuadratureRule;
+  qr: QuadratureRule;
+  qIntegral: number;
+  /** The limits the rules were laid out for. */
+  limits: readonly number[];
+}
+
+/** Rules per population object, laid out once for the many masses of an integral over M. */
+const rulesOf = new WeakMap<BinaryPopulation, Rules>();
+
+function rules(pop: BinaryPopulation): Rules {
+  const limits = [pop.zMin, pop.zMax, pop.qMin, pop.qMax];
+  let r = rulesOf.get(pop);
+  if (!r || r.limits.some((x, i) => x !== limits[i])) {
+    const qr = compositeNodes(pop.qMin, pop.qMax, Q_PANELS, ORDER);
+    let qIntegral = NaN;
+    if (pop.separable) {
+      qIntegral = 0;
+      for (let b = 0; b < qr.nodes.length; b++) qIntegral += qr.weights[b] * pop.separable.massRatio(qr.nodes[b]);
+    }
+    r = { zr: compositeNodes(pop.zMin, pop.zMax, Z_PANELS, ORDER), qr, qIntegral, limits };
+    rulesOf.set(pop, r);
+  }
+  return r;
+}
+
+/**
+ * Remnant mass function per dex at log10 M (Msun), Mpc^-3: Int dz Int dq n(z, log10M, q). A separable
+ * density's q integral is the same at every (z, M) node, so it is taken once (the same sum, reordered).
+ */
 export function remnantMassFunction(pop: BinaryPopulation, log10M: number): number {
   checkPopulation(pop);
   if (!(log10M >= pop.log10MMin && log10M <= pop.log10MMax)) return 0;
-  const zr = compositeNodes(pop.zMin, pop.zMax, Z_PANELS, ORDER);
-  const qr = compositeNodes(pop.qMin, pop.qMax, Q_PANELS, ORDER);
+  const { zr, qr, qIntegral } = rules(pop);
+  const sep = pop.separable;
   let s = 0;
+  if (sep) {
+    for (let c = 0; c < zr.nodes.length; c++) s += zr.weights[c] * sep.zMass(zr.nodes[c], log10M);
+    return s * qIntegral;
+  }
   for (let c = 0; c < zr.nodes.length; c++) {
     let inner = 0;
     for (let b = 0; b < qr.nodes.length; b++) inner += qr.weights[b] * pop.density(zr.nodes[c], log10M, qr.nodes[b]);

@@ -5,7 +5,8 @@
 // scatter of eps dex (McConnell & Ma 2013, ApJ 764, 184 for a and b):
 //   phi_BH(log10 M) = Int dln sigma phi(ln sigma) N(log10 M; a + b log10(sigma/200 km/s), eps)   (per dex),
 // N the normal density. Masses in Msun, number densities in Mpc^-3.
-import { compositeNodes } from './gaussLegendre';
+import { compositeNodes, compositeSum } from './gaussLegendre';
+import { normalCdf, normalUpperTail } from '../statistics/normal';
 import { M_SIGMA_REFERENCE_MS, type MSigmaRelation } from './hostEnvironment';
 import { integrateMassFunction } from './remnantMassFunction';
 
@@ -100,10 +101,47 @@ export function sigmaMassFunctionPerDex(log10M: number, s: SigmaMassFunctionSpec
 /** Largest mass of the integrals, log10 Msun (the function is below 1e-15 of its value at 1e10 Msun beyond). */
 export const SIGMA_MASS_FUNCTION_TOP = 12.5;
 
-/** Number density above massMsun, Mpc^-3: phi_BH integrated over log10 M. */
+/** Panels of the ln sigma integral of sigmaNumberAbove: per unit ln sigma outside the step, and across the step of +-8 eps. */
+const PANELS_PER_LN_SIGMA = 6;
+const STEP_PANELS = 24;
+
+/**
+ * Number density above massMsun, Mpc^-3: phi_BH integrated over log10 M up to SIGMA_MASS_FUNCTION_TOP.
+ * With scatter the two integrals are swapped (Fubini): the log10 M integral of the normal density is
+ * a difference of normal cdfs, n(>M) = Int dln sigma phi(ln sigma) [Phi((top - mean)/eps) - Phi((log10 M - mean)/eps)],
+ * one ln sigma integral over the range of the dispersion function, with panels packed where the step lies.
+ */
 export function sigmaNumberAbove(massMsun: number, s: SigmaMassFunctionSpec): number {
   const c = dispersionNormalisation(s.dispersion.alpha, s.dispersion.beta);
-  return integrateMassFunction((x) => sigmaMassFunctionPerDex(x, s, c), Math.log10(massMsun), SIGMA_MASS_FUNCTION_TOP);
+  const lg0 = Math.log10(massMsun);
+  const eps = s.scatterDex;
+  if (eps === 0) return integrateMassFunction((x) => sigmaMassFunctionPerDex(x, s, c), lg0, SIGMA_MASS_FUNCTION_TOP);
+  if (!(SIGMA_MASS_FUNCTION_TOP > lg0)) return 0;
+  const { norm, slope } = s.mSigma;
+  const lnRef = Math.log(M_SIGMA_REFERENCE_MS / 1e3);
+  const lnStar = Math.log(s.dispersion.sigmaStarKmS);
+  const lo = lnStar + LN_X_LO;
+  const hi = lnStar + LN_X_HI;
+  // ln sigma where the mean relation reaches log10 M0, and the half width of the step there
+  const centre = lnRef + (Math.LN10 * (lg0 - norm)) / slope;
+  const half = (HALF_WINDOW * eps * Math.LN10) / slope;
+  const edges = [lo, Math.min(Math.max(centre - half, lo), hi), Math.min(Math.max(centre + half, lo), hi), hi];
+  const f = (lnSigma: number): number => {
+    const mean = norm + (slope * (lnSigma - lnRef)) / Math.LN10;
+    const a = (lg0 - mean) / eps;
+    const b = (SIGMA_MASS_FUNCTION_TOP - mean) / eps;
+    // Phi(b) - Phi(a), from the upper tails when a > 0 so that nothing cancels
+    const p = a > 0 ? normalUpperTail(a) - normalUpperTail(b) : normalCdf(b) - normalCdf(a);
+    return dispersionPerLnSigma(Math.exp(lnSigma), s.dispersion, c) * p;
+  };
+  let sum = 0;
+  for (let i = 0; i < 3; i++) {
+    const w = edges[i + 1] - edges[i];
+    if (!(w > 0)) continue;
+    const panels = i === 1 ? STEP_PANELS : Math.max(2, Math.ceil(w * PANELS_PER_LN_SIGMA));
+    sum += compositeSum(edges[i], edges[i + 1], panels, 8, f);
+  }
+  return sum;
 }
 
 /** Mass density in black holes above massMsun, Msun Mpc^-3. */

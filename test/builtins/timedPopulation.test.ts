@@ -9,6 +9,8 @@ import { SheetReplica } from '../../src/sheet/sheetReplica';
 import { DEFAULT_CELL_SECONDS, setCellBudget, setHandOffOnTimeout } from '../../src/sheet/evaluationBudget';
 import { stateFromTransfer, stateToTransfer } from '../../src/sheet/valueTransfer';
 import { formatValue } from '../../src/sheet/formatValue';
+import { timedPopulation } from '../../src/builtins/timedPopulation';
+import type { BinaryPopulation } from '../../src/physics/populationTypes';
 
 const demo = readFileSync(new URL('../../examples/demo.json', import.meta.url), 'utf8');
 afterEach(() => {
@@ -38,5 +40,20 @@ describe('timed populations', () => {
     setCellBudget(1e-9);
     const s = Sheet.fromFile(demo);
     expect(s.value('A_yr_hardened')).toBe(reference.value('A_yr_hardened'));
+  });
+
+  it('keeps every property of the population, also when it is frozen and when it is spread', () => {
+    const pop: BinaryPopulation = Object.freeze({
+      density: (z: number, log10M: number, q: number) => z + log10M + q,
+      zMin: 0, zMax: 5, log10MMin: 6, log10MMax: 11, qMin: 0.1, qMax: 1,
+      separable: Object.freeze({ zMass: (z: number, log10M: number) => z * log10M, massRatio: (q: number) => 2 * q }),
+    });
+    const timed = timedPopulation(pop);
+    const spread = { ...timed };
+    for (const p of [timed, spread]) {
+      expect([p.zMin, p.zMax, p.log10MMin, p.log10MMax, p.qMin, p.qMax]).toEqual([0, 5, 6, 11, 0.1, 1]);
+      expect(p.density(1, 2, 0.5)).toBe(3.5);
+      expect(p.separable!.zMass(2, 3) * p.separable!.massRatio(0.5)).toBe(6);
+    }
   });
 });

@@ -141,3 +141,13 @@ describe('commands that load packages with import()', () => {
     expect(readFileSync(pdf).subarray(0, 5).toString('latin1')).toBe('%PDF-'); // PDF header (ISO 32000-1, 7.5.2)
   }, 60_000);
 });
+
+describe('import() in the command-line bundle', () => {
+  const root = fileURLToPath(new URL('../..', import.meta.url));
+  it('loads only the packages of plot --pdf (a new import() must go with a command in IMPORTING_COMMANDS of bin/strainsheet.mjs)', () => {
+    const text = readFileSync(join(root, 'dist-cli', 'strainsheet.cjs'), 'utf8');
+    const imported = [...text.matchAll(/\bimport\(\s*"([^"]+)"\s*\)/g)].map((m) => m[1]).sort();
+    expect(imported).toEqual(['jspdf', 'linkedom', 'svg2pdf.js/dist/svg2pdf.es.js']);
+    expect(readFileSync(join(root, 'bin', 'strainsheet.mjs'), 'utf8')).toMatch(/IMPORTING_COMMANDS = new Set\(\['plot'\]\)/);
+  });
+});

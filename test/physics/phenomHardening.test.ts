@@ -49,6 +49,19 @@ describe('normalisation, lifetime and residence factor against scipy quad/brentq
   }
 });
 
+describe('closed form: one power law, GW emission negligible', () => {
+  it('nu_in = nu_out = 2: T = (a_0^2 - a_isco^2) / (2 a_c A), so A = (a_0^2 - a_isco^2) / (2 a_c tau) to 1e-9 (M = 1e9 Msun, q = 1, tau = 1 Gyr)', () => {
+    // The hardening time grows as a^2, so the binary spends its lifetime near a_0 = 1e4 pc; GW emission
+    // takes over near 1e-3 pc, where the time left is a fraction (a_t/a_0)^2 ~ 1e-14 of it.
+    const h: PhenomHardening = { lifetimeS: GYR_S, innerIndex: 2, outerIndex: 2, breakSeparationM: 100 * PC_M, initialSeparationM: 1e4 * PC_M };
+    const m = 1e9 * M_SUN_KG;
+    const ai = (6 * 6.6743e-11 * m) / 299792458 ** 2; // ISCO 6GM/c^2, G of CODATA 2018, c exact
+    const expected = (h.initialSeparationM ** 2 - ai * ai) / (2 * h.breakSeparationM * h.lifetimeS);
+    const A = phenomNormalisation(new LifetimeIntegral(m, h), 1);
+    expect(rel(A, expected), `expected ${expected}, got ${A}`).toBeLessThan(1e-9);
+  });
+});
+
 describe('spectrum bend against scipy dblquad of the same integrand (phenom_hardening.json)', () => {
   const p = fixture.spectrum_population;
   const pop = separablePopulation(
