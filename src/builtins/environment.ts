@@ -5,7 +5,7 @@ import type { Builtin } from '../sheet/builtin';
 import { BuiltinError } from '../sheet/cellError';
 import { isUnit, math, quantity } from '../sheet/mathInstance';
 import { circularGwKernel } from '../physics/circularKernel';
-import { stellarEccentricKernel, stellarEmissionKernel, stellarTransitionFrequency, type StellarEnvironment } from '../physics/stellarHardening';
+import { stellarEccentricKernel, stellarEmissionKernel, stellarResidenceFactor, stellarTransitionFrequency, type StellarEnvironment } from '../physics/stellarHardening';
 import { bendEmissionKernel, bentPowerLawStrain, BEND_INDEX } from '../physics/bendSpectrum';
 import { scalarSI, vectorSI, where } from './args';
 import { elementwise, guardedPhysics, positiveSI } from './physicsArgs';
@@ -48,7 +48,8 @@ function stellarModel(density: unknown, dispersion: unknown, hardening: unknown,
   const env = environmentArgs(density, dispersion, hardening, fn);
   if (e0v === undefined) {
     const kernel = guardedPhysics(fn, () => stellarEmissionKernel(circularGwKernel, env));
-    return new EmissionModel(kernel, `stellar hardening then GW, circular (${describeEnvironment(env)})`, { ...env });
+    const residence = guardedPhysics(fn, () => stellarResidenceFactor(env));
+    return new EmissionModel(kernel, `stellar hardening then GW, circular (${describeEnvironment(env)})`, { ...env }, 1, residence);
   }
   const e0 = initialEccentricityArg(e0v, fn);
   const kernel = guardedPhysics(fn, () => stellarEccentricKernel(circularGwKernel, env, e0));

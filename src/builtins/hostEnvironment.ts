@@ -18,7 +18,7 @@ import {
 import { frictionPhaseTime } from '../physics/hardeningLifetime';
 import { PC_M } from '../physics/constants';
 import { threeSignificant as g } from './threeSignificant';
-import { stellarEccentricKernel, stellarEmissionKernel, transitionFrequencyFunction } from '../physics/stellarHardening';
+import { stellarEccentricKernel, stellarEmissionKernel, stellarResidenceFactor, transitionFrequencyFunction } from '../physics/stellarHardening';
 import { objectOf, scalarSI, where } from './args';
 import { elementwise, guardedPhysics } from './physicsArgs';
 import { checkSpectrumArgs, EmissionModel, initialEccentricityArg } from './orbits';
@@ -93,7 +93,8 @@ function scaledModel(environment: unknown, e0v: unknown, fn: string): EmissionMo
   const params = env.toJSON() as Record<string, number | string>;
   if (e0v === undefined) {
     const kernel = guardedPhysics(fn, () => stellarEmissionKernel(circularGwKernel, scaled));
-    return new EmissionModel(kernel, `stellar hardening then GW, circular, environment scaled by mass (H ${env.scaled.hardeningRate})`, params);
+    const residence = guardedPhysics(fn, () => stellarResidenceFactor(scaled));
+    return new EmissionModel(kernel, `stellar hardening then GW, circular, environment scaled by mass (H ${env.scaled.hardeningRate})`, params, 1, residence);
   }
   const e0 = initialEccentricityArg(e0v, fn);
   const kernel = guardedPhysics(fn, () => stellarEccentricKernel(circularGwKernel, scaled, e0));

@@ -21,6 +21,8 @@ import {
 } from '../physics/eccentricKernel';
 import { finiteBinaryBins, type FiniteBinaryResult } from '../physics/finiteBinaries';
 import type { EmissionKernel } from '../physics/populationTypes';
+import type { ResidenceFactor } from '../physics/residenceFactor';
+import { cosmologyAndEnvironment, RESIDENCE_ARG_HELP } from './residenceArg';
 import { functionOf, objectOf, scalarSI, vectorSI, where } from './args';
 import { cosmologyArg, elementwise, guardedPhysics, populationArg, positiveSI } from './physicsArgs';
 import { SpectrumValue, type EmissionValue } from './spectrumValue';
@@ -59,6 +61,8 @@ export class EmissionModel implements EmissionValue {
     readonly label: string,
     readonly parameters: Record<string, number | string>,
     readonly cutFactor = 1,
+    /** For circular environment models: the kernel is the circular one times this residence factor (counts per bin use it). */
+    readonly residence?: ResidenceFactor,
   ) {}
   describe(): string {
     return this.label;
@@ -110,8 +114,9 @@ function numberList(xs: ArrayLike<number>) {
   return math.matrix(Array.from(xs));
 }
 
-function finiteBins(population: unknown, freqs: unknown, span: unknown, cosmology: unknown, fn: string): FiniteBinaryResult {
+function finiteBins(population: unknown, freqs: unknown, span: unknown, extra1: unknown, extra2: unknown, fn: string): FiniteBinaryResult {
   const p = populationArg(population, fn);
+  const { cosmology, residence } = cosmologyAndEnvironment(extra1, extra2, fn);
   const cosmo = cosmology !== undefined ? cosmologyArg(cosmology, fn).model : p.cosmology;
   if (!cosmo) throw new BuiltinError(`${where(fn, 'cosmology')} is needed: the population was built without one`);
   const f = vectorSI(freqs, 'frequency', fn, 'freqs');
@@ -120,16 +125,17 @@ function finiteBins(population: unknown, freqs: unknown, span: unknown, cosmolog
     if (!(x > 0)) throw new BuiltinError(`${where(fn, `freqs[${i + 1}]`)} must be a positive frequency, got ${x} Hz`);
   });
   const T = positiveSI(span, 'time', fn, 'span');
-  // binariesPerBin, thinnedSpectrum and loudestBinaryStrain of one population, grid and span share
-  // one computation (the last one is kept; populations and cosmologies are immutable values).
+  // binariesPerBin, thinnedSpectrum and loudestBinaryStrain of one population, grid, span and
+  // environment share one computation (the last one is kept; populations, cosmologies and models are immutable values).
   const last = lastFinite;
-  if (last && last.population === p.population && last.cosmology === cosmo && last.spanS === T && sameNumbers(last.freqsHz, f)) return last.result;
-  const result = guardedPhysics(fn, () => finiteBinaryBins(p.population, cosmo, f, T));
-  lastFinite = { population: p.population, cosmology: cosmo, spanS: T, freqsHz: Float64Array.from(f), result };
+  const env = residence?.source;
+  if (last && last.population === p.population && last.cosmology === cosmo && last.spanS === T && last.environment === env && sameNumbers(last.freqsHz, f)) return last.result;
+  const result = guardedPhysics(fn, () => finiteBinaryBins(p.population, cosmo, f, T, {}, residence?.factor));
+  lastFinite = { population: p.population, cosmology: cosmo, spanS: T, environment: env, freqsHz: Float64Array.from(f), result };
   return result;
 }
 
-let lastFinite: { population: object; cosmology: object; spanS: number; freqsHz: Float64Array; result: FiniteBinaryResult } | undefined;
+let lastFinite: { population: object; cosmology: object; spanS: number; environment: object | undefined; freqsHz: Float64Array; result: FiniteBinaryResult } | undefined;
 
 function sameNumbers(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
   if (a.length !== b.length) return false;
@@ -141,7 +147,8 @@ const finiteArgs = [
   { name: 'population', unit: 'population', description: 'from mergerPopulation or customPopulation' },
   { name: 'freqs', unit: 'nHz', description: 'observed GW frequencies, the bin centres (a list, e.g. from frequencyGrid)' },
   { name: 'span', unit: 'yr', description: 'observing span T > 0; each bin is 1/T wide' },
-  { name: 'cosmology', unit: 'cosmology', description: "for volumes and distances (default the population's own)", optional: true },
+  { name: 'cosmology', unit: 'cosmology', description: "for volumes and distances (default the population's own); may be swapped with environment", optional: true },
+  { name: 'environment', unit: 'hardening or emission', description: `${RESIDENCE_ARG_HELP} (default: GW-driven)`, optional: true },
 ];
 
 export const orbitBuiltins: Builtin[] = [
@@ -329,23 +336,23 @@ export const orbitBuiltins: Builtin[] = [
   {
     name: 'binariesPerBin',
     category: 'spectrum',
-    summary: 'Expected number of circular GW-driven binaries emitting in each frequency bin of width 1/T.',
+    summary: 'Expected number of circular binaries emitting in each frequency bin of width 1/T: GW-driven, or with an environment the GW-driven number times its residence factor (dt/dln f)_total/(dt/dln f)_GW.',
     args: finiteArgs,
     returns: { unit: 'dimensionless', description: 'a list, one expected count per frequency' },
-    source: `${SVC}; volumes Hogg 1999, astro-ph/9905116`,
+    source: `${SVC}; volumes Hogg 1999, astro-ph/9905116; residence factor Phinney 2001, astro-ph/0108028, and Sesana 2013, arXiv:1307.2600`,
     example: 'binariesPerBin(pop, freqs, 14 yr)',
-    fn: (population: unknown, freqs: unknown, span: unknown, cosmology?: unknown) => numberList(finiteBins(population, freqs, span, cosmology, 'binariesPerBin').expectedPerBin),
+    fn: (population: unknown, freqs: unknown, span: unknown, cosmology?: unknown, environment?: unknown) => numberList(finiteBins(population, freqs, span, cosmology, environment, 'binariesPerBin').expectedPerBin),
   },
   {
     name: 'longResidenceShare',
     category: 'spectrum',
-    summary: 'Per frequency bin of width 1/T, the share of the expected binaries (those binariesPerBin counts) whose residence time dt/dln f exceeds the age of the Universe at their redshift: near 1, the bin counts binaries that cannot have got there.',
+    summary: 'Per frequency bin of width 1/T, the share of the expected binaries (those binariesPerBin counts) whose residence time dt/dln f (the total one when an environment is given) exceeds the age of the Universe at their redshift: near 1, the bin counts binaries that cannot have got there.',
     args: finiteArgs,
     returns: { unit: 'dimensionless', description: 'a list of shares in [0, 1], one per bin (0 for a bin with no binaries)' },
     source: 'residence time dt/dln f_r = (5/96)(G M_c/c^3)^(-5/3)(pi f_r)^(-8/3), Peters 1964, Phys. Rev. 136, B1224; age Hogg 1999, astro-ph/9905116',
     example: 'longResidenceShare(pop, freqs, 14 yr)',
-    fn: (population: unknown, freqs: unknown, span: unknown, cosmology?: unknown) => {
-      const r = finiteBins(population, freqs, span, cosmology, 'longResidenceShare');
+    fn: (population: unknown, freqs: unknown, span: unknown, cosmology?: unknown, environment?: unknown) => {
+      const r = finiteBins(population, freqs, span, cosmology, environment, 'longResidenceShare');
       return numberList(r.expectedPerBin.map((n, k) => (n > 0 ? r.longResidencePerBin[k] / n : 0)));
     },
   },
@@ -360,8 +367,8 @@ export const orbitBuiltins: Builtin[] = [
     },
     source: `${SVC}`,
     example: 'thinnedSpectrum(pop, freqs, 14 yr)',
-    fn: (population: unknown, freqs: unknown, span: unknown, cosmology?: unknown) => {
-      const r = finiteBins(population, freqs, span, cosmology, 'thinnedSpectrum');
+    fn: (population: unknown, freqs: unknown, span: unknown, cosmology?: unknown, environment?: unknown) => {
+      const r = finiteBins(population, freqs, span, cosmology, environment, 'thinnedSpectrum');
       return new SpectrumValue(
         { frequencyHz: r.frequencyHz, hc: r.thinnedHc },
         {
@@ -382,6 +389,6 @@ export const orbitBuiltins: Builtin[] = [
     returns: { unit: 'dimensionless', description: 'a list of strains h = sqrt(32/5) (G M_c)^(5/3) (pi f_r)^(2/3) / (c^4 D_C)' },
     source: `${SVC}`,
     example: 'loudestBinaryStrain(pop, freqs, 14 yr)',
-    fn: (population: unknown, freqs: unknown, span: unknown, cosmology?: unknown) => numberList(finiteBins(population, freqs, span, cosmology, 'loudestBinaryStrain').loudestStrain),
+    fn: (population: unknown, freqs: unknown, span: unknown, cosmology?: unknown, environment?: unknown) => numberList(finiteBins(population, freqs, span, cosmology, environment, 'loudestBinaryStrain').loudestStrain),
   },
 ];

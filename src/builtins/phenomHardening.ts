@@ -7,7 +7,7 @@ import { BuiltinError } from '../sheet/cellError';
 import type { SheetObject } from '../sheet/sheetObject';
 import { GYR_S, M_SUN_KG, PC_M } from '../physics/constants';
 import { checkPhenomHardening, PHENOM_HARDENING_DEFAULTS, type PhenomHardening } from '../physics/phenomHardening';
-import { normalisationOf, phenomDelayedPopulation, phenomEmissionKernel, residenceRatio } from '../physics/phenomHardeningSpectrum';
+import { normalisationOf, phenomDelayedPopulation, phenomEmissionKernel, phenomResidenceFactor, residenceRatio } from '../physics/phenomHardeningSpectrum';
 import { objectOf, scalarSI, where } from './args';
 import { elementwise, guardedPhysics, nonNegativeSI, populationArg } from './physicsArgs';
 import { checkSpectrumArgs, EmissionModel } from './orbits';
@@ -59,7 +59,8 @@ function separationArg(v: unknown, fallback: number, fn: string, arg: string): n
 
 function emissionModel(h: PhenomHardeningValue, fn: string): EmissionModel {
   const kernel = guardedPhysics(fn, () => phenomEmissionKernel(h.model, M_SUN_KG));
-  return new EmissionModel(kernel, `GW-driven with the residence time of ${h.describe()}`, phenomParameters(h));
+  const residence = guardedPhysics(fn, () => phenomResidenceFactor(h.model, M_SUN_KG));
+  return new EmissionModel(kernel, `GW-driven with the residence time of ${h.describe()}`, phenomParameters(h), 1, residence);
 }
 
 const hardeningArgDoc = { name: 'hardening', unit: 'phenomHardening', description: 'from phenomHardening' };
@@ -71,7 +72,7 @@ export const phenomHardeningBuiltins: Builtin[] = [
     name: 'phenomHardening',
     category: 'population',
     summary:
-      'Phenomenological binary hardening with a total lifetime: da/dt = -A x^(1-nu_in) (1+x)^(nu_in-nu_out) - (64/5) G^3 m1 m2 M/(c^5 a^3), x = a/a_c, with A of each binary (M, q) set so that the time from the initial separation to the ISCO is the lifetime. The same model gives the delay (delayedPopulation, stalledFraction) and the low-frequency bend (phenomEmission, phenomSpectrum).',
+      'Phenomenological binary hardening with a total lifetime: da/dt = -A x^(1-nu_in) (1+x)^(nu_in-nu_out) - (64/5) G^3 m1 m2 M/(c^5 a^3), x = a/a_c, with A of each binary (M, q) set so that the time from the initial separation to the ISCO is the lifetime. The same model gives the delay (delayedPopulation, stalledFraction), the low-frequency bend (phenomEmission, phenomSpectrum), and the counts per bin and realisations as their environment argument (binariesPerBin, realiseBackground, ...).',
     args: [
       { name: 'lifetime', unit: 'Gyr', description: 'total time tau_f from formation to coalescence, >= 0 (a binary whose GW time alone is shorter keeps its GW time)' },
       { name: 'innerIndex', unit: 'dimensionless', description: `index nu_in of the hardening time a/|da/dt| inside the break (default ${D.innerIndex})`, optional: true },

@@ -12,6 +12,7 @@ import { drawRealisations, type RealisationDraws } from '../physics/binaryRealis
 import { summariseRealisations, type RealisationSummary } from '../statistics/realisationSummary';
 import { objectOf, scalarSI, vectorSI, where } from './args';
 import { cosmologyArg, countArg, guardedPhysics, populationArg, positiveSI } from './physicsArgs';
+import { cosmologyAndEnvironment, RESIDENCE_ARG_HELP, type ResidenceModel } from './residenceArg';
 
 const SVC = 'Sesana, Vecchio & Colacino 2008, MNRAS 390, 192';
 const METHOD = `${SVC}; split into drawn and smooth cells after Becsy, Cornish & Kelley 2022 (ApJ, arXiv:2207.01607); variance Lamb & Taylor 2024 (ApJL, doi:10.3847/2041-8213/ad654a)`;
@@ -28,6 +29,8 @@ export interface RealisationSetup {
   spanS: number;
   threshold: number;
   dropLongResidence: boolean;
+  /** The environment's residence factor (counts per cell times R); absent: GW-driven. Jobs and the CLI read it from here. */
+  residence?: ResidenceModel;
 }
 
 /** The 'realisations' SheetObject: the cells, the draws and their summary per bin. */
@@ -45,7 +48,7 @@ export class RealisationsValue implements SheetObject {
   describe(): string {
     const n = this.cells.bins.length;
     const k = this.setup.threshold;
-    return `${this.draws.count} realisations over ${n} bin${n === 1 ? '' : 's'}, seed ${this.seed}, drawn one by one: the ${k === Infinity ? 'all' : k} loudest expected per bin${this.setup.dropLongResidence ? ', long-residence cells dropped' : ''}`;
+    return `${this.draws.count} realisations over ${n} bin${n === 1 ? '' : 's'}, seed ${this.seed}, drawn one by one: the ${k === Infinity ? 'all' : k} loudest expected per bin${this.setup.dropLongResidence ? ', long-residence cells dropped' : ''}${this.setup.residence ? `, residence times of ${this.setup.residence.label}` : ''}`;
   }
   /** Smooth h_c per bin: f T sum N h^2 over the cells (Phinney's h_c on the cells). */
   smoothHc(): Float64Array {
@@ -89,14 +92,15 @@ function longResidenceH2Fraction(b: RealisationCells['bins'][number], dropped: b
 /** Runs a realisation set-up in this thread (the sheet's own cells; long runs go to the CLI or the app's worker). */
 export function realiseInThread(setup: RealisationSetup, count: number, seed: number, fn: string): RealisationsValue {
   const cells = guardedPhysics(fn, () =>
-    realisationCells(setup.population, setup.cosmology, setup.freqsHz, setup.spanS, { threshold: setup.threshold, dropLongResidence: setup.dropLongResidence }),
+    realisationCells(setup.population, setup.cosmology, setup.freqsHz, setup.spanS, { threshold: setup.threshold, dropLongResidence: setup.dropLongResidence, residence: setup.residence?.factor }),
   );
   return new RealisationsValue(setup, cells, seed, guardedPhysics(fn, () => drawRealisations(cells, seed, 0, count)));
 }
 
 /** Population, cosmology, bin centres and span of realiseBackground. */
-function binsArgs(population: unknown, freqs: unknown, span: unknown, cosmology: unknown, fn: string): Pick<RealisationSetup, 'population' | 'cosmology' | 'freqsHz' | 'spanS'> {
+function binsArgs(population: unknown, freqs: unknown, span: unknown, extra1: unknown, extra2: unknown, fn: string): Pick<RealisationSetup, 'population' | 'cosmology' | 'freqsHz' | 'spanS' | 'residence'> {
   const p = populationArg(population, fn);
+  const { cosmology, residence } = cosmologyAndEnvironment(extra1, extra2, fn);
   const cosmo = cosmology !== undefined ? cosmologyArg(cosmology, fn).model : p.cosmology;
   if (!cosmo) throw new BuiltinError(`${where(fn, 'cosmology')} is needed: the population was built without one`);
   const f = vectorSI(freqs, 'frequency', fn, 'freqs');
@@ -104,7 +108,7 @@ function binsArgs(population: unknown, freqs: unknown, span: unknown, cosmology:
   f.forEach((x, i) => {
     if (!(x > 0)) throw new BuiltinError(`${where(fn, `freqs[${i + 1}]`)} must be a positive frequency, got ${x} Hz`);
   });
-  return { population: p.population, cosmology: cosmo, freqsHz: Float64Array.from(f), spanS: positiveSI(span, 'time', fn, 'span') };
+  return { population: p.population, cosmology: cosmo, freqsHz: Float64Array.from(f), spanS: positiveSI(span, 'time', fn, 'span'), ...(residence ? { residence } : {}) };
 }
 
 function seedArg(v: unknown, fn: string): number {
@@ -143,7 +147,7 @@ export const realisationBuiltins: Builtin[] = [
   {
     name: 'realiseBackground',
     category: 'spectrum',
-    summary: 'Draws R realisations of a finite population of circular GW-driven binaries in each frequency bin of width 1/T: h_c per bin and the loudest binary of each bin.',
+    summary: 'Draws R realisations of a finite population of circular binaries (GW-driven, or with an environment\'s residence times) in each frequency bin of width 1/T: h_c per bin and the loudest binary of each bin.',
     args: [
       { name: 'population', unit: 'population', description: 'from mergerPopulation or customPopulation' },
       { name: 'freqs', unit: 'nHz', description: 'observed GW frequencies, the bin centres (e.g. from frequencyGrid)' },
@@ -157,14 +161,15 @@ export const realisationBuiltins: Builtin[] = [
         optional: true,
       },
       { name: 'dropLongResidence', unit: 'dimensionless', description: 'true to leave out cells whose residence time exceeds the age of the Universe at their redshift (default false)', optional: true },
-      { name: 'cosmology', unit: 'cosmology', description: "for volumes and distances (default the population's own)", optional: true },
+      { name: 'cosmology', unit: 'cosmology', description: "for volumes and distances (default the population's own); may be swapped with environment", optional: true },
+      { name: 'environment', unit: 'hardening or emission', description: `${RESIDENCE_ARG_HELP} (default: GW-driven)`, optional: true },
     ],
     returns: { unit: 'realisations', description: 'per bin: mean, median, 68% and 95% bands of h_c, loudest binaries, outshine probability, residence-time flags' },
     source: METHOD,
     example: 'realiseBackground(pop, freqs, 14 yr, 200, 1)',
-    fn: (population: unknown, freqs: unknown, span: unknown, count: unknown, seed: unknown, threshold?: unknown, dropLong?: unknown, cosmology?: unknown) => {
+    fn: (population: unknown, freqs: unknown, span: unknown, count: unknown, seed: unknown, threshold?: unknown, dropLong?: unknown, cosmology?: unknown, environment?: unknown) => {
       const fn = 'realiseBackground';
-      const b = binsArgs(population, freqs, span, cosmology, fn);
+      const b = binsArgs(population, freqs, span, cosmology, environment, fn);
       const R = countArg(count, fn, 'count', MAX_SHEET_REALISATIONS);
       if (R * b.freqsHz.length > MAX_REALISATION_BINS) throw new BuiltinError(`${where(fn, 'count')}: ${R} realisations of ${b.freqsHz.length} bins exceed ${MAX_REALISATION_BINS} realisation-bins; use fewer, or run them with strainsheet realise`);
       const setup: RealisationSetup = { ...b, threshold: thresholdArg(threshold, fn), dropLongResidence: flagArg(dropLong, fn, 'dropLongResidence') };

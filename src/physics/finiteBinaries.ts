@@ -1,8 +1,10 @@
 // The finite number of binaries behind the background (Sesana, Vecchio & Colacino 2008, MNRAS 390, 192):
 // expected binaries per frequency bin of width 1/T, the spectrum expected when the rare heaviest
 // binaries are absent from a bin, and the strain of the loudest binary expected per bin.
-// Circular GW-driven binaries throughout (residence time below), with the ISCO cut of the circular
-// integrator (f_r <= f_ISCO,gw(M); src/physics/circularKernel.ts).
+// Circular binaries, with the ISCO cut of the circular integrator (f_r <= f_ISCO,gw(M);
+// src/physics/circularKernel.ts). GW-driven residence times (below), or, given an environment's residence
+// factor R (residenceFactor.ts), those times R: the count per ln f and h^2 summed over it are the
+// GW-driven ones times R, the strain of one binary is unchanged (Phinney 2001; Sesana 2013).
 //
 // Scheme: composite Gauss-Legendre nodes in z, log10M and q (as src/physics/backgroundIntegral.ts).
 // Each node carries the expected number of binaries in the bin and the strain of one such binary.
@@ -15,6 +17,7 @@ import { iscoGwFrequencyHz } from './circularKernel';
 import type { FlatLambdaCdm } from './cosmology';
 import { compositeNodes } from './gaussLegendre';
 import type { BinaryPopulation } from './populationTypes';
+import type { ResidenceFactor } from './residenceFactor';
 
 /** dt_r/dln f_r = (5/96) (G M_c / c^3)^(-5/3) (pi f_r)^(-8/3), s (Peters 1964, Phys. Rev. 136, B1224; Sesana, Vecchio & Colacino 2008). */
 export function circularResidenceTime(frHz: number, mcKg: number): number {
@@ -65,6 +68,9 @@ const PER_MPC3 = 1 / (MPC_M * MPC_M * MPC_M);
  * d^3N/(dz dlog10M dq dln f_r) = n(z, log10M, q) (dV_c/dz) |dz/dt_r| dt_r/dln f_r
  * (Sesana, Vecchio & Colacino 2008; Hogg 1999 for dV_c/dz and dt/dz), and
  * h_c^2(f) = Int dN/dln f h^2, which equals Phinney's h_c^2 (Phinney 2001) identically.
+ * With `residence`, dt_r/dln f_r is the total residence time, the GW one times R(f_r, M, q, z), and
+ * h_c^2 equals Phinney's h_c^2 with the emission kernel circular x R; a binary is long-residence when
+ * that total time exceeds the age. Without it every number is the GW-driven one, computed as before.
  */
 export function finiteBinaryBins(
   pop: BinaryPopulation,
@@ -72,6 +78,7 @@ export function finiteBinaryBins(
   freqsHz: ArrayLike<number>,
   spanS: number,
   resolution: Partial<FiniteResolution> = {},
+  residence?: ResidenceFactor,
 ): FiniteBinaryResult {
   if (!(spanS > 0) || !Number.isFinite(spanS)) throw new RangeError(`observing span must be positive and finite, got ${spanS} s`);
   const res = { ...FINITE_DEFAULT_RESOLUTION, ...resolution };
@@ -124,41 +131,13 @@ export function finiteBinaryBins(
     loudestStrain: new Float64Array(nf),
     longResidencePerBin: new Float64Array(nf),
   };
-  // Sums over q per (z, mass node) for the counts and h^2: dN h^2 = rate tau_F h_F^2 M_c^(5/3).
-  const perMc53 = new Float64Array(nz * nm); // sum_q rate / M_c^(5/3)
-  const timesMc53 = new Float64Array(nz * nm); // sum_q rate x M_c^(5/3)
-  for (let iz = 0; iz < nz; iz++) {
-    for (let im = 0; im < nm; im++) {
-      let a = 0;
-      let b = 0;
-      for (let iq = 0; iq < nq; iq++) {
-        const r = rate[(iz * nm + im) * nq + iq];
-        a += r / mc53[im * nq + iq];
-        b += r * mc53[im * nq + iq];
-      }
-      perMc53[iz * nm + im] = a;
-      timesMc53[iz * nm + im] = b;
-    }
-  }
-  const loud = new LoudestSearch(rate, mc53, nz, nm, nq);
-  // Per (z, q): running sums over the mass nodes of rate / M_c^(5/3). M_c rises with the mass index at
-  // fixed q, so the nodes with residence time tau_F / M_c^(5/3) above the age are a prefix.
-  const perMc53ByQ = new Float64Array(nz * nq * (nm + 1));
-  for (let iz = 0; iz < nz; iz++) {
-    for (let iq = 0; iq < nq; iq++) {
-      const base = (iz * nq + iq) * (nm + 1);
-      for (let im = 0; im < nm; im++) perMc53ByQ[base + im + 1] = perMc53ByQ[base + im] + rate[(iz * nm + im) * nq + iq] / mc53[im * nq + iq];
-    }
-  }
-  // Their running sums over the mass nodes of each z: the totals below a z's ISCO cut in one lookup.
-  const perMc53Below = new Float64Array(nz * (nm + 1));
-  const timesMc53Below = new Float64Array(nz * (nm + 1));
-  for (let iz = 0; iz < nz; iz++) {
-    for (let im = 0; im < nm; im++) {
-      perMc53Below[iz * (nm + 1) + im + 1] = perMc53Below[iz * (nm + 1) + im] + perMc53[iz * nm + im];
-      timesMc53Below[iz * (nm + 1) + im + 1] = timesMc53Below[iz * (nm + 1) + im] + timesMc53[iz * nm + im];
-    }
-  }
+  // Without a residence factor the node sums do not depend on the frequency: built once. With one,
+  // each node's rate is scaled by the factor at the bin's f_r and the sums are rebuilt per bin.
+  const scaled = residence ? new Float64Array(size) : rate;
+  const factor = residence ? new Float64Array(size) : undefined;
+  const massKg = Float64Array.from(mr.nodes, (x) => M_SUN_KG * Math.pow(10, x));
+  let sums = residence ? undefined : nodeSums(rate, mc53, nz, nm, nq);
+  let loud = residence ? undefined : new LoudestSearch(rate, mc53, nz, nm, nq);
   // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
   // its own cell: the separation theorem of Chebyshev, Markov and Stieltjes, Szego 1939, Orthogonal
   // Polynomials, 3.41; section number unverified), so a node's count spread over its cell keeps the density it stands for.
@@ -172,6 +151,13 @@ export function finiteBinaryBins(
     const f = freqsHz[k];
     if (!(f > 0) || !Number.isFinite(f)) throw new RangeError(`frequency ${k + 1} must be positive and finite, got ${f} Hz`);
     const dlnf = 1 / (f * spanS);
+    if (residence && factor) {
+      fillResidenceFactors(residence, f, zr.nodes, massKg, qr.nodes, factor, rate, scaled);
+      sums = nodeSums(scaled, mc53, nz, nm, nq);
+      if (loud) loud.useRates(scaled);
+      else loud = new LoudestSearch(scaled, mc53, nz, nm, nq);
+    }
+    const { perMc53, timesMc53, perMc53ByQ, perMc53Below, timesMc53Below } = sums as NodeSums;
     let count = 0;
     let h2Total = 0;
     let longCount = 0;
@@ -188,7 +174,9 @@ export function finiteBinaryBins(
       count += perMc53Below[iz * (nm + 1) + im] * tauF * dlnf;
       h2Total += timesMc53Below[iz * (nm + 1) + im] * tauF * hF * hF;
       emitting[iz] = im;
-      longCount += longResidenceCount(perMc53ByQ, mc53, iz, nm, nq, im, tauF / age[iz]) * tauF * dlnf;
+      // Long residence: total residence time (the GW time times the factor) above the age at z.
+      const long = factor ? longResidenceScaled(scaled, factor, mc53, iz, nm, nq, im, tauF, age[iz]) : longResidenceCount(perMc53ByQ, mc53, iz, nm, nq, im, tauF / age[iz]);
+      longCount += long * tauF * dlnf;
     }
     out.expectedPerBin[k] = count;
     out.longResidencePerBin[k] = longCount;
@@ -224,9 +212,104 @@ export function finiteBinaryBins(
     out.thinnedHc[k] = Math.sqrt(Math.max(0, h2Total - h2AboveCut));
 
     // Loudest expected binary: nodes by decreasing strain until one binary is expected.
-    out.loudestStrain[k] = count < 1 ? 0 : loud.search(tauOf, hFOf, emitting, dlnf);
+    out.loudestStrain[k] = count < 1 ? 0 : (loud as LoudestSearch).search(tauOf, hFOf, emitting, dlnf);
   }
   return out;
+}
+
+/** Sums over the nodes of rate / M_c^(5/3) (counts) and rate x M_c^(5/3) (h^2) that the bins read. */
+interface NodeSums {
+  /** Per (z, mass node): sum over q of rate / M_c^(5/3) and of rate x M_c^(5/3). */
+  perMc53: Float64Array;
+  timesMc53: Float64Array;
+  /** Per (z, q): running sums over the mass nodes of rate / M_c^(5/3). */
+  perMc53ByQ: Float64Array;
+  /** Per z: running sums over the mass nodes of perMc53 and timesMc53. */
+  perMc53Below: Float64Array;
+  timesMc53Below: Float64Array;
+}
+
+function nodeSums(rate: Float64Array, mc53: Float64Array, nz: number, nm: number, nq: number): NodeSums {
+  // Sums over q per (z, mass node) for the counts and h^2: dN h^2 = rate tau_F h_F^2 M_c^(5/3).
+  const perMc53 = new Float64Array(nz * nm); // sum_q rate / M_c^(5/3)
+  const timesMc53 = new Float64Array(nz * nm); // sum_q rate x M_c^(5/3)
+  for (let iz = 0; iz < nz; iz++) {
+    for (let im = 0; im < nm; im++) {
+      let a = 0;
+      let b = 0;
+      for (let iq = 0; iq < nq; iq++) {
+        const r = rate[(iz * nm + im) * nq + iq];
+        a += r / mc53[im * nq + iq];
+        b += r * mc53[im * nq + iq];
+      }
+      perMc53[iz * nm + im] = a;
+      timesMc53[iz * nm + im] = b;
+    }
+  }
+  // Per (z, q): running sums over the mass nodes of rate / M_c^(5/3). M_c rises with the mass index at
+  // fixed q, so the nodes with residence time tau_F / M_c^(5/3) above the age are a prefix.
+  const perMc53ByQ = new Float64Array(nz * nq * (nm + 1));
+  for (let iz = 0; iz < nz; iz++) {
+    for (let iq = 0; iq < nq; iq++) {
+      const base = (iz * nq + iq) * (nm + 1);
+      for (let im = 0; im < nm; im++) perMc53ByQ[base + im + 1] = perMc53ByQ[base + im] + rate[(iz * nm + im) * nq + iq] / mc53[im * nq + iq];
+    }
+  }
+  // Their running sums over the mass nodes of each z: the totals below a z's ISCO cut in one lookup.
+  const perMc53Below = new Float64Array(nz * (nm + 1));
+  const timesMc53Below = new Float64Array(nz * (nm + 1));
+  for (let iz = 0; iz < nz; iz++) {
+    for (let im = 0; im < nm; im++) {
+      perMc53Below[iz * (nm + 1) + im + 1] = perMc53Below[iz * (nm + 1) + im] + perMc53[iz * nm + im];
+      timesMc53Below[iz * (nm + 1) + im + 1] = timesMc53Below[iz * (nm + 1) + im] + timesMc53[iz * nm + im];
+    }
+  }
+  return { perMc53, timesMc53, perMc53ByQ, perMc53Below, timesMc53Below };
+}
+
+/**
+ * factor[i] = R at node i for observed frequency f (one binary (M, q) at a time, through the redshifts:
+ * the order the factors of phenomHardeningSpectrum.ts and stellarHardening.ts cache for), and
+ * scaled[i] = rate[i] x factor[i] (when given). Nodes of rate 0 get factor 0 without a call.
+ */
+export function fillResidenceFactors(residence: ResidenceFactor, f: number, z: ArrayLike<number>, massKg: ArrayLike<number>, q: ArrayLike<number>, factor: Float64Array, rate?: Float64Array, scaled?: Float64Array): void {
+  const nz = z.length;
+  const nm = massKg.length;
+  const nq = q.length;
+  for (let im = 0; im < nm; im++) {
+    for (let iq = 0; iq < nq; iq++) {
+      for (let iz = 0; iz < nz; iz++) {
+        const i = (iz * nm + im) * nq + iq;
+        if (rate && rate[i] === 0) {
+          // No binaries at this node: its factor multiplies nothing.
+          factor[i] = 0;
+          if (scaled) scaled[i] = 0;
+          continue;
+        }
+        const fr = (1 + z[iz]) * f;
+        const x = residence(fr, massKg[im], q[iq], z[iz]);
+        if (!(x >= 0) || x === Infinity) throw new RangeError(`residence factor is ${x} at f_r = ${fr} Hz, M = ${massKg[im]} kg, q = ${q[iq]}, z = ${z[iz]}; it must be finite and >= 0`);
+        factor[i] = x;
+        if (rate && scaled) scaled[i] = rate[i] * x;
+      }
+    }
+  }
+}
+
+/**
+ * Sum over the emitting nodes (mass index < emitting) of redshift node iz of scaled rate / M_c^(5/3)
+ * where the total residence time tau_F x factor / M_c^(5/3) exceeds the age (no longer a prefix in mass).
+ */
+function longResidenceScaled(scaled: Float64Array, factor: Float64Array, mc53: Float64Array, iz: number, nm: number, nq: number, emitting: number, tauF: number, age: number): number {
+  let sum = 0;
+  for (let im = 0; im < emitting; im++) {
+    for (let iq = 0; iq < nq; iq++) {
+      const i = (iz * nm + im) * nq + iq;
+      const m53 = mc53[im * nq + iq];
+      if ((tauF * factor[i]) / m53 > age) sum += scaled[i] / m53;
+    }
+  }
+  return sum;
 }
 
 /**
@@ -274,7 +357,7 @@ class LoudestSearch {
   private readonly rankHi: Int32Array;
   private readonly rankMid: Int32Array;
   constructor(
-    private readonly rate: Float64Array,
+    private rate: Float64Array,
     private readonly mc53: Float64Array,
     private readonly nz: number,
     private readonly nm: number,
@@ -287,10 +370,7 @@ class LoudestSearch {
     this.rankOfNode = new Int32Array(p);
     for (let j = 0; j < p; j++) this.rankOfNode[this.order[j]] = j;
     this.prefix = new Float64Array(nz * (p + 1));
-    for (let iz = 0; iz < nz; iz++) {
-      const base = iz * (p + 1);
-      for (let j = 0; j < p; j++) this.prefix[base + j + 1] = this.prefix[base + j] + rate[iz * p + this.order[j]] / this.rankedMc53[j];
-    }
+    this.fillPrefix();
     this.exRanks = new Int32Array(nz * p);
     this.exPrefix = new Float64Array(nz * (p + 1));
     this.exStart = new Int32Array(nz);
@@ -299,6 +379,21 @@ class LoudestSearch {
     this.rankLo = new Int32Array(nz);
     this.rankHi = new Int32Array(nz);
     this.rankMid = new Int32Array(nz);
+  }
+
+  private fillPrefix(): void {
+    const p = this.rankedMc53.length;
+    for (let iz = 0; iz < this.nz; iz++) {
+      const base = iz * (p + 1);
+      for (let j = 0; j < p; j++) this.prefix[base + j + 1] = this.prefix[base + j] + this.rate[iz * p + this.order[j]] / this.rankedMc53[j];
+    }
+  }
+
+  /** New rates for the same nodes (a residence factor per bin): the order by M_c^(5/3) is kept, the sums rebuilt. */
+  useRates(rate: Float64Array): void {
+    this.rate = rate;
+    this.fillPrefix();
+    this.exCut.fill(-1);
   }
 
   /** Ranks j with hF x M_c^(5/3)[j] >= h (a prefix of the ranks), known to lie in [from, to]. */

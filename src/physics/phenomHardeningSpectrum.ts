@@ -25,6 +25,7 @@ import {
   type PhenomHardening,
 } from './phenomHardening';
 import type { BinaryPopulation, EmissionKernel } from './populationTypes';
+import type { ResidenceFactor } from './residenceFactor';
 
 /** Separation of a circular binary radiating at rest-frame GW frequency f_r: (G M / (pi f_r)^2)^(1/3), m (Kepler). */
 export function separationAtGwFrequency(frHz: number, mKg: number): number {
@@ -105,15 +106,13 @@ export function normalisationTable(h: PhenomHardening, mSunKg: number): (mKg: nu
 }
 
 /**
- * Emission kernel: the circular GW-driven kernel times residenceRatio, A from normalisationTable. Per
- * (M, q) node the kernel keeps A / B, so a call costs the separation and g(x):
- * factor = 1 / (1 + (A/B) g(x) a^3), a^3 = G M / (pi f_r)^2. Where A = 0 the factor is exactly 1.
+ * A / B of each binary (M, q), A from normalisationTable (0 where GW emission alone is faster), kept
+ * per (M, q) so that repeated calls at the same binary cost a lookup.
  */
-export function phenomEmissionKernel(h: PhenomHardening, mSunKg: number): EmissionKernel {
-  checkPhenomHardening(h);
+function ratioTable(h: PhenomHardening, mSunKg: number): (mKg: number, q: number) => number {
   const normOf = normalisationTable(h, mSunKg);
   const ratios = new Map<number, Map<number, number>>();
-  const ratioOf = (mKg: number, q: number): number => {
+  return (mKg, q) => {
     let row = ratios.get(mKg);
     if (!row) {
       if (ratios.size > 4096) ratios.clear();
@@ -128,6 +127,16 @@ export function phenomEmissionKernel(h: PhenomHardening, mSunKg: number): Emissi
     }
     return k;
   };
+}
+
+/**
+ * Emission kernel: the circular GW-driven kernel times residenceRatio, A from normalisationTable. Per
+ * (M, q) node the kernel keeps A / B, so a call costs the separation and g(x):
+ * factor = 1 / (1 + (A/B) g(x) a^3), a^3 = G M / (pi f_r)^2. Where A = 0 the factor is exactly 1.
+ */
+export function phenomEmissionKernel(h: PhenomHardening, mSunKg: number): EmissionKernel {
+  checkPhenomHardening(h);
+  const ratioOf = ratioTable(h, mSunKg);
   const a0 = h.initialSeparationM;
   const ac = h.breakSeparationM;
   const p1 = 1 - h.innerIndex;
@@ -141,6 +150,38 @@ export function phenomEmissionKernel(h: PhenomHardening, mSunKg: number): Emissi
     if (k === 0) return base;
     const x = a / ac;
     return base / (1 + k * Math.pow(x, p1) * Math.pow(1 + x, p2) * a3);
+  };
+}
+
+/**
+ * The model's residence factor (residenceFactor.ts) for many binaries: residenceRatio with A from
+ * normalisationTable, 1 / (1 + (A/B) g(x) a^3), 0 above a_0; the factor phenomEmissionKernel puts on
+ * the circular kernel. For the counts per bin and the realisations.
+ */
+export function phenomResidenceFactor(h: PhenomHardening, mSunKg: number): ResidenceFactor {
+  checkPhenomHardening(h);
+  const ratioOf = ratioTable(h, mSunKg);
+  const a0 = h.initialSeparationM;
+  const ac = h.breakSeparationM;
+  const p1 = 1 - h.innerIndex;
+  const p2 = h.innerIndex - h.outerIndex;
+  // The last binary's A / B: callers that run through the frequencies of one binary skip the lookup.
+  let lastM = NaN;
+  let lastQ = NaN;
+  let lastK = 0;
+  return (fr, m, q) => {
+    const a3 = (G_SI * m) / (Math.PI * Math.PI * fr * fr);
+    const a = Math.cbrt(a3);
+    if (a > a0) return 0;
+    if (m !== lastM || q !== lastQ) {
+      lastK = ratioOf(m, q);
+      lastM = m;
+      lastQ = q;
+    }
+    const k = lastK;
+    if (k === 0) return 1;
+    const x = a / ac;
+    return 1 / (1 + k * Math.pow(x, p1) * Math.pow(1 + x, p2) * a3);
   };
 }
 

@@ -14,6 +14,11 @@
 // the variance of Lamb & Taylor 2024 (ApJL, doi:10.3847/2041-8213/ad654a); Sato-Polito & Zaldarriaga
 // 2024 (arXiv:2406.17010) give the same per-bin distribution of h_c^2 analytically.
 //
+// Environment: given the residence factor R of a hardening model (residenceFactor.ts), each cell holds
+// R times the GW-driven count (dt_r/dln f_r is the total residence time; Phinney 2001, astro-ph/0108028;
+// Sesana 2013, arXiv:1307.2600) and its binaries keep their strain, so sum N h^2 is Phinney's h_c^2
+// with the kernel circular x R.
+//
 // Residence time: the steady-state count N assumes that binaries have been passing f_r for at least
 // their residence time dt_r/dln f_r. Cells where that time exceeds the age of the Universe at the
 // cell's redshift (light binaries at the lowest frequencies) are flagged per bin; with
@@ -22,9 +27,10 @@ import { M_SUN_KG, MPC_M } from './constants';
 import { chirpMassFromTotal } from './binaryMasses';
 import { iscoGwFrequencyHz } from './circularKernel';
 import type { FlatLambdaCdm } from './cosmology';
-import { circularResidenceTime, loudestExpected, singleBinaryStrain } from './finiteBinaries';
+import { circularResidenceTime, fillResidenceFactors, loudestExpected, singleBinaryStrain } from './finiteBinaries';
 import { compositeNodes } from './gaussLegendre';
 import type { BinaryPopulation } from './populationTypes';
+import type { ResidenceFactor } from './residenceFactor';
 
 export interface RealisationGrid {
   zPanels: number;
@@ -51,6 +57,11 @@ export interface RealisationOptions {
   threshold?: number;
   /** Leave out the cells whose residence time exceeds the age of the Universe at their redshift. */
   dropLongResidence?: boolean;
+  /**
+   * An environment's residence factor R (residenceFactor.ts): each cell holds R times the GW-driven
+   * count at its node, and its residence time is R times the GW one. Omitted: GW-driven throughout.
+   */
+  residence?: ResidenceFactor;
 }
 
 /** One bin's cells, split into the dense sum and the sparse cells to draw from. */
@@ -115,6 +126,7 @@ export function realisationCells(pop: BinaryPopulation, cosmo: FlatLambdaCdm, fr
   const grid = { ...REALISATION_DEFAULT_GRID, ...options.grid };
   for (const [k, v] of Object.entries(grid)) if (!Number.isInteger(v) || v < 1 || v > 200) throw new RangeError(`grid ${k} must be an integer in [1, 200], got ${v}`);
   const drop = options.dropLongResidence ?? false;
+  const residence = options.residence;
   const zr = compositeNodes(pop.zMin, pop.zMax, grid.zPanels, grid.order);
   const mr = compositeNodes(pop.log10MMin, pop.log10MMax, grid.log10MPanels, grid.order);
   const qr = compositeNodes(pop.qMin, pop.qMax, grid.qPanels, grid.order);
@@ -129,8 +141,10 @@ export function realisationCells(pop: BinaryPopulation, cosmo: FlatLambdaCdm, fr
   const rate = new Float64Array(nz * nm * nq);
   const mc53 = new Float64Array(nm * nq);
   const fIsco = new Float64Array(nm);
+  const massKg = new Float64Array(nm);
   for (let im = 0; im < nm; im++) {
     const mKg = M_SUN_KG * Math.pow(10, mr.nodes[im]);
+    massKg[im] = mKg;
     fIsco[im] = iscoGwFrequencyHz(mKg);
     for (let iq = 0; iq < nq; iq++) mc53[im * nq + iq] = Math.pow(chirpMassFromTotal(mKg, qr.nodes[iq]), 5 / 3);
   }
@@ -153,11 +167,13 @@ export function realisationCells(pop: BinaryPopulation, cosmo: FlatLambdaCdm, fr
   const bins: BinCells[] = [];
   const nodeCount = new Float64Array(nz * nm * nq);
   const nodeStrain = new Float64Array(nz * nm * nq);
+  const residenceFactor = residence ? new Float64Array(nz * nm * nq) : undefined;
   const histogram = new Float64Array(4096);
   for (let k = 0; k < freqsHz.length; k++) {
     const f = freqsHz[k];
     if (!(f > 0) || !Number.isFinite(f)) throw new RangeError(`frequency ${k + 1} must be positive and finite, got ${f} Hz`);
     const dlnf = 1 / (f * spanS);
+    if (residence && residenceFactor) fillResidenceFactors(residence, f, zr.nodes, massKg, qr.nodes, residenceFactor, rate);
     let expectedCount = 0;
     let meanH2 = 0;
     let varianceH2 = 0;
@@ -174,9 +190,11 @@ export function realisationCells(pop: BinaryPopulation, cosmo: FlatLambdaCdm, fr
         for (let iq = 0; iq < nq; iq++) {
           const i = (iz * nm + im) * nq + iq;
           const m53 = mc53[im * nq + iq];
-          const count = emitting ? (rate[i] * tauF * dlnf) / m53 : 0;
+          // With a residence factor R, the count and the residence time are the GW-driven ones times R.
+          const r = residenceFactor ? residenceFactor[i] : 1;
+          const count = emitting ? (residence ? (rate[i] * r * tauF * dlnf) / m53 : (rate[i] * tauF * dlnf) / m53) : 0;
           const h = hF * m53;
-          const long = tauF / m53 > age[iz];
+          const long = (residence ? tauF * r : tauF) / m53 > age[iz];
           if (long && count > 0) {
             longCount += count;
             longH2 += count * h * h;

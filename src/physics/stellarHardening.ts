@@ -11,6 +11,7 @@ import { keplerOrbitalFrequency } from './petersEvolution';
 import { circularGwKernel } from './circularKernel';
 import { bendShape, circularTimesShapeKernel } from './factoredKernel';
 import type { EmissionKernel } from './populationTypes';
+import type { ResidenceFactor } from './residenceFactor';
 import type { EccentricityDistribution } from './eccentricKernel';
 import { eccentricTables, type EccentricStart } from './eccentricKernel';
 
@@ -128,6 +129,28 @@ export function stellarEmissionKernel(base: EmissionKernel, envOf: EnvironmentOf
     return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * stellarSuppression(fr, ft(m, q));
   }
   return (fr, mc, m, q, z) => base(fr, mc, m, q, z) * stellarSuppression(fr, stellarTransitionFrequency(m, q, envOf(m, q, z)));
+}
+
+/**
+ * The residence factor (residenceFactor.ts) of circular binaries hardened by stars then by GW emission:
+ * with hardening times a/|da/dt| proportional to 1/a (stars) and a^4 (GW), the total time per ln f_r
+ * over the GW time is 1 / (1 + (a/a_t)^5) = stellarSuppression(f_r, f_t) (Quinlan 1996, New Astron. 1, 35;
+ * Peters 1964). One environment for all binaries, or one per total mass (the host scalings).
+ */
+export function stellarResidenceFactor(env: StellarEnvironment | MassEnvironment): ResidenceFactor {
+  const ft = transitionFrequencyFunction(env);
+  // The last binary's f_t: callers that run through the frequencies of one binary compute it once.
+  let lastM = NaN;
+  let lastQ = NaN;
+  let lastFt = 0;
+  return (fr, m, q) => {
+    if (m !== lastM || q !== lastQ) {
+      lastFt = ft(m, q);
+      lastM = m;
+      lastQ = q;
+    }
+    return stellarSuppression(fr, lastFt);
+  };
 }
 
 /**

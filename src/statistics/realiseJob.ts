@@ -1,5 +1,5 @@
 // Realisations of a sheet's finite population as a chunked job (src/jobs/chunkedJob.ts): the set-up
-// (population, bins, span, threshold) comes from a cell holding realiseBackground(...); the job draws
+// (population, bins, span, threshold, environment) comes from a cell holding realiseBackground(...); the job draws
 // its own number of realisations with its own seed, REALISE_CHUNK per chunk. Realisation r always
 // draws from stream r of the seed (indexedStreams.ts), so chunks, workers and shards never change a number.
 import type { Sheet } from '../sheet/sheet';
@@ -86,7 +86,8 @@ function cellsFor(sheet: Sheet, plan: RealisePlan): RealisationCells {
   if (!c) {
     const s = realisationsCellValue(sheet, plan.cell).setup;
     try {
-      c = realisationCells(s.population, s.cosmology, s.freqsHz, s.spanS, { threshold: thresholdNumber(plan.threshold), dropLongResidence: plan.dropLongResidence });
+      // The environment's residence factor comes with the cell's set-up: the job counts as the cell does.
+      c = realisationCells(s.population, s.cosmology, s.freqsHz, s.spanS, { threshold: thresholdNumber(plan.threshold), dropLongResidence: plan.dropLongResidence, residence: s.residence?.factor });
     } catch (e) {
       throw new SheetJobError(`realisations of ${plan.cell}: ${(e as Error).message}`);
     }
