@@ -42,9 +42,18 @@ export interface MassModel {
 
 /** The mass model of a population: factored (redshift x exp(lnMass) x massRatio) or general. */
 export function massModelOf(pop: BinaryPopulation, res: IntegrationResolution): MassModel {
-  const mp = new MassPanels(pop.log10MMin, pop.log10MMax, res.log10MPanels, res.order);
   const sep = pop.separable;
-  return sep?.redshift && sep.lnMass ? factoredModel(pop, mp, res) : generalModel(pop, mp, res);
+  if (sep?.redshift && sep.lnMass) return factoredModel(pop, factoredPanels(pop.log10MMin, pop.log10MMax, res.log10MPanels, res.order), res);
+  return generalModel(pop, new MassPanels(pop.log10MMin, pop.log10MMax, res.log10MPanels, res.order), res);
+}
+
+/** The mass panels of the last factored model (which reads only their rules, never their scratch panel), laid out again only for other limits. */
+let lastFactoredPanels: MassPanels | undefined;
+
+function factoredPanels(lo: number, hi: number, panels: number, order: number): MassPanels {
+  const m = lastFactoredPanels;
+  if (m && m.lo === lo && m.hi === hi && m.panels === panels && m.order === order) return m;
+  return (lastFactoredPanels = new MassPanels(lo, hi, panels, order));
 }
 
 /** Int dq p(q) eta(q) on the q rule (the q factor of a separable density, once per spectrum). */
