@@ -2,16 +2,19 @@
 // (examples/demo.json): the spectrum at 40 frequencies with the model's residence factor (the general
 // energy form: the factor is not a function of f_r / scale), with a fresh kernel each run so its
 // normalisation table is rebuilt, and the circular spectrum through the same general form for scale.
-// No target: figures for docs/orbits.md.
+// Also the counts per bin (finiteBinaryBins) and the realisation cells with and without the model's
+// residence factor, 14 yr span. No target: figures for docs/orbits.md and the README.
 import { readFileSync } from 'node:fs';
 import { bench, describe } from 'vitest';
 import type { Matrix, Unit } from 'mathjs';
 import { Sheet } from '../src/sheet/sheet';
 import { characteristicStrainSquared } from '../src/physics/backgroundIntegral';
 import { circularGwKernel } from '../src/physics/circularKernel';
-import { GYR_S, M_SUN_KG } from '../src/physics/constants';
+import { GYR_S, M_SUN_KG, YEAR_S } from '../src/physics/constants';
 import { PHENOM_HARDENING_DEFAULTS } from '../src/physics/phenomHardening';
-import { phenomDelayedPopulation, phenomEmissionKernel } from '../src/physics/phenomHardeningSpectrum';
+import { phenomDelayedPopulation, phenomEmissionKernel, phenomResidenceFactor } from '../src/physics/phenomHardeningSpectrum';
+import { finiteBinaryBins } from '../src/physics/finiteBinaries';
+import { realisationCells } from '../src/physics/realisationCells';
 import type { PopulationValue } from '../src/builtins/populationValue';
 
 const sheet = Sheet.fromFile(readFileSync(new URL('../examples/demo.json', import.meta.url), 'utf8'));
@@ -29,5 +32,20 @@ describe('phenomenological hardening, demo population delayed by 2 Gyr, 40 frequ
   });
   bench('circular kernel through the general energy form, for scale', () => {
     characteristicStrainSquared(delayed, freqs, { kernel: (fr, mc, m, q, z) => circularGwKernel(fr, mc, m, q, z) });
+  });
+});
+
+describe('counts per bin with the residence factor, demo population delayed by 2 Gyr, 40 frequencies, 14 yr', () => {
+  bench('finiteBinaryBins, GW-driven', () => {
+    finiteBinaryBins(delayed, cosmology, freqs, 14 * YEAR_S);
+  });
+  bench('finiteBinaryBins with the residence factor (table built each run)', () => {
+    finiteBinaryBins(delayed, cosmology, freqs, 14 * YEAR_S, {}, phenomResidenceFactor(model, M_SUN_KG));
+  });
+  bench('realisationCells, GW-driven', () => {
+    realisationCells(delayed, cosmology, freqs, 14 * YEAR_S);
+  });
+  bench('realisationCells with the residence factor (table built each run)', () => {
+    realisationCells(delayed, cosmology, freqs, 14 * YEAR_S, { residence: phenomResidenceFactor(model, M_SUN_KG) });
   });
 });

@@ -65,6 +65,7 @@ export class RealisationsValue implements SheetObject {
       realisations: this.draws.count,
       seed: this.seed,
       threshold: this.setup.threshold === Infinity ? 'all' : this.setup.threshold,
+      ...(this.setup.residence ? { environment: this.setup.residence.label } : {}),
       smoothHc: Array.from(this.smoothHc()),
       meanHc: Array.from(s.meanHc),
       medianHc: Array.from(s.medianHc),

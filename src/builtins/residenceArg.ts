@@ -78,6 +78,8 @@ export function cosmologyAndEnvironment(a: unknown, b: unknown, fn: string): { c
       if (residence) throw new BuiltinError(`${where(fn, arg)}: an environment is given twice`);
       residence = residenceArg(v, fn, 'environment');
     } else {
+      // In the environment's place only a cosmology may stand instead.
+      if (arg === 'environment' && !(isSheetObject(v) && v.kind === 'cosmology')) residenceArg(v, fn, 'environment');
       if (cosmology !== undefined) throw new BuiltinError(`${where(fn, arg)}: a cosmology is given twice`);
       cosmology = v;
     }

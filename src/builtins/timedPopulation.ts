@@ -1,11 +1,15 @@
 // A population whose density checks the clock where a cell that runs out of time is handed off
 // (the app's page, evaluationBudget.ts): a spectrum of a slow population (the galaxy route with a
 // scatter draw for each hole takes seconds) then stops on the page and is evaluated in a worker.
-// Elsewhere (the command line, workers) the check does nothing: built-ins' loops run to the end.
+// Elsewhere (the command line, workers) the check does nothing: built-ins' loops run to the end, and
+// a population built while hand-off is off is used as it is (no wrapper in the integrals' inner loops,
+// no copy per Monte Carlo sample). The page turns hand-off on when its session module loads
+// (web/engine/pageBudget.ts), before any sheet is built.
 import type { BinaryPopulation, SeparableFactors } from '../physics/populationTypes';
-import { checkTimeIfHandingOff } from '../sheet/evaluationBudget';
+import { checkTimeIfHandingOff, handOffOnTimeout } from '../sheet/evaluationBudget';
 
 export function timedPopulation(pop: BinaryPopulation): BinaryPopulation {
+  if (!handOffOnTimeout()) return pop;
   // A copy of the population's own properties (so that `{ ...pop }` still holds them all) with the
   // density and its helpers timed; the descriptors are made anew, as the population may be frozen.
   const props = Object.getOwnPropertyDescriptors(pop) as PropertyDescriptorMap;

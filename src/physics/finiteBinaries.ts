@@ -152,9 +152,10 @@ export function finiteBinaryBins(
     if (!(f > 0) || !Number.isFinite(f)) throw new RangeError(`frequency ${k + 1} must be positive and finite, got ${f} Hz`);
     const dlnf = 1 / (f * spanS);
     if (residence && factor) {
-      fillScaledRates(residence, f, zr.nodes, massKg, qr.nodes, rate, factor, scaled);
+      fillResidenceFactors(residence, f, zr.nodes, massKg, qr.nodes, factor, rate, scaled);
       sums = nodeSums(scaled, mc53, nz, nm, nq);
-      loud = new LoudestSearch(scaled, mc53, nz, nm, nq);
+      if (loud) loud.useRates(scaled);
+      else loud = new LoudestSearch(scaled, mc53, nz, nm, nq);
     }
     const { perMc53, timesMc53, perMc53ByQ, perMc53Below, timesMc53Below } = sums as NodeSums;
     let count = 0;
@@ -266,19 +267,30 @@ function nodeSums(rate: Float64Array, mc53: Float64Array, nz: number, nm: number
   return { perMc53, timesMc53, perMc53ByQ, perMc53Below, timesMc53Below };
 }
 
-/** factor[i] = R at node i for observed frequency f, and scaled[i] = rate[i] x factor[i]. */
-function fillScaledRates(residence: ResidenceFactor, f: number, z: Float64Array, massKg: Float64Array, q: Float64Array, rate: Float64Array, factor: Float64Array, scaled: Float64Array): void {
+/**
+ * factor[i] = R at node i for observed frequency f (one binary (M, q) at a time, through the redshifts:
+ * the order the factors of phenomHardeningSpectrum.ts and stellarHardening.ts cache for), and
+ * scaled[i] = rate[i] x factor[i] (when given). Nodes of rate 0 get factor 0 without a call.
+ */
+export function fillResidenceFactors(residence: ResidenceFactor, f: number, z: ArrayLike<number>, massKg: ArrayLike<number>, q: ArrayLike<number>, factor: Float64Array, rate?: Float64Array, scaled?: Float64Array): void {
+  const nz = z.length;
   const nm = massKg.length;
   const nq = q.length;
-  for (let iz = 0; iz < z.length; iz++) {
-    const fr = (1 + z[iz]) * f;
-    for (let im = 0; im < nm; im++) {
-      for (let iq = 0; iq < nq; iq++) {
+  for (let im = 0; im < nm; im++) {
+    for (let iq = 0; iq < nq; iq++) {
+      for (let iz = 0; iz < nz; iz++) {
         const i = (iz * nm + im) * nq + iq;
+        if (rate && rate[i] === 0) {
+          // No binaries at this node: its factor multiplies nothing.
+          factor[i] = 0;
+          if (scaled) scaled[i] = 0;
+          continue;
+        }
+        const fr = (1 + z[iz]) * f;
         const x = residence(fr, massKg[im], q[iq], z[iz]);
         if (!(x >= 0) || x === Infinity) throw new RangeError(`residence factor is ${x} at f_r = ${fr} Hz, M = ${massKg[im]} kg, q = ${q[iq]}, z = ${z[iz]}; it must be finite and >= 0`);
         factor[i] = x;
-        scaled[i] = rate[i] * x;
+        if (rate && scaled) scaled[i] = rate[i] * x;
       }
     }
   }
@@ -345,7 +357,7 @@ class LoudestSearch {
   private readonly rankHi: Int32Array;
   private readonly rankMid: Int32Array;
   constructor(
-    private readonly rate: Float64Array,
+    private rate: Float64Array,
     private readonly mc53: Float64Array,
     private readonly nz: number,
     private readonly nm: number,
@@ -358,10 +370,7 @@ class LoudestSearch {
     this.rankOfNode = new Int32Array(p);
     for (let j = 0; j < p; j++) this.rankOfNode[this.order[j]] = j;
     this.prefix = new Float64Array(nz * (p + 1));
-    for (let iz = 0; iz < nz; iz++) {
-      const base = iz * (p + 1);
-      for (let j = 0; j < p; j++) this.prefix[base + j + 1] = this.prefix[base + j] + rate[iz * p + this.order[j]] / this.rankedMc53[j];
-    }
+    this.fillPrefix();
     this.exRanks = new Int32Array(nz * p);
     this.exPrefix = new Float64Array(nz * (p + 1));
     this.exStart = new Int32Array(nz);
@@ -370,6 +379,21 @@ class LoudestSearch {
     this.rankLo = new Int32Array(nz);
     this.rankHi = new Int32Array(nz);
     this.rankMid = new Int32Array(nz);
+  }
+
+  private fillPrefix(): void {
+    const p = this.rankedMc53.length;
+    for (let iz = 0; iz < this.nz; iz++) {
+      const base = iz * (p + 1);
+      for (let j = 0; j < p; j++) this.prefix[base + j + 1] = this.prefix[base + j] + this.rate[iz * p + this.order[j]] / this.rankedMc53[j];
+    }
+  }
+
+  /** New rates for the same nodes (a residence factor per bin): the order by M_c^(5/3) is kept, the sums rebuilt. */
+  useRates(rate: Float64Array): void {
+    this.rate = rate;
+    this.fillPrefix();
+    this.exCut.fill(-1);
   }
 
   /** Ranks j with hF x M_c^(5/3)[j] >= h (a prefix of the ranks), known to lie in [from, to]. */

@@ -165,11 +165,20 @@ export function phenomResidenceFactor(h: PhenomHardening, mSunKg: number): Resid
   const ac = h.breakSeparationM;
   const p1 = 1 - h.innerIndex;
   const p2 = h.innerIndex - h.outerIndex;
+  // The last binary's A / B: callers that run through the frequencies of one binary skip the lookup.
+  let lastM = NaN;
+  let lastQ = NaN;
+  let lastK = 0;
   return (fr, m, q) => {
     const a3 = (G_SI * m) / (Math.PI * Math.PI * fr * fr);
     const a = Math.cbrt(a3);
     if (a > a0) return 0;
-    const k = ratioOf(m, q);
+    if (m !== lastM || q !== lastQ) {
+      lastK = ratioOf(m, q);
+      lastM = m;
+      lastQ = q;
+    }
+    const k = lastK;
     if (k === 0) return 1;
     const x = a / ac;
     return 1 / (1 + k * Math.pow(x, p1) * Math.pow(1 + x, p2) * a3);

@@ -27,7 +27,7 @@ import { M_SUN_KG, MPC_M } from './constants';
 import { chirpMassFromTotal } from './binaryMasses';
 import { iscoGwFrequencyHz } from './circularKernel';
 import type { FlatLambdaCdm } from './cosmology';
-import { circularResidenceTime, loudestExpected, singleBinaryStrain } from './finiteBinaries';
+import { circularResidenceTime, fillResidenceFactors, loudestExpected, singleBinaryStrain } from './finiteBinaries';
 import { compositeNodes } from './gaussLegendre';
 import type { BinaryPopulation } from './populationTypes';
 import type { ResidenceFactor } from './residenceFactor';
@@ -119,12 +119,6 @@ function boxEdges(lo: number, weights: Float64Array): Float64Array {
   return e;
 }
 
-function residenceAt(residence: ResidenceFactor, fr: number, mKg: number, q: number, z: number): number {
-  const r = residence(fr, mKg, q, z);
-  if (!(r >= 0) || r === Infinity) throw new RangeError(`residence factor is ${r} at f_r = ${fr} Hz, M = ${mKg} kg, q = ${q}, z = ${z}; it must be finite and >= 0`);
-  return r;
-}
-
 export function realisationCells(pop: BinaryPopulation, cosmo: FlatLambdaCdm, freqsHz: ArrayLike<number>, spanS: number, options: RealisationOptions = {}): RealisationCells {
   if (!(spanS > 0) || !Number.isFinite(spanS)) throw new RangeError(`observing span must be positive and finite, got ${spanS} s`);
   const threshold = options.threshold ?? DEFAULT_SPARSE_THRESHOLD;
@@ -173,11 +167,13 @@ export function realisationCells(pop: BinaryPopulation, cosmo: FlatLambdaCdm, fr
   const bins: BinCells[] = [];
   const nodeCount = new Float64Array(nz * nm * nq);
   const nodeStrain = new Float64Array(nz * nm * nq);
+  const residenceFactor = residence ? new Float64Array(nz * nm * nq) : undefined;
   const histogram = new Float64Array(4096);
   for (let k = 0; k < freqsHz.length; k++) {
     const f = freqsHz[k];
     if (!(f > 0) || !Number.isFinite(f)) throw new RangeError(`frequency ${k + 1} must be positive and finite, got ${f} Hz`);
     const dlnf = 1 / (f * spanS);
+    if (residence && residenceFactor) fillResidenceFactors(residence, f, zr.nodes, massKg, qr.nodes, residenceFactor, rate);
     let expectedCount = 0;
     let meanH2 = 0;
     let varianceH2 = 0;
@@ -195,7 +191,7 @@ export function realisationCells(pop: BinaryPopulation, cosmo: FlatLambdaCdm, fr
           const i = (iz * nm + im) * nq + iq;
           const m53 = mc53[im * nq + iq];
           // With a residence factor R, the count and the residence time are the GW-driven ones times R.
-          const r = residence && emitting ? residenceAt(residence, fr, massKg[im], qr.nodes[iq], zr.nodes[iz]) : 1;
+          const r = residenceFactor ? residenceFactor[i] : 1;
           const count = emitting ? (residence ? (rate[i] * r * tauF * dlnf) / m53 : (rate[i] * tauF * dlnf) / m53) : 0;
           const h = hF * m53;
           const long = (residence ? tauF * r : tauF) / m53 > age[iz];

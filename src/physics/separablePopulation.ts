@@ -34,7 +34,9 @@ export function separablePopulation(limits: PopulationLimits, d: SeparableDensit
     }
     return zFactor * massFactor;
   };
-  const massRatio = (q: number) => d.massRatio(q);
+  // the factor itself (called as a plain function, as the others), so that what is kept per factor
+  // function (the spectrum's q integral, circularMassModels.ts) is found again for a new population
+  const massRatio = d.massRatio;
   return {
     ...limits,
     density: (z, log10M, q) => zMass(z, log10M) * massRatio(q),

@@ -139,7 +139,18 @@ export function stellarEmissionKernel(base: EmissionKernel, envOf: EnvironmentOf
  */
 export function stellarResidenceFactor(env: StellarEnvironment | MassEnvironment): ResidenceFactor {
   const ft = transitionFrequencyFunction(env);
-  return (fr, m, q) => stellarSuppression(fr, ft(m, q));
+  // The last binary's f_t: callers that run through the frequencies of one binary compute it once.
+  let lastM = NaN;
+  let lastQ = NaN;
+  let lastFt = 0;
+  return (fr, m, q) => {
+    if (m !== lastM || q !== lastQ) {
+      lastFt = ft(m, q);
+      lastM = m;
+      lastQ = q;
+    }
+    return stellarSuppression(fr, lastFt);
+  };
 }
 
 /**

@@ -162,8 +162,8 @@ describe.runIf(runSuite)('a 20,000-cell sheet', { timeout: 180_000 }, () => {
   it('a slow recalculation leaves the page answering clicks', async () => {
     const { page } = s;
     // 398 cells of 2.5 ms or more each: a recalculation of a second or more, whatever the machine,
-    // with each cell far inside the page's budget per cell (0.1 s, web/engine/pageBudget.ts) even on
-    // a loaded machine, so none is handed off the page; 400 cells in all, so every row is drawn.
+    // with each cell far inside the page's budget per cell (0.1 s, web/engine/pageBudget.ts), so
+    // normally none is handed off the page; 400 cells in all, so every row is drawn.
     const slow = {
       format: 'strainsheet',
       version: 1,
@@ -181,13 +181,15 @@ describe.runIf(runSuite)('a 20,000-cell sheet', { timeout: 180_000 }, () => {
     await page.press('input[data-formula="w0"]', 'Enter');
     const other = (await page.getAttribute('[role="tab"][aria-selected="true"]', 'data-tab')) === 'reference' ? 'plots' : 'reference';
     await page.click(`[role="tab"][data-tab="${other}"]`);
-    // The click was handled while the recalculation was still under way.
+    // The click was handled before the recalculation reached the last cell. (Whether the banner still
+    // shows is not asserted: on a loaded machine a cell may pass the page's budget in wall time and be
+    // handed off the page, which ends the page's own recalculation early while w398 still waits.)
     const seen = await page.evaluate(() => ({
       tab: document.querySelector('[role="tab"][aria-selected="true"]')?.getAttribute('data-tab'),
-      recalculating: document.querySelector('[data-recalculating]') !== null,
       last: document.querySelector('[data-value="w398"]')?.getAttribute('data-raw'),
     }));
-    expect(seen, JSON.stringify(seen)).toEqual({ tab: other, recalculating: true, last: '1' });
+    expect(seen.tab, JSON.stringify(seen)).toBe(other);
+    expect(seen.last, JSON.stringify(seen)).not.toBe('2');
     await page.waitForFunction(() => document.querySelector('[data-value="w398"]')?.getAttribute('data-raw') === '2', undefined, { timeout: 120_000 });
   });
 });

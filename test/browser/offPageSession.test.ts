@@ -158,6 +158,23 @@ describe('a session with cells evaluated off the page', () => {
   });
 });
 
+describe('a sheet put back by undo while one of its cells was evaluated off the page', () => {
+  it('asks for that cell again, and its value comes back', async () => {
+    const { session, workers, live } = harness(CELLS);
+    await session.whenSettled();
+    session.load(new Sheet({ cells: [{ name: 'x', formula: '1' }], deferRecalculation: true }), 'new sheet');
+    await session.whenSettled();
+    expect(workers[0].terminated).toBe(true); // the replaced sheet's request was ended
+    session.undo(); // the replaced sheet comes back as it was: slow still waits for its ticket
+    // Put in place, its recalculation (nothing left to do) runs in the next task, which asks again.
+    for (let i = 0; i < 200 && !live().length; i++) await new Promise((resolve) => setTimeout(resolve, 5));
+    expect(live().map((w) => w.requests.map((r) => r.name))).toEqual([['slow']]);
+    live()[0].answer();
+    await session.whenComplete();
+    expect(session.current.value('slow')).toBe(5451);
+  });
+});
+
 describe('a spectrum held off the page', () => {
   it('is drawn from its JSON as the spectrum itself is', async () => {
     const { spectrumCurves } = await import('../../web/plots/sheetSpectrumModel');

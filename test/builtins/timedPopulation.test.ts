@@ -42,13 +42,16 @@ describe('timed populations', () => {
     expect(s.value('A_yr_hardened')).toBe(reference.value('A_yr_hardened'));
   });
 
-  it('keeps every property of the population, also when it is frozen and when it is spread', () => {
+  it('with hand-off on, keeps every property of the population, also when it is frozen and when it is spread; with it off, is the population itself', () => {
     const pop: BinaryPopulation = Object.freeze({
       density: (z: number, log10M: number, q: number) => z + log10M + q,
       zMin: 0, zMax: 5, log10MMin: 6, log10MMax: 11, qMin: 0.1, qMax: 1,
       separable: Object.freeze({ zMass: (z: number, log10M: number) => z * log10M, massRatio: (q: number) => 2 * q }),
     });
+    expect(timedPopulation(pop)).toBe(pop); // hand-off off (the command line): used as it is
+    setHandOffOnTimeout(true);
     const timed = timedPopulation(pop);
+    expect(timed).not.toBe(pop);
     const spread = { ...timed };
     for (const p of [timed, spread]) {
       expect([p.zMin, p.zMax, p.log10MMin, p.log10MMax, p.qMin, p.qMax]).toEqual([0, 5, 6, 11, 0.1, 1]);

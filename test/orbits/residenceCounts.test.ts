@@ -162,7 +162,10 @@ describe('the sheet: counts and realisations with the environment agree with its
   it('the realise job (strainsheet realise, the app) takes the model from the cell: its smooth h_c is the cell\'s', async () => {
     const r = await runJob(s, { kind: 'realise', cell: 'rzPhenom', count: 10, seed: 2 }, undefined, { workers: 1 });
     if (r.kind !== 'realise') throw new Error('unexpected job kind');
-    expect(Array.from(r.result.smoothHc)).toEqual(Array.from((valueOf(s, 'rzPhenom') as RealisationsValue).smoothHc()));
+    const cell = valueOf(s, 'rzPhenom') as RealisationsValue;
+    expect(Array.from(r.result.smoothHc)).toEqual(Array.from(cell.smoothHc()));
+    expect(cell.describe()).toMatch(/residence times of phenomenological hardening/);
+    expect(cell.toJSON().environment).toMatch(/^phenomenological hardening: lifetime 3 Gyr/);
   });
 
   it('refusals name the built-in and the argument', () => {
@@ -170,10 +173,12 @@ describe('the sheet: counts and realisations with the environment agree with its
       ...cells,
       ecc: 'binariesPerBin(pop, freqs, 15 yr, eccentricEmission(0.5, 0.1 nHz))',
       twice: 'binariesPerBin(pop, freqs, 15 yr, model, env)',
+      plainNumber: 'binariesPerBin(pop, freqs, 15 yr, cosmo, 3)',
       eccEnv: 'realiseBackground(pop, freqs, 15 yr, 5, 1, 30, false, environmentEmission(env, 0.5))',
     });
     expect(errorOf(bad, 'ecc')).toMatch(/environment of binariesPerBin: eccentric GW-driven.*not a residence-time factor/);
     expect(errorOf(bad, 'twice')).toMatch(/binariesPerBin.*an environment is given twice/);
+    expect(errorOf(bad, 'plainNumber')).toMatch(/environment of binariesPerBin must be a hardening model or a circular environment emission, got/);
     expect(errorOf(bad, 'eccEnv')).toMatch(/environment of realiseBackground: .*not a residence-time factor/);
   });
 });

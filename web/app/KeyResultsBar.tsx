@@ -76,7 +76,7 @@ export function KeyResultsBar() {
             const st = () => session.state(name);
             const text = () => {
               const s = st();
-              if (s.status === 'pending') return 'computing…';
+              if (s.status === 'pending') return s.offPage || s.waitsFor !== undefined ? 'evaluating off the page…' : 'computing…';
               if (s.status === 'error') return `error (${s.error.kind}): ${s.error.message}`;
               try {
                 return formatValue(s.value, unit());

@@ -45,5 +45,8 @@ async function cellsInSlices(head: Omit<SheetFile, 'cells'>, chunks: string[]): 
 /** Parses, checks and builds a sheet from file text; rejects with SheetFileError naming the problem. */
 export async function loadSheet(text: string): Promise<Sheet> {
   const file = text.length < PARSE_IN_WORKER_FROM ? parseSheetFile(text) : await parseInWorker(text);
-  return Sheet.fromFileInSlices(file, yieldToPage, APP_SLICE_MS);
+  const sheet = await Sheet.fromFileInSlices(file, yieldToPage, APP_SLICE_MS);
+  // Its last slice ends a task of its own: putting the sheet in place is the next one.
+  await yieldToPage();
+  return sheet;
 }

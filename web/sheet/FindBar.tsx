@@ -32,8 +32,11 @@ export function FindBar() {
     services.showCell(list[k]);
   };
 
-  /** Searches again; `keep` is the match to stay on when it still matches. */
-  const run = async (keep: string | null) => {
+  /**
+   * Searches; `keep` is the match to stay on when it still matches. A search the user asked for
+   * shows the first match; one made again after a recalculation moves nothing.
+   */
+  const run = async (keep: string | null, again = false) => {
     const id = ++search;
     const q = query();
     searched = q;
@@ -56,7 +59,10 @@ export function FindBar() {
     }
     const k = keep === null ? -1 : found.indexOf(keep);
     if (k >= 0) setAt(k);
-    else show(0);
+    else if (again) {
+      setAt(-1);
+      services.setFound(null);
+    } else show(0);
   };
 
   const onInput = (text: string) => {
@@ -65,7 +71,7 @@ export function FindBar() {
     timer = setTimeout(() => void run(null), TYPING_PAUSE_MS);
   };
   // Values and cells change: the matches are found again once a recalculation is complete.
-  createEffect(on(session.settled, () => void (query().trim() && run(services.found())), { defer: true }));
+  createEffect(on(session.settled, () => void (query().trim() && run(services.found(), true)), { defer: true }));
 
   const onKey = (e: KeyboardEvent) => {
     if (e.key === 'Enter') {
@@ -96,6 +102,7 @@ export function FindBar() {
     if (!query().trim()) return '';
     if (list === null) return 'searching…';
     if (!list.length) return 'no match';
+    if (at() < 0) return `${list.length} match${list.length === 1 ? '' : 'es'}`;
     return `${at() + 1} of ${list.length}`;
   };
 
