@@ -85,6 +85,7 @@ export function checkPopulation(pop: BinaryPopulation): void {
 }
 
 function resolved(r?: Partial<IntegrationResolution>): IntegrationResolution {
+  if (r === undefined) return DEFAULT_RESOLUTION; // frozen and valid; no copy per spectrum
   const out = { ...DEFAULT_RESOLUTION, ...r };
   for (const [k, v] of Object.entries(out)) {
     if (!Number.isInteger(v) || v < 1 || v > 200) throw new RangeError(`resolution ${k} must be an integer in [1, 200], got ${v}`);

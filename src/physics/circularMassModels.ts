@@ -33,21 +33,48 @@ export interface MassModel {
    * there is no cheap estimate). Used to skip kink checks that cannot matter.
    */
   atMost(x: number, indicatorValues: Float64Array): number;
+  /**
+   * Optional: the indicator is scale x fn(z) for this function object, so that a z rule laid out for
+   * it can be used again for another population with the same fn and scale (circularStrainForm.ts).
+   */
+  indicatorKey?: { fn: object; scale: number };
 }
 
 /** The mass model of a population: factored (redshift x exp(lnMass) x massRatio) or general. */
 export function massModelOf(pop: BinaryPopulation, res: IntegrationResolution): MassModel {
-  const mp = new MassPanels(pop.log10MMin, pop.log10MMax, res.log10MPanels, res.order);
   const sep = pop.separable;
-  return sep?.redshift && sep.lnMass ? factoredModel(pop, mp, res) : generalModel(pop, mp, res);
+  if (sep?.redshift && sep.lnMass) return factoredModel(pop, factoredPanels(pop.log10MMin, pop.log10MMax, res.log10MPanels, res.order), res);
+  return generalModel(pop, new MassPanels(pop.log10MMin, pop.log10MMax, res.log10MPanels, res.order), res);
+}
+
+/** The mass panels of the last factored model (which reads only their rules, never their scratch panel), laid out again only for other limits. */
+let lastFactoredPanels: MassPanels | undefined;
+
+function factoredPanels(lo: number, hi: number, panels: number, order: number): MassPanels {
+  const m = lastFactoredPanels;
+  if (m && m.lo === lo && m.hi === hi && m.panels === panels && m.order === order) return m;
+  return (lastFactoredPanels = new MassPanels(lo, hi, panels, order));
 }
 
 /** Int dq p(q) eta(q) on the q rule (the q factor of a separable density, once per spectrum). */
 function etaIntegral(pop: BinaryPopulation, massRatio: (q: number) => number, res: IntegrationResolution): number {
+  const kept = etaIntegrals.get(massRatio);
+  const breaks = pop.qBreaks ?? [];
+  if (kept && kept.qMin === pop.qMin && kept.qMax === pop.qMax && kept.panels === res.qPanels && kept.order === res.order && sameList(kept.breaks, breaks)) return kept.value;
   const qr = massRatioRule(pop, res.qPanels, res.order);
   let s = 0;
   for (let j = 0; j < qr.nodes.length; j++) s += qr.weights[j] * symmetricMassRatio(qr.nodes[j]) * checkedValue(massRatio(qr.nodes[j]), 'mass-ratio factor', qr.nodes[j]);
+  etaIntegrals.set(massRatio, { qMin: pop.qMin, qMax: pop.qMax, panels: res.qPanels, order: res.order, breaks: breaks.slice(), value: s });
   return s;
+}
+
+/** The last q integral of each mass-ratio factor (a function object, so values cannot go stale), with its rule. */
+const etaIntegrals = new WeakMap<object, { qMin: number; qMax: number; panels: number; order: number; breaks: readonly number[]; value: number }>();
+
+function sameList(a: readonly number[], b: readonly number[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 /** redshift(z) exp(lnMass(x)) massRatio(q): z factors per z node, mass sums once for all z, one exp per partial-panel node. */
@@ -89,6 +116,7 @@ function factoredModel(pop: BinaryPopulation, mp: MassPanels, res: IntegrationRe
   };
   return {
     indicator: zFactorAt,
+    indicatorKey: { fn: redshift, scale: etaPdf },
     // the indicator is the z factor
     nodeMass: (_zNodes, zFactor) => (iz, xCut) => zFactor[iz] * upToCut(xCut),
     massAt: (z, xCut) => zFactorAt(z) * upToCut(xCut),

@@ -25,9 +25,35 @@ export const STRAIN_FORM_MSUN_MPC = (((4 * Math.pow(G_SI, 5 / 3)) / (3 * Math.po
 /** Error control of the z panels: a panel's estimated error relative to the whole z integral. */
 export const Z_TOL = 1e-6;
 
-/** The z rule of every form of the spectrum integral: the composite rule refined by error control on the model's indicator. */
+/** A z rule laid out for an indicator scale x fn(z) (MassModel.indicatorKey) on a z range and resolution. */
+interface KeptZRule {
+  scale: number;
+  zMin: number;
+  zMax: number;
+  panels: number;
+  order: number;
+  rule: PanelledRule;
+}
+
+/** The last z rules of each z factor (a function object, so a rule cannot go stale): populations that differ only in their mass terms share them. */
+const keptZRules = new WeakMap<object, KeptZRule[]>();
+const KEPT_PER_FACTOR = 4;
+
+/**
+ * The z rule of every form of the spectrum integral: the composite rule refined by error control on
+ * the model's indicator. Read only by its callers; a rule kept for the same indicator is returned as
+ * it is (the same numbers a new layout would give).
+ */
 export function spectrumZRule(pop: BinaryPopulation, res: IntegrationResolution, model: MassModel = massModelOf(pop, res)): PanelledRule {
-  return adaptiveZRule(pop.zMin, pop.zMax, res.zPanels, res.order, model.indicator, Z_TOL);
+  const key = model.indicatorKey;
+  if (!key) return adaptiveZRule(pop.zMin, pop.zMax, res.zPanels, res.order, model.indicator, Z_TOL);
+  let kept = keptZRules.get(key.fn);
+  if (!kept) keptZRules.set(key.fn, (kept = []));
+  for (const k of kept) if (k.scale === key.scale && k.zMin === pop.zMin && k.zMax === pop.zMax && k.panels === res.zPanels && k.order === res.order) return k.rule;
+  const rule = adaptiveZRule(pop.zMin, pop.zMax, res.zPanels, res.order, model.indicator, Z_TOL);
+  if (kept.length >= KEPT_PER_FACTOR) kept.shift();
+  kept.push({ scale: key.scale, zMin: pop.zMin, zMax: pop.zMax, panels: res.zPanels, order: res.order, rule });
+  return rule;
 }
 
 /** h_c^2 at each frequency (Hz); see the file comment. */

@@ -33,20 +33,59 @@ export interface PhenomenologicalParams {
 /** Pivot mass of the mass term, Msun (Middleton et al. 2016). */
 export const PIVOT_MASS_MSUN = 1e7;
 
+/** A z factor built lately, with what it was built from. */
+interface RedshiftFactor {
+  rateNorm: number;
+  beta: number;
+  z0: number;
+  weight: ((z: number) => number) | undefined;
+  cosmology: FlatLambdaCdm;
+  factor: (z: number) => number;
+}
+
+const recentRedshiftFactors: RedshiftFactor[] = [];
+const KEPT = 4;
+
+/**
+ * The z factor ndot0 shape(z) |dt_r/dz|: the same function for the same rate, shape and cosmology,
+ * so that populations differing only in their mass terms (a Monte Carlo of the mass slope) share it,
+ * and the spectrum's z rule, kept per z factor (circularStrainForm.ts), is laid out once for them.
+ */
+function redshiftFactor(p: PhenomenologicalParams): (z: number) => number {
+  const w = p.redshiftWeight;
+  const c = p.cosmology;
+  for (const e of recentRedshiftFactors) {
+    if (e.rateNorm === p.rateNorm && e.weight === w && e.cosmology === c && (w !== undefined || (e.beta === p.beta && e.z0 === p.z0))) return e.factor;
+  }
+  const zWeight = w ?? ((z: number) => redshiftShape(z, p.beta, p.z0));
+  const rateNorm = p.rateNorm;
+  // a rate per rest-frame time becomes n per unit z through |dt_r/dz| (Phinney 2001)
+  const factor = (z: number) => rateNorm * zWeight(z) * (c.dtdzS(z) / GYR_S);
+  if (recentRedshiftFactors.length >= KEPT) recentRedshiftFactors.shift();
+  recentRedshiftFactors.push({ rateNorm, beta: p.beta, z0: p.z0, weight: w, cosmology: c, factor });
+  return factor;
+}
+
+/** p(q) of each mass-ratio distribution as one function, so that its q integrals can be kept (circularMassModels.ts). */
+const ratioFactors = new WeakMap<MassRatioDistribution, (q: number) => number>();
+
+function ratioFactor(d: MassRatioDistribution): (q: number) => number {
+  let f = ratioFactors.get(d);
+  if (!f) ratioFactors.set(d, (f = (q: number) => d.pdf(q)));
+  return f;
+}
+
 /** The merger density as a BinaryPopulation (density in Mpc^-3 per unit z, per dex, per unit q). */
 export function phenomenologicalPopulation(p: PhenomenologicalParams): BinaryPopulation {
-  const zWeight = p.redshiftWeight ?? ((z: number) => redshiftShape(z, p.beta, p.z0));
-  const cosmo = p.cosmology;
   const log10Pivot = Math.log10(PIVOT_MASS_MSUN);
   const slope = -p.alpha * Math.LN10;
   return separablePopulation(
     { zMin: 0, zMax: p.zMax, log10MMin: p.log10MMin, log10MMax: p.log10MMax, qMin: p.massRatio.qMin, qMax: 1 },
     {
-      // a rate per rest-frame time becomes n per unit z through |dt_r/dz| (Phinney 2001)
-      redshift: (z) => p.rateNorm * zWeight(z) * (cosmo.dtdzS(z) / GYR_S),
+      redshift: redshiftFactor(p),
       // ln[(M/M_pivot)^(-alpha) e^(-M/M*)], with M = 10^log10M = e^(ln10 log10M)
       lnMass: (x) => slope * (x - log10Pivot) - Math.exp(Math.LN10 * x) / p.cutoffMass,
-      massRatio: (q) => p.massRatio.pdf(q),
+      massRatio: ratioFactor(p.massRatio),
     },
   );
 }

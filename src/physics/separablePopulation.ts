@@ -14,7 +14,7 @@ export interface SeparableDensity {
   massRatio(q: number): number;
 }
 
-export type PopulationLimits = Pick<BinaryPopulation, 'zMin' | 'zMax' | 'log10MMin' | 'log10MMax' | 'qMin' | 'qMax'>;
+export type PopulationLimits = Pick<BinaryPopulation, 'zMin' | 'zMax' | 'log10MMin' | 'log10MMax' | 'qMin' | 'qMax' | 'qBreaks'>;
 
 /** The BinaryPopulation of a separable density: density, zMass and the factors agree by construction. */
 export function separablePopulation(limits: PopulationLimits, d: SeparableDensity): BinaryPopulation {
@@ -34,10 +34,20 @@ export function separablePopulation(limits: PopulationLimits, d: SeparableDensit
     }
     return zFactor * massFactor;
   };
-  const massRatio = (q: number) => d.massRatio(q);
-  return {
-    ...limits,
+  // the factor itself (called as a plain function, as the others), so that what is kept per factor
+  // function (the spectrum's q integral, circularMassModels.ts) is found again for a new population
+  const massRatio = d.massRatio;
+  // the limits copied field by field: an object spread costs microseconds per population here
+  const pop: BinaryPopulation = {
+    zMin: limits.zMin,
+    zMax: limits.zMax,
+    log10MMin: limits.log10MMin,
+    log10MMax: limits.log10MMax,
+    qMin: limits.qMin,
+    qMax: limits.qMax,
     density: (z, log10M, q) => zMass(z, log10M) * massRatio(q),
     separable: { zMass, massRatio, redshift: d.redshift, lnMass: d.lnMass },
   };
+  if (limits.qBreaks !== undefined) pop.qBreaks = limits.qBreaks;
+  return pop;
 }
