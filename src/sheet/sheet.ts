@@ -55,6 +55,8 @@ interface RecalcPass {
   settled: Set<string>;
   /** Position of each cell in `order`, made on the first read. */
   index?: Map<string, number>;
+  /** Where the cells the first cells need end in `order` (see firstCells). */
+  firstEnd?: number;
 }
 
 /**
@@ -323,6 +325,44 @@ export class Sheet {
   set deferRecalculation(on: boolean) {
     this.deferred = on;
     if (!on) this.recalculateSome(() => false);
+  }
+
+  /**
+   * Cells whose values are wanted first, such as a page's key results: an unfinished recalculation
+   * evaluates what they need (they and the cells they read, directly or not) before the rest. Each
+   * part keeps its order, so the values reached are the same; they are only final sooner.
+   */
+  get firstCells(): readonly string[] {
+    return this.first;
+  }
+  set firstCells(names: readonly string[]) {
+    this.first = [...names];
+    if (this.pass) this.putFirst(this.pass);
+  }
+  private first: readonly string[] = [];
+
+  /**
+   * Moves the cells the first cells need to the front of what a pass has still to do. The pass's
+   * order is topological and the moved set holds every cell its members read, so both parts stay so.
+   */
+  private putFirst(pass: RecalcPass): void {
+    if (this.first.length === 0) return;
+    const needed = this.graph.upstream(this.first);
+    const rest = pass.order.slice(pass.next);
+    const front = rest.filter((n) => needed.has(n));
+    pass.firstEnd = pass.next + front.length;
+    if (front.length === 0 || front.length === rest.length) return;
+    pass.order = [...pass.order.slice(0, pass.next), ...front, ...rest.filter((n) => !needed.has(n))];
+    pass.index = undefined;
+  }
+
+  /**
+   * Whether the unfinished recalculation has still to bring the first cells up to date (a caller
+   * running it in slices may end a slice when this turns false, to show them at once).
+   */
+  get firstCellsPending(): boolean {
+    const pass = this.pass;
+    return pass !== null && pass.firstEnd !== undefined && pass.next < pass.firstEnd;
   }
 
   /** Whether a deferred recalculation is unfinished. */
@@ -758,6 +798,7 @@ export class Sheet {
       if (notify) this.emit((o) => o.pending?.(name));
       this.store(pass, name, { status: 'error', error: cycleError(name, cycle) });
     }
+    this.putFirst(pass);
     this.pass = pass;
     if (!this.deferred) this.recalculateSome(() => false);
   }

@@ -64,6 +64,8 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     await page.reload();
     await page.waitForSelector('[data-key-value="A_yr"]');
     await page.waitForFunction(() => document.querySelector('[data-key-value="A_yr"]')?.getAttribute('data-raw')?.match(/\d/));
+    // A_yr comes first (its inputs are evaluated before the rest); then wait for every other cell.
+    await page.waitForFunction(() => !document.querySelector('[data-recalculating]'));
   }
 
   it('opens the demo and shows the engine’s A_yr in the key results and in its row', async () => {
@@ -71,10 +73,12 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
     const expected = shown(headlessDemo(), 'A_yr');
     expect(await page.getAttribute('[data-key-value="A_yr"]', 'data-raw')).toBe(expected);
     expect(await cellValueText(page, 'A_yr')).toBe(expected);
-    // Every demo cell that has a value headless has the same text on screen.
+    // Every demo cell that has a value headless has the same text on screen. On a loaded machine a
+    // slow cell may be evaluated off the page (DEVELOPERS.md, step 8); a value that cannot be copied
+    // back then shows its description followed by " (held off the page)" (src/sheet/offPageValue.ts).
     const sheet = headlessDemo();
     for (const c of sheet.cells()) {
-      if (sheet.state(c.name).status === 'value') expect.soft(await cellValueText(page, c.name), c.name).toBe(shown(sheet, c.name));
+      if (sheet.state(c.name).status === 'value') expect.soft((await cellValueText(page, c.name)).replace(/ \(held off the page\)$/, ''), c.name).toBe(shown(sheet, c.name));
     }
     await page.screenshot({ path: join(ARTIFACTS, '01-demo.png') });
     expect(pageErrors).toEqual([]);

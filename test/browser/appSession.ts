@@ -40,6 +40,8 @@ export async function startAppSession(viewport = { width: 1400, height: 900 }): 
     await page.reload();
     await page.waitForSelector('[data-key-value="A_yr"]');
     await page.waitForFunction(() => document.querySelector('[data-key-value="A_yr"]')?.getAttribute('data-raw')?.match(/\d/));
+    // A_yr comes first (its inputs are evaluated before the rest); then wait for every other cell.
+    await page.waitForFunction(() => !document.querySelector('[data-recalculating]'));
   };
   return {
     page,

@@ -39,6 +39,7 @@ describe.runIf(runSuite)('free-spectrum and (A, gamma) plots in the browser', { 
     await page.evaluate(() => localStorage.clear());
     await page.reload();
     await page.waitForSelector('[data-key-value="A_yr"]');
+    await page.waitForFunction(() => !document.querySelector('[data-recalculating]'));
   }, 180_000);
 
   afterAll(async () => {

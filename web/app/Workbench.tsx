@@ -44,7 +44,8 @@ function demoSheet(notify: (t: string, tone?: Tone) => void): Sheet {
     return new Sheet({ title: 'Untitled sheet' });
   }
   try {
-    return Sheet.fromFile(DEMO_TEXT);
+    // Evaluated by the session in slices, A_yr and its inputs first (FIRST_RESULTS).
+    return Sheet.fromFile(DEMO_TEXT, { deferRecalculation: true });
   } catch (err) {
     notify(`The demo sheet could not be read: ${err instanceof Error ? err.message : String(err)}`, 'error');
     return new Sheet({ title: 'Untitled sheet' });

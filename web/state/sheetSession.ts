@@ -29,6 +29,13 @@ export interface WholeSheetReader {
 export type EditOutcome = { ok: true } | { ok: false; message: string };
 
 
+/**
+ * Cells the recalculation brings up to date before the rest (Sheet.firstCells): the key result
+ * every sheet of this kind leads with (KeyResultsBar picks it by name), so that it shows as soon as
+ * its inputs are evaluated, whatever slow cells the sheet holds.
+ */
+export const FIRST_RESULTS: readonly string[] = ['A_yr'];
+
 export class SheetSession {
   private sheet: Sheet;
   private unsubscribe: () => void = () => {};
@@ -95,7 +102,9 @@ export class SheetSession {
     sheet.deferRecalculation = true;
     const start = performance.now();
     const end = start + APP_SLICE_MS;
-    const done = sheet.recalculateSome(() => performance.now() >= end);
+    // The slice that brings the first results up to date ends there, so they are shown at once.
+    const firstPending = sheet.firstCellsPending;
+    const done = sheet.recalculateSome(() => performance.now() >= end || (firstPending && !sheet.firstCellsPending));
     this.setCellsToRecalculate(sheet.cellsToRecalculate);
     if (done) {
       this.offPage.sync(sheet);
@@ -354,6 +363,7 @@ export class SheetSession {
   }
 
   private attach(): void {
+    this.sheet.firstCells = FIRST_RESULTS;
     this.unsubscribe = this.sheet.subscribe({
       pending: (name) => this.queueRefresh(false, name),
       value: (name) => this.queueRefresh(false, name),
