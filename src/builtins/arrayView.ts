@@ -6,6 +6,7 @@ import type { Builtin, BuiltinArg } from '../sheet/builtin';
 import { BuiltinError } from '../sheet/cellError';
 import { math, isUnit, quantity } from '../sheet/mathInstance';
 import { isSheetObject, type SheetObject } from '../sheet/sheetObject';
+import { checkTimeNowIfHandingOff } from '../sheet/evaluationBudget';
 import { DAY_S, YEAR_S } from '../physics/constants';
 import { binsBelowNyquist } from '../physics/frequencyGrid';
 import { hellingsDowns } from '../physics/hellingsDowns';
@@ -454,7 +455,7 @@ const detectionSpanBuiltin: Builtin = {
       longest = Math.min(longest, fits);
     }
     const model = source.modelFor(1 / longest, 1 / minSpan);
-    const r = guarded(fn, 'signal', () => detectionSpan(a, model, thr, longest, minSpan));
+    const r = guarded(fn, 'signal', () => detectionSpan(a, model, thr, longest, minSpan, checkTimeNowIfHandingOff));
     if (!r.reached) {
       throw new BuiltinError(`${fn}: the expected S/N stays below the threshold ${thr} for spans up to ${fmt(longest / YEAR_S)} yr (it reaches ${fmt(r.snr)} there)`);
     }

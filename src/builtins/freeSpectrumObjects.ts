@@ -2,6 +2,7 @@
 // once and kept), a measured (A, gamma) posterior, a model's effective power law, and the band
 // comparison (the headline verdict).
 import type { SheetObject } from '../sheet/sheetObject';
+import { checkTimeNowIfHandingOff } from '../sheet/evaluationBudget';
 import type { FreeSpectrumData } from '../statistics/freeSpectrum';
 import { buildFreeSpectrumLikelihood, type FreeSpectrumLikelihood } from '../statistics/freeSpectrumLikelihood';
 import { buildAmplitudeGammaRegion, type AmplitudeGammaPosterior, type AmplitudeGammaRegion } from '../statistics/amplitudeGammaPosterior';
@@ -24,7 +25,7 @@ export class FreeSpectrumObject implements SheetObject {
   likelihood(bins = this.data.frequencyHz.length): FreeSpectrumLikelihood {
     let l = this.likelihoods.get(bins);
     if (!l) {
-      l = buildFreeSpectrumLikelihood(this.data, { bins });
+      l = buildFreeSpectrumLikelihood(this.data, { bins, checkTime: checkTimeNowIfHandingOff });
       this.likelihoods.set(bins, l);
     }
     return l;
@@ -75,7 +76,7 @@ export class AmplitudeGammaObject implements SheetObject {
     readonly thin = 1,
   ) {}
   get region(): AmplitudeGammaRegion {
-    return (this.built ??= buildAmplitudeGammaRegion(this.posterior));
+    return (this.built ??= buildAmplitudeGammaRegion(this.posterior, checkTimeNowIfHandingOff));
   }
   describe(): string {
     const p = this.posterior;

@@ -4,6 +4,7 @@
 import type { Builtin } from '../sheet/builtin';
 import { BuiltinError } from '../sheet/cellError';
 import { math } from '../sheet/mathInstance';
+import { checkTimeNowIfHandingOff } from '../sheet/evaluationBudget';
 import { M_SUN_KG } from '../physics/constants';
 import type { SheetObject } from '../sheet/sheetObject';
 import { isSheetObject } from '../sheet/sheetObject';
@@ -100,7 +101,7 @@ export function checkSpectrumArgs(population: unknown, freqs: unknown, fn: strin
 function eccentricModel(e0v: unknown, f0v: unknown, fn: string): EmissionModel {
   const e0 = initialEccentricityArg(e0v, fn);
   const f0 = positiveSI(f0v, 'frequency', fn, 'f0');
-  const kernel = guardedPhysics(fn, () => eccentricEmissionKernel(circularGwKernel, { e0, f0OrbitalHz: f0 }));
+  const kernel = guardedPhysics(fn, () => eccentricEmissionKernel(circularGwKernel, { e0, f0OrbitalHz: f0, table: { checkTime: checkTimeNowIfHandingOff } }));
   return new EmissionModel(kernel, `eccentric GW-driven, ${describeE0(e0)} at orbital ${nHz(f0)} (rest frame)`, { e0: describeE0(e0), f0OrbitalHz: f0 });
 }
 
@@ -130,7 +131,7 @@ function finiteBins(population: unknown, freqs: unknown, span: unknown, extra1: 
   const last = lastFinite;
   const env = residence?.source;
   if (last && last.population === p.population && last.cosmology === cosmo && last.spanS === T && last.environment === env && sameNumbers(last.freqsHz, f)) return last.result;
-  const result = guardedPhysics(fn, () => finiteBinaryBins(p.population, cosmo, f, T, {}, residence?.factor));
+  const result = guardedPhysics(fn, () => finiteBinaryBins(p.population, cosmo, f, T, {}, residence?.factor, checkTimeNowIfHandingOff));
   lastFinite = { population: p.population, cosmology: cosmo, spanS: T, environment: env, freqsHz: Float64Array.from(f), result };
   return result;
 }

@@ -4,6 +4,7 @@
 import type { Builtin } from '../sheet/builtin';
 import { BuiltinError } from '../sheet/cellError';
 import { math, quantity } from '../sheet/mathInstance';
+import { checkTimeNowIfHandingOff } from '../sheet/evaluationBudget';
 import type { SheetObject } from '../sheet/sheetObject';
 import type { FlatLambdaCdm } from '../physics/cosmology';
 import type { BinaryPopulation } from '../physics/populationTypes';
@@ -93,9 +94,9 @@ function longResidenceH2Fraction(b: RealisationCells['bins'][number], dropped: b
 /** Runs a realisation set-up in this thread (the sheet's own cells; long runs go to the CLI or the app's worker). */
 export function realiseInThread(setup: RealisationSetup, count: number, seed: number, fn: string): RealisationsValue {
   const cells = guardedPhysics(fn, () =>
-    realisationCells(setup.population, setup.cosmology, setup.freqsHz, setup.spanS, { threshold: setup.threshold, dropLongResidence: setup.dropLongResidence, residence: setup.residence?.factor }),
+    realisationCells(setup.population, setup.cosmology, setup.freqsHz, setup.spanS, { threshold: setup.threshold, dropLongResidence: setup.dropLongResidence, residence: setup.residence?.factor, checkTime: checkTimeNowIfHandingOff }),
   );
-  return new RealisationsValue(setup, cells, seed, guardedPhysics(fn, () => drawRealisations(cells, seed, 0, count)));
+  return new RealisationsValue(setup, cells, seed, guardedPhysics(fn, () => drawRealisations(cells, seed, 0, count, checkTimeNowIfHandingOff)));
 }
 
 /** Population, cosmology, bin centres and span of realiseBackground. */

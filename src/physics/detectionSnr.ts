@@ -21,6 +21,7 @@ import { frequencyBins, residualPsdFromStrain, shortestCadence, type PulsarArray
 import { skyAverageRule } from './hellingsDowns';
 import { memberNoise, pairLayout, type PairLayout } from './pulsarPairs';
 import type { StrainModel } from './strainOnBins';
+import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
 
 export interface SnrResult {
   /** Expected S/N of the cross-correlation statistic. */
@@ -127,8 +128,10 @@ export function detectionSpan(
   threshold: number,
   maxSpanS: number,
   minSpanS: number = 2 * shortestCadence(array),
+  checkTime: TimeCheck = NO_TIME_CHECK,
 ): SpanResult {
-  const snrAt = (t: number) => detectionSnr(array, model, t).snr;
+  // checkTime (TimeCheck) before each S/N of the scan and the bisection.
+  const snrAt = (t: number) => (checkTime(), detectionSnr(array, model, t).snr);
   const steps = 48;
   const ratio = Math.pow(maxSpanS / minSpanS, 1 / (steps - 1));
   let previous = minSpanS;

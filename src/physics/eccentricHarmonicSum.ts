@@ -6,6 +6,7 @@
 // Phi is a universal function of x = f_r / f0 for each e0; HarmonicSumTable tabulates it once.
 import { eccentricityEnhancement, harmonicCut, harmonicPower, harmonicPowerBound } from './petersMathews';
 import { eccentricityAtOrbitalFrequency } from './petersEvolution';
+import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
 
 /** A harmonic whose Kapteyn-bounded weight is below this is skipped (it cannot change a double sum of size >= 1e-2). */
 const SKIP_WEIGHT = 1e-19;
@@ -30,6 +31,8 @@ export function harmonicSumDirect(x: number, e0: number, nMax: number, nTop?: nu
 }
 
 export interface HarmonicSumTableOptions {
+  /** Not part of the table (nor of its cache key): called once per integer interval while it is built (TimeCheck). */
+  checkTime?: TimeCheck;
   /**
    * Power fraction allowed to be left out at e0 by truncating the harmonic sum (sum rule
    * sum_n g = F, Peters & Mathews 1963). Default 1e-7.
@@ -111,7 +114,9 @@ export class HarmonicSumTable {
       total += this.unitSteps[k - 1] + 1;
     }
     this.unitValues = new Float64Array(total);
+    const checkTime = opts.checkTime ?? NO_TIME_CHECK;
     for (let k = 1; k < this.x1; k++) {
+      checkTime();
       const m = this.unitSteps[k - 1];
       const o = this.unitOffsets[k - 1];
       for (let i = 0; i <= m; i++) this.unitValues[o + i] = mix(k + i / m, k);

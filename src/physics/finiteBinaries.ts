@@ -18,6 +18,7 @@ import type { FlatLambdaCdm } from './cosmology';
 import { compositeNodes } from './gaussLegendre';
 import type { BinaryPopulation } from './populationTypes';
 import type { ResidenceFactor } from './residenceFactor';
+import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
 
 /** dt_r/dln f_r = (5/96) (G M_c / c^3)^(-5/3) (pi f_r)^(-8/3), s (Peters 1964, Phys. Rev. 136, B1224; Sesana, Vecchio & Colacino 2008). */
 export function circularResidenceTime(frHz: number, mcKg: number): number {
@@ -71,6 +72,7 @@ const PER_MPC3 = 1 / (MPC_M * MPC_M * MPC_M);
  * With `residence`, dt_r/dln f_r is the total residence time, the GW one times R(f_r, M, q, z), and
  * h_c^2 equals Phinney's h_c^2 with the emission kernel circular x R; a binary is long-residence when
  * that total time exceeds the age. Without it every number is the GW-driven one, computed as before.
+ * `checkTime` is called once per redshift row of the set-up and once per bin (TimeCheck).
  */
 export function finiteBinaryBins(
   pop: BinaryPopulation,
@@ -79,6 +81,7 @@ export function finiteBinaryBins(
   spanS: number,
   resolution: Partial<FiniteResolution> = {},
   residence?: ResidenceFactor,
+  checkTime: TimeCheck = NO_TIME_CHECK,
 ): FiniteBinaryResult {
   if (!(spanS > 0) || !Number.isFinite(spanS)) throw new RangeError(`observing span must be positive and finite, got ${spanS} s`);
   const res = { ...FINITE_DEFAULT_RESOLUTION, ...resolution };
@@ -107,6 +110,7 @@ export function finiteBinaryBins(
   const dc = new Float64Array(nz);
   const age = new Float64Array(nz);
   for (let iz = 0; iz < nz; iz++) {
+    checkTime();
     const z = zr.nodes[iz];
     dc[iz] = cosmo.comovingDistanceM(z);
     age[iz] = cosmo.ageS(z);
@@ -148,6 +152,7 @@ export function finiteBinaryBins(
   const hFOf = new Float64Array(nz);
   const emitting = new Int32Array(nz);
   for (let k = 0; k < nf; k++) {
+    checkTime();
     const f = freqsHz[k];
     if (!(f > 0) || !Number.isFinite(f)) throw new RangeError(`frequency ${k + 1} must be positive and finite, got ${f} Hz`);
     const dlnf = 1 / (f * spanS);

@@ -30,6 +30,7 @@ import type { FlatLambdaCdm } from './cosmology';
 import { circularResidenceTime, fillResidenceFactors, loudestExpected, singleBinaryStrain } from './finiteBinaries';
 import { compositeNodes } from './gaussLegendre';
 import type { BinaryPopulation } from './populationTypes';
+import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
 import type { ResidenceFactor } from './residenceFactor';
 
 export interface RealisationGrid {
@@ -62,6 +63,8 @@ export interface RealisationOptions {
    * count at its node, and its residence time is R times the GW one. Omitted: GW-driven throughout.
    */
   residence?: ResidenceFactor;
+  /** Called once per redshift row of the set-up and once per bin (TimeCheck); default: nothing. */
+  checkTime?: TimeCheck;
 }
 
 /** One bin's cells, split into the dense sum and the sparse cells to draw from. */
@@ -127,6 +130,7 @@ export function realisationCells(pop: BinaryPopulation, cosmo: FlatLambdaCdm, fr
   for (const [k, v] of Object.entries(grid)) if (!Number.isInteger(v) || v < 1 || v > 200) throw new RangeError(`grid ${k} must be an integer in [1, 200], got ${v}`);
   const drop = options.dropLongResidence ?? false;
   const residence = options.residence;
+  const checkTime = options.checkTime ?? NO_TIME_CHECK;
   const zr = compositeNodes(pop.zMin, pop.zMax, grid.zPanels, grid.order);
   const mr = compositeNodes(pop.log10MMin, pop.log10MMax, grid.log10MPanels, grid.order);
   const qr = compositeNodes(pop.qMin, pop.qMax, grid.qPanels, grid.order);
@@ -151,6 +155,7 @@ export function realisationCells(pop: BinaryPopulation, cosmo: FlatLambdaCdm, fr
   const dc = new Float64Array(nz);
   const age = new Float64Array(nz);
   for (let iz = 0; iz < nz; iz++) {
+    checkTime();
     const z = zr.nodes[iz];
     dc[iz] = cosmo.comovingDistanceM(z);
     age[iz] = cosmo.ageS(z);
@@ -170,6 +175,7 @@ export function realisationCells(pop: BinaryPopulation, cosmo: FlatLambdaCdm, fr
   const residenceFactor = residence ? new Float64Array(nz * nm * nq) : undefined;
   const histogram = new Float64Array(4096);
   for (let k = 0; k < freqsHz.length; k++) {
+    checkTime();
     const f = freqsHz[k];
     if (!(f > 0) || !Number.isFinite(f)) throw new RangeError(`frequency ${k + 1} must be positive and finite, got ${f} Hz`);
     const dlnf = 1 / (f * spanS);

@@ -6,7 +6,8 @@
 //   sample estimate of the HPD mass above a density level; e.g. Hyndman 1996, Am. Stat. 50, 120).
 //   Gaussian: 1 - exp(-d^2/2), d the Mahalanobis distance (chi-square cdf with 2 degrees of freedom).
 import { F_YR_HZ } from '../physics/constants';
-import { densityAtZ, type Kde2dTable, tabulateKde2d, whiten } from './gaussianKde2d';
+import { densityAtZ, KDE2D_GRID, type Kde2dTable, tabulateKde2d, whiten } from './gaussianKde2d';
+import { NO_TIME_CHECK, type TimeCheck } from '../physics/timeCheck';
 import { strainExponent } from './measurement';
 
 export type AmplitudeGammaPosterior =
@@ -63,7 +64,8 @@ export interface AmplitudeGammaRegion {
   table: Kde2dTable | null;
 }
 
-export function buildAmplitudeGammaRegion(posterior: AmplitudeGammaPosterior): AmplitudeGammaRegion {
+/** `checkTime` is called once per KDE grid row and per 1024 samples (TimeCheck). */
+export function buildAmplitudeGammaRegion(posterior: AmplitudeGammaPosterior, checkTime: TimeCheck = NO_TIME_CHECK): AmplitudeGammaRegion {
   if (posterior.kind === 'gaussian') {
     const { log10AMean: m1, gammaMean: m2, log10ASigma: s1, gammaSigma: s2, correlation: r } = posterior;
     const det = 1 - r * r;
@@ -82,11 +84,12 @@ export function buildAmplitudeGammaRegion(posterior: AmplitudeGammaPosterior): A
       densityAtLevel: (level) => norm * (1 - level),
     };
   }
-  const t = tabulateKde2d(posterior.log10A, posterior.gamma);
+  const t = tabulateKde2d(posterior.log10A, posterior.gamma, KDE2D_GRID, checkTime);
   const n = posterior.log10A.length;
   const jac = 1 / (t.chol[0] * t.chol[2]);
   const sampleDensity = new Float64Array(n);
   for (let i = 0; i < n; i++) {
+    if ((i & 1023) === 0) checkTime();
     const [z1, z2] = whiten(t, posterior.log10A[i], posterior.gamma[i]);
     sampleDensity[i] = densityAtZ(t, z1, z2);
   }

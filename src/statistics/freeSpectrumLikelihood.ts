@@ -12,6 +12,7 @@
 //   nothing beyond it, and below the lower edge the data cannot tell the powers apart.
 import { type FreeSpectrumData, quantityOffset, validateFreeSpectrum } from './freeSpectrum';
 import { type BandwidthRule, type KdeTable, tableCdf, tabulateKde } from './gaussianKde1d';
+import { NO_TIME_CHECK, type TimeCheck } from '../physics/timeCheck';
 
 export const LOG_LIKELIHOOD_FLOOR_BELOW_PEAK = 20;
 
@@ -19,6 +20,8 @@ export interface FreeSpectrumLikelihoodOptions {
   /** Use only the lowest `bins` bins (default: all). */
   bins?: number;
   rule?: BandwidthRule;
+  /** Called once per bin while the KDE tables are built (TimeCheck); default: nothing. */
+  checkTime?: TimeCheck;
 }
 
 export interface FreeSpectrumLikelihood {
@@ -59,7 +62,9 @@ export function buildFreeSpectrumLikelihood(data: FreeSpectrumData, opts: FreeSp
   const last = new Float64Array(nb);
   const start = new Int32Array(nb);
   let total = 0;
+  const checkTime = opts.checkTime ?? NO_TIME_CHECK;
   for (let k = 0; k < nb; k++) {
+    checkTime();
     const t = tabulateKde(data.samples[k], { rule: opts.rule, lowerEdge: prior.kind === 'uniform' ? lower : undefined, upperEdge: prior.kind === 'uniform' ? upper : undefined });
     tables.push(t);
     offset[k] = quantityOffset(data, k);

@@ -5,6 +5,8 @@
 // bilinearly onto a grid and convolved along each axis (binned KDE, Wand & Jones 1995, Kernel Smoothing).
 // The density in x is the density in z divided by det L.
 
+import { NO_TIME_CHECK, type TimeCheck } from '../physics/timeCheck';
+
 export interface Kde2dTable {
   mean: [number, number];
   /** Lower-triangular Cholesky factor of the sample covariance: [l11, l21, l22]. */
@@ -59,7 +61,8 @@ export function whiten(t: Pick<Kde2dTable, 'mean' | 'chol'>, u: number, v: numbe
   return [z1, z2];
 }
 
-export function tabulateKde2d(u: ArrayLike<number>, v: ArrayLike<number>, size = KDE2D_GRID): Kde2dTable {
+/** `checkTime` is called once per grid row of each smoothing pass (TimeCheck). */
+export function tabulateKde2d(u: ArrayLike<number>, v: ArrayLike<number>, size = KDE2D_GRID, checkTime: TimeCheck = NO_TIME_CHECK): Kde2dTable {
   const n = u.length;
   if (n < 3 || v.length !== n) throw new RangeError(`a 2-D KDE needs at least 3 pairs of samples, got ${Math.min(n, v.length)}`);
   const { mean, chol } = choleskyOfSamples(u, v);
@@ -96,6 +99,7 @@ export function tabulateKde2d(u: ArrayLike<number>, v: ArrayLike<number>, size =
   for (let j = 0; j <= m; j++) kern[j] = Math.exp(-0.5 * ((j * dz) / factor) ** 2);
   const tmp = new Float64Array(size * size);
   for (let r = 0; r < size; r++) {
+    checkTime();
     for (let i = 0; i < size; i++) {
       const c = counts[r * size + i];
       if (c === 0) continue;
@@ -105,6 +109,7 @@ export function tabulateKde2d(u: ArrayLike<number>, v: ArrayLike<number>, size =
   const density = new Float64Array(size * size);
   const norm = 1 / (n * 2 * Math.PI * factor * factor);
   for (let r = 0; r < size; r++) {
+    checkTime();
     for (let i = 0; i < size; i++) {
       const c = tmp[r * size + i];
       if (c === 0) continue;
