@@ -161,7 +161,12 @@ export class DependencyGraph {
       if (component.length === 1 && !selfLoop) continue;
       // One breadth-first search finds a cycle; members on it get that cycle rotated to start
       // at them, the others (components that are not a simple ring) get a search of their own.
-      const ring = this.cycleThrough(component[0], members).slice(0, -1);
+      // The search starts at the member whose name sorts first, so the cycle each cell names
+      // depends on the graph alone, not on the order of `subset`: a recalculation of part of a
+      // sheet names the cycles a rebuild names (readers further down quote them).
+      let start = component[0];
+      for (const m of component) if (m < start) start = m;
+      const ring = this.cycleThrough(start, members).slice(0, -1);
       const onRing = new Map(ring.map((n, i) => [n, i]));
       for (const m of component) {
         const at = onRing.get(m);

@@ -29,3 +29,14 @@ export function countEvaluations(sheet: Sheet): { order: string[]; count: () => 
   sheet.subscribe({ value: (n) => void order.push(n), error: (n) => void order.push(n) });
   return { order, count: () => order.length, reset: () => void order.splice(0) };
 }
+
+/**
+ * fast-check settings of a property test: a fixed seed, so that CI is deterministic. A longer
+ * search sets STRAINSHEET_PROPERTY_SEED (any integer) and STRAINSHEET_PROPERTY_RUNS (a multiplier).
+ */
+export function propertyRuns(numRuns: number, seed = 20261202): { numRuns: number; seed: number } {
+  const env = typeof process === 'undefined' ? {} : process.env;
+  const s = env.STRAINSHEET_PROPERTY_SEED;
+  const k = Number(env.STRAINSHEET_PROPERTY_RUNS ?? 1);
+  return { numRuns: Math.max(1, Math.round(numRuns * (Number.isFinite(k) && k > 0 ? k : 1))), seed: s !== undefined && s !== '' ? Number(s) | 0 : seed };
+}
