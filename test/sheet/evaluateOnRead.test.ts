@@ -3,6 +3,7 @@
 // from the same cells (the oracle, as in properties.test.ts), and cells nothing reads are not evaluated.
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import fc from 'fast-check';
+import { propertyRuns } from './helpers';
 import { readFileSync } from 'node:fs';
 import { Sheet } from '../../src/sheet/sheet';
 import type { CellState } from '../../src/sheet/types';
@@ -10,10 +11,10 @@ import { valueToJSON } from '../../src/sheet/formatValue';
 
 const NAMES = ['cell1', 'cell2', 'cell3', 'cell4', 'cell5', 'cell6'];
 
-/** A state as plain data; the "did you mean" guess (it follows the order cells were added) and cycle paths left out. */
+/** A state as plain data (cycle paths included); the "did you mean" guess (it follows the order cells were added) left out. */
 function plain(st: CellState): unknown {
   if (st.status === 'value') return { value: valueToJSON(st.value) };
-  if (st.status === 'error') return { error: st.error.kind, message: st.error.kind === 'cycle' ? '' : st.error.message.replace(/ \(did you mean \w+\?\)/, '') };
+  if (st.status === 'error') return { error: st.error.kind, message: st.error.message.replace(/ \(did you mean \w+\?\)/, '') };
   return 'pending';
 }
 
@@ -57,7 +58,7 @@ describe('a sheet evaluated on read', () => {
         const full = new Sheet({ cells: s.cells() });
         for (const c of [...s.cells()].reverse()) expect(plain(s.state(c.name))).toEqual(plain(full.state(c.name)));
       }),
-      { numRuns: 400 },
+      propertyRuns(400),
     );
   });
 

@@ -5,6 +5,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
+import { propertyRuns } from './helpers';
 import { Sheet } from '../../src/sheet/sheet';
 import type { CellSpec, CellState } from '../../src/sheet/types';
 import { valueToJSON } from '../../src/sheet/formatValue';
@@ -67,7 +68,7 @@ describe('cells wanted first', () => {
         expect(s.recalculateSome(() => false)).toBe(true);
         expect(snapshot(s)).toEqual(snapshot(oracle));
       }),
-      { numRuns: 300 },
+      propertyRuns(300),
     );
   });
 
@@ -86,7 +87,7 @@ describe('cells wanted first', () => {
         expect(s.recalculateSome(() => false)).toBe(true);
         expect(snapshot(s)).toEqual(snapshot(new Sheet({ cells: s.cells() })));
       }),
-      { numRuns: 300 },
+      propertyRuns(300),
     );
   });
 

@@ -3,6 +3,7 @@
 // incremental recalculation is a sheet rebuilt from scratch from the same cells.
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
+import { propertyRuns } from './helpers';
 import { Sheet } from '../../src/sheet/sheet';
 import type { CellSpec, CellState } from '../../src/sheet/types';
 import { valueToJSON } from '../../src/sheet/formatValue';
@@ -45,7 +46,7 @@ describe('properties', () => {
         const b = snapshot(new Sheet({ cells: shuffled }));
         for (const n of NAMES) expect(b[n]).toEqual(a[n]);
       }),
-      { numRuns: 60 },
+      propertyRuns(60),
     );
   });
 
@@ -74,7 +75,7 @@ describe('properties', () => {
           expect(snapshot(s)).toEqual(snapshot(rebuilt));
         }
       }),
-      { numRuns: 400 },
+      propertyRuns(400),
     );
   });
 
@@ -99,7 +100,7 @@ describe('properties', () => {
         }
         expect(snapshot(s)).toEqual(before); // the sheet itself is untouched
       }),
-      { numRuns: 300 },
+      propertyRuns(300),
     );
   });
 
@@ -126,7 +127,7 @@ describe('properties', () => {
         expect(back.title).toBe(s.title);
         expect(snapshot(back)).toEqual(snapshot(s));
       }),
-      { numRuns: 80 },
+      propertyRuns(80),
     );
   });
 
@@ -156,7 +157,7 @@ describe('properties', () => {
           expect((e as Error).name).toBe('SheetFileError');
         }
       }),
-      { numRuns: 400 },
+      propertyRuns(400),
     );
   });
 
@@ -177,7 +178,7 @@ describe('properties', () => {
         expect(['value', 'error']).toContain(st.status);
         s.evaluateWith({ cell1: 4 }, ['cell3']);
       }),
-      { numRuns: 400 },
+      propertyRuns(400),
     );
     expect(Object.getOwnPropertyNames(Object.prototype).sort()).toEqual(before);
     expect(Object.getOwnPropertyNames(Function.prototype).sort()).toEqual(fnBefore);
