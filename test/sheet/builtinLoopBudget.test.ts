@@ -1,6 +1,7 @@
 // Built-ins' own long loops check the cell budget where a slow cell is handed off (the app's page;
 // issue 10, item 1): the finite-number bins, realisations, the free-spectrum and (A, gamma) KDE
-// tables, the eccentric harmonic tables and the detection-span scan. Inputs come from the demo sheet
+// tables, the eccentric harmonic tables, the detection-span scan and the lifetimes of a population
+// delayed by an environment. Inputs come from the demo sheet
 // evaluated with the command line's settings, so the population is not a timed one (its density does
 // not check the clock) and only the built-in's loop can stop the call. With a budget too short for
 // anything the call stops with the budget's 'limit' error; with hand-off on and the command line's
@@ -136,6 +137,17 @@ describe("built-ins' loops and the page's cell budget", () => {
     const reference = plain(get('detection_span'));
     stopsOnPage(() => call('detectionSpan', ...args));
     expect(plain(call('detectionSpan', ...args))).toEqual(reference);
+  });
+
+  it("delayedPopulation and stalledFraction with an environment stop on the page, per lifetime solved", () => {
+    const get = inputs();
+    const args = [get('pop'), get('stellar_environment')];
+    const reference = [plain(get('A_yr_hardened')), plain(get('stalled_share_hardened'))];
+    stopsOnPage(() => call('delayedPopulation', ...args));
+    setCellBudget(1e-9);
+    stopsOnPage(() => call('stalledFraction', ...args));
+    expect(plain(call('amplitudeAtYear', call('delayedPopulation', ...args)))).toEqual(reference[0]);
+    expect(plain(call('stalledFraction', ...args))).toEqual(reference[1]);
   });
 
   it('without hand-off (the command line) a budget too short for anything does not stop these loops', () => {
