@@ -14,6 +14,7 @@ import { beginCell, DEFAULT_CELL_SECONDS, endCell, setCellBudget, setHandOffOnTi
 import { BuiltinError } from '../../src/sheet/cellError';
 import { allBuiltins } from '../../src/builtins/index';
 import { clearHarmonicSumTables } from '../../src/physics/eccentricKernel';
+import { HarmonicSumTable } from '../../src/physics/eccentricHarmonicSum';
 
 const demo = readFileSync(new URL('../../examples/demo.json', import.meta.url), 'utf8');
 const builtins = new Map(allBuiltins().map((b) => [b.name, b]));
@@ -129,6 +130,20 @@ describe("built-ins' loops and the page's cell budget", () => {
     clearHarmonicSumTables();
     stopsOnPage(() => call('eccentricEmission', args[2], args[3]));
     expect(plain(call('eccentricSpectrum', ...args))).toEqual(reference);
+  });
+
+  it('a harmonic table stopped while its log grid grows keeps a grid that gives the values of an unstopped table', () => {
+    let calls = 0;
+    const stopAfter = (n: number) => () => {
+      if (++calls > n) throw new Error('stopped');
+    };
+    const xs = [80, 3e3, 1e5, 4e7];
+    const plainTable = new HarmonicSumTable(0.9);
+    const expected = xs.map((x) => plainTable.at(x));
+    const stopped = new HarmonicSumTable(0.9, { checkTime: stopAfter(63 + 40) }); // 63 integer intervals, then 40 log points
+    expect(() => stopped.at(4e7)).toThrow('stopped');
+    calls = -Infinity; // no more stops
+    expect(xs.map((x) => stopped.at(x))).toEqual(expected);
   });
 
   it('detectionSpan stops on the page, per S/N of its scan', () => {
