@@ -1,7 +1,7 @@
 // Built-ins' own long loops check the cell budget where a slow cell is handed off (the app's page;
 // issue 10, item 1): the finite-number bins, realisations, the free-spectrum and (A, gamma) KDE
 // tables, the eccentric harmonic tables, the detection-span scan and the lifetimes of a population
-// delayed by an environment. Inputs come from the demo sheet
+// delayed by an environment, and built-ins applied to each element of a list. Inputs come from the demo sheet
 // evaluated with the command line's settings, so the population is not a timed one (its density does
 // not check the clock) and only the built-in's loop can stop the call. With a budget too short for
 // anything the call stops with the budget's 'limit' error; with hand-off on and the command line's
@@ -163,6 +163,18 @@ describe("built-ins' loops and the page's cell budget", () => {
     stopsOnPage(() => call('stalledFraction', ...args));
     expect(plain(call('amplitudeAtYear', call('delayedPopulation', ...args)))).toEqual(reference[0]);
     expect(plain(call('stalledFraction', ...args))).toEqual(reference[1]);
+  });
+
+  it('built-ins applied to each element of a list (a reference mass function, lifetimes) stop on the page, per element', () => {
+    const get = inputs();
+    const grid = Sheet.fromFile(JSON.stringify({ format: 'strainsheet', version: 2, title: '', notes: '', cells: [{ name: 'masses', formula: 'logGrid(1e6 Msun, 1e11 Msun, 200)' }] }));
+    const masses = grid.value('masses');
+    const reference = call('localMassFunction', 'velocityDispersion');
+    const expected = [plain(call('referencePhi', reference, masses)), plain(call('hardeningLifetime', get('stellar_environment'), masses, 0.5))];
+    stopsOnPage(() => call('referencePhi', reference, masses));
+    setCellBudget(1e-9);
+    stopsOnPage(() => call('hardeningLifetime', get('stellar_environment'), masses, 0.5));
+    expect([plain(call('referencePhi', reference, masses)), plain(call('hardeningLifetime', get('stellar_environment'), masses, 0.5))]).toEqual(expected);
   });
 
   it('without hand-off (the command line) a budget too short for anything does not stop these loops', () => {
