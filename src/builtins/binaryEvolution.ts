@@ -7,8 +7,9 @@ import { delayedPopulation, stalledFraction } from '../physics/delayedPopulation
 import { GYR_S, M_SUN_KG } from '../physics/constants';
 import { frictionPhaseTime, hardBinaryLifetime, lifetimeFunction } from '../physics/hardeningLifetime';
 import { environmentOfMass, massScaledEnvironment } from '../physics/hostEnvironment';
-import { delayedPopulationByMass, stalledFractionByMass } from '../physics/massDependentDelay';
+import { delayedPopulationByMass, stalledFractionByMass, type LifetimeOf } from '../physics/massDependentDelay';
 import { isSheetObject } from '../sheet/sheetObject';
+import { checkTimeNowIfHandingOff, handOffOnTimeout } from '../sheet/evaluationBudget';
 import { quantity } from '../sheet/mathInstance';
 import { scalarSI, where } from './args';
 import { environmentArg, type EnvironmentValue } from './hostEnvironment';
@@ -47,6 +48,17 @@ function environmentParameters(env: EnvironmentValue): Record<string, number> {
 
 const lifetimeArgDoc = { name: 'lifetime', unit: 'Gyr, environment or phenomHardening', description: 'time from formation to coalescence, >= 0, the same for every binary; or a hostEnvironment, whose hardening from the hard-binary separation sets each binary\'s lifetime by its mass and mass ratio; or a phenomHardening model (its lifetime, or the GW time where that is shorter)' };
 
+/**
+ * The lifetime of each (log10 M, q) in an environment (an ODE solved per call, tens of us). Where a
+ * slow cell is handed off (the app's page) each call checks the cell's clock, so the set-up of a
+ * delayed population (hundreds of calls) stops on the page; elsewhere it is the function itself.
+ */
+function environmentLifetime(env: EnvironmentValue): LifetimeOf {
+  const lifetimeOf = lifetimeFunction(massScaledEnvironment(env.scaled), M_SUN_KG, env.scaled.friction);
+  if (!handOffOnTimeout()) return lifetimeOf;
+  return (log10M, q) => (checkTimeNowIfHandingOff(), lifetimeOf(log10M, q));
+}
+
 export const binaryEvolutionBuiltins: Builtin[] = [
   {
     name: 'delayedPopulation',
@@ -65,7 +77,7 @@ export const binaryEvolutionBuiltins: Builtin[] = [
       const { p, cosmology, tau, env, phenom } = populationAndLifetime(population, lifetime, fn);
       if (phenom) return phenomDelayedPopulationValue(population, phenom, fn);
       if (env) {
-        const lifetimeOf = lifetimeFunction(massScaledEnvironment(env.scaled), M_SUN_KG, env.scaled.friction);
+        const lifetimeOf = environmentLifetime(env);
         const friction = env.scaled.friction ? 'dynamical friction, then ' : '';
         return new PopulationValue(
           guardedPhysics(fn, () => delayedPopulationByMass(p.population, cosmology, lifetimeOf)),
@@ -98,7 +110,7 @@ export const binaryEvolutionBuiltins: Builtin[] = [
       const { p, cosmology, tau, env, phenom } = populationAndLifetime(population, lifetime, fn);
       if (phenom) return guardedPhysics(fn, () => phenomStalledFraction(p.population, cosmology, phenom.model, M_SUN_KG));
       if (env) {
-        const lifetimeOf = lifetimeFunction(massScaledEnvironment(env.scaled), M_SUN_KG, env.scaled.friction);
+        const lifetimeOf = environmentLifetime(env);
         return guardedPhysics(fn, () => stalledFractionByMass(p.population, cosmology, lifetimeOf));
       }
       return stalledFraction(p.population, cosmology, tau);

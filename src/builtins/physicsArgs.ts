@@ -1,6 +1,7 @@
 // Argument helpers shared by the cosmology, population and spectrum built-ins.
 import type { Matrix } from 'mathjs';
 import { BuiltinError } from '../sheet/cellError';
+import { checkTimeIfHandingOff } from '../sheet/evaluationBudget';
 import { math } from '../sheet/mathInstance';
 import { DIMENSIONS, kindOf, objectOf, scalarSI, vectorSI, where, type Dimension } from './args';
 import type { Unit } from 'mathjs';
@@ -20,7 +21,9 @@ export function isList(v: unknown): boolean {
 export function elementwise(v: unknown, dim: Dimension, fn: string, arg: string, f: (x: number, argName: string) => unknown): unknown {
   if (!isList(v)) return f(scalarSI(v, dim, fn, arg), arg);
   const xs = vectorSI(v, dim, fn, arg);
-  return math.matrix(Array.from(xs, (x, i) => f(x, `${arg}[${i + 1}]`)) as never[]) as Matrix;
+  // Each element may solve or integrate (a lifetime, a reference mass function): on the page the
+  // list is timed per element (the clock read every 16th), so a long list is handed off.
+  return math.matrix(Array.from(xs, (x, i) => (checkTimeIfHandingOff(), f(x, `${arg}[${i + 1}]`))) as never[]) as Matrix;
 }
 
 /** A redshift, checked to be finite and >= 0 (and <= zLimit if given). */

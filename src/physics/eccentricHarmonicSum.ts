@@ -31,7 +31,10 @@ export function harmonicSumDirect(x: number, e0: number, nMax: number, nTop?: nu
 }
 
 export interface HarmonicSumTableOptions {
-  /** Not part of the table (nor of its cache key): called once per integer interval while it is built (TimeCheck). */
+  /**
+   * Not part of the table (nor of its cache key): called once per integer interval while it is built
+   * and once per point the log grid grows by later (TimeCheck; a stop leaves the grid as it was).
+   */
   checkTime?: TimeCheck;
   /**
    * Power fraction allowed to be left out at e0 by truncating the harmonic sum (sum rule
@@ -82,6 +85,7 @@ export class HarmonicSumTable {
   private x2 = Infinity;
   private tailAtX2 = 0;
   private readonly mix: (x: number, nTop?: number) => number;
+  private readonly checkTime: TimeCheck;
 
   /** A table for one e0, or for a mixture sum_k w_k Phi(x; e0_k) (weights summing to 1). */
   constructor(e0: number | { values: ArrayLike<number>; weights: ArrayLike<number> }, opts: HarmonicSumTableOptions = {}) {
@@ -114,7 +118,7 @@ export class HarmonicSumTable {
       total += this.unitSteps[k - 1] + 1;
     }
     this.unitValues = new Float64Array(total);
-    const checkTime = opts.checkTime ?? NO_TIME_CHECK;
+    const checkTime = (this.checkTime = opts.checkTime ?? NO_TIME_CHECK);
     for (let k = 1; k < this.x1; k++) {
       checkTime();
       const m = this.unitSteps[k - 1];
@@ -130,6 +134,7 @@ export class HarmonicSumTable {
   /** Computes log-grid values up to index i (or until the grid ends: Phi within 1e-9 of 1 at four points, or x > 1e15). */
   private growLog(i: number): void {
     while (!this.logDone && this.logCount <= i) {
+      this.checkTime();
       const j = this.logCount;
       const x = Math.exp(this.logStart + j * this.logStep);
       const v = this.mix(x);

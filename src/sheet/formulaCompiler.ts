@@ -11,6 +11,7 @@ import { FunctionCellScope } from './functionCellScope';
 import { BuiltinError } from './cellError';
 import { checkTime, countBuilt, MAX_BUILT_ELEMENTS } from './evaluationBudget';
 import { MAX_ELEMENTS, MAX_FORMULA_LENGTH, MAX_NESTING, MAX_NODES } from './formulaLimits';
+import { restoreLongStrings, takeLongStrings } from './longStrings';
 
 export { MAX_ELEMENTS, MAX_FORMULA_LENGTH, MAX_NESTING, MAX_NODES } from './formulaLimits';
 
@@ -44,18 +45,26 @@ function fail(cell: string, kind: CellError['kind'], detail: string, position?: 
 /** Deepest bracket nesting outside quoted text, and where it first exceeds the limit. */
 function nestingProblem(text: string): number | undefined {
   let depth = 0;
-  let quote: string | null = null;
-  for (let i = 0; i < text.length; i++) {
+  // a regular expression and indexOf find the brackets and quotes, so long strings are not walked character by character
+  const special = /[()[\]{}"']/g;
+  let m: RegExpExecArray | null;
+  while ((m = special.exec(text)) !== null) {
+    const i = m.index;
     const ch = text[i];
-    if (quote) {
-      if (ch === '\\') i++;
-      else if (ch === quote) quote = null;
-      continue;
-    }
-    if (ch === '"' || ch === "'") quote = ch;
-    else if (ch === '(' || ch === '[' || ch === '{') {
+    if (ch === '"' || ch === "'") {
+      // the closing quote: the first one not escaped by an odd run of backslashes
+      let close = text.indexOf(ch, i + 1);
+      for (;;) {
+        if (close < 0) return undefined; // the rest is inside the string
+        let slashes = 0;
+        while (close - 1 - slashes > i && text[close - 1 - slashes] === '\\') slashes++;
+        if (slashes % 2 === 0) break;
+        close = text.indexOf(ch, close + 1);
+      }
+      special.lastIndex = close + 1;
+    } else if (ch === '(' || ch === '[' || ch === '{') {
       if (++depth > MAX_NESTING) return i;
-    } else if (ch === ')' || ch === ']' || ch === '}') depth--;
+    } else depth--;
   }
   return undefined;
 }
@@ -230,6 +239,20 @@ function walk(root: MathNode, params: ReadonlySet<string>, builtinNames: Readonl
 }
 
 /** Compiles one cell's formula. `cell` names the cell in messages; `builtinNames` are the built-ins. */
+/** parse(text), with long string literals taken out and put back (longStrings.ts); the original text when that does not hold. */
+function parseTakingLongStrings(parse: (text: string) => MathNode, text: string): MathNode {
+  const taken = takeLongStrings(text);
+  if (taken) {
+    try {
+      const tree = parse(taken.text);
+      if (restoreLongStrings(tree as unknown as Parameters<typeof restoreLongStrings>[0], taken)) return tree;
+    } catch {
+      // the original text gives the error, with its positions
+    }
+  }
+  return parse(text);
+}
+
 export function compileFormula(text: string, cell: string, builtinNames?: ReadonlySet<string>): CompiledFormula {
   const locked = lockedMath();
   const builtins = builtinNames ?? new Set(locked.builtins.keys());
@@ -242,7 +265,7 @@ export function compileFormula(text: string, cell: string, builtinNames?: Readon
   if (deep !== undefined) return fail(cell, 'limit', `brackets are nested more than ${MAX_NESTING} deep`, deep);
   let tree: MathNode;
   try {
-    tree = locked.parse(text);
+    tree = parseTakingLongStrings(locked.parse, text);
   } catch (e) {
     const err = e as Error & { char?: number };
     if (err instanceof RangeError) return fail(cell, 'limit', 'the formula is too complex to read');

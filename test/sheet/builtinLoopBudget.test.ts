@@ -1,6 +1,7 @@
 // Built-ins' own long loops check the cell budget where a slow cell is handed off (the app's page;
 // issue 10, item 1): the finite-number bins, realisations, the free-spectrum and (A, gamma) KDE
-// tables, the eccentric harmonic tables and the detection-span scan. Inputs come from the demo sheet
+// tables, the eccentric harmonic tables, the detection-span scan and the lifetimes of a population
+// delayed by an environment, and built-ins applied to each element of a list. Inputs come from the demo sheet
 // evaluated with the command line's settings, so the population is not a timed one (its density does
 // not check the clock) and only the built-in's loop can stop the call. With a budget too short for
 // anything the call stops with the budget's 'limit' error; with hand-off on and the command line's
@@ -13,6 +14,7 @@ import { beginCell, DEFAULT_CELL_SECONDS, endCell, setCellBudget, setHandOffOnTi
 import { BuiltinError } from '../../src/sheet/cellError';
 import { allBuiltins } from '../../src/builtins/index';
 import { clearHarmonicSumTables } from '../../src/physics/eccentricKernel';
+import { HarmonicSumTable } from '../../src/physics/eccentricHarmonicSum';
 
 const demo = readFileSync(new URL('../../examples/demo.json', import.meta.url), 'utf8');
 const builtins = new Map(allBuiltins().map((b) => [b.name, b]));
@@ -130,12 +132,49 @@ describe("built-ins' loops and the page's cell budget", () => {
     expect(plain(call('eccentricSpectrum', ...args))).toEqual(reference);
   });
 
+  it('a harmonic table stopped while its log grid grows keeps a grid that gives the values of an unstopped table', () => {
+    let calls = 0;
+    const stopAfter = (n: number) => () => {
+      if (++calls > n) throw new Error('stopped');
+    };
+    const xs = [80, 3e3, 1e5, 4e7];
+    const plainTable = new HarmonicSumTable(0.9);
+    const expected = xs.map((x) => plainTable.at(x));
+    const stopped = new HarmonicSumTable(0.9, { checkTime: stopAfter(63 + 40) }); // 63 integer intervals, then 40 log points
+    expect(() => stopped.at(4e7)).toThrow('stopped');
+    calls = -Infinity; // no more stops
+    expect(xs.map((x) => stopped.at(x))).toEqual(expected);
+  });
+
   it('detectionSpan stops on the page, per S/N of its scan', () => {
     const get = inputs();
     const args = [get('spectrum'), get('pulsar_array'), get('snr_threshold')];
     const reference = plain(get('detection_span'));
     stopsOnPage(() => call('detectionSpan', ...args));
     expect(plain(call('detectionSpan', ...args))).toEqual(reference);
+  });
+
+  it("delayedPopulation and stalledFraction with an environment stop on the page, per lifetime solved", () => {
+    const get = inputs();
+    const args = [get('pop'), get('stellar_environment')];
+    const reference = [plain(get('A_yr_hardened')), plain(get('stalled_share_hardened'))];
+    stopsOnPage(() => call('delayedPopulation', ...args));
+    setCellBudget(1e-9);
+    stopsOnPage(() => call('stalledFraction', ...args));
+    expect(plain(call('amplitudeAtYear', call('delayedPopulation', ...args)))).toEqual(reference[0]);
+    expect(plain(call('stalledFraction', ...args))).toEqual(reference[1]);
+  });
+
+  it('built-ins applied to each element of a list (a reference mass function, lifetimes) stop on the page, per element', () => {
+    const get = inputs();
+    const grid = Sheet.fromFile(JSON.stringify({ format: 'strainsheet', version: 2, title: '', notes: '', cells: [{ name: 'masses', formula: 'logGrid(1e6 Msun, 1e11 Msun, 200)' }] }));
+    const masses = grid.value('masses');
+    const reference = call('localMassFunction', 'velocityDispersion');
+    const expected = [plain(call('referencePhi', reference, masses)), plain(call('hardeningLifetime', get('stellar_environment'), masses, 0.5))];
+    stopsOnPage(() => call('referencePhi', reference, masses));
+    setCellBudget(1e-9);
+    stopsOnPage(() => call('hardeningLifetime', get('stellar_environment'), masses, 0.5));
+    expect([plain(call('referencePhi', reference, masses)), plain(call('hardeningLifetime', get('stellar_environment'), masses, 0.5))]).toEqual(expected);
   });
 
   it('without hand-off (the command line) a budget too short for anything does not stop these loops', () => {
