@@ -44,7 +44,7 @@ export class RealisationsValue implements SheetObject {
     readonly seed: number,
     readonly draws: RealisationDraws,
   ) {
-    this.summary = summariseRealisations(draws);
+    this.summary = summariseRealisations(draws, checkTimeNowIfHandingOff);
   }
   describe(): string {
     const n = this.cells.bins.length;
@@ -196,6 +196,7 @@ export const realisationBuiltins: Builtin[] = [
       const col = new Float64Array(R);
       const out = new Float64Array(nb);
       for (let k = 0; k < nb; k++) {
+        checkTimeNowIfHandingOff();
         for (let i = 0; i < R; i++) col[i] = r.draws.hc[i * nb + k];
         col.sort();
         const h = (R - 1) * p;

@@ -1,6 +1,7 @@
 // Summaries of realisations per frequency bin: mean, median and central bands of h_c, the probability
 // that the loudest binary outshines the rest of its bin, and the median loudest strain.
 import type { RealisationDraws } from '../physics/binaryRealisations';
+import { NO_TIME_CHECK, type TimeCheck } from '../physics/timeCheck';
 import { ONE_SIGMA_LEVEL, TWO_SIGMA_LEVEL, sortedQuantile } from './sampleSummary';
 
 export interface RealisationSummary {
@@ -53,7 +54,8 @@ export function joinDraws(chunks: RealisationDraws[]): RealisationDraws {
   };
 }
 
-export function summariseRealisations(d: RealisationDraws): RealisationSummary {
+/** `checkTime` is called once per bin (TimeCheck). */
+export function summariseRealisations(d: RealisationDraws, checkTime: TimeCheck = NO_TIME_CHECK): RealisationSummary {
   const nb = d.bins;
   const R = d.count;
   const per = () => new Float64Array(nb);
@@ -74,6 +76,7 @@ export function summariseRealisations(d: RealisationDraws): RealisationSummary {
   const column = new Float64Array(R);
   const loud = new Float64Array(R);
   for (let k = 0; k < nb; k++) {
+    checkTime();
     let sum = 0;
     let sum2 = 0;
     let sum4 = 0;

@@ -88,12 +88,18 @@ describe("built-ins' loops and the page's cell budget", () => {
     });
   });
 
-  it('realiseBackground stops on the page (cells per bin, draws per realisation)', () => {
+  it('realiseBackground stops on the page (cells and summary per bin, draws per realisation), realisedQuantile per bin', () => {
     const get = inputs();
     const args = [get('pop'), get('freqs'), get('array_span'), 40, 7, undefined, undefined, get('stellar_environment')];
     const reference = plain(call('realiseBackground', ...args));
     stopsOnPage(() => call('realiseBackground', ...args));
-    expect(plain(call('realiseBackground', ...args))).toEqual(reference);
+    const realisations = call('realiseBackground', ...args);
+    expect(plain(realisations)).toEqual(reference);
+    // realisedQuantile sorts each bin's column of realisations: once per bin.
+    setHandOffOnTimeout(false); // the command line's
+    const median = plain(call('realisedQuantile', realisations, 0.5));
+    stopsOnPage(() => call('realisedQuantile', realisations, 0.5));
+    expect(plain(call('realisedQuantile', realisations, 0.5))).toEqual(median);
   });
 
   it("the free-spectrum likelihood's KDE tables stop on the page, per bin, and are built whole later", () => {
