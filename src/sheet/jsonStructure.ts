@@ -23,6 +23,7 @@ export function jsonStructure(text: string, maxDepth = Infinity): JsonStructure 
   const stack: Open[] = [];
   let depth = 0;
   let duplicate: JsonStructure['duplicate'];
+  let nextSlash = -1; // the first backslash at or after the search position (Infinity: none)
   for (let i = 0; i < text.length; i++) {
     const c = text.charCodeAt(i);
     if (c === 0x7b /* { */ || c === 0x5b /* [ */) {
@@ -39,17 +40,20 @@ export function jsonStructure(text: string, maxDepth = Infinity): JsonStructure 
       if (top?.object) top.expectKey = true;
       else if (top) top.index++;
     } else if (c === 0x22 /* " */) {
+      // the closing quote, found with indexOf (long strings are not walked character by character):
+      // a backslash before it escapes the character after the backslash
       let j = i + 1;
       let escaped = false;
-      while (j < text.length) {
-        const d = text.charCodeAt(j);
-        if (d === 0x5c /* \ */) {
+      for (;;) {
+        const close = text.indexOf('"', j);
+        if (nextSlash < j) nextSlash = slashAtOrAfter(text, j);
+        if (nextSlash < (close < 0 ? text.length : close)) {
           escaped = true;
-          j += 2;
+          j = nextSlash + 2;
           continue;
         }
-        if (d === 0x22) break;
-        j++;
+        j = close < 0 ? Math.max(j, text.length) : close;
+        break;
       }
       const top = stack[stack.length - 1];
       if (top?.object && top.expectKey && !duplicate) {
@@ -70,6 +74,11 @@ export function jsonStructure(text: string, maxDepth = Infinity): JsonStructure 
     }
   }
   return duplicate ? { depth, duplicate } : { depth };
+}
+
+function slashAtOrAfter(text: string, from: number): number {
+  const k = text.indexOf('\\', from);
+  return k < 0 ? Infinity : k;
 }
 
 function pathOf(stack: Open[]): Array<string | number> {
