@@ -1,7 +1,8 @@
 // Populations check the clock where slow cells are handed off (the app's page) and nowhere else
-// (issue 10, item 1): on the demo sheet with a budget too short for anything, amplitudeAtYear of a
-// delayed population (a built-in's own integral over the density) is handed off on the page, and
-// the replica's value equals the command line's; without hand-off the built-in runs to the end.
+// (issue 10, item 1): on the demo sheet with a budget too short for anything, the stalled share of a
+// population (stalledFraction: a built-in's own integral over the density, whose inputs are not
+// handed off) is handed off on the page, and the replica's value equals the command line's; without
+// hand-off the built-ins run to the end.
 import { readFileSync } from 'node:fs';
 import { afterEach, describe, expect, it } from 'vitest';
 import { Sheet } from '../../src/sheet/sheet';
@@ -25,14 +26,14 @@ describe('timed populations', () => {
     setCellBudget(1e-9);
     const page = Sheet.fromFile(demo);
     const waiting = page.offPageCells();
-    expect(waiting.map((c) => c.name)).toContain('A_yr_hardened');
-    const ticket = waiting.find((c) => c.name === 'A_yr_hardened')!.ticket;
+    expect(waiting.map((c) => c.name)).toContain('stalled_share');
+    const ticket = waiting.find((c) => c.name === 'stalled_share')!.ticket;
     setHandOffOnTimeout(false);
     setCellBudget(DEFAULT_CELL_SECONDS);
-    const outcome = stateFromTransfer(structuredClone(stateToTransfer(new SheetReplica().evaluate(page.closureText(['A_yr_hardened']), 'A_yr_hardened'))));
-    expect(page.supplyOffPage('A_yr_hardened', ticket, outcome)).toBe(true);
-    expect(formatValue(page.value('A_yr_hardened'))).toBe(formatValue(reference.value('A_yr_hardened')));
-    expect(page.value('A_yr_hardened')).toBe(reference.value('A_yr_hardened'));
+    const outcome = stateFromTransfer(structuredClone(stateToTransfer(new SheetReplica().evaluate(page.closureText(['stalled_share']), 'stalled_share'))));
+    expect(page.supplyOffPage('stalled_share', ticket, outcome)).toBe(true);
+    expect(formatValue(page.value('stalled_share'))).toBe(formatValue(reference.value('stalled_share')));
+    expect(page.value('stalled_share')).toBe(reference.value('stalled_share'));
   });
 
   it('without hand-off, a built-in\'s integral is not interrupted by the cell budget', () => {
@@ -40,6 +41,7 @@ describe('timed populations', () => {
     setCellBudget(1e-9);
     const s = Sheet.fromFile(demo);
     expect(s.value('A_yr_hardened')).toBe(reference.value('A_yr_hardened'));
+    expect(s.value('stalled_share')).toBe(reference.value('stalled_share'));
   });
 
   it('with hand-off on, keeps every property of the population, also when it is frozen and when it is spread; with it off, is the population itself', () => {
