@@ -4,7 +4,7 @@
 import type { Builtin } from '../sheet/builtin';
 import { BuiltinError } from '../sheet/cellError';
 import { math, quantity } from '../sheet/mathInstance';
-import { checkTimeNowIfHandingOff } from '../sheet/evaluationBudget';
+import { checkTimeNowIfHandingOff, withoutHandOff } from '../sheet/evaluationBudget';
 import type { SheetObject } from '../sheet/sheetObject';
 import type { FlatLambdaCdm } from '../physics/cosmology';
 import type { BinaryPopulation } from '../physics/populationTypes';
@@ -175,7 +175,10 @@ export const realisationBuiltins: Builtin[] = [
       const R = countArg(count, fn, 'count', MAX_SHEET_REALISATIONS);
       if (R * b.freqsHz.length > MAX_REALISATION_BINS) throw new BuiltinError(`${where(fn, 'count')}: ${R} realisations of ${b.freqsHz.length} bins exceed ${MAX_REALISATION_BINS} realisation-bins; use fewer, or run them with strainsheet realise`);
       const setup: RealisationSetup = { ...b, threshold: thresholdArg(threshold, fn), dropLongResidence: flagArg(dropLong, fn, 'dropLongResidence') };
-      return realiseInThread(setup, R, seedArg(seed, fn), fn);
+      // Not handed off the page: the realisation plot and the Realisations tab read the draws and the
+      // summary themselves, which a value held off the page (its JSON) does not carry. Long runs
+      // belong in the Realisations tab, which runs in Web Workers.
+      return withoutHandOff(() => realiseInThread(setup, R, seedArg(seed, fn), fn));
     },
   },
   {

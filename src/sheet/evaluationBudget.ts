@@ -41,6 +41,20 @@ export function handOffOnTimeout(): boolean {
   return handOff;
 }
 
+/**
+ * Runs `fn` with hand-off off: for a built-in whose value the page must hold itself (its plots read
+ * more than the value's JSON), so it runs to the end where it is instead of being handed off.
+ */
+export function withoutHandOff<T>(fn: () => T): T {
+  const was = handOff;
+  handOff = false;
+  try {
+    return fn();
+  } finally {
+    handOff = was;
+  }
+}
+
 /** Sets the time budget of one cell's evaluation (seconds, > 0). */
 export function setCellBudget(seconds: number): void {
   if (!(seconds > 0) || !Number.isFinite(seconds)) throw new RangeError(`the cell budget must be a positive number of seconds, got ${seconds}`);

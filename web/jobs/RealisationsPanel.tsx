@@ -3,7 +3,7 @@
 // `strainsheet realise` for the same seed (the same chunked job), and the CSV export is its CSV.
 import { createMemo, createSignal, onCleanup, Show } from 'solid-js';
 import { useServices } from '../app/services';
-import { isSheetObject } from '../engine/engine';
+import { isOffPageValue, isSheetObject } from '../engine/engine';
 import { JobClient } from './jobClient';
 import { CellSelect } from './CellSelect';
 import { JobStatusView, wholeIn, WORKERS_HINT } from './JobStatusView';
@@ -31,7 +31,8 @@ export function RealisationsPanel() {
       return r.objects
         .filter((c) => {
           const v = r.valueOf(c.name);
-          return isSheetObject(v) && v.kind === 'realisations';
+          // A cell evaluated off the page (one of its inputs is held there) is run from the file text all the same.
+          return isSheetObject(v) && (v.kind === 'realisations' || (isOffPageValue(v) && v.heldKind === 'realisations'));
         })
         .map((c) => c.name);
     },
