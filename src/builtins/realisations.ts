@@ -21,6 +21,8 @@ const METHOD = `${SVC}; split into drawn and smooth cells after Becsy, Cornish &
 /** Most realisations one cell may hold, and most realisation-bins (memory: 6 numbers each). */
 export const MAX_SHEET_REALISATIONS = 100_000;
 export const MAX_REALISATION_BINS = 4_000_000;
+/** On the app's page, runs of at most this many realisation-bins are made to the end, never handed off (a few tenths of a second at most). */
+export const PAGE_REALISATION_BINS = 5_000;
 
 /** What a run needs to be repeated elsewhere (the CLI, a worker): the inputs of realisationCells and the seed. */
 export interface RealisationSetup {
@@ -175,10 +177,11 @@ export const realisationBuiltins: Builtin[] = [
       const R = countArg(count, fn, 'count', MAX_SHEET_REALISATIONS);
       if (R * b.freqsHz.length > MAX_REALISATION_BINS) throw new BuiltinError(`${where(fn, 'count')}: ${R} realisations of ${b.freqsHz.length} bins exceed ${MAX_REALISATION_BINS} realisation-bins; use fewer, or run them with strainsheet realise`);
       const setup: RealisationSetup = { ...b, threshold: thresholdArg(threshold, fn), dropLongResidence: flagArg(dropLong, fn, 'dropLongResidence') };
-      // Not handed off the page: the realisation plot and the Realisations tab read the draws and the
-      // summary themselves, which a value held off the page (its JSON) does not carry. Long runs
-      // belong in the Realisations tab, which runs in Web Workers.
-      return withoutHandOff(() => realiseInThread(setup, R, seedArg(seed, fn), fn));
+      // On the page, a small run is made there to the end: the realisation plot reads its draws and
+      // summary, which a value held off the page (its JSON) does not carry. A larger one checks the
+      // clock and is handed off (its bands are still drawn on the spectrum plot, from its JSON).
+      const run = () => realiseInThread(setup, R, seedArg(seed, fn), fn);
+      return R * b.freqsHz.length <= PAGE_REALISATION_BINS ? withoutHandOff(run) : run();
     },
   },
   {

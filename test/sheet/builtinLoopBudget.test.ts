@@ -15,6 +15,7 @@ import { BuiltinError } from '../../src/sheet/cellError';
 import { allBuiltins } from '../../src/builtins/index';
 import { clearHarmonicSumTables } from '../../src/physics/eccentricKernel';
 import { HarmonicSumTable } from '../../src/physics/eccentricHarmonicSum';
+import { PAGE_REALISATION_BINS } from '../../src/builtins/realisations';
 
 const demo = readFileSync(new URL('../../examples/demo.json', import.meta.url), 'utf8');
 const builtins = new Map(allBuiltins().map((b) => [b.name, b]));
@@ -88,15 +89,22 @@ describe("built-ins' loops and the page's cell budget", () => {
     });
   });
 
-  it('realiseBackground runs to the end on the page (its plots need the draws, not JSON); realisedQuantile stops per bin', () => {
+  it('realiseBackground: a small run goes to the end on the page (its plot reads the draws), a large one stops (cells and summary per bin, draws per realisation); realisedQuantile stops per bin', () => {
     const get = inputs();
-    const args = [get('pop'), get('freqs'), get('array_span'), 40, 7, undefined, undefined, get('stellar_environment')];
+    const freqs = get('freqs') as { size(): number[] };
+    const bins = freqs.size()[0];
+    const small = Math.floor(PAGE_REALISATION_BINS / bins);
+    const args = [get('pop'), get('freqs'), get('array_span'), small, 7, undefined, undefined, get('stellar_environment')];
     const reference = plain(call('realiseBackground', ...args));
     setHandOffOnTimeout(true);
     setCellBudget(1e-9); // the page's checks, with a budget too short for any of them
     const onPage = call('realiseBackground', ...args);
     setCellBudget(DEFAULT_CELL_SECONDS);
     expect(plain(onPage)).toEqual(reference);
+    const large = [get('pop'), get('freqs'), get('array_span'), small + 1, 7, undefined, undefined, get('stellar_environment')];
+    const largeReference = plain(call('realiseBackground', ...large));
+    stopsOnPage(() => call('realiseBackground', ...large));
+    expect(plain(call('realiseBackground', ...large))).toEqual(largeReference);
     const realisations = call('realiseBackground', ...args);
     expect(plain(realisations)).toEqual(reference);
     // realisedQuantile sorts each bin's column of realisations: once per bin.

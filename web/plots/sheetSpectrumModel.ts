@@ -64,7 +64,7 @@ export function sheetSpectrumModel(sheet: SheetReader, quantity: VerticalQuantit
       const m = measuredFromJson(c.name, v.toJSON());
       if (m) measured.push(m);
       else notes.push(`${c.name}: this measurement has no amplitude interval to draw.`);
-    } else if (v.kind === 'realisations') {
+    } else if (v.kind === 'realisations' || (isOffPageValue(v) && v.heldKind === 'realisations')) {
       const r = realisationBandsFromJson(c.name, v.toJSON());
       if (r) realisations.push(r);
     } else if (v.kind === 'freeSpectrum' && (v as unknown as { data?: FreeSpectrumData }).data) {
