@@ -56,6 +56,17 @@ const TABLE_ORDER = 16;
 const TABLE_X = Array.from({ length: TABLE_ORDER + 1 }, (_, j) => 0.5 + 0.5 * Math.cos((Math.PI * j) / TABLE_ORDER));
 const TABLE_W = TABLE_X.map((_, j) => (j % 2 ? -1 : 1) * (j === 0 || j === TABLE_ORDER ? 0.5 : 1));
 
+/** The inner map of `outer` at `key`, made when missing (the outer map emptied first past `cap` keys). */
+function innerMap<V>(outer: Map<number, Map<number, V>>, key: number, cap: number): Map<number, V> {
+  let inner = outer.get(key);
+  if (!inner) {
+    if (outer.size > cap) outer.clear();
+    inner = new Map();
+    outer.set(key, inner);
+  }
+  return inner;
+}
+
 /**
  * The normalisation A(M, q) for many binaries: for each mass ratio and each decade [k, k+1] of
  * log10(M/Msun) that is asked for, ln A at 17 Chebyshev points of the decade (root solves), then the
@@ -72,12 +83,7 @@ export function normalisationTable(h: PhenomHardening, mSunKg: number): (mKg: nu
     const s = Math.log10(mKg / mSunKg);
     const k = Math.floor(s);
     if (!Number.isFinite(k)) return solve(mKg, q);
-    let byDecade = tables.get(q);
-    if (!byDecade) {
-      if (tables.size > 256) tables.clear();
-      byDecade = new Map();
-      tables.set(q, byDecade);
-    }
+    const byDecade = innerMap(tables, q, 256);
     let lnA = byDecade.get(k);
     if (lnA === undefined) {
       const values = new Float64Array(TABLE_ORDER + 1);
@@ -113,12 +119,7 @@ function ratioTable(h: PhenomHardening, mSunKg: number): (mKg: number, q: number
   const normOf = normalisationTable(h, mSunKg);
   const ratios = new Map<number, Map<number, number>>();
   return (mKg, q) => {
-    let row = ratios.get(mKg);
-    if (!row) {
-      if (ratios.size > 4096) ratios.clear();
-      row = new Map();
-      ratios.set(mKg, row);
-    }
+    const row = innerMap(ratios, mKg, 4096);
     let k = row.get(q);
     if (k === undefined) {
       const A = normOf(mKg, q);
