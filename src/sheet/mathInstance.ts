@@ -1,13 +1,40 @@
 // The private mathjs instance every formula is evaluated with, built from only the factories the
 // formula language needs (mathFactories.ts), so that start-up and bundles stay small. Astronomers'
 // units are defined here before the instance is locked (see formulaCompiler for the allow-list).
-import { create, type MathJsInstance, type Unit } from 'mathjs';
+import { create, factory, type FactoryFunction, type MathJsInstance, type Unit } from 'mathjs';
 import { M_SUN_KG, AU_M, PC_M, YEAR_S } from '../physics/constants';
 import { MATH_FACTORIES, OMITTED_MATHJS_NAMES } from './mathFactories';
 
+/** The functions mathjs's Unit class is built with (its other dependencies are classes and config). */
+const UNIT_FUNCTIONS = [
+  'addScalar', 'subtractScalar', 'multiplyScalar', 'divideScalar', 'pow', 'abs', 'fix', 'round', 'equal',
+  'isNumeric', 'format', 'number',
+] as const;
+
+/**
+ * mathjs's Unit factory, handed each function it depends on as a call of the instance's own function,
+ * which mathjs builds on first call. The original builds them all with the class (fix, for
+ * Unit.splitUnit, builds ceil, floor and round; pow builds inv, det and identity), which cost start-up
+ * the typed functions of a dozen factories no formula may use.
+ */
+function unitClassCallingLazily(original: FactoryFunction<unknown> & { dependencies: string[]; meta?: object }) {
+  const others = original.dependencies.filter((d) => !(UNIT_FUNCTIONS as readonly string[]).includes(d));
+  return factory(
+    'Unit',
+    [...others, 'math'] as never,
+    (deps: Record<string, unknown>) => {
+      const instance = deps.math as unknown as Record<string, (...args: unknown[]) => unknown>;
+      const calls = Object.fromEntries(UNIT_FUNCTIONS.map((name) => [name, (...args: unknown[]) => instance[name](...args)]));
+      return (original as unknown as (d: Record<string, unknown>) => unknown)({ ...deps, ...calls });
+    },
+    original.meta as never,
+  );
+}
+
 function buildInstance(): MathJsInstance {
   // absTol 0: mathjs's default absolute tolerance would make 1e-15 == 0 true.
-  const m = create(MATH_FACTORIES, { absTol: 0, relTol: 1e-12 });
+  const factories = { ...MATH_FACTORIES, createUnitClass: unitClassCallingLazily(MATH_FACTORIES.createUnitClass as never) };
+  const m = create(factories, { absTol: 0, relTol: 1e-12 });
   // Units of the trade (values from src/physics/constants.ts, each with its source there).
   m.createUnit('Msun', { definition: `${M_SUN_KG} kg` });
   m.createUnit('au', { definition: `${AU_M} m` });
