@@ -1,8 +1,8 @@
 // The mass integral of a factored density up to the cut, F(x) = cumulative[p] + (x - a_p) Q_p(x)
 // (circularMassModels.ts), where Q_p(x) is the Gauss-Legendre mean of the integrand over [a_p, x],
 // the start a_p of the mass panel x falls in. Q_p is analytic in x, so on pieces of each panel it is
-// replaced by its Chebyshev interpolant (Press, Teukolsky, Vetterling & Flannery 2007, Numerical
-// Recipes, 3rd ed., section 5.8), built when a piece is first read. A piece is used only when its last
+// replaced by its Chebyshev interpolant (Press, Teukolsky, Vetterling & Flannery 1992, Numerical
+// Recipes in C, 2nd ed., Cambridge University Press, section 5.8), built when a piece is first read. A piece is used only when its last
 // coefficients are below TABLE_TOL of the local F / (x - a_p); a piece that does not converge in
 // MAX_LEVEL halvings reads the direct rule instead. A spectrum at many frequencies then costs one
 // short sum per (frequency, redshift) pair instead of order x 2 exponentials.
@@ -54,7 +54,7 @@ export class CutMassTable {
     let piece = this.slotPiece[p * SLOTS + slot];
     if (piece === UNREAD) piece = this.resolve(p, slot);
     if (piece === DIRECT) return this.cumulative[p] + this.partial(a, xCut);
-    // Sum_k c_k T_k(t) by Clenshaw's recurrence (Numerical Recipes, section 5.8)
+    // Sum_k c_k T_k(t) by Clenshaw's recurrence (Numerical Recipes in C, section 5.8)
     const c = this.coeffs;
     const base = piece * POINTS;
     const t = (xCut - this.centre[piece]) * this.scale[piece];
