@@ -2,10 +2,11 @@
 // (circularMassModels.ts), where Q_p(x) is the Gauss-Legendre mean of the integrand over [a_p, x],
 // the start a_p of the mass panel x falls in. Q_p is analytic in x, so on pieces of each panel it is
 // replaced by its Chebyshev interpolant (Press, Teukolsky, Vetterling & Flannery 1992, Numerical
-// Recipes in C, 2nd ed., Cambridge University Press, section 5.8), built when a piece is first read. A piece is used only when its last
-// coefficients are below TABLE_TOL of the local F / (x - a_p); a piece that does not converge in
-// MAX_LEVEL halvings reads the direct rule instead. A spectrum at many frequencies then costs one
-// short sum per (frequency, redshift) pair instead of order x 2 exponentials.
+// Recipes in C, 2nd ed., Cambridge University Press, section 5.8), built when a piece is first
+// read. A piece is used only when its last coefficients are below TABLE_TOL of the local
+// F / (x - a_p); a piece that does not converge in MAX_LEVEL halvings reads the direct rule instead.
+// A spectrum at many frequencies then costs one short sum per (frequency, redshift) pair instead of
+// order x 2 exponentials.
 
 /** Chebyshev points of the first kind per piece. */
 const POINTS = 20;
