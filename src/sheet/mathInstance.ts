@@ -4,6 +4,7 @@
 import { create, factory, type FactoryFunction, type MathJsInstance, type Unit } from 'mathjs';
 import { M_SUN_KG, AU_M, PC_M, YEAR_S } from '../physics/constants';
 import { MATH_FACTORIES, OMITTED_MATHJS_NAMES } from './mathFactories';
+import { unitNameLookup } from './unitNameLookup';
 
 /** The functions mathjs's Unit class is built with (its other dependencies are classes and config). */
 const UNIT_FUNCTIONS = [
@@ -35,6 +36,9 @@ function buildInstance(): MathJsInstance {
   // absTol 0: mathjs's default absolute tolerance would make 1e-15 == 0 true.
   const factories = { ...MATH_FACTORIES, createUnitClass: unitClassCallingLazily(MATH_FACTORIES.createUnitClass as never) };
   const m = create(factories, { absTol: 0, relTol: 1e-12 });
+  // mathjs asks this for every name imported, every symbol parsed and every cell name checked.
+  const unitClass = m.Unit as unknown as { isValuelessUnit(name: string): boolean; UNITS: Parameters<typeof unitNameLookup>[0] };
+  unitClass.isValuelessUnit = unitNameLookup(unitClass.UNITS);
   // Units of the trade (values from src/physics/constants.ts, each with its source there).
   m.createUnit('Msun', { definition: `${M_SUN_KG} kg` });
   m.createUnit('au', { definition: `${AU_M} m` });
