@@ -1,41 +1,15 @@
 // The private mathjs instance every formula is evaluated with, built from only the factories the
 // formula language needs (mathFactories.ts), so that start-up and bundles stay small. Astronomers'
 // units are defined here before the instance is locked (see formulaCompiler for the allow-list).
-import { create, factory, type FactoryFunction, type MathJsInstance, type Unit } from 'mathjs';
+import { create, type MathJsInstance, type Unit } from 'mathjs';
 import { M_SUN_KG, AU_M, PC_M, YEAR_S } from '../physics/constants';
 import { MATH_FACTORIES, OMITTED_MATHJS_NAMES } from './mathFactories';
 import { unitNameLookup } from './unitNameLookup';
-
-/** The functions mathjs's Unit class is built with (its other dependencies are classes and config). */
-const UNIT_FUNCTIONS = [
-  'addScalar', 'subtractScalar', 'multiplyScalar', 'divideScalar', 'pow', 'abs', 'fix', 'round', 'equal',
-  'isNumeric', 'format', 'number',
-] as const;
-
-/**
- * mathjs's Unit factory, handed each function it depends on as a call of the instance's own function,
- * which mathjs builds on first call. The original builds them all with the class (fix, for
- * Unit.splitUnit, builds ceil, floor and round; pow builds inv, det and identity), which cost start-up
- * the typed functions of a dozen factories no formula may use.
- */
-function unitClassCallingLazily(original: FactoryFunction<unknown> & { dependencies: string[]; meta?: object }) {
-  const others = original.dependencies.filter((d) => !(UNIT_FUNCTIONS as readonly string[]).includes(d));
-  return factory(
-    'Unit',
-    [...others, 'math'] as never,
-    (deps: Record<string, unknown>) => {
-      const instance = deps.math as unknown as Record<string, (...args: unknown[]) => unknown>;
-      const calls = Object.fromEntries(UNIT_FUNCTIONS.map((name) => [name, (...args: unknown[]) => instance[name](...args)]));
-      return (original as unknown as (d: Record<string, unknown>) => unknown)({ ...deps, ...calls });
-    },
-    original.meta as never,
-  );
-}
+import { withDependenciesCalledOnUse } from './lazyFactoryDependencies';
 
 function buildInstance(): MathJsInstance {
   // absTol 0: mathjs's default absolute tolerance would make 1e-15 == 0 true.
-  const factories = { ...MATH_FACTORIES, createUnitClass: unitClassCallingLazily(MATH_FACTORIES.createUnitClass as never) };
-  const m = create(factories, { absTol: 0, relTol: 1e-12 });
+  const m = create(withDependenciesCalledOnUse(MATH_FACTORIES), { absTol: 0, relTol: 1e-12 });
   // mathjs asks this for every name imported, every symbol parsed and every cell name checked.
   const unitClass = m.Unit as unknown as { isValuelessUnit(name: string): boolean; UNITS: Parameters<typeof unitNameLookup>[0] };
   unitClass.isValuelessUnit = unitNameLookup(unitClass.UNITS);

@@ -84,4 +84,22 @@ describe('mathjs instance from selected factories', () => {
     ];
     for (const c of cases) expect(c(ours)).toEqual(c(full));
   });
+
+  it('functions handed to factories as calls (src/sheet/lazyFactoryDependencies.ts) give full mathjs results', () => {
+    // Independent reference: mathjs's full instance (mathjs documentation, "Expression syntax"):
+    // matrix powers and inverses (pow: identity, multiply, inv), matrix division (divide: inv,
+    // multiply, matrix), vector products (multiply: dot), indexing (AccessorNode: subset; IndexNode:
+    // size for end) and constants (ConstantNode: isBounded).
+    const full = create(all, { absTol: 0, relTol: 1e-12 });
+    const { parse } = lockedMath();
+    const texts = [
+      '[1, 2; 3, 4] ^ 3', '[1, 2; 3, 4] ^ -1', '[2, 0; 0, 4] ^ 0', '[1, 2] / [1, 2; 3, 4]',
+      '2 / [1, 2; 3, 4]', '[1, 2; 3, 4] / [1, 2; 3, 5]', '[1, 2, 3] * [4, 5, 6]', '[1, 2, 3][2]',
+      '[1, 2, 3][end]', '[1, 2; 3, 4][2, end]', '1e400', '(2 m) ^ 3', '4 km / (2 s)',
+    ];
+    for (const text of texts) {
+      const ours = parse(text).evaluate();
+      expect(JSON.stringify(ours), text).toBe(JSON.stringify(full.evaluate(text)));
+    }
+  });
 });
