@@ -5,9 +5,13 @@
 import { symmetricMassRatio } from './binaryMasses';
 import { massRatioRule } from './massRatioRule';
 import { MassPanels } from './massPanels';
+import { CutMassTable } from './cutMassTable';
 import { checkedLog, checkedValue, densityAt } from './densityChecks';
 import type { BinaryPopulation } from './populationTypes';
 import type { IntegrationResolution } from './backgroundIntegral';
+
+/** Reads of a factored model's nodeMass from which its cut integral is tabulated (cutMassTable.ts). */
+export const TABLE_FROM_READS = 200;
 
 /** (M / Msun)^(5/3) = exp(FIVE_THIRDS_LN10 log10M). */
 export const FIVE_THIRDS_LN10 = (5 / 3) * Math.LN10;
@@ -20,9 +24,10 @@ export interface MassModel {
   indicator(z: number): number;
   /**
    * For the given z nodes (with the indicator's values there): the mass integral up to xCut at z
-   * node iz, times the z factor.
+   * node iz, times the z factor. `reads`: about how many times the result will be called (a
+   * factored model tabulates the cut integral for many reads).
    */
-  nodeMass(zNodes: Float64Array, indicatorValues: Float64Array): (iz: number, xCut: number) => number;
+  nodeMass(zNodes: Float64Array, indicatorValues: Float64Array, reads?: number): (iz: number, xCut: number) => number;
   /** The same at any z. */
   massAt(z: number, xCut: number): number;
   /** The mass integrand (M/Msun)^(5/3) Int dq n eta at log10M = x, times the z factor. */
@@ -97,12 +102,8 @@ function factoredModel(pop: BinaryPopulation, mp: MassPanels, res: IntegrationRe
   const { lo, hi, width, panels, order } = mp;
   const u = mp.unit.nodes;
   const w = mp.unit.weights;
-  /** Int^{min(xCut, hi)} dx w (M/Msun)^(5/3) exp(lnMass): the whole panels' sum plus the partial panel, one exp per node. */
-  const upToCut = (xCut: number): number => {
-    if (xCut >= hi) return cumulative[panels];
-    const p = Math.min(panels, Math.max(0, Math.floor((xCut - lo) / width)));
-    const a = lo + p * width;
-    if (p === panels || !(xCut > a)) return cumulative[p];
+  /** Int_a^x dx' w (M/Msun)^(5/3) exp(lnMass) on the partial panel [a, x], one exp per node. */
+  const partial = (a: number, xCut: number): number => {
     const mid = 0.5 * (a + xCut);
     const half = 0.5 * (xCut - a);
     let s = 0;
@@ -112,13 +113,25 @@ function factoredModel(pop: BinaryPopulation, mp: MassPanels, res: IntegrationRe
     }
     // NaN or +Infinity from lnMass: find the node for the message (checked here, not per node)
     if (!(s < Infinity)) for (let i = 0; i < order; i++) checkedLog(lnMass(mid + half * u[i]), mid + half * u[i]);
-    return cumulative[p] + half * s;
+    return half * s;
+  };
+  /** Int^{min(xCut, hi)} dx w (M/Msun)^(5/3) exp(lnMass): the whole panels' sum plus the partial panel. */
+  const upToCut = (xCut: number): number => {
+    if (xCut >= hi) return cumulative[panels];
+    const p = Math.min(panels, Math.max(0, Math.floor((xCut - lo) / width)));
+    const a = lo + p * width;
+    if (p === panels || !(xCut > a)) return cumulative[p];
+    return cumulative[p] + partial(a, xCut);
   };
   return {
     indicator: zFactorAt,
     indicatorKey: { fn: redshift, scale: etaPdf },
-    // the indicator is the z factor
-    nodeMass: (_zNodes, zFactor) => (iz, xCut) => zFactor[iz] * upToCut(xCut),
+    // the indicator is the z factor; many reads share one table of the cut integral (cutMassTable.ts)
+    nodeMass: (_zNodes, zFactor, reads = 0) => {
+      if (reads < TABLE_FROM_READS) return (iz, xCut) => zFactor[iz] * upToCut(xCut);
+      const table = new CutMassTable(lo, hi, width, panels, cumulative, partial);
+      return (iz, xCut) => zFactor[iz] * table.value(xCut);
+    },
     massAt: (z, xCut) => zFactorAt(z) * upToCut(xCut),
     at: (z, x) => {
       // the mass part first: a heaviest-binary integrand of 0 (an exponential cutoff) needs no z factor

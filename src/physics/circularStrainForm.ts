@@ -70,7 +70,7 @@ export function circularStrainForm(pop: BinaryPopulation, freqsHz: ArrayLike<num
     zWeight[iz] = zr.weights[iz] * Math.pow(1 + zr.nodes[iz], -1 / 3);
   }
   const lo = pop.log10MMin;
-  const nodeMass = model.nodeMass(zr.nodes, zr.values);
+  const nodeMass = model.nodeMass(zr.nodes, zr.values, freqsHz.length * nz);
   const hi = pop.log10MMax;
   const x0 = cutOffsetLog10(cutFactor);
 

@@ -94,25 +94,16 @@ export class FlatLambdaCdm {
 
   /**
    * Age of the universe at redshift z, t_H Int_z^inf dz'/((1+z')E(z')), s (Hogg 1999, eq. 30 with
-   * the upper limit at infinity). Computed in a = 1/(1+z) with a = u^2, which makes the integrand
-   * 2u^2 / sqrt(Omega_m + Omega_Lambda u^6) smooth on [0, sqrt(a)].
+   * the upper limit at infinity), in closed form: with a = 1/(1+z) and y = a^(3/2) the integral is
+   * (2/3) Int_0^y dy' / sqrt(Omega_m + Omega_Lambda y'^2) = 2 asinh(sqrt(Omega_Lambda/Omega_m) y) /
+   * (3 sqrt(Omega_Lambda)), and (2/3) y / sqrt(Omega_m) when Omega_Lambda = 0.
    */
   ageS(z: number): number {
     checkRedshift(z);
-    const uMax = Math.sqrt(1 / (1 + z));
-    const rule = gaussLegendreRule(16);
-    const panels = 4;
-    const h = uMax / panels;
-    let s = 0;
-    for (let p = 0; p < panels; p++) {
-      const mid = (p + 0.5) * h;
-      for (let i = 0; i < rule.nodes.length; i++) {
-        const u = mid + 0.5 * h * rule.nodes[i];
-        const u2 = u * u;
-        s += 0.5 * h * rule.weights[i] * ((2 * u2) / Math.sqrt(this.omegaM + this.omegaL * u2 * u2 * u2));
-      }
-    }
-    return this.hubbleTimeS * s;
+    const y = Math.pow(1 + z, -1.5);
+    if (this.omegaL === 0) return (this.hubbleTimeS * 2 * y) / (3 * Math.sqrt(this.omegaM));
+    const rootL = Math.sqrt(this.omegaL);
+    return (this.hubbleTimeS * 2 * Math.asinh((rootL / Math.sqrt(this.omegaM)) * y)) / (3 * rootL);
   }
 
   /** Int_0^z g(z') dz' using the cached panel sums in `table` (grown on demand). */

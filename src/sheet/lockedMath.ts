@@ -75,19 +75,6 @@ export function lockedMath(): LockedMath {
     if (!(key in lockedConfig)) Object.defineProperty(lockedConfig, key, descriptor);
   }
   (math as unknown as { config: unknown }).config = lockedConfig;
-  // Units are fixed from here on (createUnit is refused), so mathjs's unit-name lookup, which
-  // scans every unit and prefix and runs for each name a formula mentions, can remember answers.
-  const unitClass = math.Unit as unknown as { isValuelessUnit(name: string): boolean };
-  const findUnit = unitClass.isValuelessUnit.bind(unitClass);
-  const known = new Map<string, boolean>();
-  unitClass.isValuelessUnit = (name: string) => {
-    let answer = known.get(name);
-    if (answer === undefined) {
-      answer = findUnit(name);
-      if (known.size < 100_000) known.set(name, answer);
-    }
-    return answer;
-  };
   locked = { parse, builtins, importProblems };
   return locked;
 }

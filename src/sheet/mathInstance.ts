@@ -4,10 +4,15 @@
 import { create, type MathJsInstance, type Unit } from 'mathjs';
 import { M_SUN_KG, AU_M, PC_M, YEAR_S } from '../physics/constants';
 import { MATH_FACTORIES, OMITTED_MATHJS_NAMES } from './mathFactories';
+import { unitNameLookup } from './unitNameLookup';
+import { withDependenciesCalledOnUse } from './lazyFactoryDependencies';
 
 function buildInstance(): MathJsInstance {
   // absTol 0: mathjs's default absolute tolerance would make 1e-15 == 0 true.
-  const m = create(MATH_FACTORIES, { absTol: 0, relTol: 1e-12 });
+  const m = create(withDependenciesCalledOnUse(MATH_FACTORIES), { absTol: 0, relTol: 1e-12 });
+  // mathjs asks this for every name imported, every symbol parsed and every cell name checked.
+  const unitClass = m.Unit as unknown as { isValuelessUnit(name: string): boolean; UNITS: Parameters<typeof unitNameLookup>[0] };
+  unitClass.isValuelessUnit = unitNameLookup(unitClass.UNITS);
   // Units of the trade (values from src/physics/constants.ts, each with its source there).
   m.createUnit('Msun', { definition: `${M_SUN_KG} kg` });
   m.createUnit('au', { definition: `${AU_M} m` });

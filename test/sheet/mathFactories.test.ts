@@ -5,6 +5,7 @@
 // documents them (mathjs documentation, "Configuration": relTol and absTol; "Expression syntax":
 // one-based dimensions in the expression parser).
 import { readFileSync } from 'node:fs';
+import { all, create, type Unit } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { mathFactoriesModule, OPERATOR_FUNCTIONS, INTERNAL_NAMES } from '../../scripts/mathFactorySelection';
 import { ALLOWED_CONSTANTS, ALLOWED_MATH_FUNCTIONS } from '../../src/sheet/allowedFunctions';
@@ -62,5 +63,43 @@ describe('mathjs instance from selected factories', () => {
     expect(JSON.parse(JSON.stringify(s.value('cols')))).toMatchObject({ data: [4, 6] });
     expect(JSON.parse(JSON.stringify(s.value('rows')))).toMatchObject({ data: [5, 4] });
     expect(JSON.parse(JSON.stringify(s.value('picked')))).toMatchObject({ data: [[2], [4]] });
+  });
+
+  it("the Unit class, which calls the instance's functions as it needs them, gives full mathjs's results", () => {
+    // Independent reference: mathjs's full instance with the same tolerances (mathjs documentation,
+    // "Units"). Each line uses a function the Unit class was built with (pow, multiplyScalar,
+    // divideScalar, addScalar, subtractScalar, abs, equal, fix, round, format, number).
+    const full = create(all, { absTol: 0, relTol: 1e-12 });
+    const ours = math as unknown as typeof full;
+    const cases: Array<(m: typeof full) => unknown> = [
+      (m) => m.pow(m.unit('3 km'), 2).toString(),
+      (m) => m.unit('1.2e-3 km^-3 s^-1').toNumber('m^-3 s^-1'),
+      (m) => m.divide(m.unit('5 km'), m.unit('2 s')).toString(),
+      (m) => m.add(m.unit('1 km'), m.unit('30 m')).format({ precision: 14 }),
+      (m) => m.abs(m.unit('-4 degC')).toString(),
+      (m) => m.unit('-10 degC').to('degF').toString(),
+      (m) => m.equal(m.unit('1 km'), m.unit('1000 m')),
+      (m) => (m.unit('1.75 m').splitUnit(['ft', 'inch']) as Unit[]).map(String),
+      (m) => m.unit('7 mm').toNumber('m'),
+    ];
+    for (const c of cases) expect(c(ours)).toEqual(c(full));
+  });
+
+  it('functions handed to factories as calls (src/sheet/lazyFactoryDependencies.ts) give full mathjs results', () => {
+    // Independent reference: mathjs's full instance (mathjs documentation, "Expression syntax"):
+    // matrix powers and inverses (pow: identity, multiply, inv), matrix division (divide: inv,
+    // multiply, matrix), vector products (multiply: dot), indexing (AccessorNode: subset; IndexNode:
+    // size for end) and constants (ConstantNode: isBounded).
+    const full = create(all, { absTol: 0, relTol: 1e-12 });
+    const { parse } = lockedMath();
+    const texts = [
+      '[1, 2; 3, 4] ^ 3', '[1, 2; 3, 4] ^ -1', '[2, 0; 0, 4] ^ 0', '[1, 2] / [1, 2; 3, 4]',
+      '2 / [1, 2; 3, 4]', '[1, 2; 3, 4] / [1, 2; 3, 5]', '[1, 2, 3] * [4, 5, 6]', '[1, 2, 3][2]',
+      '[1, 2, 3][end]', '[1, 2; 3, 4][2, end]', '1e400', '(2 m) ^ 3', '4 km / (2 s)',
+    ];
+    for (const text of texts) {
+      const ours = parse(text).evaluate();
+      expect(JSON.stringify(ours), text).toBe(JSON.stringify(full.evaluate(text)));
+    }
   });
 });
