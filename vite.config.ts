@@ -1,11 +1,16 @@
+import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
 import solid from 'vite-plugin-solid';
 import type { Plugin } from 'vite';
 import { sharedWorkerEntries } from './scripts/sharedWorkerEntries.mjs';
 import { builtinDocsInApp } from './scripts/builtinDocsInApp.mjs';
+import { builtinGroupsInApp, groupsOfIndex } from './scripts/builtinGroupsInApp.mjs';
+import { deferredMathInApp } from './scripts/deferredMathInApp.mjs';
 
 const projectRoot = fileURLToPath(new URL('.', import.meta.url));
+/** The files of src/builtins that are groups of built-ins (listed in its index.ts). */
+const BUILTIN_GROUPS = new Set(groupsOfIndex(readFileSync(new URL('./src/builtins/index.ts', import.meta.url), 'utf8')).map((g) => g.file));
 
 // The Content-Security-Policy in web/index.html is the production one. The development server's
 // hot reload talks over a WebSocket, so only `vite` (serve) widens connect-src with ws: and wss:.
@@ -20,8 +25,12 @@ const devServerWebSockets: Plugin = {
  * module happens to come first): the mathjs library and the sheet engine, so that the bundle budget
  * (test/bundle/budget.json) can name them.
  */
-function sharedChunkName(chunk: { name: string; moduleIds: string[] }): string {
+function sharedChunkName(chunk: { name: string; moduleIds: string[]; facadeModuleId: string | null }): string {
   const has = (part: string) => chunk.moduleIds.some((id) => id.includes(part));
+  // A group of built-ins loaded on demand (scripts/builtinGroupsInApp.mjs), apart from the docs pages of the same names.
+  const group = chunk.moduleIds.map((id) => /\/src\/builtins\/(\w+)\.ts$/.exec(id)?.[1]).find((f) => f !== undefined && BUILTIN_GROUPS.has(f));
+  if (group) return `builtinGroup-${group}`;
+  if (chunk.facadeModuleId === '\0virtual:deferred-math') return 'mathjsSolvers';
   if (has('/node_modules/mathjs/')) return 'mathjs';
   if (has('/src/sheet/sheet.ts')) return 'sheetEngine';
   if (has('/node_modules/workerpool/')) return 'jobRuntime';
@@ -29,17 +38,42 @@ function sharedChunkName(chunk: { name: string; moduleIds: string[] }): string {
   return chunk.name;
 }
 
+/**
+ * Vite's preloading of a dynamic import's chunks uses the document, which workers lack; the
+ * engine's chunks, shared with the workers, import the groups of built-ins and mathjs's solvers.
+ * In a worker (no document) the helper imports without preloading.
+ */
+const preloadInWorkers: Plugin = {
+  name: 'strainsheet-preload-in-workers',
+  apply: 'build',
+  transform(code, id) {
+    if (id !== '\0vite/preload-helper.js') return null;
+    const guarded = code.replace('deps && deps.length > 0', "deps && deps.length > 0 && typeof document !== 'undefined'").replace('window.dispatchEvent(e);', "if (typeof window !== 'undefined') window.dispatchEvent(e);");
+    if (guarded === code || !guarded.includes("typeof window !== 'undefined'")) throw new Error("Vite's preload helper has changed: cannot make it work in workers");
+    return { code: guarded, map: null };
+  },
+};
+
+/** The sheet engine and the validator of its files. */
+const ENGINE_MODULES = /\/src\/sheet\/|\/node_modules\/zod\//;
+
 // The Vite root is web/ (the app); tests and benchmarks are found from the project root.
 export default defineConfig({
   root: 'web',
   base: './',
-  plugins: [solid(), devServerWebSockets, sharedWorkerEntries(), builtinDocsInApp()],
+  plugins: [solid(), devServerWebSockets, preloadInWorkers, sharedWorkerEntries(), builtinDocsInApp(), builtinGroupsInApp(), deferredMathInApp()],
   server: { port: 5173, strictPort: false },
   build: {
     outDir: '../dist',
     emptyOutDir: true,
     target: 'es2022',
-    rolldownOptions: { output: { chunkFileNames: (chunk) => `assets/${sharedChunkName(chunk)}-[hash].js` } },
+    rolldownOptions: {
+      output: {
+        chunkFileNames: (chunk) => `assets/${sharedChunkName(chunk)}-[hash].js`,
+        // The engine in a chunk of its own (not merged with mathjs's, whose solvers load later).
+        codeSplitting: { groups: [{ name: 'sheetEngine', test: ENGINE_MODULES, includeDependenciesRecursively: false }] },
+      },
+    },
   },
   worker: { format: 'es' },
   test: {

@@ -6,6 +6,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { allBuiltins } from '../../src/builtins/index';
 import { buildAndServe, type ServedApp } from './appServer';
+import { cellValueText } from './pageHelpers';
+import { Sheet } from '../../src/sheet/sheet';
+import { formatValue } from '../../src/sheet/formatValue';
 import { browserAvailability, launchChromium, type LaunchedBrowser } from './chromiumBrowser';
 
 const availability = browserAvailability();
@@ -46,6 +49,30 @@ describe.runIf(runSuite)('loading on first use', { timeout: 60_000 }, () => {
     expect(loaded).toEqual(expect.arrayContaining(['index', 'mathjs', 'sheetEngine']));
     expect(loaded).not.toContain('builtinDocs');
     expect(loaded).not.toContain('measurementCells');
+  });
+
+  it('evaluates the demo with every built-in loaded by the time its recalculation is complete, with no error', async () => {
+    await page.waitForFunction(() => !document.querySelector('[data-recalculating]'));
+    const loaded = await loadedScripts(page);
+    for (const group of ['builtinGroup-cosmology', 'builtinGroup-population', 'builtinGroup-realisations', 'builtinGroup-freeSpectrum']) expect(loaded).toContain(group);
+    expect(await page.$$eval('.cell-row.status-error', (xs) => xs.map((x) => x.getAttribute('data-cell')))).toEqual([]);
+  });
+
+  it('evaluates formulas naming mathjs’s solvers (loaded after the first result) as the engine does here', async () => {
+    // Reference: the same formulas evaluated by the engine in this process (every function loaded).
+    const formulas = { solved: 'lusolve([[2, 1], [1, 3]], [1, 2])', normed: 'norm([[1, 2], [3, 4]], 2)', ranged: 'iscoFrequency(2e9 Msun)' };
+    const reference = new Sheet();
+    for (const [name, formula] of Object.entries(formulas)) reference.setCell({ name, formula });
+    for (const [name, formula] of Object.entries(formulas)) {
+      const box = page.locator('form.add-cell input[name="formula"]');
+      await page.fill('form.add-cell input[name="name"]', name);
+      await box.fill(formula);
+      await box.press('Enter');
+      await page.waitForSelector(`[data-cell="${name}"].status-ok`);
+      expect(await cellValueText(page, name)).toBe(formatValue(reference.value(name)));
+    }
+    expect(await loadedScripts(page)).toContain('mathjsSolvers');
+    expect(pageErrors).toEqual([]);
   });
 
   it('loads the documentation when the Reference tab opens and shows each built-in as the engine defines it', async () => {

@@ -5,7 +5,9 @@
 // change rightly makes a chunk larger, update budget.json in the same commit and say why.
 // Besides single chunks, what each start needs is reported and held to budget.json's "loads": the
 // JavaScript the page loads before its first result (the main chunk and everything it imports
-// statically; panels and plots load later), and what each Web Worker loads. The workers share
+// statically; panels and plots load later; and, as a row of its own, with the groups of built-ins
+// the demo's A_yr needs, which the page loads before evaluating it), and what each Web Worker loads
+// (before the groups of built-ins its sheet names). The demo sheet is fetched as data and reported apart. The workers share
 // the page's engine chunks (scripts/sharedWorkerEntries.mjs), so a chunk may count in several.
 import { mkdtempSync, readFileSync, readdirSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -14,6 +16,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { build as viteBuild, type Rolldown } from 'vite';
 import { build as esbuild } from 'esbuild';
 import { cliBuildOptions } from '../../scripts/cliBuildOptions.mjs';
+import { groupsOfIndex } from '../../scripts/builtinGroupsInApp.mjs';
+import { Sheet } from '../../src/sheet/sheet';
 
 const ROOT = resolve(import.meta.dirname, '../..');
 const GROWTH = 1.1;
@@ -43,10 +47,10 @@ function sizes(dir: string): Map<string, number> {
 }
 
 /** Bytes of an entry file and every file it imports statically, directly or not (dynamic imports load later). */
-function staticClosure(output: Rolldown.OutputBundle[string][], entry: string): { bytes: number; files: string[] } {
+function staticClosure(output: Rolldown.OutputBundle[string][], entries: string | string[]): { bytes: number; files: string[] } {
   const byFile = new Map(output.map((o) => [o.fileName, o]));
   const seen = new Set<string>();
-  const stack = [entry];
+  const stack = typeof entries === 'string' ? [entries] : [...entries];
   while (stack.length > 0) {
     const f = stack.pop()!;
     if (seen.has(f)) continue;
@@ -61,16 +65,43 @@ function staticClosure(output: Rolldown.OutputBundle[string][], entry: string): 
   return { bytes: [...seen].reduce((sum, f) => sum + size(f), 0), files: [...seen].map(chunkName) };
 }
 
+/**
+ * The groups of built-ins (scripts/builtinGroupsInApp.mjs) the demo's first result needs: those
+ * named by the formulas of A_yr (the page's FIRST_RESULTS) and of the cells it reads, which the
+ * page loads before evaluating them.
+ */
+async function firstResultModules(): Promise<string[]> {
+  const sheet = Sheet.fromFile(readFileSync(join(ROOT, 'examples/demo.json'), 'utf8'), { evaluateOnRead: true });
+  const seen = new Set<string>();
+  const stack = ['A_yr'];
+  while (stack.length > 0) {
+    const n = stack.pop()!;
+    if (seen.has(n)) continue;
+    seen.add(n);
+    stack.push(...sheet.dependencies(n));
+  }
+  const ids = new Set([...seen].flatMap((n) => sheet.get(n)!.formula.match(/[A-Za-z_$][\w$]*/g) ?? []));
+  const files: string[] = [];
+  for (const { exportName, file } of groupsOfIndex(readFileSync(join(ROOT, 'src/builtins/index.ts'), 'utf8'))) {
+    const list = (await import(`../../src/builtins/${file}.ts`))[exportName] as Array<{ name: string }>;
+    if (list.some((b) => ids.has(b.name))) files.push(`/src/builtins/${file}.ts`);
+  }
+  return files;
+}
+
 /** What each start loads: the page before its first result, and each Web Worker. */
-function loads(output: Rolldown.OutputBundle[string][]): Map<string, { bytes: number; files: string[] }> {
+function loads(output: Rolldown.OutputBundle[string][], firstGroups: string[]): Map<string, { bytes: number; files: string[] }> {
   const file = (test: (o: Rolldown.OutputBundle[string]) => boolean, what: string) => {
     const found = output.find(test);
     if (!found) throw new Error(`the build has no ${what}`);
     return found.fileName;
   };
   const entryNamed = (name: string) => (o: Rolldown.OutputBundle[string]) => o.type === 'chunk' && o.isEntry && o.name === name;
+  const main = file((o) => o.type === 'chunk' && o.isEntry && /index\.html$/.test(o.facadeModuleId ?? ''), 'main entry');
+  const groupChunks = firstGroups.map((m) => file((o) => o.type === 'chunk' && o.moduleIds.some((id) => id.endsWith(m)), `chunk of ${m}`));
   return new Map([
-    ['page before its first result', staticClosure(output, file((o) => o.type === 'chunk' && o.isEntry && /index\.html$/.test(o.facadeModuleId ?? ''), 'main entry'))],
+    ['page before its first result', staticClosure(output, [main])],
+    ['page with first-result built-ins', staticClosure(output, [main, ...groupChunks])],
     ['job worker', staticClosure(output, file(entryNamed('jobWorker'), 'job worker entry'))],
     ['chunk worker', staticClosure(output, file(entryNamed('chunkWebWorker'), 'chunk worker entry'))],
     ['off-page worker', staticClosure(output, file(entryNamed('offPageWorker'), 'off-page worker entry'))],
@@ -113,7 +144,8 @@ describe('bundle sizes', () => {
       process.env.NODE_ENV = nodeEnv;
     });
     const outputs = (Array.isArray(result) ? result : [result]) as Rolldown.RolldownOutput[];
-    started = loads(outputs.flatMap((r) => r.output));
+    started = loads(outputs.flatMap((r) => r.output), await firstResultModules());
+    const demoData = outputs.flatMap((r) => r.output).find((o) => o.type === 'asset' && /(^|\/)demo-[^/]*\.json$/.test(o.fileName));
     app = sizes(join(outDir, 'assets'));
     await esbuild(cliBuildOptions(join(dir, 'cli')));
     cli = sizes(join(dir, 'cli'));
@@ -121,6 +153,7 @@ describe('bundle sizes', () => {
     const startFiles = [...started].map(([k, v]) => `  ${k}: ${v.files.join(', ')}`).join('\n');
     console.log(
       `${report('app chunks (minified)', app, budget.app)}\n${report('JavaScript loaded at each start', startRows, budget.loads)}\n${startFiles}\n` +
+        `  and the demo sheet, fetched as data (not JavaScript): ${demoData ? Buffer.byteLength(demoData.type === 'asset' ? demoData.source : '') : 'none'} bytes\n` +
         report('command-line bundle', cli, budget.cli),
     );
   }, 180_000);

@@ -46,7 +46,8 @@ export function createSidePanelControl(): SidePanelControl {
   };
 }
 
-export function SidePanel(props: { control: SidePanelControl }) {
+/** `ready`: false until the first results are evaluated; the plots (not needed for them) wait for it. */
+export function SidePanel(props: { control: SidePanelControl; ready?: Accessor<boolean> }) {
   const { tab, showTab, opened } = props.control;
   const buttons: HTMLButtonElement[] = [];
   const onKey = (e: KeyboardEvent, i: number) => {
@@ -83,7 +84,7 @@ export function SidePanel(props: { control: SidePanelControl }) {
       </div>
       <div class="tab-body" role="tabpanel" id="panel-plots" aria-labelledby="tab-plots" data-panel="plots" hidden={tab() !== 'plots'}>
         <section id={PLOTS_REGION_ID} class="plots-region" aria-label="Plots" tabindex="-1">
-          <Show when={opened().has('plots')}>
+          <Show when={opened().has('plots') && (props.ready?.() ?? true)} fallback={opened().has('plots') ? loading : undefined}>
             <Suspense fallback={loading}>
               <PlotsPanel />
             </Suspense>

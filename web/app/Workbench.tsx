@@ -19,13 +19,13 @@ import { createOpenDataDialog } from '../files/OpenDataDialog';
 import { downloadText, fileStem } from '../files/download';
 import { cellTableCsv } from '../files/cellTableCsv';
 import type { Completion } from '../help/formulaContext';
-import { DEMO_TEXT } from './demoSheet';
+import { arrivedDemoText, demoText } from './demoSheet';
 import { builtinDocs } from '../help/builtinDocs';
 
 /** Autosaved sheets at least this long (about 1,500 cells) are loaded in slices once the page is up. */
 const LOAD_LATER_FROM = 200_000;
 
-function initialSheet(notify: (t: string, tone?: Tone) => void): { sheet: Sheet; autosaveAllowed: boolean; later?: string } {
+function initialSheet(notify: (t: string, tone?: Tone) => void): { sheet: Sheet; autosaveAllowed: boolean; later?: string; demo?: true } {
   let later: string | undefined;
   const restored = restoreAutosave((text) => {
     if (text.length < LOAD_LATER_FROM) return Sheet.fromFile(text, { deferRecalculation: true });
@@ -34,22 +34,36 @@ function initialSheet(notify: (t: string, tone?: Tone) => void): { sheet: Sheet;
   });
   if (restored.message) notify(restored.message, restored.sheet ? 'info' : 'error');
   if (restored.sheet) return { sheet: restored.sheet, autosaveAllowed: restored.safeToWrite, later };
-  return { sheet: demoSheet(notify), autosaveAllowed: restored.safeToWrite };
+  const text = arrivedDemoText();
+  if (text !== undefined) return { sheet: demoSheetOf(text, notify), autosaveAllowed: restored.safeToWrite };
+  return { sheet: new Sheet({ title: 'Loading the demo sheet…' }), autosaveAllowed: restored.safeToWrite, demo: true };
 }
 
-/** The demo sheet, or an empty one with a message when the demo file is missing or unreadable. */
-function demoSheet(notify: (t: string, tone?: Tone) => void): Sheet {
-  if (DEMO_TEXT === null) {
+/** The demo sheet of its text, or an empty one with a message when it is missing (null) or unreadable. */
+function demoSheetOf(text: string | null, notify: (t: string, tone?: Tone) => void): Sheet {
+  if (text === null) {
     notify('The demo sheet (examples/demo.json) is not part of this build; starting with an empty sheet.', 'error');
     return new Sheet({ title: 'Untitled sheet' });
   }
   try {
     // Evaluated by the session in slices, A_yr and its inputs first (FIRST_RESULTS).
-    return Sheet.fromFile(DEMO_TEXT, { deferRecalculation: true });
+    return Sheet.fromFile(text, { deferRecalculation: true });
   } catch (err) {
     notify(`The demo sheet could not be read: ${err instanceof Error ? err.message : String(err)}`, 'error');
     return new Sheet({ title: 'Untitled sheet' });
   }
+}
+
+/** The demo sheet, or an empty one with a message when the demo file is missing or unreadable. */
+async function demoSheet(notify: (t: string, tone?: Tone) => void): Promise<Sheet> {
+  let text: string | null;
+  try {
+    text = await demoText();
+  } catch (err) {
+    notify(`The demo sheet could not be loaded (${err instanceof Error ? err.message : String(err)}); starting with an empty sheet.`, 'error');
+    return new Sheet({ title: 'Untitled sheet' });
+  }
+  return demoSheetOf(text, notify);
 }
 
 /** 14:05:09 (not toLocaleTimeString: its first call loads locale data, tens of milliseconds). */
@@ -62,8 +76,14 @@ export function Workbench() {
 
   const start = initialSheet(notify);
   const session = new SheetSession(start.sheet);
-  // A long autosave is loaded after the page is up; until then nothing is autosaved over it.
-  let autosaveAllowed = start.later === undefined && start.autosaveAllowed;
+  // A long autosave, or the demo, is loaded after the page is up; until then nothing is autosaved over it.
+  let autosaveAllowed = start.later === undefined && !start.demo && start.autosaveAllowed;
+  if (start.demo) {
+    void demoSheet(notify).then((sheet) => {
+      autosaveAllowed = start.autosaveAllowed;
+      session.restore(sheet);
+    });
+  }
   if (start.later !== undefined) {
     loadSheet(start.later).then(
       (sheet) => {
@@ -77,11 +97,12 @@ export function Workbench() {
         });
         if (aside.message) notify(aside.message, 'error');
         autosaveAllowed = aside.safeToWrite;
-        session.restore(demoSheet(notify));
+        void demoSheet(notify).then((sheet) => session.restore(sheet));
       },
     );
   }
-  const [autosaveState, setAutosaveState] = createSignal(autosaveAllowed ? 'autosave on' : 'autosave off');
+  // (Said of the demo while it loads as of it once loaded.)
+  const [autosaveState, setAutosaveState] = createSignal(autosaveAllowed || (start.demo && start.autosaveAllowed) ? 'autosave on' : 'autosave off');
   let lastAutosaveError = '';
   // The autosave is written after the edit's task: the text is put together a slice at a time
   // (a long sheet's text takes a while) and stored in one step; at once when the page is left.
@@ -221,8 +242,10 @@ export function Workbench() {
     notify('New empty sheet. Undo brings the previous one back.');
   };
   const loadDemo = () => {
-    session.load(demoSheet(notify), 'load demo');
-    notify('Demo sheet loaded. Undo brings the previous one back.');
+    void demoSheet(notify).then((sheet) => {
+      session.load(sheet, 'load demo');
+      notify('Demo sheet loaded. Undo brings the previous one back.');
+    });
   };
   const title = () => {
     session.revision();
@@ -372,7 +395,7 @@ export function Workbench() {
             <SheetNotes />
             <SheetPanel />
           </section>
-          <SidePanel control={sidePanel} />
+          <SidePanel control={sidePanel} ready={session.firstResultsDone} />
         </main>
         <Show when={dropping()}>
           <div class="drop-overlay" aria-hidden="true">

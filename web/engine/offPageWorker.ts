@@ -7,6 +7,7 @@
 import { SheetReplica } from '../../src/sheet/sheetReplica';
 import { stateToTransfer } from '../../src/sheet/valueTransfer';
 import type { OffPageReply, OffPageRequest } from './offPageProtocol';
+import { loadBuiltinsNamedIn } from './builtinsNeeded';
 import { DEFAULT_CELL_SECONDS, setCellBudget, setHandOffOnTimeout } from '../../src/sheet/evaluationBudget';
 
 setCellBudget(DEFAULT_CELL_SECONDS);
@@ -15,9 +16,10 @@ setHandOffOnTimeout(false);
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 const replica = new SheetReplica();
 
-scope.onmessage = (e: MessageEvent<OffPageRequest>) => {
+scope.onmessage = async (e: MessageEvent<OffPageRequest>) => {
   const { id, name, text } = e.data;
   const t0 = performance.now();
+  await loadBuiltinsNamedIn(text); // the groups of built-ins these cells name (lazyBuiltins.ts)
   let reply: OffPageReply;
   try {
     const state = replica.evaluate(text, name);

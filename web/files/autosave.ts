@@ -1,7 +1,7 @@
 // Autosave of the sheet text in localStorage. Failures (storage full, storage switched off) are
 // reported, never thrown; a stored sheet that no longer loads is kept aside under another key.
 
-export const AUTOSAVE_KEY = 'strainsheet:autosave:v1';
+export const AUTOSAVE_KEY = 'strainsheet:autosave:v1'; // also read by web/app/demoSheet.ts
 export const SET_ASIDE_PREFIX = 'strainsheet:autosave:unreadable:';
 
 export type StoreOutcome = { ok: true } | { ok: false; message: string };

@@ -3,6 +3,7 @@
 // credible regions, seeded Monte Carlo); this file turns the page's job into its JobSpec and its
 // result into plain arrays for the plots.
 import { Sheet } from '../../src/sheet/sheet';
+import { loadBuiltinsNamedIn } from '../engine/builtinsNeeded';
 import { runJob as runStatisticsJob, type AxisSpec, type JobResult as StatisticsResult } from '../../src/statistics/jobs';
 import { JobCancelledError } from '../../src/statistics/sheetValues';
 import { formatNumber } from '../../src/sheet/formatValue';
@@ -94,6 +95,7 @@ function toSample(job: Extract<JobSpec, { kind: 'sample' }>, r: Extract<Statisti
  * the same result as on one.
  */
 export async function runJob(sheetText: string, job: JobSpec, ctl: JobControl, parallel?: ParallelOptions): Promise<JobResult> {
+  await loadBuiltinsNamedIn(sheetText); // the groups of built-ins its formulas name (lazyBuiltins.ts)
   const sheet = Sheet.fromFile(sheetText, { evaluateOnRead: true });
   const par = parallel ? { ...parallel, sheetText } : undefined;
   const control = { signal: ctl.signal, onProgress: ctl.progress };

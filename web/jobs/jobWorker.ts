@@ -4,7 +4,17 @@
 // run their chunks on a pool of further Web Workers (webChunkPool.ts), one per core.
 import type { FromWorker, ToWorker } from './jobProtocol';
 import { runJob } from './jobRunner';
-import { webChunkPool, webWorkerCount } from './webChunkPool';
+import type { ChunkExecutor } from '../../src/jobs/runChunks';
+import { webWorkerCount } from './webWorkerCount';
+
+/** The pool of chunk workers, its code (workerpool) loaded when a job first needs one. */
+function webChunkPool(workers: number): ChunkExecutor {
+  const pool = import('./webChunkPool').then((m) => m.webChunkPool(workers));
+  return {
+    runChunk: async (kind, sheetText, plan, index) => (await pool).runChunk(kind, sheetText, plan, index),
+    close: async (force) => (await pool).close(force),
+  };
+}
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 const running = new Map<number, AbortController>();

@@ -5,11 +5,7 @@ import chunkWorkerUrl from './chunkWebWorker.ts?shared-worker-url';
 import type { ChunkExecutor } from '../../src/jobs/runChunks';
 import { SheetJobError } from '../../src/statistics/sheetValues';
 
-/** The number of logical cores the browser reports (at least 1, at most 16). */
-export function webWorkerCount(): number {
-  const n = (globalThis as { navigator?: { hardwareConcurrency?: number } }).navigator?.hardwareConcurrency ?? 1;
-  return Math.max(1, Math.min(16, Math.floor(n)));
-}
+export { webWorkerCount } from './webWorkerCount';
 
 export function webChunkPool(workers: number): ChunkExecutor {
   const pool = workerpool.pool(chunkWorkerUrl, {

@@ -4,6 +4,7 @@
 // edit is made. Another kind (e.g. a prior for inference) is added as one more entry; the row's
 // badge and editor (AnnotationBadges.tsx) need no change.
 import type { CellSpec, Sheet } from '../engine/engine';
+import { loadBuiltinsNamedIn } from '../engine/builtinsNeeded';
 
 export interface RowAnnotationKind {
   id: string;
@@ -28,7 +29,8 @@ export const UNCERTAINTY: RowAnnotationKind = {
   patch: (text) => ({ uncertainty: text }),
   async check(sheet, cell, text) {
     // Loaded on first use: the Monte Carlo code is not needed to show the sheet.
-    return (await import('./annotationChecks')).uncertaintyProblem(sheet, cell, text);
+    const [checks] = await Promise.all([import('./annotationChecks'), loadBuiltinsNamedIn(text)]);
+    return checks.uncertaintyProblem(sheet, cell, text);
   },
 };
 
@@ -41,7 +43,8 @@ export const PRIOR: RowAnnotationKind = {
   read: (spec) => spec.prior,
   patch: (text) => ({ prior: text }),
   async check(sheet, cell, text) {
-    return (await import('./annotationChecks')).priorProblem(sheet, cell, text);
+    const [checks] = await Promise.all([import('./annotationChecks'), loadBuiltinsNamedIn(text)]);
+    return checks.priorProblem(sheet, cell, text);
   },
 };
 

@@ -8,6 +8,7 @@ import { Sheet, type CellSpec, type CellState } from '../engine/engine';
 import { APP_SLICE_MS, yieldToPage } from '../engine/slices';
 import '../engine/pageBudget'; // the page's budget per cell and hand-off (not the command line's)
 import { OffPageRunner, type OffPageWorkerLike } from '../engine/offPageRunner';
+import { groupsToLoad, loadBuiltinGroups, loadEveryBuiltinGroup } from '../engine/builtinsNeeded';
 import { ObjectCells } from './objectCells';
 import { applyChange, captureSheet, captureText, changeBetween, isEmptyChange, type SheetCapture } from './sheetChange';
 import { SheetHistory, type HistoryStep } from './sheetHistory';
@@ -55,6 +56,12 @@ export class SheetSession {
   /** Cells the unfinished recalculation has still to look at (0 when the values are up to date). */
   readonly cellsToRecalculate: Accessor<number>;
   private setCellsToRecalculate: Setter<number>;
+  /**
+   * True once the first sheet's first results (FIRST_RESULTS) have been evaluated, or it had
+   * none: what they do not need (the plots) starts loading then, so as not to delay them.
+   */
+  readonly firstResultsDone: Accessor<boolean>;
+  private setFirstResultsDone: Setter<boolean>;
   /** Bumps when a recalculation is complete (or a sheet is put in place). */
   readonly settled: Accessor<number>;
   private setSettled: Setter<number>;
@@ -77,6 +84,7 @@ export class SheetSession {
     [this.canRedo, this.setCanRedo] = createSignal<string | null>(null);
     [this.cellsToRecalculate, this.setCellsToRecalculate] = createSignal(0);
     [this.settled, this.setSettled] = createSignal(0);
+    [this.firstResultsDone, this.setFirstResultsDone] = createSignal(false);
     this.sheet = sheet;
     this.indexObjects();
     this.attach();
@@ -100,12 +108,26 @@ export class SheetSession {
   private runSlice(): void {
     const sheet = this.sheet;
     sheet.deferRecalculation = true;
+    // The built-ins' code arrives in groups (web/engine/lazyBuiltins.ts): first those the first
+    // results need, then those the rest of the sheet names; the recalculation waits for them.
+    const missing = groupsToLoad(sheet);
+    if (missing.length > 0) {
+      this.setCellsToRecalculate(sheet.cellsToRecalculate);
+      this.waitForBuiltins(missing);
+      return;
+    }
     const start = performance.now();
     const end = start + APP_SLICE_MS;
     // The slice that brings the first results up to date ends there, so they are shown at once.
     const firstPending = sheet.firstCellsPending;
     const done = sheet.recalculateSome(() => performance.now() >= end || (firstPending && !sheet.firstCellsPending));
     this.setCellsToRecalculate(sheet.cellsToRecalculate);
+    // After the first results, the other built-ins load in the background. (Not after an empty
+    // sheet's: the page shows one while its first sheet loads.)
+    if (!this.firstResultsDone() && !sheet.firstCellsPending && sheet.specList().length > 0) {
+      this.setFirstResultsDone(true);
+      loadEveryBuiltinGroup();
+    }
     if (done) {
       this.offPage.sync(sheet);
       // A slice that ran long (a cell used up the page's budget) gives the page back before the
@@ -121,6 +143,16 @@ export class SheetSession {
     }
     this.queueSlice();
   }
+
+  /** Runs the recalculation on once these groups of built-ins have loaded (or failed to: their calls then give errors). */
+  private waitForBuiltins(groups: string[]): void {
+    if (this.builtinsWait) return;
+    this.builtinsWait = loadBuiltinGroups(groups).then(() => {
+      this.builtinsWait = null;
+      this.runSlice(); // of the sheet in place now (it may have been replaced meanwhile)
+    });
+  }
+  private builtinsWait: Promise<void> | null = null;
 
   /** Runs the next slice in a task of its own, after the page's events. */
   private queueSlice(): void {

@@ -1,0 +1,54 @@
+// The built-ins in the app come in groups loaded on demand (scripts/builtinGroupsInApp.mjs,
+// web/engine/lazyBuiltins.ts). Checked here against allBuiltins() as the command line uses it
+// (independent method: the groups are read from src/builtins/index.ts and each file's own list).
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { allBuiltins } from '../../src/builtins/index';
+import { groupsOfIndex } from '../../scripts/builtinGroupsInApp.mjs';
+import { LazyBuiltins, type BuiltinGroupSpec } from '../../web/engine/lazyBuiltins';
+import type { Builtin } from '../../src/sheet/builtin';
+import { math } from '../../src/sheet/mathInstance';
+
+const INDEX = new URL('../../src/builtins/index.ts', import.meta.url);
+
+async function realGroups(): Promise<BuiltinGroupSpec[]> {
+  const out: BuiltinGroupSpec[] = [];
+  for (const { exportName, file } of groupsOfIndex(readFileSync(INDEX, 'utf8'))) {
+    const list = (await import(`../../src/builtins/${file}.ts`))[exportName] as Builtin[];
+    out.push({ group: file, names: list.map((b) => b.name), load: async () => list });
+  }
+  return out;
+}
+
+describe('built-ins in groups loaded on demand', () => {
+  it('the groups read from index.ts give every built-in of allBuiltins(), in its order', async () => {
+    const lazy = new LazyBuiltins(await realGroups());
+    expect(lazy.allBuiltins().map((b) => b.name)).toEqual(allBuiltins().map((b) => b.name));
+  });
+
+  it('a built-in called before its group has loaded throws; after, it gives what the built-in gives', async () => {
+    const lazy = new LazyBuiltins(await realGroups());
+    const byName = (name: string) => lazy.allBuiltins().find((b) => b.name === name)!;
+    const real = allBuiltins().find((b) => b.name === 'iscoFrequency')!;
+    expect(() => byName('iscoFrequency').fn(math.unit(1e9, 'Msun'))).toThrow(/iscoFrequency has not loaded yet/);
+    const groups = lazy.groupsNamedIn(['f = iscoFrequency(max_mass) * 2', 'x = sin(1)']);
+    expect(groups).toHaveLength(1);
+    await lazy.load(groups);
+    expect(lazy.groupsNamedIn(['f = iscoFrequency(max_mass)'])).toEqual([]);
+    expect(lazy.allLoaded).toBe(false);
+    const m = math.unit(1e9, 'Msun'); // any value: both calls get the same
+    expect(String(byName('iscoFrequency').fn(m))).toBe(String(real.fn(m)));
+    // Errors for bad arguments are the built-in's own.
+    expect(() => byName('iscoFrequency').fn('text')).toThrow(/iscoFrequency/);
+    await lazy.loadAll();
+    expect(lazy.allLoaded).toBe(true);
+    expect(lazy.groupsNamedIn(['amplitudeAtYear(pop)'])).toEqual([]);
+  });
+
+  it('a group that fails to load is named in the error of its built-ins and is not asked for again', async () => {
+    const lazy = new LazyBuiltins([{ group: 'broken', names: ['brokenThing'], load: () => Promise.reject(new Error('network down')) }]);
+    await lazy.load(lazy.groupsNamedIn(['brokenThing(1)']));
+    expect(() => lazy.allBuiltins()[0].fn(1)).toThrow(/brokenThing could not be loaded \(network down\)/);
+    expect(lazy.groupsNamedIn(['brokenThing(1)'])).toEqual([]);
+  });
+});
