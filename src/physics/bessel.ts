@@ -22,6 +22,8 @@ function startIndex(nTop: number, x: number): number {
   return m;
 }
 
+let scalesScratch = new Int32Array(8);
+
 /**
  * J_k(x) for k = nLo, ..., nLo + count - 1 (nLo >= 0), written into out[0..count-1], from one
  * backward-recurrence pass. x must be finite and 0 <= x <= BESSEL_X_LIMIT.
@@ -39,8 +41,9 @@ export function besselJWindow(nLo: number, count: number, x: number, out: Float6
   }
   const m = startIndex(nHi, x);
   const twoOverX = 2 / x;
-  // Stored values carry the number of rescales applied after they were stored.
-  const scalesAtStore = new Int32Array(count);
+  // Stored values carry the number of rescales applied after they were stored (scratch kept between calls).
+  if (scalesScratch.length < count) scalesScratch = new Int32Array(count);
+  const scalesAtStore = scalesScratch;
   let scales = 0;
   let jNext = 0; // J_{k+1}, unnormalised
   let j = 1; // J_k at k = m (any non-zero seed works; only ratios matter before normalising)

@@ -18,6 +18,7 @@ import type { FlatLambdaCdm } from './cosmology';
 import { compositeNodes } from './gaussLegendre';
 import type { BinaryPopulation } from './populationTypes';
 import type { ResidenceFactor } from './residenceFactor';
+import { LoudestSearch } from './loudestSearch';
 import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
 
 /** dt_r/dln f_r = (5/96) (G M_c / c^3)^(-5/3) (pi f_r)^(-8/3), s (Peters 1964, Phys. Rev. 136, B1224; Sesana, Vecchio & Colacino 2008). */
@@ -94,9 +95,75 @@ export function finiteBinaryBins(
   const nq = qr.nodes.length;
   const size = nz * nm * nq;
 
-  // Frequency-independent parts per node, index (iz * nm + im) * nq + iq:
-  // weight x n x dV/dz x |dz/dt| (binaries per second of rest-frame time), chirp mass, distance.
-  const rate = new Float64Array(size);
+  const { rate, mc53, fIsco, dc, age } = nodeRates(pop, cosmo, zr, mr, qr, checkTime);
+
+  const nf = freqsHz.length;
+  const out: FiniteBinaryResult = {
+    frequencyHz: Float64Array.from(freqsHz),
+    expectedPerBin: new Float64Array(nf),
+    smoothHc: new Float64Array(nf),
+    thinnedHc: new Float64Array(nf),
+    cutLog10M: new Float64Array(nf),
+    loudestStrain: new Float64Array(nf),
+    longResidencePerBin: new Float64Array(nf),
+  };
+  // Without a residence factor the node sums do not depend on the frequency: built once. With one,
+  // each node's rate is scaled by the factor at the bin's f_r and the sums are rebuilt per bin.
+  const scaled = residence ? new Float64Array(size) : rate;
+  const factor = residence ? new Float64Array(size) : undefined;
+  const massKg = Float64Array.from(mr.nodes, (x) => M_SUN_KG * Math.pow(10, x));
+  let sums = residence ? undefined : nodeSums(rate, mc53, nz, nm, nq);
+  let loud = residence ? undefined : new LoudestSearch(rate, mc53, nz, nm, nq);
+  // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
+  // its own cell: the separation theorem of Chebyshev, Markov and Stieltjes, Szego 1939, Orthogonal
+  // Polynomials, 3.41; section number unverified), so a node's count spread over its cell keeps the density it stands for.
+  const edges = new Float64Array(nm + 1);
+  edges[0] = pop.log10MMin;
+  for (let im = 0; im < nm; im++) edges[im + 1] = edges[im] + mr.weights[im];
+  const bin: BinScratch = { tauOf: new Float64Array(nz), hFOf: new Float64Array(nz), emitting: new Int32Array(nz), count: 0, h2Total: 0, longCount: 0 };
+  for (let k = 0; k < nf; k++) {
+    checkTime();
+    const f = freqsHz[k];
+    if (!(f > 0) || !Number.isFinite(f)) throw new RangeError(`frequency ${k + 1} must be positive and finite, got ${f} Hz`);
+    const dlnf = 1 / (f * spanS);
+    if (residence && factor) {
+      fillResidenceFactors(residence, f, zr.nodes, massKg, qr.nodes, factor, rate, scaled);
+      sums = nodeSums(scaled, mc53, nz, nm, nq);
+      if (loud) loud.useRates(scaled);
+      else loud = new LoudestSearch(scaled, mc53, nz, nm, nq);
+    }
+    // Each loop over the nodes is a function of its own: compiled on its own while the cell runs cold.
+    binTotals(bin, sums as NodeSums, zr.nodes, f, dlnf, dc, age, fIsco, mc53, nm, nq, factor, scaled);
+    const { count, h2Total } = bin;
+    out.expectedPerBin[k] = count;
+    out.longResidencePerBin[k] = bin.longCount;
+    out.smoothHc[k] = Math.sqrt(h2Total);
+    // With fewer than one binary in the whole bin nothing is expected: cut at the bottom, h_c = 0.
+    const cut = count >= 1 ? massCut(bin, sums as NodeSums, dlnf, edges, nm) : { log10M: pop.log10MMin, h2Above: h2Total };
+    out.cutLog10M[k] = cut.log10M;
+    out.thinnedHc[k] = Math.sqrt(Math.max(0, h2Total - cut.h2Above));
+
+    // Loudest expected binary: nodes by decreasing strain until one binary is expected.
+    out.loudestStrain[k] = count < 1 ? 0 : (loud as LoudestSearch).search(bin.tauOf, bin.hFOf, bin.emitting, dlnf);
+  }
+  return out;
+}
+
+interface NodeGrid {
+  nodes: Float64Array;
+  weights: Float64Array;
+}
+
+/**
+ * Frequency-independent parts per node, index (iz * nm + im) * nq + iq: weight x n x dV/dz x |dz/dt|
+ * (binaries per second of rest-frame time); per (mass, q) M_c^(5/3); per mass f_ISCO; per z the
+ * comoving distance and the age.
+ */
+function nodeRates(pop: BinaryPopulation, cosmo: FlatLambdaCdm, zr: NodeGrid, mr: NodeGrid, qr: NodeGrid, checkTime: TimeCheck) {
+  const nz = zr.nodes.length;
+  const nm = mr.nodes.length;
+  const nq = qr.nodes.length;
+  const rate = new Float64Array(nz * nm * nq);
   const mc53 = new Float64Array(nm * nq); // M_c^(5/3), kg^(5/3)
   const fIsco = new Float64Array(nm);
   for (let im = 0; im < nm; im++) {
@@ -124,102 +191,86 @@ export function finiteBinaryBins(
       }
     }
   }
+  return { rate, mc53, fIsco, dc, age };
+}
 
-  const nf = freqsHz.length;
-  const out: FiniteBinaryResult = {
-    frequencyHz: Float64Array.from(freqsHz),
-    expectedPerBin: new Float64Array(nf),
-    smoothHc: new Float64Array(nf),
-    thinnedHc: new Float64Array(nf),
-    cutLog10M: new Float64Array(nf),
-    loudestStrain: new Float64Array(nf),
-    longResidencePerBin: new Float64Array(nf),
-  };
-  // Without a residence factor the node sums do not depend on the frequency: built once. With one,
-  // each node's rate is scaled by the factor at the bin's f_r and the sums are rebuilt per bin.
-  const scaled = residence ? new Float64Array(size) : rate;
-  const factor = residence ? new Float64Array(size) : undefined;
-  const massKg = Float64Array.from(mr.nodes, (x) => M_SUN_KG * Math.pow(10, x));
-  let sums = residence ? undefined : nodeSums(rate, mc53, nz, nm, nq);
-  let loud = residence ? undefined : new LoudestSearch(rate, mc53, nz, nm, nq);
-  // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
-  // its own cell: the separation theorem of Chebyshev, Markov and Stieltjes, Szego 1939, Orthogonal
-  // Polynomials, 3.41; section number unverified), so a node's count spread over its cell keeps the density it stands for.
-  const edges = new Float64Array(nm + 1);
-  edges[0] = pop.log10MMin;
-  for (let im = 0; im < nm; im++) edges[im + 1] = edges[im] + mr.weights[im];
-  const tauOf = new Float64Array(nz);
-  const hFOf = new Float64Array(nz);
-  const emitting = new Int32Array(nz);
-  for (let k = 0; k < nf; k++) {
-    checkTime();
-    const f = freqsHz[k];
-    if (!(f > 0) || !Number.isFinite(f)) throw new RangeError(`frequency ${k + 1} must be positive and finite, got ${f} Hz`);
-    const dlnf = 1 / (f * spanS);
-    if (residence && factor) {
-      fillResidenceFactors(residence, f, zr.nodes, massKg, qr.nodes, factor, rate, scaled);
-      sums = nodeSums(scaled, mc53, nz, nm, nq);
-      if (loud) loud.useRates(scaled);
-      else loud = new LoudestSearch(scaled, mc53, nz, nm, nq);
-    }
-    const { perMc53, timesMc53, perMc53ByQ, perMc53Below, timesMc53Below } = sums as NodeSums;
-    let count = 0;
-    let h2Total = 0;
-    let longCount = 0;
-    for (let iz = 0; iz < nz; iz++) {
-      const fr = (1 + zr.nodes[iz]) * f;
-      // The residence time and the strain above, factored into frequency and chirp-mass parts.
-      const tauF = RESIDENCE * Math.pow(fr, -8 / 3);
-      const hF = (STRAIN * Math.pow(fr, 2 / 3)) / dc[iz];
-      tauOf[iz] = tauF;
-      hFOf[iz] = hF;
-      // Masses rise with the node index and f_ISCO falls: nodes from the first past the ISCO on have merged.
-      let im = 0;
-      while (im < nm && !(fr > fIsco[im])) im++;
-      count += perMc53Below[iz * (nm + 1) + im] * tauF * dlnf;
-      h2Total += timesMc53Below[iz * (nm + 1) + im] * tauF * hF * hF;
-      emitting[iz] = im;
-      // Long residence: total residence time (the GW time times the factor) above the age at z.
-      const long = factor ? longResidenceScaled(scaled, factor, mc53, iz, nm, nq, im, tauF, age[iz]) : longResidenceCount(perMc53ByQ, mc53, iz, nm, nq, im, tauF / age[iz]);
-      longCount += long * tauF * dlnf;
-    }
-    out.expectedPerBin[k] = count;
-    out.longResidencePerBin[k] = longCount;
-    out.smoothHc[k] = Math.sqrt(h2Total);
+/** One bin's per-z residence and strain factors, ISCO cuts and totals (filled by binTotals). */
+interface BinScratch {
+  tauOf: Float64Array;
+  hFOf: Float64Array;
+  emitting: Int32Array;
+  count: number;
+  h2Total: number;
+  longCount: number;
+}
 
-    // Cut: walk mass cells from the top until one or more binaries are expected above.
-    // With fewer than one binary in the whole bin nothing is expected: cut at the bottom, h_c = 0.
-    let cut = pop.log10MMin;
-    let h2AboveCut = h2Total;
-    if (count >= 1) {
-      let above = 0;
-      let h2Above = 0;
-      for (let im = nm - 1; im >= 0; im--) {
-        // This mass node's count and h^2, summed over the z where it still emits (only the nodes walked are summed).
-        let nodeCount = 0;
-        let nodeH2 = 0;
-        for (let iz = 0; iz < nz; iz++) {
-          if (im >= emitting[iz]) continue;
-          nodeCount += perMc53[iz * nm + im] * tauOf[iz] * dlnf;
-          nodeH2 += timesMc53[iz * nm + im] * tauOf[iz] * hFOf[iz] * hFOf[iz];
-        }
-        if (above + nodeCount >= 1) {
-          const frac = (1 - above) / nodeCount;
-          cut = edges[im + 1] - frac * (edges[im + 1] - edges[im]);
-          h2AboveCut = h2Above + frac * nodeH2;
-          break;
-        }
-        above += nodeCount;
-        h2Above += nodeH2;
-      }
-    }
-    out.cutLog10M[k] = cut;
-    out.thinnedHc[k] = Math.sqrt(Math.max(0, h2Total - h2AboveCut));
-
-    // Loudest expected binary: nodes by decreasing strain until one binary is expected.
-    out.loudestStrain[k] = count < 1 ? 0 : (loud as LoudestSearch).search(tauOf, hFOf, emitting, dlnf);
+/** Count, h^2 and long-residence count of the bin at observed frequency f, summed over the z nodes. */
+function binTotals(bin: BinScratch, sums: NodeSums, z: Float64Array, f: number, dlnf: number, dc: Float64Array, age: Float64Array, fIsco: Float64Array, mc53: Float64Array, nm: number, nq: number, factor: Float64Array | undefined, scaled: Float64Array): void {
+  const { perMc53ByQ, perMc53Below, timesMc53Below } = sums;
+  const { tauOf, hFOf, emitting } = bin;
+  let count = 0;
+  let h2Total = 0;
+  let longCount = 0;
+  for (let iz = 0; iz < z.length; iz++) {
+    const fr = (1 + z[iz]) * f;
+    // The residence time and the strain above, factored into frequency and chirp-mass parts.
+    const tauF = RESIDENCE * Math.pow(fr, -8 / 3);
+    const hF = (STRAIN * Math.pow(fr, 2 / 3)) / dc[iz];
+    tauOf[iz] = tauF;
+    hFOf[iz] = hF;
+    // Masses rise with the node index and f_ISCO falls: nodes from the first past the ISCO on have merged.
+    const im = firstPastIsco(fIsco, fr);
+    count += perMc53Below[iz * (nm + 1) + im] * tauF * dlnf;
+    h2Total += timesMc53Below[iz * (nm + 1) + im] * tauF * hF * hF;
+    emitting[iz] = im;
+    // Long residence: total residence time (the GW time times the factor) above the age at z.
+    const long = factor ? longResidenceScaled(scaled, factor, mc53, iz, nm, nq, im, tauF, age[iz]) : longResidenceCount(perMc53ByQ, mc53, iz, nm, nq, im, tauF / age[iz]);
+    longCount += long * tauF * dlnf;
   }
-  return out;
+  bin.count = count;
+  bin.h2Total = h2Total;
+  bin.longCount = longCount;
+}
+
+/**
+ * Cut of a bin holding one or more binaries: walk mass cells from the top until one binary is
+ * expected above; log10 M of the cut and the h^2 above it.
+ */
+function massCut(bin: BinScratch, sums: NodeSums, dlnf: number, edges: Float64Array, nm: number): { log10M: number; h2Above: number } {
+  const { perMc53, timesMc53 } = sums;
+  const { tauOf, hFOf, emitting } = bin;
+  const nz = tauOf.length;
+  let above = 0;
+  let h2Above = 0;
+  for (let im = nm - 1; im >= 0; im--) {
+    // This mass node's count and h^2, summed over the z where it still emits (only the nodes walked are summed).
+    let nodeCount = 0;
+    let nodeH2 = 0;
+    for (let iz = 0; iz < nz; iz++) {
+      if (im >= emitting[iz]) continue;
+      nodeCount += perMc53[iz * nm + im] * tauOf[iz] * dlnf;
+      nodeH2 += timesMc53[iz * nm + im] * tauOf[iz] * hFOf[iz] * hFOf[iz];
+    }
+    if (above + nodeCount >= 1) {
+      const frac = (1 - above) / nodeCount;
+      return { log10M: edges[im + 1] - frac * (edges[im + 1] - edges[im]), h2Above: h2Above + frac * nodeH2 };
+    }
+    above += nodeCount;
+    h2Above += nodeH2;
+  }
+  return { log10M: edges[0], h2Above: bin.h2Total };
+}
+
+/** The first index i with fr > fIsco[i] (fIsco non-increasing), or fIsco.length: a binary search. */
+export function firstPastIsco(fIsco: Float64Array, fr: number): number {
+  let lo = 0;
+  let hi = fIsco.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (fr > fIsco[mid]) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
 }
 
 /** Sums over the nodes of rate / M_c^(5/3) (counts) and rate x M_c^(5/3) (h^2) that the bins read. */
@@ -335,188 +386,6 @@ function longResidenceCount(perMc53ByQ: Float64Array, mc53: Float64Array, iz: nu
     sum += perMc53ByQ[(iz * nq + iq) * (nm + 1) + lo];
   }
   return sum;
-}
-
-/**
- * The loudest binary expected in a bin (the strain with one binary expected at or above it, as
- * loudestExpected finds it) for strains h_F(z) x M_c^(5/3) and counts rate x tau_F(z) / M_c^(5/3):
- * the (mass, q) nodes are put once in order of decreasing M_c^(5/3), which is the order of
- * decreasing strain at every z, with per-z prefix sums of rate / M_c^(5/3). The count at or above a
- * strain h is then a binary search per z; bisection in h narrows the nodes that hold the crossing
- * to a few, which are sorted. Merged nodes (past the ISCO: mass index >= emitting[z]) are taken out
- * of the prefix sums per frequency.
- */
-class LoudestSearch {
-  private readonly order: Int32Array; // node (im * nq + iq) at each rank
-  private readonly rankedMc53: Float64Array;
-  private readonly massOfRank: Int32Array;
-  private readonly rankOfNode: Int32Array;
-  private readonly prefix: Float64Array; // per z: sum over ranks < j of rate / M_c^(5/3)
-  private readonly exRanks: Int32Array; // scratch: ranks of merged nodes of one z, ascending
-  private readonly exPrefix: Float64Array;
-  private readonly exStart: Int32Array; // per z: start of its merged ranks in the scratch
-  private readonly exCount: Int32Array;
-  private readonly exCut: Int32Array; // per z: the first merged mass index the scratch holds (-1: none yet)
-  private readonly members: number[] = [];
-  private readonly rankLo: Int32Array;
-  private readonly rankHi: Int32Array;
-  private readonly rankMid: Int32Array;
-  constructor(
-    private rate: Float64Array,
-    private readonly mc53: Float64Array,
-    private readonly nz: number,
-    private readonly nm: number,
-    private readonly nq: number,
-  ) {
-    const p = nm * nq;
-    this.order = Int32Array.from(Array.from({ length: p }, (_, i) => i).sort((a, b) => mc53[b] - mc53[a] || a - b));
-    this.rankedMc53 = Float64Array.from(this.order, (i) => mc53[i]);
-    this.massOfRank = Int32Array.from(this.order, (i) => Math.floor(i / nq));
-    this.rankOfNode = new Int32Array(p);
-    for (let j = 0; j < p; j++) this.rankOfNode[this.order[j]] = j;
-    this.prefix = new Float64Array(nz * (p + 1));
-    this.fillPrefix();
-    this.exRanks = new Int32Array(nz * p);
-    this.exPrefix = new Float64Array(nz * (p + 1));
-    this.exStart = new Int32Array(nz);
-    this.exCount = new Int32Array(nz);
-    this.exCut = new Int32Array(nz).fill(-1);
-    this.rankLo = new Int32Array(nz);
-    this.rankHi = new Int32Array(nz);
-    this.rankMid = new Int32Array(nz);
-  }
-
-  private fillPrefix(): void {
-    const p = this.rankedMc53.length;
-    for (let iz = 0; iz < this.nz; iz++) {
-      const base = iz * (p + 1);
-      for (let j = 0; j < p; j++) this.prefix[base + j + 1] = this.prefix[base + j] + this.rate[iz * p + this.order[j]] / this.rankedMc53[j];
-    }
-  }
-
-  /** New rates for the same nodes (a residence factor per bin): the order by M_c^(5/3) is kept, the sums rebuilt. */
-  useRates(rate: Float64Array): void {
-    this.rate = rate;
-    this.fillPrefix();
-    this.exCut.fill(-1);
-  }
-
-  /** Ranks j with hF x M_c^(5/3)[j] >= h (a prefix of the ranks), known to lie in [from, to]. */
-  private ranksAtOrAbove(hF: number, h: number, from = 0, to = this.rankedMc53.length): number {
-    let lo = from;
-    let hi = to;
-    while (lo < hi) {
-      const mid = (lo + hi) >>> 1;
-      if (hF * this.rankedMc53[mid] >= h) lo = mid + 1;
-      else hi = mid;
-    }
-    return lo;
-  }
-
-  /** Sum of rate / M_c^(5/3) over the first `ranks` ranks at z, merged nodes left out. */
-  private emittingSum(iz: number, ranks: number): number {
-    const p = this.rankedMc53.length;
-    let s = this.prefix[iz * (p + 1) + ranks];
-    const n = this.exCount[iz];
-    if (n > 0) {
-      const start = this.exStart[iz];
-      let lo = 0;
-      let hi = n;
-      while (lo < hi) {
-        const mid = (lo + hi) >>> 1;
-        if (this.exRanks[start + mid] < ranks) lo = mid + 1;
-        else hi = mid;
-      }
-      s -= this.exPrefix[iz * (p + 1) + lo];
-    }
-    return s;
-  }
-
-  search(tau: Float64Array, hF: Float64Array, emitting: Int32Array, dlnf: number): number {
-    const { nz, nm, nq } = this;
-    const p = nm * nq;
-    // Merged nodes of each z, by rank, with their prefix sums (kept while the z's ISCO cut stays).
-    for (let iz = 0; iz < nz; iz++) {
-      if (this.exCut[iz] === emitting[iz]) continue;
-      this.exCut[iz] = emitting[iz];
-      const first = iz * p;
-      let used = first;
-      this.exStart[iz] = first;
-      for (let im = emitting[iz]; im < nm; im++) for (let iq = 0; iq < nq; iq++) this.exRanks[used++] = this.rankOfNode[im * nq + iq];
-      this.exCount[iz] = used - first;
-      if (used > first) {
-        const ranks = this.exRanks.subarray(first, used).sort();
-        const base = iz * (p + 1);
-        for (let j = 0; j < ranks.length; j++) this.exPrefix[base + j + 1] = this.exPrefix[base + j] + this.rate[iz * p + this.order[ranks[j]]] / this.rankedMc53[ranks[j]];
-      }
-    }
-    let hMin = Infinity;
-    let hMax = 0;
-    for (let iz = 0; iz < nz; iz++) {
-      hMin = Math.min(hMin, hF[iz] * this.rankedMc53[p - 1]);
-      hMax = Math.max(hMax, hF[iz] * this.rankedMc53[0]);
-    }
-    // Bracket [lo, hi): count at or above lo >= 1, at or above hi < 1; ranks at each end per z.
-    let lo = hMin;
-    let hi = 2 * hMax;
-    const { rankLo, rankHi, rankMid } = this;
-    let inside = 0;
-    let countLo = 0;
-    let countHi = 0;
-    for (let iz = 0; iz < nz; iz++) {
-      rankLo[iz] = p;
-      rankHi[iz] = 0;
-      inside += p;
-      countLo += tau[iz] * dlnf * this.emittingSum(iz, p);
-    }
-    if (countLo < 1) return 0;
-    for (let it = 0; it < 200 && inside > 48; it++) {
-      // Odd steps interpolate ln(count) linearly in ln h towards count 1 (kept inside the bracket);
-      // even steps bisect in ln h, so the bracket at least halves every two steps.
-      let mid = Math.sqrt(lo * hi);
-      if (it % 2 === 1 && countHi > 0) {
-        const t = Math.min(0.9, Math.max(0.1, Math.log(countLo) / (Math.log(countLo) - Math.log(countHi))));
-        mid = lo * Math.pow(hi / lo, t);
-      }
-      if (!(mid > lo && mid < hi)) break;
-      let c = 0;
-      for (let iz = 0; iz < nz; iz++) {
-        rankMid[iz] = this.ranksAtOrAbove(hF[iz], mid, rankHi[iz], rankLo[iz]);
-        c += tau[iz] * dlnf * this.emittingSum(iz, rankMid[iz]);
-      }
-      inside = 0;
-      if (c >= 1) {
-        lo = mid;
-        countLo = c;
-        for (let iz = 0; iz < nz; iz++) inside += (rankLo[iz] = rankMid[iz]) - rankHi[iz];
-      } else {
-        hi = mid;
-        countHi = c;
-        for (let iz = 0; iz < nz; iz++) inside += rankLo[iz] - (rankHi[iz] = rankMid[iz]);
-      }
-    }
-    // The nodes with lo <= strain < hi, by decreasing strain, from the count at or above hi.
-    let cum = countHi;
-    const members = this.members;
-    members.length = 0;
-    for (let iz = 0; iz < nz; iz++) {
-      for (let j = rankHi[iz]; j < rankLo[iz]; j++) {
-        if (this.massOfRank[j] >= emitting[iz] || this.rate[iz * p + this.order[j]] === 0) continue;
-        members.push(iz * p + j);
-      }
-    }
-    const strainOf = (m: number) => hF[Math.floor(m / p)] * this.rankedMc53[m % p];
-    members.sort((x, y) => strainOf(y) - strainOf(x));
-    let last = 0;
-    for (const m of members) {
-      const iz = Math.floor(m / p);
-      const j = m % p;
-      last = strainOf(m);
-      cum += (this.rate[iz * p + this.order[j]] / this.rankedMc53[j]) * tau[iz] * dlnf;
-      if (cum >= 1) return last;
-    }
-    return last;
-  }
 }
 
 const HISTOGRAM_BINS = 4096;

@@ -28,12 +28,24 @@ function petersShapeLogSlope(e: number): number {
  */
 export function eccentricityAtOrbitalFrequency(e0: number, frequencyRatio: number, guess?: number): number {
   if (!(e0 >= 0 && e0 < 1)) throw new RangeError(`eccentricity e0 must lie in [0, 1), got ${e0}`);
+  checkRatio(frequencyRatio);
+  return e0 === 0 ? 0 : eccentricityFromShape(e0, petersShapeLog(e0), frequencyRatio, guess);
+}
+
+function checkRatio(frequencyRatio: number): void {
   if (!(frequencyRatio > 0) || !Number.isFinite(frequencyRatio)) {
     throw new RangeError(`orbital frequency ratio f/f0 must be positive and finite, got ${frequencyRatio}`);
   }
-  if (e0 === 0) return 0;
+}
+
+/**
+ * eccentricityAtOrbitalFrequency for 0 < e0 < 1 given shapeLog0 = petersShapeLog(e0) (computed once
+ * by a caller that solves for many ratios at one e0).
+ */
+export function eccentricityFromShape(e0: number, shapeLog0: number, frequencyRatio: number, guess?: number): number {
+  checkRatio(frequencyRatio);
   if (frequencyRatio === 1) return e0;
-  const target = petersShapeLog(e0) - (2 / 3) * Math.log(frequencyRatio);
+  const target = shapeLog0 - (2 / 3) * Math.log(frequencyRatio);
   // Bracket in s = logit(e). At s = -745 e underflows; at s = 37, 1 - e underflows.
   let lo = -745;
   let hi = 37;

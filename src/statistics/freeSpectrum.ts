@@ -52,8 +52,15 @@ export function quantityOffset(data: FreeSpectrumData, k: number): number {
   return data.quantity === 'log10Rho' ? log10RhoOffset(data.frequencyHz[k], data.spanS) : 0;
 }
 
-/** Checks a free spectrum and returns it; every problem names the bin (and sample). */
+/** Free spectra already checked (the same objects): a stored free spectrum is an immutable value. */
+const checked = new WeakSet<FreeSpectrumData>();
+
+/**
+ * Checks a free spectrum and returns it; every problem names the bin (and sample). The same object
+ * is checked once (the built-in checks it, and the likelihood built from it later does not again).
+ */
 export function validateFreeSpectrum(data: FreeSpectrumData): FreeSpectrumData {
+  if (checked.has(data)) return data;
   const nb = data.frequencyHz.length;
   if (nb === 0) throw new FreeSpectrumError('the free spectrum has no bins');
   if (nb > FREE_SPECTRUM_MAX_BINS) throw new FreeSpectrumError(`too many bins (${nb}); at most ${FREE_SPECTRUM_MAX_BINS}`);
@@ -81,5 +88,6 @@ export function validateFreeSpectrum(data: FreeSpectrumData): FreeSpectrumData {
     }
     if (same) throw new FreeSpectrumError(`bin ${k + 1}: all samples are equal (${s[0]}); a density needs spread`);
   }
+  checked.add(data);
   return data;
 }

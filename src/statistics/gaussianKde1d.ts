@@ -106,24 +106,44 @@ export function tabulateKde(x: ArrayLike<number>, opts: KdeTableOptions = {}): K
   if (size > MAX_TABLE_POINTS) size = MAX_TABLE_POINTS; // very wide spread against h: coarser table
   size = Math.max(size, 3);
   const dx = (hi - lo) / (size - 1);
-  const counts = new Float64Array(size);
-  const addAt = (v: number) => {
-    const t = (v - lo) / dx;
-    if (t < 0 || t > size - 1) return;
-    const j = Math.min(Math.floor(t), size - 2);
-    const w = t - j;
-    counts[j] += 1 - w;
-    counts[j + 1] += w;
-  };
-  for (let i = 0; i < n; i++) {
-    addAt(x[i]);
-    if (x[i] - a < reach) addAt(2 * a - x[i]); // mirrored images that fall on the table are kept
-    if (b - x[i] < reach) addAt(2 * b - x[i]);
-  }
+  // Each pass over the samples or the grid is a function of its own, compiled on its own while cold.
+  const counts = binSamples(x, lo, dx, size, a, b, reach);
   const m = Math.min(Math.ceil(reach / dx), size - 1);
+  const dens = convolve(counts, gaussianKernel(m, dx, h, 1 / (n * h * Math.sqrt(2 * Math.PI))), m);
+  return { x0: lo, dx, size, h, ...logAndCdf(dens, lo, dx, a, b) };
+}
+
+/** Linear binning of the samples (and their mirror images within reach of an edge) onto the grid lo + i dx. */
+function binSamples(x: ArrayLike<number>, lo: number, dx: number, size: number, a: number, b: number, reach: number): Float64Array {
+  const counts = new Float64Array(size);
+  for (let i = 0; i < x.length; i++) {
+    const v = x[i];
+    addAt(counts, v, lo, dx, size);
+    if (v - a < reach) addAt(counts, 2 * a - v, lo, dx, size); // mirrored images that fall on the table are kept
+    if (b - v < reach) addAt(counts, 2 * b - v, lo, dx, size);
+  }
+  return counts;
+}
+
+function addAt(counts: Float64Array, v: number, lo: number, dx: number, size: number): void {
+  const t = (v - lo) / dx;
+  if (t < 0 || t > size - 1) return;
+  const j = Math.min(Math.floor(t), size - 2);
+  const w = t - j;
+  counts[j] += 1 - w;
+  counts[j + 1] += w;
+}
+
+/** norm x exp(-(j dx / h)^2 / 2) for j = 0 .. m. */
+function gaussianKernel(m: number, dx: number, h: number, norm: number): Float64Array {
   const kernel = new Float64Array(m + 1);
-  const norm = 1 / (n * h * Math.sqrt(2 * Math.PI));
   for (let j = 0; j <= m; j++) kernel[j] = norm * Math.exp(-0.5 * ((j * dx) / h) ** 2);
+  return kernel;
+}
+
+/** Discrete convolution of the binned counts with the kernel cut at m points. */
+function convolve(counts: Float64Array, kernel: Float64Array, m: number): Float64Array {
+  const size = counts.length;
   const dens = new Float64Array(size);
   for (let i = 0; i < size; i++) {
     const c = counts[i];
@@ -132,6 +152,12 @@ export function tabulateKde(x: ArrayLike<number>, opts: KdeTableOptions = {}): K
     const jhi = Math.min(size - 1, i + m);
     for (let j = jlo; j <= jhi; j++) dens[j] += c * kernel[Math.abs(j - i)];
   }
+  return dens;
+}
+
+/** ln density, trapezoid cdf and peak of the convolved density (zero outside the edges [a, b]). */
+function logAndCdf(dens: Float64Array, lo: number, dx: number, a: number, b: number): { logDensity: Float64Array; cdf: Float64Array; logPeak: number } {
+  const size = dens.length;
   const logDensity = new Float64Array(size);
   const cdf = new Float64Array(size);
   let logPeak = -Infinity;
@@ -142,7 +168,7 @@ export function tabulateKde(x: ArrayLike<number>, opts: KdeTableOptions = {}): K
     if (logDensity[i] > logPeak) logPeak = logDensity[i];
     if (i > 0) cdf[i] = cdf[i - 1] + 0.5 * (dens[i] + dens[i - 1]) * dx;
   }
-  return { x0: lo, dx, size, h, logDensity, cdf, logPeak };
+  return { logDensity, cdf, logPeak };
 }
 
 /** ln density from the table by linear interpolation in ln p; -Infinity off the table. */

@@ -67,22 +67,44 @@ export function tabulateKde2d(u: ArrayLike<number>, v: ArrayLike<number>, size =
   if (n < 3 || v.length !== n) throw new RangeError(`a 2-D KDE needs at least 3 pairs of samples, got ${Math.min(n, v.length)}`);
   const { mean, chol } = choleskyOfSamples(u, v);
   const factor = Math.pow(n, -1 / 6);
+  // Each pass is a function of its own, compiled on its own while the cell runs cold.
+  const w = whitenAll(u, v, mean, chol);
+  const lo = w.lo - REACH * factor;
+  const hi = w.hi + REACH * factor;
+  const dz = (hi - lo) / (size - 1);
+  const counts = binPairs(w.zs1, w.zs2, lo, dz, size);
+  const m = Math.min(Math.ceil((REACH * factor) / dz), size - 1);
+  const kern = new Float64Array(m + 1);
+  for (let j = 0; j <= m; j++) kern[j] = Math.exp(-0.5 * ((j * dz) / factor) ** 2);
+  const tmp = smoothRows(counts, kern, size, checkTime);
+  const density = smoothColumns(tmp, kern, size, 1 / (n * 2 * Math.PI * factor * factor), checkTime);
+  return { mean, chol, factor, z0: [lo, lo], dz, size, density };
+}
+
+/** Whitened samples and the smallest and largest whitened coordinate. */
+function whitenAll(u: ArrayLike<number>, v: ArrayLike<number>, mean: [number, number], chol: [number, number, number]) {
+  const n = u.length;
+  const [l11, l21, l22] = chol;
   const zs1 = new Float64Array(n);
   const zs2 = new Float64Array(n);
   let lo = Infinity;
   let hi = -Infinity;
   for (let i = 0; i < n; i++) {
-    const [a, b] = whiten({ mean, chol }, u[i], v[i]);
+    // as whiten()
+    const a = (u[i] - mean[0]) / l11;
+    const b = (v[i] - mean[1] - l21 * a) / l22;
     zs1[i] = a;
     zs2[i] = b;
     lo = Math.min(lo, a, b);
     hi = Math.max(hi, a, b);
   }
-  lo -= REACH * factor;
-  hi += REACH * factor;
-  const dz = (hi - lo) / (size - 1);
+  return { zs1, zs2, lo, hi };
+}
+
+/** Bilinear binning of the whitened samples onto the size x size grid from lo, spacing dz. */
+function binPairs(zs1: Float64Array, zs2: Float64Array, lo: number, dz: number, size: number): Float64Array {
   const counts = new Float64Array(size * size);
-  for (let i = 0; i < n; i++) {
+  for (let i = 0; i < zs1.length; i++) {
     const a = (zs1[i] - lo) / dz;
     const b = (zs2[i] - lo) / dz;
     const ia = Math.min(Math.floor(a), size - 2);
@@ -94,9 +116,12 @@ export function tabulateKde2d(u: ArrayLike<number>, v: ArrayLike<number>, size =
     counts[(ib + 1) * size + ia] += (1 - wa) * wb;
     counts[(ib + 1) * size + ia + 1] += wa * wb;
   }
-  const m = Math.min(Math.ceil((REACH * factor) / dz), size - 1);
-  const kern = new Float64Array(m + 1);
-  for (let j = 0; j <= m; j++) kern[j] = Math.exp(-0.5 * ((j * dz) / factor) ** 2);
+  return counts;
+}
+
+/** Convolution of each grid row with the kernel (cut at m = kern.length - 1 points). */
+function smoothRows(counts: Float64Array, kern: Float64Array, size: number, checkTime: TimeCheck): Float64Array {
+  const m = kern.length - 1;
   const tmp = new Float64Array(size * size);
   for (let r = 0; r < size; r++) {
     checkTime();
@@ -106,17 +131,36 @@ export function tabulateKde2d(u: ArrayLike<number>, v: ArrayLike<number>, size =
       for (let j = Math.max(0, i - m); j <= Math.min(size - 1, i + m); j++) tmp[r * size + j] += c * kern[Math.abs(j - i)];
     }
   }
+  return tmp;
+}
+
+/**
+ * Convolution of each grid column with the kernel, times norm. Row r of the input adds to rows
+ * r - m .. r + m of the output, each a contiguous pass; every output point gets its terms in order of r.
+ */
+function smoothColumns(tmp: Float64Array, kern: Float64Array, size: number, norm: number, checkTime: TimeCheck): Float64Array {
+  const m = kern.length - 1;
   const density = new Float64Array(size * size);
-  const norm = 1 / (n * 2 * Math.PI * factor * factor);
   for (let r = 0; r < size; r++) {
     checkTime();
-    for (let i = 0; i < size; i++) {
-      const c = tmp[r * size + i];
-      if (c === 0) continue;
-      for (let j = Math.max(0, r - m); j <= Math.min(size - 1, r + m); j++) density[j * size + i] += norm * c * kern[Math.abs(j - r)];
+    const from = r * size;
+    // the non-zero part of the row (a zero adds nothing)
+    let iLo = 0;
+    let iHi = size - 1;
+    while (iLo < size && tmp[from + iLo] === 0) iLo++;
+    while (iHi > iLo && tmp[from + iHi] === 0) iHi--;
+    if (iLo === size) continue;
+    for (let j = Math.max(0, r - m); j <= Math.min(size - 1, r + m); j++) {
+      const k = kern[Math.abs(j - r)];
+      const to = j * size;
+      for (let i = iLo; i <= iHi; i++) {
+        const c = tmp[from + i];
+        if (c === 0) continue;
+        density[to + i] += norm * c * k;
+      }
     }
   }
-  return { mean, chol, factor, z0: [lo, lo], dz, size, density };
+  return density;
 }
 
 /** Density in z at whitened point (z1, z2) by bilinear interpolation; 0 off the grid. */

@@ -41,6 +41,15 @@ describe('besselJ against scipy.special.jv (' + fixture.library_version + ')', (
   });
 });
 
+describe('besselJWindow reuses its scratch between calls', () => {
+  it('a wide window with rescaling (30 orders at n = 1500, x = 750), then a narrow one, agree with separate calls to rounding', () => {
+    const wide = besselJWindow(1500, 30, 750, new Float64Array(30));
+    for (let i = 0; i < 30; i += 7) expect(Math.abs(wide[i] / besselJ(1500 + i, 750) - 1)).toBeLessThan(1e-13);
+    const narrow = besselJWindow(3, 2, 2.5, new Float64Array(2));
+    for (let i = 0; i < 2; i++) expect(Math.abs(narrow[i] / besselJ(3 + i, 2.5) - 1)).toBeLessThan(1e-13);
+  });
+});
+
 describe('besselJ special cases (Abramowitz & Stegun 1964, 9.1.5 and 9.1.10)', () => {
   it('J_0(0) = 1 and J_n(0) = 0 for n >= 1', () => {
     expect(besselJ(0, 0)).toBe(1);

@@ -3,10 +3,12 @@
 import { describe, expect, it } from 'vitest';
 import {
   eccentricityAtOrbitalFrequency,
+  eccentricityFromShape,
   gwEccentricityRate,
   gwSemiMajorAxisRate,
   keplerOrbitalFrequency,
   keplerSemiMajorAxis,
+  petersShapeLog,
 } from '../../src/physics/petersEvolution';
 import { C_SI, G_SI, M_SUN_KG } from '../../src/physics/constants';
 import fixture from '../reference/peters_evolution.json';
@@ -20,6 +22,21 @@ describe('eccentricity at an orbital frequency (closed form, Peters 1964 eq. 5.1
         expect(err, `e0 = ${run.e0}, f/f0 = ${p.frequencyRatio}: expected ${p.e}, got ${e}`).toBeLessThan(1e-10);
       }
     }
+  });
+
+  it(`with the shape of e0 given once, agrees with scipy.integrate.solve_ivp (${fixture.library_version}) to 1e-10 relative, and with the one-call form exactly`, () => {
+    for (const run of fixture.runs) {
+      if (run.e0 === 0) continue;
+      const shape = petersShapeLog(run.e0);
+      let guess: number | undefined;
+      for (const p of run.points) {
+        const e = eccentricityFromShape(run.e0, shape, p.frequencyRatio, guess);
+        expect(Math.abs(e / p.e - 1), `e0 = ${run.e0}, f/f0 = ${p.frequencyRatio}`).toBeLessThan(1e-10);
+        expect(e).toBe(eccentricityAtOrbitalFrequency(run.e0, p.frequencyRatio, guess));
+        guess = e;
+      }
+    }
+    expect(() => eccentricityFromShape(0.5, petersShapeLog(0.5), 0)).toThrow(/ratio f\/f0 must be positive/);
   });
 
   it('small-e law e proportional to f^(-19/18) (Peters 1964, eq. 5.11 at small e): local slope within 1e-6', () => {

@@ -2,7 +2,7 @@
 // Gaussian samples, the stated floor, prior division and percentiles.
 import { describe, expect, it } from 'vitest';
 import { F_YR_HZ, YEAR_S } from '../../src/physics/constants';
-import { type FreeSpectrumData, log10RhoOffset, rhoFromStrain, strainFromRho } from '../../src/statistics/freeSpectrum';
+import { type FreeSpectrumData, FreeSpectrumError, log10RhoOffset, rhoFromStrain, strainFromRho, validateFreeSpectrum } from '../../src/statistics/freeSpectrum';
 import { buildFreeSpectrumLikelihood, LOG_LIKELIHOOD_FLOOR_BELOW_PEAK } from '../../src/statistics/freeSpectrumLikelihood';
 import { seededRandom } from '../../src/statistics/prng';
 
@@ -94,6 +94,18 @@ describe('floor, prior and percentiles', () => {
     expect(one.bins).toBe(1);
     expect(() => like.logLikelihood([1e-15])).toThrow(/needs h_c at 2 bins/);
     expect(() => buildFreeSpectrumLikelihood(data, { bins: 3 })).toThrow(/from 1 to 2/);
+  });
+  it('checks a free spectrum once: a bad one is refused when the likelihood is built, a checked one gives the likelihood of an unchecked copy', () => {
+    const bad = gaussianData(50, [-7, -7.2], 0.1, 5);
+    bad.samples[1][7] = NaN;
+    expect(() => buildFreeSpectrumLikelihood(bad)).toThrow(FreeSpectrumError);
+    expect(() => buildFreeSpectrumLikelihood(bad)).toThrow(/bin 2, sample 8: NaN is not a finite number/);
+    const good = gaussianData(50, [-7, -7.2], 0.1, 5);
+    const copy = { ...good, samples: good.samples.map((s) => Float64Array.from(s)) };
+    expect(validateFreeSpectrum(good)).toBe(good);
+    expect(validateFreeSpectrum(good)).toBe(good);
+    const hc = hcOf([-6.95, -7.3]);
+    expect(buildFreeSpectrumLikelihood(good).logLikelihood(hc)).toBe(buildFreeSpectrumLikelihood(copy).logLikelihood(hc));
   });
   it('f_yr constant used in fits is 1/(365.25 days) (IAU Julian year)', () => {
     expect(F_YR_HZ * 365.25 * 86400).toBeCloseTo(1, 15);
