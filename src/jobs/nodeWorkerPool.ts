@@ -4,7 +4,7 @@ import { availableParallelism } from 'node:os';
 import { existsSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import workerpool from 'workerpool';
+import type { Pool } from 'workerpool';
 import type { ChunkExecutor } from './runChunks';
 import { SheetJobError } from '../statistics/sheetValues';
 
@@ -30,15 +30,23 @@ function workerScript(): string {
   throw new Error('cannot find bin/strainsheet-worker.mjs next to the strainsheet sources');
 }
 
-/** A pool of `workers` worker threads running chunks. */
+/**
+ * A pool of `workers` worker threads running chunks. workerpool is loaded, and the threads started,
+ * on the first request, so that commands that never use the pool do not load it (the bundle
+ * initialises a module imported with import() when it is first imported).
+ */
 export function nodeWorkerPool(workers: number): ChunkExecutor & { loadSheet(sheetText: string): Promise<number> } {
-  const pool = workerpool.pool(workerScript(), { workerType: 'thread', minWorkers: workers, maxWorkers: workers });
+  let started: Promise<Pool> | undefined;
+  const pool = () =>
+    (started ??= import('workerpool').then(({ default: workerpool }) =>
+      workerpool.pool(workerScript(), { workerType: 'thread', minWorkers: workers, maxWorkers: workers }),
+    ));
   return {
     /** Starts a worker (if none is idle) and builds the sheet there: the start-up cost of a worker. */
-    loadSheet: (sheetText) => pool.exec('loadSheet', [sheetText]),
+    loadSheet: async (sheetText) => (await pool()).exec('loadSheet', [sheetText]),
     async runChunk(kind, sheetText, plan, index) {
       try {
-        return await pool.exec('runChunk', [kind, sheetText, plan, index]);
+        return await (await pool()).exec('runChunk', [kind, sheetText, plan, index]);
       } catch (e) {
         // Errors cross the thread boundary as plain objects: keep the job's own kind of error.
         if ((e as Error)?.name === 'SheetJobError') throw new SheetJobError((e as Error).message);
@@ -46,7 +54,7 @@ export function nodeWorkerPool(workers: number): ChunkExecutor & { loadSheet(she
       }
     },
     async close(force = false) {
-      await pool.terminate(force);
+      if (started) await (await started).terminate(force);
     },
   };
 }

@@ -18,7 +18,14 @@ const SKIP_WEIGHT = 1e-19;
 export function harmonicSumDirect(x: number, e0: number, nMax: number, nTop?: number): number {
   if (!(x >= 1)) return 0;
   const below = Math.floor(x);
-  const top = Math.min(nTop ?? below, nMax);
+  return sumHarmonics(x, e0, Math.min(nTop ?? below, nMax), 0);
+}
+
+/** The sum after harmonic `partialAt` in the last sumHarmonics call. */
+let partialSum = 0;
+
+/** Phi(x; e0) summed over harmonics 1 .. top (x >= 1); the sum after harmonic partialAt is kept in partialSum. */
+function sumHarmonics(x: number, e0: number, top: number, partialAt: number): number {
   if (top >= 1 && !(e0 >= 0 && e0 < 1)) throw new RangeError(`eccentricity e0 must lie in [0, 1), got ${e0}`);
   const shape0 = e0 === 0 ? 0 : petersShapeLog(e0);
   const twoOverN23 = harmonicWeights(top);
@@ -28,8 +35,8 @@ export function harmonicSumDirect(x: number, e0: number, nMax: number, nTop?: nu
     // e grows with n (lower orbital frequency): the previous harmonic's e is a close first guess.
     en = e0 === 0 ? 0 : eccentricityFromShape(e0, shape0, x / n, n === 1 ? undefined : en);
     const weight = twoOverN23[n] / eccentricityEnhancement(en);
-    if (n > 2 && weight * harmonicPowerBound(n, en) < SKIP_WEIGHT) continue;
-    sum += weight * harmonicPower(n, en);
+    if (n <= 2 || weight * harmonicPowerBound(n, en) >= SKIP_WEIGHT) sum += weight * harmonicPower(n, en);
+    if (n === partialAt) partialSum = sum;
   }
   return sum;
 }
@@ -134,11 +141,28 @@ export class HarmonicSumTable {
     }
     this.unitValues = new Float64Array(total);
     const checkTime = (this.checkTime = opts.checkTime ?? NO_TIME_CHECK);
+    // At x = k + 1 the left limit (harmonics up to k) and the value (up to k + 1) share their first k
+    // terms: one pass gives both (rightAt, the value, starts interval k + 1).
+    const rightAt = { value: 0 };
+    const leftAndRight = (x: number, k: number): number => {
+      let left = 0;
+      let right = 0;
+      for (let c = 0; c < values.length; c++) {
+        if (weights[c] === 0) continue;
+        const nMax = this.harmonicsKept[c];
+        const full = sumHarmonics(x, values[c], Math.min(k + 1, nMax), Math.min(k, nMax));
+        left += weights[c] * partialSum;
+        right += weights[c] * full;
+      }
+      rightAt.value = right;
+      return left;
+    };
     for (let k = 1; k < this.x1; k++) {
       checkTime();
       const m = this.unitSteps[k - 1];
       const o = this.unitOffsets[k - 1];
-      for (let i = 0; i <= m; i++) this.unitValues[o + i] = mix(k + i / m, k);
+      for (let i = 0; i < m; i++) this.unitValues[o + i] = i === 0 && k > 1 ? rightAt.value : mix(k + i / m, k);
+      this.unitValues[o + m] = leftAndRight(k + m / m, k);
     }
     this.logStart = Math.log(this.x1);
     this.logStep = Math.LN10 / perDecade;

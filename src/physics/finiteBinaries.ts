@@ -286,9 +286,19 @@ interface NodeSums {
 }
 
 function nodeSums(rate: Float64Array, mc53: Float64Array, nz: number, nm: number, nq: number): NodeSums {
-  // Sums over q per (z, mass node) for the counts and h^2: dN h^2 = rate tau_F h_F^2 M_c^(5/3).
+  // One function per pass over the nodes (each compiled on its own while cold).
   const perMc53 = new Float64Array(nz * nm); // sum_q rate / M_c^(5/3)
   const timesMc53 = new Float64Array(nz * nm); // sum_q rate x M_c^(5/3)
+  sumsOverQ(rate, mc53, nz, nm, nq, perMc53, timesMc53);
+  const perMc53ByQ = runningSumsByQ(rate, mc53, nz, nm, nq);
+  const perMc53Below = new Float64Array(nz * (nm + 1));
+  const timesMc53Below = new Float64Array(nz * (nm + 1));
+  runningSumsOverMass(perMc53, timesMc53, nz, nm, perMc53Below, timesMc53Below);
+  return { perMc53, timesMc53, perMc53ByQ, perMc53Below, timesMc53Below };
+}
+
+/** Sums over q per (z, mass node) for the counts and h^2: dN h^2 = rate tau_F h_F^2 M_c^(5/3). */
+function sumsOverQ(rate: Float64Array, mc53: Float64Array, nz: number, nm: number, nq: number, perMc53: Float64Array, timesMc53: Float64Array): void {
   for (let iz = 0; iz < nz; iz++) {
     for (let im = 0; im < nm; im++) {
       let a = 0;
@@ -302,8 +312,13 @@ function nodeSums(rate: Float64Array, mc53: Float64Array, nz: number, nm: number
       timesMc53[iz * nm + im] = b;
     }
   }
-  // Per (z, q): running sums over the mass nodes of rate / M_c^(5/3). M_c rises with the mass index at
-  // fixed q, so the nodes with residence time tau_F / M_c^(5/3) above the age are a prefix.
+}
+
+/**
+ * Per (z, q): running sums over the mass nodes of rate / M_c^(5/3). M_c rises with the mass index at
+ * fixed q, so the nodes with residence time tau_F / M_c^(5/3) above the age are a prefix.
+ */
+function runningSumsByQ(rate: Float64Array, mc53: Float64Array, nz: number, nm: number, nq: number): Float64Array {
   const perMc53ByQ = new Float64Array(nz * nq * (nm + 1));
   for (let iz = 0; iz < nz; iz++) {
     for (let iq = 0; iq < nq; iq++) {
@@ -311,16 +326,17 @@ function nodeSums(rate: Float64Array, mc53: Float64Array, nz: number, nm: number
       for (let im = 0; im < nm; im++) perMc53ByQ[base + im + 1] = perMc53ByQ[base + im] + rate[(iz * nm + im) * nq + iq] / mc53[im * nq + iq];
     }
   }
-  // Their running sums over the mass nodes of each z: the totals below a z's ISCO cut in one lookup.
-  const perMc53Below = new Float64Array(nz * (nm + 1));
-  const timesMc53Below = new Float64Array(nz * (nm + 1));
+  return perMc53ByQ;
+}
+
+/** Running sums over the mass nodes of each z of perMc53 and timesMc53: the totals below a z's ISCO cut in one lookup. */
+function runningSumsOverMass(perMc53: Float64Array, timesMc53: Float64Array, nz: number, nm: number, perMc53Below: Float64Array, timesMc53Below: Float64Array): void {
   for (let iz = 0; iz < nz; iz++) {
     for (let im = 0; im < nm; im++) {
       perMc53Below[iz * (nm + 1) + im + 1] = perMc53Below[iz * (nm + 1) + im] + perMc53[iz * nm + im];
       timesMc53Below[iz * (nm + 1) + im + 1] = timesMc53Below[iz * (nm + 1) + im] + timesMc53[iz * nm + im];
     }
   }
-  return { perMc53, timesMc53, perMc53ByQ, perMc53Below, timesMc53Below };
 }
 
 /**

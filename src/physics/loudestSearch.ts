@@ -25,6 +25,8 @@ export class LoudestSearch {
   private readonly rankLo: Int32Array;
   private readonly rankHi: Int32Array;
   private readonly rankMid: Int32Array;
+  // the count at or above the bracket's upper end in the last search (set by bracket())
+  private countHi = 0;
   constructor(
     private rate: Float64Array,
     private readonly mc53: Float64Array,
@@ -97,9 +99,16 @@ export class LoudestSearch {
   }
 
   search(tau: Float64Array, hF: Float64Array, emitting: Int32Array, dlnf: number): number {
+    // Three passes, each a method of its own (compiled on its own while cold).
+    this.updateMerged(emitting);
+    if (!this.bracket(tau, hF, dlnf)) return 0;
+    return this.crossing(tau, hF, emitting, dlnf);
+  }
+
+  /** Merged nodes of each z, by rank, with their prefix sums (kept while the z's ISCO cut stays). */
+  private updateMerged(emitting: Int32Array): void {
     const { nz, nm, nq } = this;
     const p = nm * nq;
-    // Merged nodes of each z, by rank, with their prefix sums (kept while the z's ISCO cut stays).
     for (let iz = 0; iz < nz; iz++) {
       if (this.exCut[iz] === emitting[iz]) continue;
       this.exCut[iz] = emitting[iz];
@@ -114,6 +123,12 @@ export class LoudestSearch {
         for (let j = 0; j < ranks.length; j++) this.exPrefix[base + j + 1] = this.exPrefix[base + j] + this.rate[iz * p + this.order[ranks[j]]] / this.rankedMc53[ranks[j]];
       }
     }
+  }
+
+  /** Bracket [lo, hi) of the crossing strain (count at or above lo >= 1, at or above hi < 1) narrowed until few nodes lie inside; false when fewer than one binary is expected. */
+  private bracket(tau: Float64Array, hF: Float64Array, dlnf: number): boolean {
+    const { nz, nm, nq } = this;
+    const p = nm * nq;
     let hMin = Infinity;
     let hMax = 0;
     for (let iz = 0; iz < nz; iz++) {
@@ -133,7 +148,7 @@ export class LoudestSearch {
       inside += p;
       countLo += tau[iz] * dlnf * this.emittingSum(iz, p);
     }
-    if (countLo < 1) return 0;
+    if (countLo < 1) return false;
     for (let it = 0; it < 200 && inside > 48; it++) {
       // Odd steps interpolate ln(count) linearly in ln h towards count 1 (kept inside the bracket);
       // even steps bisect in ln h, so the bracket at least halves every two steps.
@@ -159,8 +174,16 @@ export class LoudestSearch {
         for (let iz = 0; iz < nz; iz++) inside += rankLo[iz] - (rankHi[iz] = rankMid[iz]);
       }
     }
+    this.countHi = countHi;
+    return true;
+  }
+
+  /** The strain where the count from the top reaches 1, among the nodes inside the bracket. */
+  private crossing(tau: Float64Array, hF: Float64Array, emitting: Int32Array, dlnf: number): number {
+    const { nz, nm, nq, rankLo, rankHi } = this;
+    const p = nm * nq;
     // The nodes with lo <= strain < hi, by decreasing strain, from the count at or above hi.
-    let cum = countHi;
+    let cum = this.countHi;
     const members = this.members;
     members.length = 0;
     for (let iz = 0; iz < nz; iz++) {

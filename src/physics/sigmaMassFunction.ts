@@ -40,6 +40,15 @@ const LN_X_HI = Math.log(40);
  * Gamma(alpha/beta) / beta), by composite Gauss-Legendre in ln x.
  */
 export function dispersionNormalisation(alpha: number, beta: number): number {
+  // the last pair's value is kept: the counts of a reference ask for the same (alpha, beta) many times
+  if (alpha === lastNormalisation.alpha && beta === lastNormalisation.beta) return lastNormalisation.value;
+  const value = normalisationSum(alpha, beta);
+  lastNormalisation = { alpha, beta, value };
+  return value;
+}
+let lastNormalisation = { alpha: NaN, beta: NaN, value: NaN };
+
+function normalisationSum(alpha: number, beta: number): number {
   const r = compositeNodes(LN_X_LO, LN_X_HI, 64, 8);
   let s = 0;
   for (let i = 0; i < r.nodes.length; i++) {

@@ -18,6 +18,8 @@ export const CALLED_ON_USE: Readonly<Record<string, readonly string[]>> = {
   createMultiply: ['dot'],
   // for matrix divisors
   createDivide: ['multiply', 'inv', 'matrix'],
+  // the parser's conversion of number literals (to BigNumber or Fraction only when configured so)
+  createNumeric: ['number', 'bignumber', 'fraction'],
   createAccessorNode: ['subset'],
   createAssignmentNode: ['subset', 'matrix'],
   createIndexNode: ['size'],

@@ -3,11 +3,11 @@
 // written, never changes what runs. V8 itself checks only the text's length (V8 code cache,
 // "source hash" of SerializedCodeData; common practice, no source), hence the same-length edit below.
 import { execFileSync } from 'node:child_process';
-import { createHash } from 'node:crypto';
 import { copyFileSync, existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { crc32 } from 'node:zlib';
 import { afterAll, describe, expect, it } from 'vitest';
 // @ts-expect-error plain JavaScript module of the command line's entry, without type declarations
 import { loadWithCodeCache } from '../../bin/codeCache.mjs';
@@ -79,13 +79,26 @@ describe('code cache of a CommonJS bundle', () => {
     const text = 'module.exports = { answer: () => 40 + 4 };\n';
     writeFileSync(bundle, text);
     const junk = Buffer.from('not V8 code cache data, but the header has the right hashes');
-    const sha1 = (data: string | Buffer) => createHash('sha1').update(data).digest('hex');
-    const header = `strainsheet-code-cache 1 ${process.version} ${process.arch} ${sha1(text)} ${sha1(junk)} ${junk.length}\n`;
+    // CRC-32 of the bytes, as 8 hex digits (node:zlib crc32)
+    const crc = (data: string | Buffer) => crc32(data).toString(16).padStart(8, '0');
+    const header = `strainsheet-code-cache 2 ${process.version} ${process.arch} ${crc(text)} ${crc(junk)} ${junk.length}\n`;
     writeFileSync(cache, Buffer.concat([Buffer.from(header, 'latin1'), junk]));
     const refused = load(bundle);
     expect(refused.cache).toBe('rejected');
     expect(refused.exports.answer()).toBe(44);
     expect(refused.save()).toBe(true);
+  });
+
+  it('a bundle that is not ASCII is read as UTF-8', () => {
+    const other = join(dir, 'utf8.cjs');
+    writeFileSync(other, 'module.exports = { answer: () => "\u00e9\u4e2d\u{1f600}".length * 10 + [..."\u00e9\u4e2d\u{1f600}"].length };\n');
+    expect(readFileSync(other).some((b) => b >= 0x80)).toBe(true);
+    const first = load(other);
+    // 4 UTF-16 code units (the emoji is a surrogate pair), 3 code points
+    expect(first.exports.answer()).toBe(43);
+    first.save();
+    expect(load(other).cache).toBe('used');
+    expect(load(other).exports.answer()).toBe(43);
   });
 
   it('a cache that cannot be written is no error', () => {

@@ -92,6 +92,17 @@ describe('HarmonicSumTable', () => {
     for (const x of [2, 2.0001, 3.3, 63.9, 64, 100, 1e4, 1e9]) expect(t.at(x)).toBe(1);
   });
 
+  it('at each integer x = k below 64 (where harmonic k switches on) the table gives the direct sum over n <= k, and just below it the sum over n < k (to 1e-13; the table builds both in one pass)', () => {
+    for (const e0 of [0.3, 0.6]) {
+      const t = table(e0);
+      const nMax = t.harmonicsKept[0];
+      for (let k = 2; k < 64; k++) {
+        expect(Math.abs(t.at(k) - harmonicSumDirect(k, e0, nMax)), `e0 = ${e0}, x = ${k}`).toBeLessThan(1e-13);
+        expect(Math.abs(t.at(k * (1 - 1e-15)) - harmonicSumDirect(k, e0, nMax, k - 1)), `e0 = ${e0}, x just below ${k}`).toBeLessThan(1e-13);
+      }
+    }
+  });
+
   it('a mixture of e0 values is the weighted sum of the single tables (linearity, to rounding)', () => {
     const mix = new HarmonicSumTable({ values: [0.3, 0.9], weights: [0.25, 0.75] });
     for (const x of [1.2, 5.5, 70, 900, 3e6]) {

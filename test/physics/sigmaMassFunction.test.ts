@@ -23,6 +23,12 @@ describe('velocity-dispersion route to the local black-hole mass function, again
     expect(MCCONNELL_MA_2013_M_SIGMA).toEqual({ norm: fixture.m_sigma.norm, slope: fixture.m_sigma.slope });
   });
 
+  it('beta / Gamma(alpha/beta) stays right when the pair changes between calls (the last pair is kept): the fixture, then beta / Gamma(3) = 1 at (6, 2) (Gamma(n + 1) = n!, Abramowitz & Stegun 1964, 6.1.6), then the fixture again', () => {
+    expect(rel(dispersionNormalisation(d.alpha, d.beta), d.beta_over_gamma)).toBeLessThan(1e-12);
+    expect(rel(dispersionNormalisation(6, 2), 1)).toBeLessThan(1e-12);
+    expect(rel(dispersionNormalisation(d.alpha, d.beta), d.beta_over_gamma)).toBeLessThan(1e-12);
+  });
+
   for (const c of fixture.cases) {
     it(`scatter ${c.scatter_dex} dex: phi per dex (1e7 to 1e10 Msun) to 1e-9, n(>M) (1e8 to 1e10 Msun) to 1e-8, the mass density to 1e-6 (Mpc^-3, Msun Mpc^-3)`, () => {
       const s = spec(c.scatter_dex);

@@ -89,13 +89,14 @@ describe('mathjs instance from selected factories', () => {
     // Independent reference: mathjs's full instance (mathjs documentation, "Expression syntax"):
     // matrix powers and inverses (pow: identity, multiply, inv), matrix division (divide: inv,
     // multiply, matrix), vector products (multiply: dot), indexing (AccessorNode: subset; IndexNode:
-    // size for end) and constants (ConstantNode: isBounded).
+    // size for end), constants (ConstantNode: isBounded) and number literals (numeric: number).
     const full = create(all, { absTol: 0, relTol: 1e-12 });
     const { parse } = lockedMath();
     const texts = [
       '[1, 2; 3, 4] ^ 3', '[1, 2; 3, 4] ^ -1', '[2, 0; 0, 4] ^ 0', '[1, 2] / [1, 2; 3, 4]',
       '2 / [1, 2; 3, 4]', '[1, 2; 3, 4] / [1, 2; 3, 5]', '[1, 2, 3] * [4, 5, 6]', '[1, 2, 3][2]',
-      '[1, 2, 3][end]', '[1, 2; 3, 4][2, end]', '1e400', '(2 m) ^ 3', '4 km / (2 s)',
+      '[1, 2, 3][end]', '[1, 2; 3, 4][2, end]', '1e400', '(2 m) ^ 3', '4 km / (2 s)', '0.1 + 0.2', '2.5e-3 km',
+      'fraction(1, 3) + 1', 'bignumber(2) ^ 70',
     ];
     for (const text of texts) {
       const ours = parse(text).evaluate();
