@@ -212,6 +212,8 @@ describe.runIf(runSuite)('what a researcher trips over', { timeout: 60_000 }, ()
   it('keeps the last good plot, marked stale, and each key-result card on its own cell, while an input is in error', async () => {
     await s.freshDemo();
     const { page } = s;
+    // Cards are picked by what the cells hold: wait for the cells evaluated off the page too.
+    await page.waitForFunction(() => !document.querySelector('[data-recalculating], [data-off-page], [data-waits-for]'));
     const cards = await page.$$eval('[data-key-result]', (xs) => xs.map((x) => x.getAttribute('data-key-result')));
     const rate = demo().get('rate_norm')!.formula;
     const box = page.locator('input[data-formula="rate_norm"]');

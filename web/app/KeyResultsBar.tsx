@@ -2,7 +2,7 @@
 // and at f_yr, and the merger rate the measurement allows — whichever of these the sheet has.
 import { createMemo, For, Show } from 'solid-js';
 import { useServices } from './services';
-import { formatValue, isSheetObject, type CellSpec } from '../engine/engine';
+import { formatValue, isOffPageValue, isSheetObject, type CellSpec } from '../engine/engine';
 import { sectionOf } from '../sheet/sections';
 import { ScientificText } from '../sheet/ScientificText';
 import { matchingCells } from '../plots/matchingCells';
@@ -20,9 +20,10 @@ export function pickKeyResults(cells: CellSpec[], valueOf: (name: string) => unk
   const out: KeyResult[] = [];
   const ayr = matchingCells(cells, 'A_yr', (c) => c.name === 'A_yr')[0];
   if (ayr) out.push({ role: 'predicted A_yr', cell: ayr });
+  // A value held off the page (a slow cell evaluated in the worker) counts as the kind it holds.
   const kindIs = (c: CellSpec, re: RegExp) => {
     const v = valueOf(c.name);
-    return isSheetObject(v) && re.test(v.kind);
+    return isSheetObject(v) && re.test(isOffPageValue(v) ? v.heldKind : v.kind);
   };
   // The headline is the comparison across the band (free spectrum and (A, gamma)); the single number at f_yr follows.
   const band = objects.find((c) => kindIs(c, /^bandComparison$/));
