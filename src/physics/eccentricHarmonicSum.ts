@@ -4,7 +4,7 @@
 // (f_r / n >= f0 for binaries that start at orbital frequency f0 with eccentricity e0) contribute.
 // Under GW-only decay e depends on f_orb/f0 and e0 alone (Peters 1964, Phys. Rev. 136, B1224), so
 // Phi is a universal function of x = f_r / f0 for each e0; HarmonicSumTable tabulates it once.
-import { eccentricityEnhancement, harmonicCut, harmonicPower, harmonicPowerBound } from './petersMathews';
+import { eccentricityEnhancement, harmonicCut, harmonicPower, harmonicPowerBound, harmonicPowerBoundPart } from './petersMathews';
 import { eccentricityFromShape, petersShapeLog } from './petersEvolution';
 import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
 
@@ -35,7 +35,8 @@ function sumHarmonics(x: number, e0: number, top: number, partialAt: number): nu
     // e grows with n (lower orbital frequency): the previous harmonic's e is a close first guess.
     en = e0 === 0 ? 0 : eccentricityFromShape(e0, shape0, x / n, n === 1 ? undefined : en);
     const weight = twoOverN23[n] / eccentricityEnhancement(en);
-    if (n <= 2 || weight * harmonicPowerBound(n, en) >= SKIP_WEIGHT) sum += weight * harmonicPower(n, en);
+    // Skipped when the bound is below SKIP_WEIGHT; its cheap part decides first where it is above.
+    if (n <= 2 || weight * harmonicPowerBoundPart(n, en) >= SKIP_WEIGHT || weight * harmonicPowerBound(n, en) >= SKIP_WEIGHT) sum += weight * harmonicPower(n, en);
     if (n === partialAt) partialSum = sum;
   }
   return sum;

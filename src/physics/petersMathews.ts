@@ -74,6 +74,18 @@ export function harmonicPowerBound(n: number, e: number): number {
   return ((n2 * n2) / 32) * (a * a + (1 - e * e) * b * b + (4 / (3 * n2)) * k0 * k0);
 }
 
+/**
+ * The last term of harmonicPowerBound alone, (n^4/32) (4/(3 n^2)) K_n^2 with K_n Kapteyn's bound on
+ * J_n(n e): as computed, never above harmonicPowerBound(n, e) (its other terms are >= 0, and rounding
+ * is monotone), so where it already exceeds a threshold the full bound does too. One Kapteyn bound
+ * instead of five.
+ */
+export function harmonicPowerBoundPart(n: number, e: number): number {
+  const k0 = kapteynBound(n, n * e);
+  const n2 = n * n;
+  return ((n2 * n2) / 32) * ((4 / (3 * n2)) * k0 * k0);
+}
+
 /** Harmonics needed so that the power fraction left out, 1 - sum_{n<=N} g(n,e)/F(e), is at most tol. */
 export interface HarmonicCut {
   /** Highest harmonic kept, N. */
