@@ -415,9 +415,12 @@ describe.runIf(runSuite)('Strainsheet in the browser', { timeout: 60_000 }, () =
 
   it('shows the comparison across the band first, and reads a data file into a cell (refusing a bad one untouched)', async () => {
     await freshDemo();
-    // The key-results bar leads with the band verdict; the engine run headless gives the same text.
+    // The key-results bar leads with the band verdict; the engine run headless gives the same text. On
+    // a busy machine the cell can outrun the page's budget and be evaluated in the worker, whose
+    // value keeps its own description and says where it is held.
     await page.waitForFunction(() => document.querySelector('[data-key-value="comparison"]')?.getAttribute('data-raw')?.includes('inconsistent'));
-    expect(await page.getAttribute('[data-key-value="comparison"]', 'data-raw')).toBe(shown(headlessDemo(), 'comparison'));
+    const verdict = (await page.getAttribute('[data-key-value="comparison"]', 'data-raw'))!.replace(/ \(held off the page\)$/, '');
+    expect(verdict).toBe(shown(headlessDemo(), 'comparison'));
     const before = await page.$$eval('input[data-formula]', (xs) => xs.map((x) => (x as HTMLInputElement).value));
     await page.setInputFiles('input[data-action="open-data-file"]', { name: 'bad-bins.csv', mimeType: 'text/csv', buffer: Buffer.from('2.26 nHz,4.52 nHz\n-6.5,-7.0\n-6.6,oops\n') });
     await page.waitForFunction(() => [...document.querySelectorAll('.message.error')].some((m) => m.textContent?.includes('bad-bins.csv, line 3, column 2')));
