@@ -89,8 +89,9 @@ export function builtinGroupsInApp() {
     name: 'strainsheet-builtin-groups-in-app',
     enforce: 'pre',
     config(_config, env) {
-      // The app's build (also when a test builds it) and development server; not vitest's module runner.
-      lazy = env.command === 'build' || env.mode !== 'test';
+      // The app's build (also when a test builds it) and development server; not vitest's module runner
+      // (mode 'test' for tests, 'benchmark' for `vitest bench`).
+      lazy = env.command === 'build' || (env.mode !== 'test' && env.mode !== 'benchmark');
     },
     resolveId(source) {
       if (source === FIRST) return FIRST_RESOLVED;

@@ -101,7 +101,7 @@ export function deferredMathInApp() {
     name: 'strainsheet-deferred-math-in-app',
     enforce: 'pre',
     config(_config, env) {
-      lazy = env.command === 'build' || env.mode !== 'test';
+      lazy = env.command === 'build' || (env.mode !== 'test' && env.mode !== 'benchmark');
     },
     resolveId(source) {
       return source === VIRTUAL ? RESOLVED : null;
