@@ -14,6 +14,7 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { deferredMathPlan } from './deferredMathInApp.mjs';
+import { loadsLazily } from './lazyInApp.mjs';
 
 const VIRTUAL = 'virtual:builtin-groups';
 const FIRST = 'virtual:demo-first-builtins';
@@ -89,9 +90,7 @@ export function builtinGroupsInApp() {
     name: 'strainsheet-builtin-groups-in-app',
     enforce: 'pre',
     config(_config, env) {
-      // The app's build (also when a test builds it) and development server; not vitest's module runner
-      // (mode 'test' for tests, 'benchmark' for `vitest bench`).
-      lazy = env.command === 'build' || (env.mode !== 'test' && env.mode !== 'benchmark');
+      lazy = loadsLazily(env);
     },
     resolveId(source) {
       if (source === FIRST) return FIRST_RESOLVED;

@@ -9,6 +9,7 @@
 // evaluating a formula that names one; the build fails otherwise.
 import { readFileSync } from 'node:fs';
 import { fileURLToPath, pathToFileURL } from 'node:url';
+import { loadsLazily } from './lazyInApp.mjs';
 
 const FACTORIES = fileURLToPath(new URL('../src/sheet/mathFactories.ts', import.meta.url));
 const RUNTIME = fileURLToPath(new URL('../web/engine/deferredMath.ts', import.meta.url));
@@ -101,7 +102,7 @@ export function deferredMathInApp() {
     name: 'strainsheet-deferred-math-in-app',
     enforce: 'pre',
     config(_config, env) {
-      lazy = env.command === 'build' || (env.mode !== 'test' && env.mode !== 'benchmark');
+      lazy = loadsLazily(env);
     },
     resolveId(source) {
       return source === VIRTUAL ? RESOLVED : null;
