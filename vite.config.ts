@@ -30,7 +30,7 @@ function sharedChunkName(chunk: { name: string; moduleIds: string[]; facadeModul
   // A group of built-ins loaded on demand (scripts/builtinGroupsInApp.mjs), apart from the docs pages of the same names.
   const group = chunk.moduleIds.map((id) => /\/src\/builtins\/(\w+)\.ts$/.exec(id)?.[1]).find((f) => f !== undefined && BUILTIN_GROUPS.has(f));
   if (group) return `builtinGroup-${group}`;
-  if (chunk.facadeModuleId === '\0virtual:deferred-math') return 'mathjsSolvers';
+  if (chunk.facadeModuleId === '\0virtual:deferred-math') return 'mathjsDeferred';
   if (has('/node_modules/mathjs/')) return 'mathjs';
   if (has('/src/sheet/sheet.ts')) return 'sheetEngine';
   if (has('/node_modules/workerpool/')) return 'jobRuntime';

@@ -7,8 +7,8 @@
 //  - src/builtins/index.ts becomes `allBuiltins()` of those names with functions that forward to
 //    the loaded groups, so the engine chunk the page and its workers start with carries no
 //    built-in code; whoever evaluates formulas awaits the groups they name first. One more group
-//    holds no built-ins but mathjs's solvers (scripts/deferredMathInApp.mjs), named by `norm`
-//    and `lusolve`.
+//    holds no built-ins but mathjs's functions loaded later (scripts/deferredMathInApp.mjs),
+//    which formulas reach through their names and a few operators.
 // The command line and the tests use src/builtins/index.ts as written; under vitest's module
 // runner `virtual:builtin-groups` has no groups (every built-in is there already).
 import { readFileSync } from 'node:fs';
@@ -146,10 +146,10 @@ export function builtinGroupsInApp() {
         const path = JSON.stringify(`${BUILTINS_DIR}${file}.ts`);
         return `  { group: ${JSON.stringify(file)}, names: ${JSON.stringify(namesByFile.get(file))}, load: () => import(${path}).then((m) => m.${exportName}) },`;
       });
-      // mathjs's solvers deferred by scripts/deferredMathInApp.mjs: one more group, of no built-ins.
-      const { triggers } = await deferredMathPlan();
+      // mathjs's functions deferred by scripts/deferredMathInApp.mjs: one more group, of no built-ins.
+      const { triggers, symbols } = await deferredMathPlan();
       groups.push(
-        `  { group: 'mathjs solvers', names: [], triggers: ${JSON.stringify(triggers)}, load: () => loadDeferredMath(math).then(() => []) },`,
+        `  { group: 'mathjs functions', names: [], triggers: ${JSON.stringify(triggers)}, symbols: ${JSON.stringify(symbols)}, load: () => loadDeferredMath(math).then(() => []) },`,
       );
       const imports = `import { loadDeferredMath } from ${JSON.stringify(DEFERRED_MATH)};\nimport { math } from ${JSON.stringify(MATH_INSTANCE)};\n`;
       return (

@@ -4,7 +4,7 @@ declare module 'virtual:builtin-groups' {
   /** The groups the demo's first result needs. */
   export const demoFirstGroups: readonly string[];
 }
-// import('virtual:deferred-math'): mathjs's solver factories loaded after the first results (scripts/deferredMathInApp.mjs).
+// import('virtual:deferred-math'): mathjs's factories loaded when a formula names them or after the first results (scripts/deferredMathInApp.mjs).
 declare module 'virtual:deferred-math' {
   const factories: Record<string, unknown>;
   export default factories;

@@ -58,7 +58,7 @@ describe.runIf(runSuite)('loading on first use', { timeout: 60_000 }, () => {
     expect(await page.$$eval('.cell-row.status-error', (xs) => xs.map((x) => x.getAttribute('data-cell')))).toEqual([]);
   });
 
-  it('evaluates formulas naming mathjs’s solvers (loaded after the first result) as the engine does here', async () => {
+  it('evaluates formulas naming mathjs’s functions loaded later (after the first result) as the engine does here', async () => {
     // Reference: the same formulas evaluated by the engine in this process (every function loaded).
     const formulas = { solved: 'lusolve([[2, 1], [1, 3]], [1, 2])', normed: 'norm([[1, 2], [3, 4]], 2)', ranged: 'iscoFrequency(2e9 Msun)' };
     const reference = new Sheet();
@@ -71,8 +71,57 @@ describe.runIf(runSuite)('loading on first use', { timeout: 60_000 }, () => {
       await page.waitForSelector(`[data-cell="${name}"].status-ok`);
       expect(await cellValueText(page, name)).toBe(formatValue(reference.value(name)));
     }
-    expect(await loadedScripts(page)).toContain('mathjsSolvers');
+    expect(await loadedScripts(page)).toContain('mathjsDeferred');
     expect(pageErrors).toEqual([]);
+  });
+
+  it('a formula naming a function loaded later, typed right after the first result, waits for its chunk and then gives the engine’s value', async () => {
+    // A page of its own (fresh profile, so nothing cached) whose request for the chunk of mathjs's
+    // functions loaded later is held until the formulas are in.
+    const other = await launchChromium();
+    try {
+      const p = await other.context.newPage();
+      const errors: string[] = [];
+      p.on('pageerror', (e) => errors.push(e.message));
+      // Held until released; a later request (a worker's) goes through.
+      const held: Array<() => Promise<void>> = [];
+      let holding = true;
+      await p.route(/mathjsDeferred-[^/]*\.js$/, (route) => (holding ? void held.push(() => route.continue()) : route.continue()));
+      await p.goto(app.url);
+      await p.waitForFunction(() => performance.getEntriesByName('strainsheet:first-A_yr', 'mark').length > 0);
+      // The first result came without the chunk.
+      expect(await loadedScripts(p)).not.toContain('mathjsDeferred');
+      const formulas = {
+        rooted: 'hypot(3, 4) * 1 m + sqrt(16 m^2)',
+        mapped: 'map([1, 4, 9], sqrt)',
+        operators: '5! + (7 mod 3) + (5 & 3) + (1 << 3)',
+        stats: 'median([3, 1, 2]) + std([1, 2, 3, 4])',
+      };
+      const reference = new Sheet();
+      for (const [name, formula] of Object.entries(formulas)) reference.setCell({ name, formula });
+      for (const [name, formula] of Object.entries(formulas)) {
+        const box = p.locator('form.add-cell input[name="formula"]');
+        await p.fill('form.add-cell input[name="name"]', name);
+        await box.fill(formula);
+        await box.press('Enter');
+        await expect.poll(() => box.inputValue()).toBe('');
+      }
+      // The recalculation waits for the chunk; no cell has an error ('has not loaded yet' would be one).
+      await expect.poll(() => held.length).toBeGreaterThan(0);
+      expect(await p.$$eval('[data-recalculating]', (xs) => xs.length)).toBeGreaterThan(0);
+      expect(await p.$$eval('.cell-row.status-error', (xs) => xs.map((x) => x.getAttribute('data-cell')))).toEqual([]);
+      holding = false;
+      for (const release of held.splice(0)) await release();
+      for (const name of Object.keys(formulas)) {
+        await p.waitForSelector(`[data-cell="${name}"].status-ok`);
+        expect(await cellValueText(p, name), name).toBe(formatValue(reference.value(name)));
+      }
+      expect(await loadedScripts(p)).toContain('mathjsDeferred');
+      expect(await p.$$eval('.cell-row.status-error', (xs) => xs.map((x) => x.getAttribute('data-cell')))).toEqual([]);
+      expect(errors).toEqual([]);
+    } finally {
+      await other.close();
+    }
   });
 
   it('loads the documentation when the Reference tab opens and shows each built-in as the engine defines it', async () => {

@@ -45,6 +45,19 @@ describe('built-ins in groups loaded on demand', () => {
     expect(lazy.groupsNamedIn(['amplitudeAtYear(pop)'])).toEqual([]);
   });
 
+  it('a group is also named by the text of the operators it provides (its symbols), outside double quotes', async () => {
+    const lazy = new LazyBuiltins([{ group: 'ops', names: [], triggers: ['mod'], symbols: ['&', '!'], load: async () => [] }]);
+    expect(lazy.groupsNamedIn(['5 & 3'])).toEqual(['ops']);
+    expect(lazy.groupsNamedIn(['a != b'])).toEqual(['ops']);
+    expect(lazy.groupsNamedIn(['7 mod 3'])).toEqual(['ops']);
+    expect(lazy.groupsNamedIn(["'x & y'"])).toEqual(['ops']); // single quotes: mathjs's transpose too, so not taken out
+    expect(lazy.groupsNamedIn(['"x & y" + "a \\" !"', 'measuredFreeSpectrum("a|b")'])).toEqual([]);
+    expect(lazy.groupsNamedIn(['"x" & "y"'])).toEqual(['ops']);
+    expect(lazy.groupsNamedIn(['model * 2', '7 / 3'])).toEqual([]);
+    await lazy.load(['ops']);
+    expect(lazy.groupsNamedIn(['5 & 3'])).toEqual([]);
+  });
+
   it('a group that fails to load is named in the error of its built-ins and is not asked for again', async () => {
     const lazy = new LazyBuiltins([{ group: 'broken', names: ['brokenThing'], load: () => Promise.reject(new Error('network down')) }]);
     await lazy.load(lazy.groupsNamedIn(['brokenThing(1)']));

@@ -11,15 +11,20 @@ export interface BuiltinGroupSpec {
   names: readonly string[];
   /** Other names whose use needs this group loaded (not built-ins: mathjs functions it provides the code of). */
   triggers?: readonly string[];
+  /** Text whose presence in a formula, outside double quotes, needs this group loaded (operators whose mathjs functions it provides). */
+  symbols?: readonly string[];
   load: () => Promise<readonly Builtin[]>;
 }
 
 /** Identifiers in formula text (names of cells, built-ins, mathjs functions, units). */
 const IDENTIFIER = /[A-Za-z_$][\w$]*/g;
+/** Text in double quotes (a string of a formula, as an encoded measurement: its characters are no operators). */
+const QUOTED = /"(?:[^"\\]|\\.)*"/g;
 
 export class LazyBuiltins {
   private readonly groupOf = new Map<string, string>();
   private readonly triggerOf = new Map<string, string>();
+  private readonly symbolsOf: Array<[string, readonly string[]]> = [];
   private readonly specs = new Map<string, BuiltinGroupSpec>();
   private readonly impl = new Map<string, (...args: unknown[]) => unknown>();
   private readonly loading = new Map<string, Promise<void>>();
@@ -32,6 +37,7 @@ export class LazyBuiltins {
     for (const g of groups) {
       this.specs.set(g.group, g);
       for (const t of g.triggers ?? []) this.triggerOf.set(t, g.group);
+      if (g.symbols && g.symbols.length > 0) this.symbolsOf.push([g.group, g.symbols]);
       for (const name of g.names) {
         if (this.groupOf.has(name)) continue; // defined twice: the first is kept (as lockedMath does)
         this.groupOf.set(name, g.group);
@@ -50,15 +56,19 @@ export class LazyBuiltins {
     return this.loaded.size === this.specs.size;
   }
 
-  /** The groups not loaded yet (nor failed to: a failed group is not tried again) whose built-ins these formula texts name. */
+  /** The groups not loaded yet (nor failed to: a failed group is not tried again) whose built-ins (or triggers, or symbols) these formula texts name. */
   groupsNamedIn(texts: Iterable<string>): string[] {
     if (this.allLoaded) return [];
     const out = new Set<string>();
+    const wanted = (g: string | undefined): g is string => g !== undefined && !this.loaded.has(g) && !this.failed.has(g);
     for (const text of texts) {
       for (const id of text.match(IDENTIFIER) ?? []) {
         const g = this.groupOf.get(id) ?? this.triggerOf.get(id);
-        if (g !== undefined && !this.loaded.has(g) && !this.failed.has(g)) out.add(g);
+        if (wanted(g)) out.add(g);
       }
+      if (this.symbolsOf.length === 0) continue;
+      const unquoted = text.includes('"') ? text.replace(QUOTED, '""') : text;
+      for (const [g, symbols] of this.symbolsOf) if (wanted(g) && symbols.some((s) => unquoted.includes(s))) out.add(g);
     }
     return [...out];
   }
