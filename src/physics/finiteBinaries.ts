@@ -112,7 +112,8 @@ export function finiteBinaryBins(
   let loud = residence ? undefined : new LoudestSearch(rate, mc53, nz, nm, nq);
   // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
   // its own cell: the separation theorem of Chebyshev, Markov and Stieltjes, Szego 1939, Orthogonal
-  // Polynomials, 3.41; section number unverified), so a node's count spread over its cell keeps the density it stands for.
+  // Polynomials, 3.41; section number unverified, no copy of the book reachable with the search tool; the
+  // property itself is checked on the project's composite rules in test/physics/quadratureCells.test.ts), so a node's count spread over its cell keeps the density it stands for.
   const edges = new Float64Array(nm + 1);
   edges[0] = pop.log10MMin;
   for (let im = 0; im < nm; im++) edges[im + 1] = edges[im] + mr.weights[im];
