@@ -90,18 +90,19 @@ export async function runChunks<P extends ChunkPlan, C>(
   let pooled: Promise<void> | undefined;
   let pool: ChunkExecutor | undefined;
   // The first quarter of startAfterMs is warm-up (code runs cold at first, slower still on a busy
-  // machine); from there the pace of this thread is judged, once half has passed, against the work left.
+  // machine); from there the pace of this thread is judged, once half has passed, against the work
+  // left (from the start when a whole startAfterMs went by without a second look, as in a job that
+  // reports no progress inside its chunks).
   const limit = parallel.startAfterMs;
   let warm: { t: number; done: number } | undefined;
   const handOverIfLong = (doneNow: number) => {
     if (pooled || next >= indices.length) return;
     const now = performance.now();
-    if (!warm) {
-      if (now - t0 >= limit / 4) warm = { t: now, done: doneNow };
-      return;
-    }
-    if (now - t0 < limit / 2 || doneNow <= warm.done) return;
-    if (((now - warm.t) / (doneNow - warm.done)) * (total - doneNow) < limit) return;
+    const elapsed = now - t0;
+    if (!warm && elapsed >= limit / 4) warm = { t: now, done: doneNow };
+    if (elapsed < limit / 2) return;
+    const pace = warm && doneNow > warm.done ? (now - warm.t) / (doneNow - warm.done) : elapsed >= limit && doneNow > 0 ? elapsed / doneNow : undefined;
+    if (pace === undefined || pace * (total - doneNow) < limit) return;
     const positions = Array.from({ length: indices.length - next }, (_, k) => next + k);
     next = indices.length;
     pool = parallel.pool!(Math.min(workers, positions.length));
