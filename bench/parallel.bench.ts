@@ -1,6 +1,6 @@
 // Parallel jobs (src/jobs/): the same Monte Carlo and two-input map on 1 and 2 worker threads, the
-// start-up of the workers alone, and the command line end to end. Every run with workers starts
-// its own pool, so the figures include worker start-up (each worker loads the engine bundle
+// start-up of the workers alone, and the command line end to end (also with the default --workers).
+// Every run with workers starts its own pool, so the figures include worker start-up (each worker loads the engine bundle
 // dist-cli/chunkWorker.cjs and builds the demo sheet from its file text). Run `npm run build:cli`
 // first (npm test and npm install do) so that the workers load the bundle, not the sources.
 import { readFileSync } from 'node:fs';
@@ -56,11 +56,19 @@ describe('40 x 40 map of A_yr over mass_slope x cutoff_mass (1,600 evaluations, 
   }
 });
 
+/** `strainsheet sample` of the demo, a whole process, with these extra options. */
+function sample(samples: number, options: string[]): void {
+  const r = spawnSync(process.execPath, [cliPath, 'sample', demoPath, '--samples', String(samples), '--seed', '1', '--output', 'A_yr', '--quiet', ...options], { encoding: 'utf8', maxBuffer: 64 << 20 });
+  if (r.status !== 0) throw new Error(`strainsheet sample failed: ${r.stderr}`);
+}
+
 describe('command line end to end: strainsheet sample examples/demo.json --samples 10000 (whole process)', () => {
-  for (const workers of [1, 2]) {
-    bench(`--workers ${workers}`, () => {
-      const r = spawnSync(process.execPath, [cliPath, 'sample', demoPath, '--samples', '10000', '--seed', '1', '--output', 'A_yr', '--quiet', '--workers', String(workers)], { encoding: 'utf8', maxBuffer: 64 << 20 });
-      if (r.status !== 0) throw new Error(`strainsheet sample failed: ${r.stderr}`);
-    }, once);
-  }
+  for (const workers of [1, 2]) bench(`--workers ${workers}`, () => sample(10_000, ['--workers', String(workers)]), once);
+  // the threads start only when the work left would take over 1 s in this thread (src/cli/parallelOptions.ts)
+  bench('no --workers (the cores, started when they pay)', () => sample(10_000, []), once);
+});
+
+describe('command line end to end: strainsheet sample examples/demo.json --samples 200000 (whole process)', () => {
+  bench('--workers 1', () => sample(200_000, ['--workers', '1']), once);
+  bench('no --workers (the cores, started when they pay)', () => sample(200_000, []), once);
 });

@@ -45,7 +45,7 @@ type AnyReferenceValue = ReferenceMassFunctionValue | LocalMassFunctionValue;
 
 const LOCAL_NAMES = ['velocityDispersion'] as const;
 const LOCAL_SOURCE =
-  'velocity-dispersion function of early-type galaxies, Sheth et al. 2003, ApJ 594, 225, eq. 4: (phi*, sigma*, alpha, beta) = (0.0020 h^3 Mpc^-3, 88.8 km/s, 6.5, 1.93) (units of phi* unverified); M-sigma of McConnell & Ma 2013, ApJ 764, 184 (8.32 + 5.64 log10(sigma/200 km/s)); default intrinsic scatter 0.38 dex (unverified: the paper\'s table was not read); band from the normalisation shifted by +-bandDex (our choice)';
+  'velocity-dispersion function of early-type galaxies, Sheth et al. 2003, ApJ 594, 225, eq. 4: (phi*, sigma*, alpha, beta) = (0.0020 h^3 Mpc^-3, 88.8 km/s, 6.5, 1.93) (unverified in the paper, whose abstract gives no numbers: the values as a summary of the paper gives them, the units of phi* not checked); M-sigma of McConnell & Ma 2013, ApJ 764, 184 (8.32 + 5.64 log10(sigma/200 km/s), their abstract, arXiv:1211.2816); default intrinsic scatter 0.38 dex (unverified: their abstract gives no scatter and their tables were not reachable); band from the normalisation shifted by +-bandDex (our choice)';
 
 class MassFunctionCheckValue implements SheetObject {
   readonly kind = 'massFunctionCheck';

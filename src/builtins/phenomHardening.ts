@@ -17,7 +17,7 @@ import type { SpectrumValue } from './spectrumValue';
 import { threeSignificant as g } from './threeSignificant';
 
 export const PHENOM_SOURCE =
-  'Agazie et al. 2023, ApJL 952, L37 (hardening rate A x^(1-nu_in) (1+x)^(nu_in-nu_out), x = a/a_c, plus GW, normalised to a total lifetime; unverified: the form, defaults and equation number against the text of the paper, of which only the abstract was reachable); GW rate Peters 1964, Phys. Rev. 136, B1224, eq. 5.6; residence time in h_c^2 Phinney 2001, astro-ph/0108028';
+  'Agazie et al. 2023, ApJL 952, L37 (hardening rate A x^(1-nu_in) (1+x)^(nu_in-nu_out), x = a/a_c, plus GW, normalised to a total lifetime; unverified: the form, defaults and equation number, none of which is in the abstract of arXiv:2306.16220, the only part of the paper reachable); GW rate Peters 1964, Phys. Rev. 136, B1224, eq. 5.6; residence time in h_c^2 Phinney 2001, astro-ph/0108028';
 
 /** The phenomenological hardening model as a sheet value. */
 export class PhenomHardeningValue implements SheetObject {

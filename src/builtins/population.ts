@@ -20,7 +20,7 @@ import { dimensionOf, functionOf, objectOf, requireRange, scalarSI, where } from
 import { PopulationValue, ShapeValue } from './populationValue';
 import { cosmologyArg, elementwise, nonNegativeSI, populationArg, positiveSI, redshiftValue } from './physicsArgs';
 
-const MIDDLETON = 'Middleton, Del Pozzo, Farr, Sesana & Vecchio 2016, MNRAS 455, L72 (arXiv:1507.00992; volume and page unverified); mass-ratio term of Chen, Sesana & Del Pozzo 2017, arXiv:1612.00455';
+const MIDDLETON = 'Middleton, Del Pozzo, Farr, Sesana & Vecchio 2016, MNRAS 455, L72 (arXiv:1507.00992, abstract checked; volume and page unverified); mass-ratio term of Chen, Sesana & Del Pozzo 2017, arXiv:1612.00455 (the form of their q term unverified: not in their abstract)';
 const GALAXY_ROUTE = 'Sesana 2013, MNRAS 433, L1; Chen, Sesana & Conselice 2019, MNRAS 488, 401';
 const DEFAULT_MIN_MASS = 1e6;
 const DEFAULT_MAX_MASS = 1e11;
@@ -396,7 +396,7 @@ export const populationBuiltins: Builtin[] = [
   {
     name: 'mcConnellMaRelation',
     category: 'population',
-    summary: 'Preset black-hole-bulge relation: a = 8.46, b = 1.05 (their abstract, checked), scatter 0.34 dex (unverified: the scatter is quoted from their Table 2 by another code; the table was not seen).',
+    summary: 'Preset black-hole-bulge relation: a = 8.46, b = 1.05 (the full-sample fit of their abstract, arXiv:1211.2816, checked), scatter 0.34 dex (unverified: their abstract gives no scatter and their Table 2 was not reachable; 0.34 dex is the value another code quotes from that table).',
     args: [],
     returns: { unit: 'bulgeRelation', description: 'the preset relation' },
     source: 'McConnell & Ma 2013, ApJ 764, 184',
@@ -406,7 +406,7 @@ export const populationBuiltins: Builtin[] = [
   {
     name: 'kormendyHoRelation',
     category: 'population',
-    summary: 'Preset black-hole-bulge relation: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.17, scatter 0.28 dex (their eq. 10; unverified against the paper text, which was not reachable: the values independent implementations quote; the preset had 1.16 and 0.29 dex before 2026-12-02).',
+    summary: 'Preset black-hole-bulge relation: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.17, scatter 0.28 dex (their eq. 10; unverified: only the title and abstract of arXiv:1304.7762 were reachable, and the abstract gives no numbers; the values are those independent implementations quote, some of which quote 1.16 and 0.29 dex instead; the preset had 1.16 and 0.29 dex before 2026-12-02).',
     args: [],
     returns: { unit: 'bulgeRelation', description: 'the preset relation' },
     source: 'Kormendy & Ho 2013, ARA&A 51, 511, eq. 10',

@@ -6,8 +6,15 @@ import { defaultWorkerCount, nodeWorkerPool } from '../jobs/nodeWorkerPool';
 
 export const PARALLEL_VALUE_OPTIONS = ['workers', 'shard', 'part'];
 
-export const PARALLEL_USAGE = `  --workers N        worker threads (default: the number of cores, here ${defaultWorkerCount()}); the
-                     results are the same for any N
+/**
+ * Without --workers, the threads start only when the work left would take at least this long in this
+ * thread: starting them (each loads the engine and rebuilds the sheet) takes about 0.3 s on a laptop,
+ * so they pay for runs of a second or more (README, performance).
+ */
+export const DEFAULT_START_AFTER_MS = 1000;
+
+export const PARALLEL_USAGE = `  --workers N        worker threads (default: the number of cores, here ${defaultWorkerCount()}, started once
+                     the work left would take over ${DEFAULT_START_AFTER_MS / 1000} s on one); the results are the same for any N
   --shard K/N        compute only shard K of N (1 <= K <= N) and write a part file instead of CSV;
                      "strainsheet merge" joins the N parts into the result of the whole run
   --part FILE        the part file of --shard (default: <command>-part-K-of-N.json)`;
@@ -40,6 +47,7 @@ export function parallelOptionsOf(opts: ParsedOptions): CliParallelOptions {
   if (shardText !== undefined && opts.values.has('csv')) throw new UsageError('--shard writes a part file (--part), not CSV; "strainsheet merge PARTS... --csv FILE" writes the CSV');
   return {
     workers: w === undefined ? defaultWorkerCount() : wholeAtLeastOne(w, '--workers'),
+    ...(w === undefined ? { startAfterMs: DEFAULT_START_AFTER_MS } : {}),
     pool: nodeWorkerPool,
     shard: shardText === undefined ? undefined : parseShard(shardText),
     partPath,

@@ -18,6 +18,12 @@ export interface ParallelOptions {
   workers: number;
   /** Makes a pool of that many workers (not called when the job runs in this thread). */
   pool?: (workers: number) => ChunkExecutor;
+  /**
+   * Start the workers only when they pay: chunks run in this thread until the work left is projected
+   * (from this thread's pace) to take at least this many ms here, and the chunks not started by then go
+   * to the pool. Undefined: every chunk goes to the pool at once. Results are the same either way.
+   */
+  startAfterMs?: number;
 }
 
 /** Pacing of progress reports and event-loop turns (ms of work between them). */
@@ -69,8 +75,80 @@ export async function runChunks<P extends ChunkPlan, C>(
     }
     return out;
   }
-  const sheetText = parallel.sheetText ?? sheet.toFileText();
-  const pool = parallel.pool(workers);
+  const sheetText = () => parallel.sheetText ?? sheet.toFileText();
+  const counted = (r: C, i: number) => {
+    done += job.chunkWork(plan, i);
+    control?.onProgress?.(done, total);
+    return r;
+  };
+  if (parallel.startAfterMs === undefined) return inPool(job, plan, indices, control, parallel.pool(workers), sheetText(), counted);
+  // Chunks run here while the work left looks short; once it does not, the rest go to the pool.
+  const out: C[] = new Array(indices.length);
+  const t0 = performance.now();
+  let doneHere = 0;
+  let next = 0;
+  let pooled: Promise<void> | undefined;
+  let pool: ChunkExecutor | undefined;
+  // The first quarter of startAfterMs is warm-up (code runs cold at first, slower still on a busy
+  // machine); from there the pace of this thread is judged, once half has passed, against the work
+  // left (from the start when a whole startAfterMs went by without a second look, as in a job that
+  // reports no progress inside its chunks).
+  const limit = parallel.startAfterMs;
+  let warm: { t: number; done: number } | undefined;
+  const handOverIfLong = (doneNow: number) => {
+    if (pooled || next >= indices.length) return;
+    const now = performance.now();
+    const elapsed = now - t0;
+    if (!warm && elapsed >= limit / 4) warm = { t: now, done: doneNow };
+    if (elapsed < limit / 2) return;
+    const pace = warm && doneNow > warm.done ? (now - warm.t) / (doneNow - warm.done) : elapsed >= limit && doneNow > 0 ? elapsed / doneNow : undefined;
+    if (pace === undefined || pace * (total - doneNow) < limit) return;
+    const positions = Array.from({ length: indices.length - next }, (_, k) => next + k);
+    next = indices.length;
+    pool = parallel.pool!(Math.min(workers, positions.length));
+    pooled = inPool(job, plan, positions.map((p) => indices[p]), control, pool, sheetText(), (r, i, k) => (out[positions[k]] = counted(r, i))).then(() => {});
+    // a rejection is awaited below; until then it must not count as unhandled
+    pooled.catch(() => {});
+  };
+  const here = inThreadControl(control, total, () => done);
+  const tick = async (doneInChunk: number) => {
+    await here.tick(doneInChunk);
+    handOverIfLong(doneHere + doneInChunk);
+  };
+  try {
+    while (next < indices.length) {
+      const position = next++;
+      const i = indices[position];
+      out[position] = counted(await job.runChunk(sheet, plan, i, { tick }), i);
+      doneHere += job.chunkWork(plan, i);
+      handOverIfLong(doneHere);
+      if (next < indices.length) {
+        await yieldToEventLoop();
+        checkCancelled(control);
+      }
+    }
+  } catch (e) {
+    // a chunk here failed or was cancelled: the workers' chunks are abandoned
+    await pool?.close(true);
+    throw e;
+  }
+  if (pooled) await pooled;
+  return out;
+}
+
+/**
+ * Runs chunks `indices` in `pool` (closed at the end; forced closed when the job is cancelled) and gives
+ * their results in the order of `indices`; `onResult` hears each result (and its position) as it comes.
+ */
+async function inPool<P extends ChunkPlan, C>(
+  job: ChunkedJob<unknown, P, C, unknown>,
+  plan: P,
+  indices: readonly number[],
+  control: JobControl | undefined,
+  pool: ChunkExecutor,
+  sheetText: string,
+  onResult: (result: C, index: number, position: number) => C,
+): Promise<C[]> {
   let cancelled = false;
   const onAbort = () => {
     cancelled = true;
@@ -78,15 +156,7 @@ export async function runChunks<P extends ChunkPlan, C>(
   };
   control?.signal?.addEventListener('abort', onAbort, { once: true });
   try {
-    const results = await Promise.all(
-      indices.map(async (i) => {
-        const r = (await pool.runChunk(job.kind, sheetText, plan, i)) as C;
-        done += job.chunkWork(plan, i);
-        control?.onProgress?.(done, total);
-        return r;
-      }),
-    );
-    return results;
+    return await Promise.all(indices.map(async (i, k) => onResult((await pool.runChunk(job.kind, sheetText, plan, i)) as C, i, k)));
   } catch (e) {
     if (cancelled) checkCancelled(control);
     throw e;

@@ -2,7 +2,8 @@
 //   h_c(f) = A (f/f_yr)^(-2/3) [1 + (f_bend/f)^kappa]^(-1/2),
 // kappa = 10/3 for stellar hardening (the exponent of the Quinlan 1996 residence time, see
 // stellarHardening.ts) and 7/3 for a circumbinary gas disc (the paper's title, authors and journal checked
-// on its first page; unverified: 7/3, which is not in the reachable text).
+// on its first page; unverified: 7/3, which is not on that page, the only part of the paper reachable,
+// searched again 2026-12-02).
 import { F_YR_HZ } from './constants';
 import { circularGwKernel } from './circularKernel';
 import { bendShape, circularTimesShapeKernel } from './factoredKernel';

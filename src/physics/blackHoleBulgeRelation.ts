@@ -13,19 +13,22 @@ export interface BlackHoleBulgeRelation {
 }
 
 /**
- * McConnell & Ma 2013 (ApJ 764, 184), M_BH-M_bulge fit: a = 8.46, b = 1.05 (the full-sample fit
- * of their abstract, checked); intrinsic scatter 0.34 dex (unverified: their Table 2 was not seen here;
- * an independent implementation quotes its first M_BH-M_bulge row as 8.46, 1.05 and 0.34 dex).
+ * McConnell & Ma 2013 (ApJ 764, 184; arXiv:1211.2816), M_BH-M_bulge fit: a = 8.46, b = 1.05 (the
+ * full-sample fit stated in their abstract, checked 2026-12-02 in the abstract of arXiv:1211.2816). Intrinsic scatter
+ * 0.34 dex: unverified. Their abstract gives no value and their Table 2 is beyond the reachable text (the
+ * stored copies of the paper hold only title, authors and abstract); 0.34 dex is the value an independent
+ * implementation quotes for their first M_BH-M_bulge row, not a checked source.
  */
 export const MCCONNELL_MA_2013: BlackHoleBulgeRelation = Object.freeze({ a: 8.46, b: 1.05, scatterDex: 0.34, source: 'McConnell & Ma 2013, ApJ 764, 184 (scatter unverified)' });
 
 /**
- * Kormendy & Ho 2013 (ARA&A 51, 511), eq. 10: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.17, so
- * a = 9 + log10 0.49 = 8.690 and b = 1.17; intrinsic scatter 0.28 dex. Unverified against the paper's
- * text (only its abstract, which gives no numbers, was reachable): the values are those quoted by
- * independent implementations (a black-hole mass estimator citing the paper uses 0.49e9 (M_bulge/1e11)^1.17;
- * two more quote 1.17 and 0.28 dex). Until 2026-12-02 this preset had 1.16 and 0.29 dex, which no source
- * found here supports.
+ * Kormendy & Ho 2013 (ARA&A 51, 511; arXiv:1304.7762), eq. 10: M_BH / 1e9 Msun = 0.49 (M_bulge / 1e11 Msun)^1.17,
+ * so a = 9 + log10 0.49 = 8.690 and b = 1.17; intrinsic scatter 0.28 dex. Unverified against the paper:
+ * searched 2026-12-02, the stored copies of arXiv:1304.7762 hold only title, authors and abstract, which
+ * gives no numbers. The values are those quoted by independent implementations (a black-hole mass
+ * estimator citing the paper uses 0.49e9 (M_bulge/1e11)^1.17; two more quote 1.17 and 0.28 dex; others
+ * quote 1.16 and 0.29 dex, one of them attributing these to eq. 11). Until 2026-12-02 this preset had
+ * 1.16 and 0.29 dex; which pair eq. 10 holds is not settled here.
  */
 export const KORMENDY_HO_2013: BlackHoleBulgeRelation = Object.freeze({ a: 9 + Math.log10(0.49), b: 1.17, scatterDex: 0.28, source: 'Kormendy & Ho 2013, ARA&A 51, 511, eq. 10 (unverified against the text: values as quoted by independent implementations)' });
 

@@ -7,8 +7,9 @@
 // freedom together, Gaussian amplitudes), so each pair and bin adds mean^2/variance:
 //   rho^2 = sum_k sum_{I<J} 2 Gamma_IJ^2 P_g^2 / [ (P_I + P_g)(P_J + P_g) + Gamma_IJ^2 P_g^2 ],
 // the discrete-bin form (2 T Int df -> 2 sum_k) of the expected S/N of Siemens, Ellis, Jenet &
-// Romano 2013, CQG 30, 224015 (arXiv:1305.3196: title and authors checked; unverified: the journal
-// reference and the variance term, which were not in the reachable text),
+// Romano 2013, CQG 30, 224015 (arXiv:1305.3196: title, authors and abstract checked; unverified: the
+// journal reference, which none of the reachable copies of the abstract states, and the variance term,
+// which is beyond the abstract; searched again 2026-12-02),
 // treating different pairs as independent, as the pair sum of Hazboun, Romano & Smith 2019, PRD 100,
 // 104028 does (rho^2 = 2 T Int S_h^2/S_eff^2 df). Limits, each checked in test/arrayView:
 //  - weak signal (P_g << P_I): rho^2 = 2 sum sum Gamma^2 P_g^2/(P_I P_J), so with white noise and

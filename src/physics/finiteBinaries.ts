@@ -11,14 +11,13 @@
 // For the mass where fewer than one binary is expected above it, each mass node's count (summed over
 // z and q) is spread evenly over its cell (as wide as its weight), so the cumulative count from the
 // top is piecewise linear; the cut falls where it reaches 1.
-import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';
-import { chirpMassFromTotal } from './binaryMasses';
-import { iscoGwFrequencyHz } from './circularKernel';
+import { C_SI, G_SI } from './constants';
 import type { FlatLambdaCdm } from './cosmology';
 import { compositeNodes } from './gaussLegendre';
 import type { BinaryPopulation } from './populationTypes';
 import type { ResidenceFactor } from './residenceFactor';
 import { LoudestSearch } from './loudestSearch';
+import { nodeRates } from './nodeRates';
 import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
 
 /** dt_r/dln f_r = (5/96) (G M_c / c^3)^(-5/3) (pi f_r)^(-8/3), s (Peters 1964, Phys. Rev. 136, B1224; Sesana, Vecchio & Colacino 2008). */
@@ -63,8 +62,6 @@ export interface FiniteBinaryResult {
   longResidencePerBin: Float64Array;
 }
 
-const PER_MPC3 = 1 / (MPC_M * MPC_M * MPC_M);
-
 /**
  * Counts and strains per frequency bin for a population, a cosmology and an observing span T:
  * d^3N/(dz dlog10M dq dln f_r) = n(z, log10M, q) (dV_c/dz) |dz/dt_r| dt_r/dln f_r
@@ -95,7 +92,7 @@ export function finiteBinaryBins(
   const nq = qr.nodes.length;
   const size = nz * nm * nq;
 
-  const { rate, mc53, fIsco, dc, age } = nodeRates(pop, cosmo, zr, mr, qr, checkTime);
+  const { rate, mc53, massKg, fIsco, dc, age } = nodeRates(pop, cosmo, zr, mr, qr, checkTime);
 
   const nf = freqsHz.length;
   const out: FiniteBinaryResult = {
@@ -111,12 +108,12 @@ export function finiteBinaryBins(
   // each node's rate is scaled by the factor at the bin's f_r and the sums are rebuilt per bin.
   const scaled = residence ? new Float64Array(size) : rate;
   const factor = residence ? new Float64Array(size) : undefined;
-  const massKg = Float64Array.from(mr.nodes, (x) => M_SUN_KG * Math.pow(10, x));
   let sums = residence ? undefined : nodeSums(rate, mc53, nz, nm, nq);
   let loud = residence ? undefined : new LoudestSearch(rate, mc53, nz, nm, nq);
   // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
   // its own cell: the separation theorem of Chebyshev, Markov and Stieltjes, Szego 1939, Orthogonal
-  // Polynomials, 3.41; section number unverified), so a node's count spread over its cell keeps the density it stands for.
+  // Polynomials, 3.41; section number unverified, no copy of the book reachable with the search tool; the
+  // property itself is checked on the project's composite rules in test/physics/quadratureCells.test.ts), so a node's count spread over its cell keeps the density it stands for.
   const edges = new Float64Array(nm + 1);
   edges[0] = pop.log10MMin;
   for (let im = 0; im < nm; im++) edges[im + 1] = edges[im] + mr.weights[im];
@@ -147,51 +144,6 @@ export function finiteBinaryBins(
     out.loudestStrain[k] = count < 1 ? 0 : (loud as LoudestSearch).search(bin.tauOf, bin.hFOf, bin.emitting, dlnf);
   }
   return out;
-}
-
-interface NodeGrid {
-  nodes: Float64Array;
-  weights: Float64Array;
-}
-
-/**
- * Frequency-independent parts per node, index (iz * nm + im) * nq + iq: weight x n x dV/dz x |dz/dt|
- * (binaries per second of rest-frame time); per (mass, q) M_c^(5/3); per mass f_ISCO; per z the
- * comoving distance and the age.
- */
-function nodeRates(pop: BinaryPopulation, cosmo: FlatLambdaCdm, zr: NodeGrid, mr: NodeGrid, qr: NodeGrid, checkTime: TimeCheck) {
-  const nz = zr.nodes.length;
-  const nm = mr.nodes.length;
-  const nq = qr.nodes.length;
-  const rate = new Float64Array(nz * nm * nq);
-  const mc53 = new Float64Array(nm * nq); // M_c^(5/3), kg^(5/3)
-  const fIsco = new Float64Array(nm);
-  for (let im = 0; im < nm; im++) {
-    const mKg = M_SUN_KG * Math.pow(10, mr.nodes[im]);
-    fIsco[im] = iscoGwFrequencyHz(mKg);
-    for (let iq = 0; iq < nq; iq++) mc53[im * nq + iq] = Math.pow(chirpMassFromTotal(mKg, qr.nodes[iq]), 5 / 3);
-  }
-  // A separable density (populationTypes.ts) gives its factors: one density call per (z, M) node.
-  const sep = pop.separable;
-  const qFactor = Float64Array.from(qr.nodes, (q) => (sep ? sep.massRatio(q) : 0));
-  const dc = new Float64Array(nz);
-  const age = new Float64Array(nz);
-  for (let iz = 0; iz < nz; iz++) {
-    checkTime();
-    const z = zr.nodes[iz];
-    dc[iz] = cosmo.comovingDistanceM(z);
-    age[iz] = cosmo.ageS(z);
-    const volumePerTime = (cosmo.comovingVolumeElementM3(z) / cosmo.dtdzS(z)) * PER_MPC3;
-    for (let im = 0; im < nm; im++) {
-      const zMass = sep ? sep.zMass(z, mr.nodes[im]) : 0;
-      for (let iq = 0; iq < nq; iq++) {
-        const n = sep ? zMass * qFactor[iq] : pop.density(z, mr.nodes[im], qr.nodes[iq]);
-        if (!(n >= 0) || n === Infinity) throw new RangeError(`population density is ${n} at z = ${z}, log10M = ${mr.nodes[im]}, q = ${qr.nodes[iq]}; it must be finite and >= 0`);
-        rate[(iz * nm + im) * nq + iq] = zr.weights[iz] * mr.weights[im] * qr.weights[iq] * n * volumePerTime;
-      }
-    }
-  }
-  return { rate, mc53, fIsco, dc, age };
 }
 
 /** One bin's per-z residence and strain factors, ISCO cuts and totals (filled by binTotals). */

@@ -4,8 +4,9 @@
 //   galaxy merger density  d^3n_G/(dz dlog10M_G dq_G) = Phi(M_G, z) f_pair(z) p(q_G) / tau(z) |dt_r/dz|,
 // with Phi a Schechter stellar mass function per dex whose log10 Phi* and alpha move linearly with z,
 // f_pair(z) = f0 (1+z)^beta_pair, tau(z) = tau0 (1+z)^beta_tau (the forms of Chen, Sesana & Conselice
-// 2019 simplified to no mass dependence; unverified: only their abstract, which names the ingredients
-// but gives no formula, was reachable, so their pivots and powers are not compared). Each galaxy's bulge (a fraction f_bulge of its
+// 2019 simplified to no mass dependence; unverified: only their abstract (arXiv:1810.04184, searched again
+// 2026-12-02), which names the ingredients but gives no formula, was reachable, so their pivots and powers
+// are not compared). Each galaxy's bulge (a fraction f_bulge of its
 // stellar mass) hosts a black hole on a black-hole-bulge relation with log-normal scatter.
 // Our simplification: one scatter draw eps serves both black holes of a merger, so q_BH = q_G^b and
 // M = 10^(a + eps) (f_bulge M_G / 1e11)^b (1 + q_G^b). The density in (log10 M, q) is then
@@ -57,7 +58,7 @@ export function stellarMassFunctionPerDex(p: StellarMassFunctionParams, mass: nu
   return schechterPerDex(mass, Math.pow(10, p.log10PhiStar0 + p.log10PhiStarSlope * z), p.mStar, p.alpha0 + p.alphaSlope * z);
 }
 
-/** Galaxy merger density d^3n_G/(dz dlog10M_G dq_G), Mpc^-3 (Sesana 2013, MNRAS 433, L1: reference checked by its bibliographic code; unverified: the equation, whose text was not reachable). */
+/** Galaxy merger density d^3n_G/(dz dlog10M_G dq_G), Mpc^-3 (Sesana 2013, MNRAS 433, L1, arXiv:1211.5375, DOI 10.1093/mnrasl/slt034: the arXiv abstract, checked 2026-12-02, derives galaxy merger rates from galaxy mass functions and close-pair fractions and populates them with black holes by black hole-host relations; unverified: the equation itself, which is beyond the reachable abstract). */
 export function galaxyMergerDensity(p: GalaxyMergerParams, z: number, log10Mg: number, qg: number): number {
   const phi = stellarMassFunctionPerDex(p.massFunction, Math.pow(10, log10Mg), z);
   const pair = p.pairFraction0 * Math.pow(1 + z, p.betaPair);

@@ -46,8 +46,10 @@ export function harmonicPower(n: number, e: number): number {
 /**
  * Kapteyn's bound |J_m(m z)| <= [z exp(sqrt(1-z^2)) / (1 + sqrt(1-z^2))]^m for 0 <= z < 1
  * (Kapteyn 1893, Ann. Sci. Ec. Norm. Sup. 10, 91; Watson 1944, Theory of Bessel Functions, 8.7;
- * unverified: volume, page and section not checked; the bound itself is checked numerically in test/orbits),
- * and |J_m| <= 1 otherwise (A&S 9.1.60).
+ * unverified: volume, page and section, no copy of either being reachable). Derived here independently:
+ * Cauchy's estimate on the generating function exp[(x/2)(t - 1/t)] = sum J_m(x) t^m over |t| = r > 1
+ * gives |J_m(x)| <= r^(-m) exp[(x/2)(r - 1/r)], and r = (1 + s)/z, s = sqrt(1-z^2), x = m z makes the
+ * exponent m s; the bound is also checked numerically in test/orbits. |J_m| <= 1 otherwise (A&S 9.1.60).
  */
 export function kapteynBound(m: number, x: number): number {
   if (m <= 0 || x >= m) return 1;

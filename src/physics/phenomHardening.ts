@@ -1,6 +1,8 @@
 // A phenomenological hardening model with a fixed total lifetime, of the form used by the population
-// analyses of Agazie et al. 2023 (ApJL 952, L37; unverified: the form, the default values and the
-// equation number against the paper's text, of which only the abstract was reachable). The environment hardens a circular binary at
+// analyses of Agazie et al. 2023 (ApJL 952, L37; arXiv:2306.16220, first author and abstract checked
+// 2026-12-02; unverified: the form, the default values and the equation number, since the abstract gives
+// no hardening form and the text beyond it was not reachable; that this arXiv number is ApJL 952, L37 is
+// not stated in the reachable text either). The environment hardens a circular binary at
 //   da/dt_env = -A x^(1 - nu_in) (1 + x)^(nu_in - nu_out),  x = a / a_c,
 // so that its hardening time a/|da/dt| goes as x^nu_in inside the break a_c and as x^nu_out outside it;
 // GW emission adds da/dt_GW = -B / a^3, B = (64/5) G^3 m1 m2 M / c^5 (Peters 1964, Phys. Rev. 136, B1224,
@@ -27,7 +29,8 @@ export interface PhenomHardening {
 /**
  * Default shape: nu_in = -1, nu_out = +2.5, a_c = 100 pc, a_0 = 10^4 pc, tau_f = 3 Gyr (fiducial
  * values for the analysis of Agazie et al. 2023, which varied tau_f in [0.1, 11] Gyr and nu_in in
- * [-1.5, 0]; unverified against the paper's text, including whether a_c is 100 pc or 10 pc).
+ * [-1.5, 0]; unverified: none of these is in the paper's abstract, the only part reachable, so whether
+ * a_c is 100 pc or 10 pc is open too).
  */
 export const PHENOM_HARDENING_DEFAULTS: Readonly<PhenomHardening> = Object.freeze({
   lifetimeS: 3 * GYR_S,

@@ -1,7 +1,8 @@
 // The phenomenological merger density of Middleton, Del Pozzo, Farr, Sesana & Vecchio 2016 (MNRAS 455,
-// L72, arXiv:1507.00992; authors, title and arXiv number checked, unverified: volume and page) with the
-// mass-ratio term of Chen, Sesana & Del Pozzo 2017 (arXiv:1612.00455; unverified: the form of their q
-// term was not compared with the paper's text, only its abstract was reachable):
+// L72, arXiv:1507.00992; authors, title and abstract checked; unverified: volume and page, which no copy
+// reachable with the search tool states) with the mass-ratio term of Chen, Sesana & Del Pozzo 2017
+// (arXiv:1612.00455; unverified: the form of their q term, which their abstract, the only part reachable,
+// does not give):
 //   d^3n/(dz dlog10M dq) = ndot0 (M/1e7 Msun)^(-alpha) e^(-M/M*) (1+z)^beta e^(-z/z0) |dt_r/dz| p(q).
 // Our choice: M is the TOTAL mass m1 + m2 (the population contract's variable). Middleton et al. 2016
 // write the density in chirp mass (their abstract); which mass Chen et al. use is unverified. Fitted

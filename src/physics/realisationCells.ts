@@ -23,12 +23,10 @@
 // their residence time dt_r/dln f_r. Cells where that time exceeds the age of the Universe at the
 // cell's redshift (light binaries at the lowest frequencies) are flagged per bin; with
 // dropLongResidence they are left out of the bin altogether.
-import { M_SUN_KG, MPC_M } from './constants';
-import { chirpMassFromTotal } from './binaryMasses';
-import { iscoGwFrequencyHz } from './circularKernel';
 import type { FlatLambdaCdm } from './cosmology';
 import { circularResidenceTime, fillResidenceFactors, loudestExpected, singleBinaryStrain } from './finiteBinaries';
 import { compositeNodes } from './gaussLegendre';
+import { nodeRates } from './nodeRates';
 import type { BinaryPopulation } from './populationTypes';
 import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
 import type { ResidenceFactor } from './residenceFactor';
@@ -112,8 +110,6 @@ export interface RealisationCells {
   nq: number;
 }
 
-const PER_MPC3 = 1 / (MPC_M * MPC_M * MPC_M);
-
 /** Box edges of composite-rule nodes: widths equal to the weights, laid end to end from `lo`. */
 function boxEdges(lo: number, weights: Float64Array): Float64Array {
   const e = new Float64Array(weights.length + 1);
@@ -140,34 +136,9 @@ export function realisationCells(pop: BinaryPopulation, cosmo: FlatLambdaCdm, fr
   const mEdges = boxEdges(pop.log10MMin, mr.weights);
   const qEdges = boxEdges(pop.qMin, qr.weights);
 
-  // Per node (iz, im, iq), index (iz * nm + im) * nq + iq: binaries per second of rest-frame time
-  // (w n dV/dz |dz/dt|), and M_c^(5/3) per (im, iq).
-  const rate = new Float64Array(nz * nm * nq);
-  const mc53 = new Float64Array(nm * nq);
-  const fIsco = new Float64Array(nm);
-  const massKg = new Float64Array(nm);
-  for (let im = 0; im < nm; im++) {
-    const mKg = M_SUN_KG * Math.pow(10, mr.nodes[im]);
-    massKg[im] = mKg;
-    fIsco[im] = iscoGwFrequencyHz(mKg);
-    for (let iq = 0; iq < nq; iq++) mc53[im * nq + iq] = Math.pow(chirpMassFromTotal(mKg, qr.nodes[iq]), 5 / 3);
-  }
-  const dc = new Float64Array(nz);
-  const age = new Float64Array(nz);
-  for (let iz = 0; iz < nz; iz++) {
-    checkTime();
-    const z = zr.nodes[iz];
-    dc[iz] = cosmo.comovingDistanceM(z);
-    age[iz] = cosmo.ageS(z);
-    const volumePerTime = (cosmo.comovingVolumeElementM3(z) / cosmo.dtdzS(z)) * PER_MPC3;
-    for (let im = 0; im < nm; im++) {
-      for (let iq = 0; iq < nq; iq++) {
-        const n = pop.density(z, mr.nodes[im], qr.nodes[iq]);
-        if (!(n >= 0) || n === Infinity) throw new RangeError(`population density is ${n} at z = ${z}, log10M = ${mr.nodes[im]}, q = ${qr.nodes[iq]}; it must be finite and >= 0`);
-        rate[(iz * nm + im) * nq + iq] = zr.weights[iz] * mr.weights[im] * qr.weights[iq] * n * volumePerTime;
-      }
-    }
-  }
+  // Per node (iz, im, iq), index (iz * nm + im) * nq + iq: binaries per second of rest-frame time, and
+  // M_c^(5/3) per (im, iq) (nodeRates.ts).
+  const { rate, mc53, massKg, fIsco, dc, age } = nodeRates(pop, cosmo, zr, mr, qr, checkTime);
 
   const bins: BinCells[] = [];
   const nodeCount = new Float64Array(nz * nm * nq);

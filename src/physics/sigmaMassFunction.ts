@@ -20,8 +20,10 @@ export interface DispersionFunction {
 
 /**
  * Sheth et al. 2003 (ApJ 594, 225, eq. 4), early-type galaxies: (phi*, sigma*, alpha, beta) =
- * (0.0020 +- 0.0001, 88.8 +- 17.7 km/s, 6.5 +- 1.0, 1.93 +- 0.22); phi* in h^3 Mpc^-3 (unverified: the
- * units of phi* were not read here; the four values are checked).
+ * (0.0020 +- 0.0001, 88.8 +- 17.7 km/s, 6.5 +- 1.0, 1.93 +- 0.22); phi* in h^3 Mpc^-3. Unverified in the
+ * paper itself: its abstract (the only part reachable, searched 2026-12-02) gives no numbers; the four
+ * values agree with a third-party summary of the paper that names eq. 4 and gives no units, so the units
+ * of phi* (h^3 Mpc^-3) are not checked.
  */
 export const SHETH_2003_EARLY_TYPES = Object.freeze({ phiStarH3Mpc3: 0.002, sigmaStarKmS: 88.8, alpha: 6.5, beta: 1.93 });
 

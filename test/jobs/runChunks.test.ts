@@ -81,4 +81,50 @@ describe('runChunks: the same result whatever order and place the chunks run in'
     await expect(run).rejects.toThrow(/cancelled/);
     expect(closed).toBe(true);
   });
+
+  describe('workers started only when they pay (startAfterMs)', () => {
+    const opts = { samples: 5 * SAMPLE_CHUNK, seed: 8, outputs: ['A_yr'] };
+    /** A pool that runs chunks here (as a worker would, from the file text) and records what it was given. */
+    const recordingPool = (given: number[], made: number[]) => (workers: number): ChunkExecutor => {
+      made.push(workers);
+      return { runChunk: async (kind, text, plan, index) => (given.push(index), runChunkInWorker(kind, text, plan, index)), close: async () => {} };
+    };
+
+    it('a run projected to be short never starts the pool; one projected long hands every chunk not started to it; both equal one thread', async () => {
+      const one = await monteCarlo(sheet, opts);
+      const givenShort: number[] = [];
+      const madeShort: number[] = [];
+      const short = await monteCarlo(sheet, opts, undefined, { workers: 3, pool: recordingPool(givenShort, madeShort), startAfterMs: Infinity });
+      expect(madeShort).toEqual([]);
+      expect(short.outputs.A_yr).toEqual(one.outputs.A_yr);
+      const given: number[] = [];
+      const made: number[] = [];
+      const progress: number[] = [];
+      const long = await monteCarlo(sheet, opts, { onProgress: (d) => progress.push(d) }, { workers: 3, pool: recordingPool(given, made), startAfterMs: 0 });
+      // chunks run here until the pace is known (at least the first), then every chunk not started goes to one pool of 3 workers
+      expect(made).toEqual([3]);
+      const first = Math.min(...given);
+      expect(first).toBeGreaterThanOrEqual(1);
+      expect(given.sort((a, b) => a - b)).toEqual(Array.from({ length: 5 - first }, (_, k) => first + k));
+      expect(long.outputs.A_yr).toEqual(one.outputs.A_yr);
+      expect(long.inputDraws).toEqual(one.inputDraws);
+      expect(progress.at(-1)).toBe(opts.samples);
+    });
+
+    it('cancelling after the hand-over closes the pool', async () => {
+      const ctl = new AbortController();
+      let closed = false;
+      // the pool's chunks never finish; the user cancels once the pool has them
+      const pool = (): ChunkExecutor => ({
+        runChunk: () => {
+          setTimeout(() => ctl.abort(), 0);
+          return new Promise((_, reject) => ctl.signal.addEventListener('abort', () => reject(new Error('worker terminated'))));
+        },
+        close: async () => void (closed = true),
+      });
+      const run = monteCarlo(sheet, opts, { signal: ctl.signal }, { workers: 2, pool, startAfterMs: 0 });
+      await expect(run).rejects.toThrow(/cancelled/);
+      expect(closed).toBe(true);
+    });
+  });
 });

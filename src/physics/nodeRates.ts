@@ -1,0 +1,71 @@
+// The frequency-independent parts of a population on composite Gauss-Legendre nodes in z, log10M and q,
+// shared by the finite-number bins (finiteBinaries.ts) and the realisation cells (realisationCells.ts):
+// binaries per second of rest-frame time per node, w n dV/dz |dz/dt| (Sesana, Vecchio & Colacino 2008,
+// MNRAS 390, 192, eq. 6 integrand), and per-node masses, chirp masses, ISCO frequencies, distances, ages.
+import { MPC_M, M_SUN_KG } from './constants';
+import { chirpMassFromTotal } from './binaryMasses';
+import { iscoGwFrequencyHz } from './circularKernel';
+import type { FlatLambdaCdm } from './cosmology';
+import type { BinaryPopulation } from './populationTypes';
+import type { TimeCheck } from './timeCheck';
+
+export interface NodeGrid {
+  nodes: Float64Array;
+  weights: Float64Array;
+}
+
+export interface NodeRates {
+  /** Binaries per second of rest-frame time at node (iz * nm + im) * nq + iq: weight x n x dV/dz x |dz/dt|. */
+  rate: Float64Array;
+  /** M_c^(5/3), kg^(5/3), at (im * nq + iq). */
+  mc53: Float64Array;
+  /** Total mass, kg, per mass node. */
+  massKg: Float64Array;
+  /** GW frequency at the ISCO, Hz, per mass node. */
+  fIsco: Float64Array;
+  /** Comoving distance, m, per z node. */
+  dc: Float64Array;
+  /** Age of the Universe, s, per z node. */
+  age: Float64Array;
+}
+
+const PER_MPC3 = 1 / (MPC_M * MPC_M * MPC_M);
+
+/** The node rates of `pop` (a density that is not finite and >= 0 at a node is an error naming the node). */
+export function nodeRates(pop: BinaryPopulation, cosmo: FlatLambdaCdm, zr: NodeGrid, mr: NodeGrid, qr: NodeGrid, checkTime: TimeCheck): NodeRates {
+  const nz = zr.nodes.length;
+  const nm = mr.nodes.length;
+  const nq = qr.nodes.length;
+  const rate = new Float64Array(nz * nm * nq);
+  const mc53 = new Float64Array(nm * nq);
+  const massKg = new Float64Array(nm);
+  const fIsco = new Float64Array(nm);
+  for (let im = 0; im < nm; im++) {
+    const mKg = M_SUN_KG * Math.pow(10, mr.nodes[im]);
+    massKg[im] = mKg;
+    fIsco[im] = iscoGwFrequencyHz(mKg);
+    for (let iq = 0; iq < nq; iq++) mc53[im * nq + iq] = Math.pow(chirpMassFromTotal(mKg, qr.nodes[iq]), 5 / 3);
+  }
+  // A separable density (populationTypes.ts) gives its factors: one density call per (z, M) node. Its
+  // density is zMass(z, M) * massRatio(q), so the products are the same numbers.
+  const sep = pop.separable;
+  const qFactor = Float64Array.from(qr.nodes, (q) => (sep ? sep.massRatio(q) : 0));
+  const dc = new Float64Array(nz);
+  const age = new Float64Array(nz);
+  for (let iz = 0; iz < nz; iz++) {
+    checkTime();
+    const z = zr.nodes[iz];
+    dc[iz] = cosmo.comovingDistanceM(z);
+    age[iz] = cosmo.ageS(z);
+    const volumePerTime = (cosmo.comovingVolumeElementM3(z) / cosmo.dtdzS(z)) * PER_MPC3;
+    for (let im = 0; im < nm; im++) {
+      const zMass = sep ? sep.zMass(z, mr.nodes[im]) : 0;
+      for (let iq = 0; iq < nq; iq++) {
+        const n = sep ? zMass * qFactor[iq] : pop.density(z, mr.nodes[im], qr.nodes[iq]);
+        if (!(n >= 0) || n === Infinity) throw new RangeError(`population density is ${n} at z = ${z}, log10M = ${mr.nodes[im]}, q = ${qr.nodes[iq]}; it must be finite and >= 0`);
+        rate[(iz * nm + im) * nq + iq] = zr.weights[iz] * mr.weights[im] * qr.weights[iq] * n * volumePerTime;
+      }
+    }
+  }
+  return { rate, mc53, massKg, fIsco, dc, age };
+}
