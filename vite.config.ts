@@ -7,6 +7,7 @@ import { sharedWorkerEntries } from './scripts/sharedWorkerEntries.mjs';
 import { builtinDocsInApp } from './scripts/builtinDocsInApp.mjs';
 import { builtinGroupsInApp, groupsOfIndex } from './scripts/builtinGroupsInApp.mjs';
 import { deferredMathInApp } from './scripts/deferredMathInApp.mjs';
+import { mathjsWithoutLatex } from './scripts/mathjsWithoutLatex.mjs';
 
 const projectRoot = fileURLToPath(new URL('.', import.meta.url));
 /** The files of src/builtins that are groups of built-ins (listed in its index.ts). */
@@ -61,7 +62,7 @@ const ENGINE_MODULES = /\/src\/sheet\/|\/node_modules\/zod\//;
 export default defineConfig({
   root: 'web',
   base: './',
-  plugins: [solid(), devServerWebSockets, preloadInWorkers, sharedWorkerEntries(), builtinDocsInApp(), builtinGroupsInApp(), deferredMathInApp()],
+  plugins: [solid(), devServerWebSockets, preloadInWorkers, sharedWorkerEntries(), builtinDocsInApp(), builtinGroupsInApp(), deferredMathInApp(), mathjsWithoutLatex()],
   server: { port: 5173, strictPort: false },
   build: {
     outDir: '../dist',
