@@ -29,6 +29,7 @@ const devServerWebSockets: Plugin = {
 function sharedChunkName(chunk: { name: string; moduleIds: string[]; facadeModuleId: string | null }): string {
   const has = (part: string) => chunk.moduleIds.some((id) => id.includes(part));
   // A group of built-ins loaded on demand (scripts/builtinGroupsInApp.mjs), apart from the docs pages of the same names.
+  if (chunk.name === 'demoFirstBuiltins') return chunk.name;
   const group = chunk.moduleIds.map((id) => /\/src\/builtins\/(\w+)\.ts$/.exec(id)?.[1]).find((f) => f !== undefined && BUILTIN_GROUPS.has(f));
   if (group) return `builtinGroup-${group}`;
   if (chunk.facadeModuleId === '\0virtual:deferred-math') return 'mathjsDeferred';
@@ -55,8 +56,41 @@ const preloadInWorkers: Plugin = {
   },
 };
 
-/** The sheet engine and the validator of its files. */
-const ENGINE_MODULES = /\/src\/sheet\/|\/node_modules\/zod\//;
+/**
+ * The sheet engine and the validator of its files, with the small modules the page and every
+ * worker load with it (the built-ins' names and loaders, the physical constants, Vite's preload
+ * helper), which would otherwise be chunks of their own, one request each.
+ */
+const ENGINE_MODULES =
+  /\/src\/sheet\/|\/node_modules\/zod\/|\/web\/engine\/(lazyBuiltins|builtinsNeeded|deferredMath)\.ts$|virtual:builtin-groups$|\/src\/builtins\/index\.ts$|\/src\/physics\/constants\.ts$|vite\/preload-helper/;
+/** Small modules of the page's start that panels loaded later import too (otherwise a chunk each). */
+const PAGE_PARTS = /\/web\/(sheet\/(rowAnnotations\.ts|AnnotationBadges\.tsx)|plots\/matchingCells\.ts|help\/(LinkedText|BuiltinSignature)\.tsx|help\/(docPages|docReferences)\.ts|engine\/engine\.ts|files\/(download|csvText)\.ts)$/;
+
+/** The Web Workers' entries (scripts/sharedWorkerEntries.mjs). */
+const WORKER_ENTRIES = ['web/jobs/jobWorker.ts', 'web/jobs/chunkWebWorker.ts', 'web/engine/offPageWorker.ts'].map((f) => fileURLToPath(new URL(f, import.meta.url)));
+
+/**
+ * The groups of built-ins the demo's first result needs (imported by the page through
+ * virtual:demo-first-builtins) and the modules of src/ they import, in one chunk instead of one
+ * per file: all but those a worker imports at its start (which stay in chunks of their own, so
+ * the workers do not load the rest) and those of the engine's chunk.
+ */
+function demoFirstBuiltins(id: string, ctx: { getModuleInfo(id: string): { importedIds: readonly string[] } | null }): string | null {
+  const closure = (starts: readonly string[]) => {
+    const seen = new Set<string>();
+    const stack = [...starts];
+    while (stack.length > 0) {
+      const m = stack.pop()!;
+      if (seen.has(m) || m.includes('/node_modules/') || ENGINE_MODULES.test(m)) continue;
+      seen.add(m);
+      stack.push(...(ctx.getModuleInfo(m)?.importedIds ?? []));
+    }
+    return seen;
+  };
+  const first = closure(ctx.getModuleInfo('\0virtual:demo-first-builtins')?.importedIds ?? []);
+  if (!first.has(id)) return null;
+  return closure(WORKER_ENTRIES).has(id) ? null : 'demoFirstBuiltins';
+}
 
 // The Vite root is web/ (the app); tests and benchmarks are found from the project root.
 export default defineConfig({
@@ -72,7 +106,13 @@ export default defineConfig({
       output: {
         chunkFileNames: (chunk) => `assets/${sharedChunkName(chunk)}-[hash].js`,
         // The engine in a chunk of its own (not merged with mathjs's, whose solvers load later).
-        codeSplitting: { groups: [{ name: 'sheetEngine', test: ENGINE_MODULES, includeDependenciesRecursively: false }] },
+        codeSplitting: {
+          groups: [
+            { name: 'sheetEngine', test: ENGINE_MODULES, includeDependenciesRecursively: false },
+            { name: 'pageParts', test: PAGE_PARTS, includeDependenciesRecursively: false },
+            { name: demoFirstBuiltins, test: /\/src\/(builtins|physics|statistics)\//, includeDependenciesRecursively: false },
+          ],
+        },
       },
     },
   },
