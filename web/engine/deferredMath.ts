@@ -1,20 +1,23 @@
-// mathjs's functions that formulas call by name, in the app, loaded when a formula names one and
-// otherwise after the first results (scripts/deferredMathInApp.mjs works the set out: the
-// functions formulas call by name that nothing else of the instance needs, with what only they
-// use, such as the LU and QR decompositions, the statistics and the trigonometry). Their names
-// stay in the instance, as stand-ins; `loadDeferredMath()` builds the real functions from
-// mathjs's own factories, resolving each dependency as mathjs does (from the instance) except
-// those within this set (built here), then puts them in the instance's namespaces in place of the
-// stand-ins, so that from then on formulas find exactly what an instance built with every
-// factory holds (a function passed as an argument, as in map(v, sqrt), is the typed function).
-// The stand-ins forward to the real functions once loaded and throw before; formulas reach the set
-// only through the names `triggers` lists, which load it before evaluation (web/engine/lazyBuiltins.ts).
+// mathjs's functions that formulas reach only by name or through a rarely used operator, in the
+// app, loaded when a formula names one and otherwise after the first results
+// (scripts/deferredMathInApp.mjs works the set out: those nothing else of the instance needs, with
+// what only they use, such as the LU and QR decompositions, the statistics and the
+// trigonometry). Their names stay in the instance, as stand-ins; once `loadDeferredMath()` has
+// loaded mathjs's own factories, each real function is built on its first use, resolving each
+// dependency as mathjs does (from the instance) except those within this set (built here), and
+// takes the stand-in's place in the instance's namespaces, so that from then on formulas find
+// exactly what an instance built with every factory holds (a function passed as an argument, as
+// in map(v, sqrt), is the typed function). The stand-ins forward to the real functions once
+// loaded and throw before; formulas reach the set only through the names and operator text
+// (`triggers`, `symbols`) which load it before evaluation (web/engine/lazyBuiltins.ts).
 
 type Factory = ((deps: Record<string, unknown>) => unknown) & { fn: string; dependencies: readonly string[]; meta?: { isTransformFunction?: boolean }; isFactory?: true };
 
 interface StandIn {
   fn: string;
   transform: boolean;
+  /** The real function, built on first use (set once the set has loaded). */
+  real?: () => unknown;
   target?: unknown;
   made?: unknown;
 }
@@ -31,9 +34,9 @@ export function deferredMathFactory(exportName: string, fn: string, meta: Factor
   standIns.set(exportName, slot);
   const create = () => {
     const forward = function forward(this: unknown, ...args: unknown[]) {
-      const real = slot.target as (...a: unknown[]) => unknown;
-      if (real === undefined) throw new Error(`the code of ${fn} has not loaded yet`);
-      return real.apply(this, args);
+      if (slot.real === undefined) throw new Error(`the code of ${fn} has not loaded yet`);
+      slot.target ??= slot.real();
+      return (slot.target as (...a: unknown[]) => unknown).apply(this, args);
     };
     if (rawArgs) Object.assign(forward, { rawArgs: true });
     slot.made = forward;
@@ -44,16 +47,17 @@ export function deferredMathFactory(exportName: string, fn: string, meta: Factor
 
 let loading: Promise<void> | null = null;
 
-/** Builds the real functions of every stand-in (once), from the chunk of mathjs factories loaded here; `math` is the instance. */
+/** Loads the deferred factories (once) and gives the stand-ins their real functions; `math` is the instance. */
 export function loadDeferredMath(math: Record<string, unknown>): Promise<void> {
   loading ??= import('virtual:deferred-math').then((m) => putInPlace(math, m.default as Record<string, Factory>));
   return loading;
 }
 
 /**
- * Builds the real functions of the stand-ins from `factories` (the deferred factories by export
- * name) for the instance `math`, makes the stand-ins forward to them and puts them in the
- * instance's namespaces in place of the stand-ins.
+ * Gives the stand-ins their real functions from `factories` (the deferred factories by export
+ * name) for the instance `math`, and puts these in the instance's namespaces in place of the
+ * stand-ins. Each is built on its first use, as mathjs builds its own (building them all at
+ * once would hold the page for a long task).
  */
 export function putInPlace(math: Record<string, unknown>, factories: Record<string, Factory>): void {
   const plain = new Map<string, Factory>(Object.values(factories).filter((f) => f.meta?.isTransformFunction !== true).map((f) => [f.fn, f]));
@@ -69,18 +73,35 @@ export function putInPlace(math: Record<string, unknown>, factories: Record<stri
     built.set(f, real);
     return real;
   };
-  for (const [exportName, slot] of standIns) slot.target = build(factories[exportName]);
+  for (const [exportName, slot] of standIns) slot.real = () => build(factories[exportName]);
   // The namespaces: the plain one, the transforms, and the one formulas look names up in (where
   // the size guards stay: they look the function up on their first call).
   const made = new Set([...standIns.values()].map((s) => s.made).filter((x) => x !== undefined));
-  const replace = (space: Record<string, unknown>, name: string, real: unknown) => {
+  const replace = (space: Record<string, unknown>, name: string, real: () => unknown) => {
     const d = Object.getOwnPropertyDescriptor(space, name);
-    if (d && (d.get !== undefined || made.has(d.value))) space[name] = real;
+    if (d && (d.get !== undefined || made.has(d.value))) lazy(space, name, real);
   };
-  const transformOf = new Map([...standIns.values()].filter((s) => s.transform).map((s) => [s.fn, s.target]));
+  const transformOf = new Map([...standIns.values()].filter((s) => s.transform).map((s) => [s.fn, s]));
   for (const slot of standIns.values()) {
-    if (slot.transform) replace(expression.transform, slot.fn, slot.target);
-    else replace(math, slot.fn, slot.target);
-    replace(expression.mathWithTransform, slot.fn, transformOf.has(slot.fn) ? transformOf.get(slot.fn) : slot.target);
+    replace(slot.transform ? expression.transform : math, slot.fn, slot.real!);
+    replace(expression.mathWithTransform, slot.fn, (transformOf.get(slot.fn) ?? slot).real!);
   }
+}
+
+/** A property whose value is resolved on first read (as mathjs's own namespaces are). */
+function lazy(space: Record<string, unknown>, name: string, resolve: () => unknown): void {
+  let value: unknown;
+  let resolved = false;
+  Object.defineProperty(space, name, {
+    get: () => {
+      if (!resolved) (value = resolve()), (resolved = true);
+      return value;
+    },
+    set: (v: unknown) => {
+      value = v;
+      resolved = true;
+    },
+    configurable: true,
+    enumerable: true,
+  });
 }
