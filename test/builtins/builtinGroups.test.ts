@@ -5,7 +5,8 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { allBuiltins } from '../../src/builtins/index';
 import { groupsOfIndex } from '../../scripts/builtinGroupsInApp.mjs';
-import { LazyBuiltins, type BuiltinGroupSpec } from '../../web/engine/lazyBuiltins';
+import { formulaTextsOfFile, LazyBuiltins, type BuiltinGroupSpec } from '../../web/engine/lazyBuiltins';
+import { Sheet } from '../../src/sheet/sheet';
 import type { Builtin } from '../../src/sheet/builtin';
 import { math } from '../../src/sheet/mathInstance';
 
@@ -54,8 +55,19 @@ describe('built-ins in groups loaded on demand', () => {
     expect(lazy.groupsNamedIn(['"x & y" + "a \\" !"', 'measuredFreeSpectrum("a|b")'])).toEqual([]);
     expect(lazy.groupsNamedIn(['"x" & "y"'])).toEqual(['ops']);
     expect(lazy.groupsNamedIn(['model * 2', '7 / 3'])).toEqual([]);
+    // text that is not a formula (quotes may hold formulas): read whole
+    expect(lazy.groupsNamedIn(['{"formula": "5 & 3"}'], false)).toEqual(['ops']);
     await lazy.load(['ops']);
     expect(lazy.groupsNamedIn(['5 & 3'])).toEqual([]);
+  });
+
+  it('a sheet file text gives its cells’ formulas, uncertainties and priors (what the workers look for groups in)', () => {
+    const sheet = new Sheet();
+    sheet.setCell({ name: 'first', formula: '5 & 3', note: 'not & this', uncertainty: 'normalDist(1, 0.1)' });
+    sheet.setCell({ name: 'spectrum_b', formula: 'measuredFreeSpectrum("x|y") + first', prior: 'uniformDist(0, 1)' });
+    expect(formulaTextsOfFile(sheet.toFileText())).toEqual(['5 & 3', 'normalDist(1, 0.1)', 'measuredFreeSpectrum("x|y") + first', 'uniformDist(0, 1)']);
+    expect(formulaTextsOfFile('sqrt(2)')).toBeNull();
+    expect(formulaTextsOfFile('{"not": "a sheet"}')).toBeNull();
   });
 
   it('a group that fails to load is named in the error of its built-ins and is not asked for again', async () => {

@@ -3,6 +3,7 @@
 // their formulas and those of the cells they read name; after, those the whole sheet names. (A
 // cell's uncertainty and prior are not evaluated here: their checks and the jobs load their own.)
 import { builtinGroups } from 'virtual:builtin-groups';
+import { formulaTextsOfFile } from './lazyBuiltins';
 import type { Sheet } from '../../src/sheet/sheet';
 
 /** The formulas of these cells and of every cell they read, directly or not. */
@@ -37,7 +38,13 @@ export function loadEveryBuiltinGroup(): void {
   if (!builtinGroups.allLoaded) void builtinGroups.loadAll();
 }
 
-/** Loads the groups the formulas of a sheet's file text name (a worker, before it evaluates them). */
+/**
+ * Loads the groups the formulas of a sheet's file text name (a worker, before it evaluates them),
+ * or those a formula's text names (an uncertainty or prior). Text that starts like JSON but is no
+ * sheet file is read whole, quotes included.
+ */
 export function loadBuiltinsNamedIn(text: string): Promise<void> {
-  return builtinGroups.load(builtinGroups.groupsNamedIn([text]));
+  const formulas = formulaTextsOfFile(text);
+  const groups = formulas ? builtinGroups.groupsNamedIn(formulas) : builtinGroups.groupsNamedIn([text], !text.trimStart().startsWith('{'));
+  return builtinGroups.load(groups);
 }

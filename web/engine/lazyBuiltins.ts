@@ -21,6 +21,21 @@ const IDENTIFIER = /[A-Za-z_$][\w$]*/g;
 /** Text in double quotes (a string of a formula, as an encoded measurement: its characters are no operators). */
 const QUOTED = /"(?:[^"\\]|\\.)*"/g;
 
+/**
+ * The formula texts of a sheet file's text (its cells' formulas, uncertainties and priors), or
+ * null when the text is not a sheet file (then it is a formula, or must be read whole).
+ */
+export function formulaTextsOfFile(text: string): string[] | null {
+  if (!text.trimStart().startsWith('{')) return null;
+  try {
+    const file = JSON.parse(text) as { cells?: unknown };
+    if (!Array.isArray(file.cells)) return null;
+    return (file.cells as Array<Record<string, unknown>>).flatMap((c) => [c?.formula, c?.uncertainty, c?.prior].filter((x): x is string => typeof x === 'string'));
+  } catch {
+    return null;
+  }
+}
+
 export class LazyBuiltins {
   private readonly groupOf = new Map<string, string>();
   private readonly triggerOf = new Map<string, string>();
@@ -56,8 +71,13 @@ export class LazyBuiltins {
     return this.loaded.size === this.specs.size;
   }
 
-  /** The groups not loaded yet (nor failed to: a failed group is not tried again) whose built-ins (or triggers, or symbols) these formula texts name. */
-  groupsNamedIn(texts: Iterable<string>): string[] {
+  /**
+   * The groups not loaded yet (nor failed to: a failed group is not tried again) whose built-ins
+   * (or triggers, or symbols) these formula texts name. `unquote`: whether text in double quotes
+   * is a string of the formula (no symbols looked for there); false for text that is not a
+   * formula, where quotes may hold formulas.
+   */
+  groupsNamedIn(texts: Iterable<string>, unquote = true): string[] {
     if (this.allLoaded) return [];
     const out = new Set<string>();
     const wanted = (g: string | undefined): g is string => g !== undefined && !this.loaded.has(g) && !this.failed.has(g);
@@ -67,7 +87,7 @@ export class LazyBuiltins {
         if (wanted(g)) out.add(g);
       }
       if (this.symbolsOf.length === 0) continue;
-      const unquoted = text.includes('"') ? text.replace(QUOTED, '""') : text;
+      const unquoted = unquote && text.includes('"') ? text.replace(QUOTED, '""') : text;
       for (const [g, symbols] of this.symbolsOf) if (wanted(g) && symbols.some((s) => unquoted.includes(s))) out.add(g);
     }
     return [...out];
