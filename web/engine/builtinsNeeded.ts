@@ -44,7 +44,13 @@ export function loadEveryBuiltinGroup(): void {
  * sheet file is read whole, quotes included.
  */
 export function loadBuiltinsNamedIn(text: string): Promise<void> {
+  // A chunk worker is handed the same sheet text with every chunk: read it once.
+  if (lastNamed?.text === text) return lastNamed.loaded;
   const formulas = formulaTextsOfFile(text);
   const groups = formulas ? builtinGroups.groupsNamedIn(formulas) : builtinGroups.groupsNamedIn([text], !text.trimStart().startsWith('{'));
-  return builtinGroups.load(groups);
+  lastNamed = { text, loaded: builtinGroups.load(groups) };
+  return lastNamed.loaded;
 }
+
+/** The last text loadBuiltinsNamedIn read and the load of the groups it names. */
+let lastNamed: { text: string; loaded: Promise<void> } | undefined;
