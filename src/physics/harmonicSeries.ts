@@ -14,6 +14,7 @@ export class HarmonicSeries {
   partial = 0;
   private readonly shape0: number;
   private readonly enhancement0: number;
+  private readonly eBoundFactor: number; // e(f0 r) <= eBoundFactor r^(-19/18), see tailSkipped
   // keptFrom[n]: from this eccentricity on, harmonic n surely passes the cheap skip test (below).
   private keptFrom = new Float64Array(0);
 
@@ -21,6 +22,7 @@ export class HarmonicSeries {
     if (!(e0 >= 0 && e0 < 1)) throw new RangeError(`eccentricity e0 must lie in [0, 1), got ${e0}`);
     this.shape0 = e0 === 0 ? 0 : petersShapeLog(e0);
     this.enhancement0 = eccentricityEnhancement(e0);
+    this.eBoundFactor = e0 === 0 ? 0 : Math.exp((19 / 12) * this.shape0);
   }
 
   /** Phi(x; e0) summed over harmonics 1 .. top (top <= x); the sum after harmonic partialAt is kept in `partial`. */
@@ -31,6 +33,7 @@ export class HarmonicSeries {
     const keptFrom = this.keptFromUpTo(top);
     let sum = 0;
     let en = e0;
+    let tailChecked = false;
     for (let n = 1; n <= top; n++) {
       // e grows with n (lower orbital frequency): the previous harmonic's e is a close first guess.
       en = e0 === 0 ? 0 : eccentricityFromShape(e0, shape0, x / n, n === 1 ? undefined : en);
@@ -39,10 +42,40 @@ export class HarmonicSeries {
       // before it the eccentricity above which that part surely passes (keptFrom, no transcendental call).
       if (n <= 2 || en >= keptFrom[n] || weight * harmonicPowerBoundPart(n, en) >= SKIP_WEIGHT || weight * harmonicPowerBound(n, en) >= SKIP_WEIGHT) {
         sum += weight * harmonicPower(n, en);
+      } else if (!tailChecked) {
+        // the first harmonic skipped: if every later one surely is too, the sum is complete
+        tailChecked = true;
+        if (this.tailSkipped(x, n, top)) {
+          if (partialAt >= n && partialAt <= top) this.partial = sum;
+          break;
+        }
       }
       if (n === partialAt) this.partial = sum;
     }
     return sum;
+  }
+
+  /**
+   * True when harmonics after..top all fail the skip test surely, without their eccentricities: since
+   * -ln(1 - e^2) and the last term of the Peters 1964 shape are >= 0, (12/19) ln e_n <= shape(e0) -
+   * (2/3) ln(x/n), an upper bound e^ on e_n; the weight is at most (2/n)^(2/3) (F >= 1); the five Bessel
+   * bounds of harmonicPowerBound are at most Kapteyn's bound K_{n-2}(n e^) (it grows with the argument and
+   * falls with the order), so the bound is at most 1.9 n^4 K^2 (its coefficients at e <= 1, n >= 3). Each
+   * must be below SKIP_WEIGHT / 2 (a factor 2 to spare for rounding); checked from the top down.
+   */
+  private tailSkipped(x: number, after: number, top: number): boolean {
+    const twoOverN23 = harmonicWeights(top);
+    for (let n = top; n > after; n--) {
+      const eHat = this.eBoundFactor * Math.pow(n / x, 19 / 18) * (1 + 1e-9);
+      const m = n - 2;
+      const z = (n * eHat) / m;
+      if (!(z < 1)) return false;
+      const s = Math.sqrt(1 - z * z);
+      const k = Math.exp(m * (Math.log(z) + s - Math.log1p(s)));
+      const n2 = n * n;
+      if (!(twoOverN23[n] * 1.9 * n2 * n2 * k * k < 0.5 * SKIP_WEIGHT)) return false;
+    }
+    return true;
   }
 
   private keptFromUpTo(top: number): Float64Array {
