@@ -24,6 +24,8 @@ export interface ParallelOptions {
    * to the pool. Undefined: every chunk goes to the pool at once. Results are the same either way.
    */
   startAfterMs?: number;
+  /** Hears how many workers the pool was made with, when the job makes one (never for a job run in this thread). */
+  onPoolStart?: (workers: number) => void;
 }
 
 /** Pacing of progress reports and event-loop turns (ms of work between them). */
@@ -81,7 +83,11 @@ export async function runChunks<P extends ChunkPlan, C>(
     control?.onProgress?.(done, total);
     return r;
   };
-  if (parallel.startAfterMs === undefined) return inPool(job, plan, indices, control, parallel.pool(workers), sheetText(), counted);
+  const startPool = (n: number) => {
+    parallel.onPoolStart?.(n);
+    return parallel.pool!(n);
+  };
+  if (parallel.startAfterMs === undefined) return inPool(job, plan, indices, control, startPool(workers), sheetText(), counted);
   // Chunks run here while the work left looks short; once it does not, the rest go to the pool.
   const out: C[] = new Array(indices.length);
   const t0 = performance.now();
@@ -105,7 +111,7 @@ export async function runChunks<P extends ChunkPlan, C>(
     if (pace === undefined || pace * (total - doneNow) < limit) return;
     const positions = Array.from({ length: indices.length - next }, (_, k) => next + k);
     next = indices.length;
-    pool = parallel.pool!(Math.min(workers, positions.length));
+    pool = startPool(Math.min(workers, positions.length));
     pooled = inPool(job, plan, positions.map((p) => indices[p]), control, pool, sheetText(), (r, i, k) => (out[positions[k]] = counted(r, i))).then(() => {});
     // a rejection is awaited below; until then it must not count as unhandled
     pooled.catch(() => {});

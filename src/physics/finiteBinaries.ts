@@ -17,6 +17,7 @@ import { compositeNodes } from './gaussLegendre';
 import type { BinaryPopulation } from './populationTypes';
 import type { ResidenceFactor } from './residenceFactor';
 import { LoudestSearch } from './loudestSearch';
+import { LoudestSweep } from './loudestSweep';
 import { nodeRates } from './nodeRates';
 import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
 
@@ -109,7 +110,9 @@ export function finiteBinaryBins(
   const scaled = residence ? new Float64Array(size) : rate;
   const factor = residence ? new Float64Array(size) : undefined;
   let sums = residence ? undefined : nodeSums(rate, mc53, nz, nm, nq);
-  let loud = residence ? undefined : new LoudestSearch(rate, mc53, nz, nm, nq);
+  // With a residence factor the rates change per bin: a search per bin. Without one, one walk for all bins (loudestSweep.ts) after the loop.
+  let loud: LoudestSearch | undefined;
+  const perBin = residence ? undefined : { tau: new Float64Array(nf * nz), hF: new Float64Array(nf * nz), emitting: new Int32Array(nf * nz) };
   // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
   // its own cell: the separation theorem of Chebyshev, Markov and Stieltjes, Szego 1939, Orthogonal
   // Polynomials, 3.41; section number unverified, no copy of the book reachable with the search tool; the
@@ -141,9 +144,25 @@ export function finiteBinaryBins(
     out.thinnedHc[k] = Math.sqrt(Math.max(0, h2Total - cut.h2Above));
 
     // Loudest expected binary: nodes by decreasing strain until one binary is expected.
-    out.loudestStrain[k] = count < 1 ? 0 : (loud as LoudestSearch).search(bin.tauOf, bin.hFOf, bin.emitting, dlnf);
+    if (perBin) {
+      perBin.tau.set(bin.tauOf, k * nz);
+      perBin.hF.set(bin.hFOf, k * nz);
+      perBin.emitting.set(bin.emitting, k * nz);
+    } else out.loudestStrain[k] = count < 1 ? 0 : (loud as LoudestSearch).search(bin.tauOf, bin.hFOf, bin.emitting, dlnf);
   }
+  if (perBin) loudestBySweep(out, perBin, new LoudestSweep(rate, mc53, zr.nodes, dc, nm, nq), nz, spanS);
   return out;
+}
+
+/** The loudest binary of each bin holding one or more, by one walk over the bins in increasing f (LoudestSweep). */
+function loudestBySweep(out: FiniteBinaryResult, perBin: { tau: Float64Array; hF: Float64Array; emitting: Int32Array }, sweep: LoudestSweep, nz: number, spanS: number): void {
+  const f = out.frequencyHz;
+  const byF = Array.from(f.keys()).sort((a, b) => f[a] - f[b] || a - b);
+  for (const k of byF) {
+    if (out.expectedPerBin[k] < 1) continue;
+    const at = k * nz;
+    out.loudestStrain[k] = sweep.loudest(f[k], perBin.tau.subarray(at, at + nz), perBin.hF.subarray(at, at + nz), perBin.emitting.subarray(at, at + nz), 1 / (f[k] * spanS));
+  }
 }
 
 /** One bin's per-z residence and strain factors, ISCO cuts and totals (filled by binTotals). */
@@ -241,44 +260,36 @@ function nodeSums(rate: Float64Array, mc53: Float64Array, nz: number, nm: number
   // One function per pass over the nodes (each compiled on its own while cold).
   const perMc53 = new Float64Array(nz * nm); // sum_q rate / M_c^(5/3)
   const timesMc53 = new Float64Array(nz * nm); // sum_q rate x M_c^(5/3)
-  sumsOverQ(rate, mc53, nz, nm, nq, perMc53, timesMc53);
-  const perMc53ByQ = runningSumsByQ(rate, mc53, nz, nm, nq);
+  const perMc53ByQ = new Float64Array(nz * nq * (nm + 1));
+  sumsOverQ(rate, mc53, nz, nm, nq, perMc53, timesMc53, perMc53ByQ);
   const perMc53Below = new Float64Array(nz * (nm + 1));
   const timesMc53Below = new Float64Array(nz * (nm + 1));
   runningSumsOverMass(perMc53, timesMc53, nz, nm, perMc53Below, timesMc53Below);
   return { perMc53, timesMc53, perMc53ByQ, perMc53Below, timesMc53Below };
 }
 
-/** Sums over q per (z, mass node) for the counts and h^2: dN h^2 = rate tau_F h_F^2 M_c^(5/3). */
-function sumsOverQ(rate: Float64Array, mc53: Float64Array, nz: number, nm: number, nq: number, perMc53: Float64Array, timesMc53: Float64Array): void {
+/**
+ * Sums over q per (z, mass node) for the counts and h^2 (dN h^2 = rate tau_F h_F^2 M_c^(5/3)), and per
+ * (z, q) the running sums over the mass nodes of rate / M_c^(5/3). M_c rises with the mass index at fixed
+ * q, so the nodes with residence time tau_F / M_c^(5/3) above the age are a prefix.
+ */
+function sumsOverQ(rate: Float64Array, mc53: Float64Array, nz: number, nm: number, nq: number, perMc53: Float64Array, timesMc53: Float64Array, perMc53ByQ: Float64Array): void {
   for (let iz = 0; iz < nz; iz++) {
     for (let im = 0; im < nm; im++) {
       let a = 0;
       let b = 0;
       for (let iq = 0; iq < nq; iq++) {
         const r = rate[(iz * nm + im) * nq + iq];
-        a += r / mc53[im * nq + iq];
+        const per = r / mc53[im * nq + iq];
+        a += per;
         b += r * mc53[im * nq + iq];
+        const base = (iz * nq + iq) * (nm + 1) + im;
+        perMc53ByQ[base + 1] = perMc53ByQ[base] + per;
       }
       perMc53[iz * nm + im] = a;
       timesMc53[iz * nm + im] = b;
     }
   }
-}
-
-/**
- * Per (z, q): running sums over the mass nodes of rate / M_c^(5/3). M_c rises with the mass index at
- * fixed q, so the nodes with residence time tau_F / M_c^(5/3) above the age are a prefix.
- */
-function runningSumsByQ(rate: Float64Array, mc53: Float64Array, nz: number, nm: number, nq: number): Float64Array {
-  const perMc53ByQ = new Float64Array(nz * nq * (nm + 1));
-  for (let iz = 0; iz < nz; iz++) {
-    for (let iq = 0; iq < nq; iq++) {
-      const base = (iz * nq + iq) * (nm + 1);
-      for (let im = 0; im < nm; im++) perMc53ByQ[base + im + 1] = perMc53ByQ[base + im] + rate[(iz * nm + im) * nq + iq] / mc53[im * nq + iq];
-    }
-  }
-  return perMc53ByQ;
 }
 
 /** Running sums over the mass nodes of each z of perMc53 and timesMc53: the totals below a z's ISCO cut in one lookup. */

@@ -50,6 +50,10 @@ export function nodeRates(pop: BinaryPopulation, cosmo: FlatLambdaCdm, zr: NodeG
   // density is zMass(z, M) * massRatio(q), so the products are the same numbers.
   const sep = pop.separable;
   const qFactor = Float64Array.from(qr.nodes, (q) => (sep ? sep.massRatio(q) : 0));
+  // A density that also factorises in z and M gives zMass = redshift(z) * exp(lnMass(log10M)): the mass
+  // factors once per mass node, not once per (z, M) node (the same numbers).
+  const lnMass = sep?.redshift ? sep.lnMass : undefined;
+  const massFactor = lnMass ? Float64Array.from(mr.nodes, (x) => Math.exp(lnMass(x))) : undefined;
   const dc = new Float64Array(nz);
   const age = new Float64Array(nz);
   for (let iz = 0; iz < nz; iz++) {
@@ -58,8 +62,9 @@ export function nodeRates(pop: BinaryPopulation, cosmo: FlatLambdaCdm, zr: NodeG
     dc[iz] = cosmo.comovingDistanceM(z);
     age[iz] = cosmo.ageS(z);
     const volumePerTime = (cosmo.comovingVolumeElementM3(z) / cosmo.dtdzS(z)) * PER_MPC3;
+    const zFactor = massFactor && sep?.redshift ? sep.redshift(z) : 0;
     for (let im = 0; im < nm; im++) {
-      const zMass = sep ? sep.zMass(z, mr.nodes[im]) : 0;
+      const zMass = massFactor ? zFactor * massFactor[im] : sep ? sep.zMass(z, mr.nodes[im]) : 0;
       for (let iq = 0; iq < nq; iq++) {
         const n = sep ? zMass * qFactor[iq] : pop.density(z, mr.nodes[im], qr.nodes[iq]);
         if (!(n >= 0) || n === Infinity) throw new RangeError(`population density is ${n} at z = ${z}, log10M = ${mr.nodes[im]}, q = ${qr.nodes[iq]}; it must be finite and >= 0`);

@@ -90,8 +90,7 @@ export function buildAmplitudeGammaRegion(posterior: AmplitudeGammaPosterior, ch
   const sampleDensity = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     if ((i & 1023) === 0) checkTime();
-    const [z1, z2] = whiten(t, posterior.log10A[i], posterior.gamma[i]);
-    sampleDensity[i] = densityAtZ(t, z1, z2);
+    sampleDensity[i] = densityAtZ(t, t.zs1[i], t.zs2[i]);
   }
   sampleDensity.sort();
   const density = (a: number, g: number) => {

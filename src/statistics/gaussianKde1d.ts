@@ -85,53 +85,83 @@ export interface KdeTableOptions {
  */
 export function tabulateKde(x: ArrayLike<number>, opts: KdeTableOptions = {}): KdeTable {
   const n = x.length;
-  const h = opts.h ?? kernelWidth(x, opts.rule ?? 'scott');
+  if (opts.h === undefined && n < 2) throw new RangeError(`a KDE needs at least 2 samples, got ${n}`);
+  // Each pass over the samples or the grid is a function of its own, compiled on its own while cold.
+  const { min, max, sum } = sampleRange(x);
+  const h = opts.h ?? widthFromSum(x, sum, opts.rule ?? 'scott');
   if (!(h > 0 && Number.isFinite(h))) throw new RangeError(`kernel width must be positive and finite, got ${h}`);
-  let min = Infinity;
-  let max = -Infinity;
-  for (let i = 0; i < n; i++) {
-    if (!Number.isFinite(x[i])) throw new RangeError(`sample ${i + 1} is not a finite number (${x[i]})`);
-    if (x[i] < min) min = x[i];
-    if (x[i] > max) max = x[i];
-  }
   const a = opts.lowerEdge ?? -Infinity;
   const b = opts.upperEdge ?? Infinity;
   if (min < a || max > b) throw new RangeError(`samples run from ${min} to ${max}, outside the edges ${a} to ${b}`);
   const reach = KERNEL_REACH_H * h;
   // The grid covers every sample within reach, and the mirror images of samples near an edge; the
-  // density outside the edges is set to zero afterwards.
+  // density outside the edges is zero.
   const lo = min < a + reach ? a - reach : min - reach;
   const hi = max > b - reach ? b + reach : max + reach;
   let size = Math.ceil(((hi - lo) / h) * TABLE_STEPS_PER_H) + 1;
   if (size > MAX_TABLE_POINTS) size = MAX_TABLE_POINTS; // very wide spread against h: coarser table
   size = Math.max(size, 3);
   const dx = (hi - lo) / (size - 1);
-  // Each pass over the samples or the grid is a function of its own, compiled on its own while cold.
   const counts = binSamples(x, lo, dx, size, a, b, reach);
   const m = Math.min(Math.ceil(reach / dx), size - 1);
-  const dens = convolve(counts, gaussianKernel(m, dx, h, 1 / (n * h * Math.sqrt(2 * Math.PI))), m);
-  return { x0: lo, dx, size, h, ...logAndCdf(dens, lo, dx, a, b) };
+  const dens = convolve(counts, gaussianKernel(m, dx, h, 1 / (n * h * Math.sqrt(2 * Math.PI))), inside(lo, dx, size, a, b));
+  return { x0: lo, dx, size, h, ...logAndCdf(dens, dx) };
 }
 
-/** Linear binning of the samples (and their mirror images within reach of an edge) onto the grid lo + i dx. */
-function binSamples(x: ArrayLike<number>, lo: number, dx: number, size: number, a: number, b: number, reach: number): Float64Array {
-  const counts = new Float64Array(size);
+/** Smallest and largest sample and their sum (in order); refuses a sample that is not a finite number. */
+function sampleRange(x: ArrayLike<number>): { min: number; max: number; sum: number } {
+  let min = Infinity;
+  let max = -Infinity;
+  let sum = 0;
   for (let i = 0; i < x.length; i++) {
     const v = x[i];
-    addAt(counts, v, lo, dx, size);
-    if (v - a < reach) addAt(counts, 2 * a - v, lo, dx, size); // mirrored images that fall on the table are kept
-    if (b - v < reach) addAt(counts, 2 * b - v, lo, dx, size);
+    if (!(v - v === 0)) throw new RangeError(`sample ${i + 1} is not a finite number (${v})`);
+    if (v < min) min = v;
+    if (v > max) max = v;
+    sum += v;
   }
-  return counts;
+  return { min, max, sum };
 }
 
-function addAt(counts: Float64Array, v: number, lo: number, dx: number, size: number): void {
-  const t = (v - lo) / dx;
-  if (t < 0 || t > size - 1) return;
-  const j = Math.min(Math.floor(t), size - 2);
-  const w = t - j;
-  counts[j] += 1 - w;
-  counts[j + 1] += w;
+/** kernelWidth(x, rule) given the sum of the finite samples x (the same arithmetic as sampleMeanSd). */
+function widthFromSum(x: ArrayLike<number>, sum: number, rule: BandwidthRule): number {
+  const n = x.length;
+  const m = sum / n;
+  let v = 0;
+  for (let i = 0; i < n; i++) v += (x[i] - m) * (x[i] - m);
+  const sd = Math.sqrt(v / (n - 1));
+  if (!(sd > 0)) throw new RangeError('all samples are equal: a KDE needs spread in the samples');
+  return sd * bandwidthFactor(n, rule);
+}
+
+/**
+ * Linear binning of the samples (and their mirror images within reach of an edge) onto the grid
+ * lo + i dx: each sample adds 1 - w and w to the points either side of it, then its images do.
+ */
+function binSamples(x: ArrayLike<number>, lo: number, dx: number, size: number, a: number, b: number, reach: number): Float64Array {
+  const counts = new Float64Array(size);
+  const last = size - 1;
+  for (let i = 0; i < x.length; i++) {
+    const v = x[i];
+    // the sample, then its image about a, then about b (images that fall on the table are kept)
+    for (let image = 0; image < 3; image++) {
+      let y = v;
+      if (image === 1) {
+        if (!(v - a < reach)) continue;
+        y = 2 * a - v;
+      } else if (image === 2) {
+        if (!(b - v < reach)) continue;
+        y = 2 * b - v;
+      }
+      const t = (y - lo) / dx;
+      if (t < 0 || t > last) continue;
+      const j = t < last - 1 ? Math.floor(t) : last - 1;
+      const w = t - j;
+      counts[j] += 1 - w;
+      counts[j + 1] += w;
+    }
+  }
+  return counts;
 }
 
 /** norm x exp(-(j dx / h)^2 / 2) for j = 0 .. m. */
@@ -141,29 +171,52 @@ function gaussianKernel(m: number, dx: number, h: number, norm: number): Float64
   return kernel;
 }
 
-/** Discrete convolution of the binned counts with the kernel cut at m points. */
-function convolve(counts: Float64Array, kernel: Float64Array, m: number): Float64Array {
+interface Span {
+  from: number;
+  to: number;
+}
+
+/** The grid points lo + i dx that lie within the edges [a, b] (to a part in 1e12 of dx). */
+function inside(lo: number, dx: number, size: number, a: number, b: number): Span {
+  let from = 0;
+  while (from < size && lo + from * dx < a - 1e-12 * dx) from++;
+  let to = size - 1;
+  while (to >= from && lo + to * dx > b + 1e-12 * dx) to--;
+  return { from, to };
+}
+
+/**
+ * Discrete convolution of the binned counts with the kernel cut at m = kernel.length - 1 points, at
+ * the grid points of `span` (zero elsewhere). Each point's terms are added in order of the count's
+ * index, over the counts that are not zero, as a pass adding each count to its 2m + 1 neighbours
+ * would add them.
+ */
+function convolve(counts: Float64Array, kernel: Float64Array, span: Span): Float64Array {
   const size = counts.length;
+  const m = kernel.length - 1;
+  let first = 0;
+  while (first < size && counts[first] === 0) first++;
+  let last = size - 1;
+  while (last > first && counts[last] === 0) last--;
   const dens = new Float64Array(size);
-  for (let i = 0; i < size; i++) {
-    const c = counts[i];
-    if (c === 0) continue;
-    const jlo = Math.max(0, i - m);
-    const jhi = Math.min(size - 1, i + m);
-    for (let j = jlo; j <= jhi; j++) dens[j] += c * kernel[Math.abs(j - i)];
+  for (let j = span.from; j <= span.to; j++) {
+    const iLo = j - m > first ? j - m : first;
+    const iHi = j + m < last ? j + m : last;
+    let s = 0;
+    for (let i = iLo; i < j && i <= iHi; i++) s += counts[i] * kernel[j - i];
+    for (let i = j > iLo ? j : iLo; i <= iHi; i++) s += counts[i] * kernel[i - j];
+    dens[j] = s;
   }
   return dens;
 }
 
-/** ln density, trapezoid cdf and peak of the convolved density (zero outside the edges [a, b]). */
-function logAndCdf(dens: Float64Array, lo: number, dx: number, a: number, b: number): { logDensity: Float64Array; cdf: Float64Array; logPeak: number } {
+/** ln density, trapezoid cdf and peak of the convolved density. */
+function logAndCdf(dens: Float64Array, dx: number): { logDensity: Float64Array; cdf: Float64Array; logPeak: number } {
   const size = dens.length;
   const logDensity = new Float64Array(size);
   const cdf = new Float64Array(size);
   let logPeak = -Infinity;
   for (let i = 0; i < size; i++) {
-    const xi = lo + i * dx;
-    if (xi < a - 1e-12 * dx || xi > b + 1e-12 * dx) dens[i] = 0; // outside the prior's support
     logDensity[i] = Math.log(dens[i]);
     if (logDensity[i] > logPeak) logPeak = logDensity[i];
     if (i > 0) cdf[i] = cdf[i - 1] + 0.5 * (dens[i] + dens[i - 1]) * dx;

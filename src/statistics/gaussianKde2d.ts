@@ -16,8 +16,14 @@ export interface Kde2dTable {
   z0: [number, number];
   dz: number;
   size: number;
-  /** Density in z at grid point (i, j), stored [j * size + i] (i along z1). */
-  density: Float64Array;
+  /** The samples in whitened coordinates (as whiten()). */
+  zs1: Float64Array;
+  zs2: Float64Array;
+  /**
+   * Density in z at grid point (i, j) (i along z1). Each point is smoothed on its first read and kept:
+   * a credible level reads only the points around the samples, not the whole grid.
+   */
+  densityAtNode(i: number, j: number): number;
 }
 
 export const KDE2D_GRID = 256;
@@ -61,7 +67,7 @@ export function whiten(t: Pick<Kde2dTable, 'mean' | 'chol'>, u: number, v: numbe
   return [z1, z2];
 }
 
-/** `checkTime` is called once per grid row of each smoothing pass (TimeCheck). */
+/** `checkTime` is called once per grid row of the row pass (TimeCheck). */
 export function tabulateKde2d(u: ArrayLike<number>, v: ArrayLike<number>, size = KDE2D_GRID, checkTime: TimeCheck = NO_TIME_CHECK): Kde2dTable {
   const n = u.length;
   if (n < 3 || v.length !== n) throw new RangeError(`a 2-D KDE needs at least 3 pairs of samples, got ${Math.min(n, v.length)}`);
@@ -69,36 +75,60 @@ export function tabulateKde2d(u: ArrayLike<number>, v: ArrayLike<number>, size =
   const factor = Math.pow(n, -1 / 6);
   // Each pass is a function of its own, compiled on its own while the cell runs cold.
   const w = whitenAll(u, v, mean, chol);
-  const lo = w.lo - REACH * factor;
-  const hi = w.hi + REACH * factor;
+  const lo = Math.min(w.lo1, w.lo2) - REACH * factor;
+  const hi = Math.max(w.hi1, w.hi2) + REACH * factor;
   const dz = (hi - lo) / (size - 1);
   const counts = binPairs(w.zs1, w.zs2, lo, dz, size);
   const m = Math.min(Math.ceil((REACH * factor) / dz), size - 1);
   const kern = new Float64Array(m + 1);
   for (let j = 0; j <= m; j++) kern[j] = Math.exp(-0.5 * ((j * dz) / factor) ** 2);
-  const tmp = smoothRows(counts, kern, size, checkTime);
-  const density = smoothColumns(tmp, kern, size, 1 / (n * 2 * Math.PI * factor * factor), checkTime);
-  return { mean, chol, factor, z0: [lo, lo], dz, size, density };
+  // Rows and columns of the grid that hold binned samples (bilinear binning fills index and index + 1).
+  const first = (z: number) => Math.min(Math.floor((z - lo) / dz), size - 2);
+  const rows = { from: first(w.lo2), to: first(w.hi2) + 1 };
+  const cols = { from: first(w.lo1), to: first(w.hi1) + 1 };
+  const smoothed = smoothRows(counts, kern, size, rows, cols, checkTime);
+  const nodes = new Float64Array(size * size).fill(NaN);
+  const norm = 1 / (n * 2 * Math.PI * factor * factor);
+  return {
+    mean,
+    chol,
+    factor,
+    z0: [lo, lo],
+    dz,
+    size,
+    zs1: w.zs1,
+    zs2: w.zs2,
+    densityAtNode(i, j) {
+      const at = j * size + i;
+      const d = nodes[at];
+      if (d === d) return d;
+      return (nodes[at] = smoothColumnAt(smoothed, kern, size, norm, i, j));
+    },
+  };
 }
 
-/** Whitened samples and the smallest and largest whitened coordinate. */
+/** Whitened samples and the smallest and largest whitened coordinate along each axis. */
 function whitenAll(u: ArrayLike<number>, v: ArrayLike<number>, mean: [number, number], chol: [number, number, number]) {
   const n = u.length;
   const [l11, l21, l22] = chol;
   const zs1 = new Float64Array(n);
   const zs2 = new Float64Array(n);
-  let lo = Infinity;
-  let hi = -Infinity;
+  let lo1 = Infinity;
+  let hi1 = -Infinity;
+  let lo2 = Infinity;
+  let hi2 = -Infinity;
   for (let i = 0; i < n; i++) {
     // as whiten()
     const a = (u[i] - mean[0]) / l11;
     const b = (v[i] - mean[1] - l21 * a) / l22;
     zs1[i] = a;
     zs2[i] = b;
-    lo = Math.min(lo, a, b);
-    hi = Math.max(hi, a, b);
+    if (a < lo1) lo1 = a;
+    if (a > hi1) hi1 = a;
+    if (b < lo2) lo2 = b;
+    if (b > hi2) hi2 = b;
   }
-  return { zs1, zs2, lo, hi };
+  return { zs1, zs2, lo1, hi1, lo2, hi2 };
 }
 
 /** Bilinear binning of the whitened samples onto the size x size grid from lo, spacing dz. */
@@ -119,48 +149,46 @@ function binPairs(zs1: Float64Array, zs2: Float64Array, lo: number, dz: number, 
   return counts;
 }
 
-/** Convolution of each grid row with the kernel (cut at m = kern.length - 1 points). */
-function smoothRows(counts: Float64Array, kern: Float64Array, size: number, checkTime: TimeCheck): Float64Array {
-  const m = kern.length - 1;
-  const tmp = new Float64Array(size * size);
-  for (let r = 0; r < size; r++) {
-    checkTime();
-    for (let i = 0; i < size; i++) {
-      const c = counts[r * size + i];
-      if (c === 0) continue;
-      for (let j = Math.max(0, i - m); j <= Math.min(size - 1, i + m); j++) tmp[r * size + j] += c * kern[Math.abs(j - i)];
-    }
-  }
-  return tmp;
+interface Span {
+  from: number;
+  to: number;
 }
 
 /**
- * Convolution of each grid column with the kernel, times norm. Row r of the input adds to rows
- * r - m .. r + m of the output, each a contiguous pass; every output point gets its terms in order of r.
+ * Convolution of each grid row with the kernel (cut at m = kern.length - 1 points), over the rows and
+ * columns that hold counts (all others are zero). Every output point gets its terms in order of i.
  */
-function smoothColumns(tmp: Float64Array, kern: Float64Array, size: number, norm: number, checkTime: TimeCheck): Float64Array {
+function smoothRows(counts: Float64Array, kern: Float64Array, size: number, rows: Span, cols: Span, checkTime: TimeCheck): Float64Array {
   const m = kern.length - 1;
-  const density = new Float64Array(size * size);
-  for (let r = 0; r < size; r++) {
+  const out = new Float64Array(size * size);
+  for (let r = rows.from; r <= rows.to; r++) {
     checkTime();
-    const from = r * size;
-    // the non-zero part of the row (a zero adds nothing)
-    let iLo = 0;
-    let iHi = size - 1;
-    while (iLo < size && tmp[from + iLo] === 0) iLo++;
-    while (iHi > iLo && tmp[from + iHi] === 0) iHi--;
-    if (iLo === size) continue;
-    for (let j = Math.max(0, r - m); j <= Math.min(size - 1, r + m); j++) {
-      const k = kern[Math.abs(j - r)];
-      const to = j * size;
-      for (let i = iLo; i <= iHi; i++) {
-        const c = tmp[from + i];
-        if (c === 0) continue;
-        density[to + i] += norm * c * k;
-      }
+    const row = r * size;
+    for (let i = cols.from; i <= cols.to; i++) {
+      const c = counts[row + i];
+      if (c === 0) continue;
+      const jLo = i > m ? i - m : 0;
+      const jHi = i + m < size ? i + m : size - 1;
+      for (let j = jLo; j < i; j++) out[row + j] += c * kern[i - j];
+      for (let j = i; j <= jHi; j++) out[row + j] += c * kern[j - i];
     }
   }
-  return density;
+  return out;
+}
+
+/**
+ * Convolution of grid column i with the kernel at row j, times norm: the terms in order of the row r,
+ * each norm * value * kernel (as a pass adding every row r to rows r - m .. r + m would give).
+ */
+function smoothColumnAt(smoothed: Float64Array, kern: Float64Array, size: number, norm: number, i: number, j: number): number {
+  const m = kern.length - 1;
+  const rLo = j > m ? j - m : 0;
+  const rHi = j + m < size ? j + m : size - 1;
+  let s = 0;
+  let at = rLo * size + i;
+  for (let r = rLo; r < j; r++, at += size) s += norm * smoothed[at] * kern[j - r];
+  for (let r = j; r <= rHi; r++, at += size) s += norm * smoothed[at] * kern[r - j];
+  return s;
 }
 
 /** Density in z at whitened point (z1, z2) by bilinear interpolation; 0 off the grid. */
@@ -173,10 +201,9 @@ export function densityAtZ(t: Kde2dTable, z1: number, z2: number): number {
   const ib = Math.min(b | 0, last - 1);
   const wa = a - ia;
   const wb = b - ib;
-  const d = t.density;
-  const s = t.size;
   return (
-    (1 - wb) * ((1 - wa) * d[ib * s + ia] + wa * d[ib * s + ia + 1]) + wb * ((1 - wa) * d[(ib + 1) * s + ia] + wa * d[(ib + 1) * s + ia + 1])
+    (1 - wb) * ((1 - wa) * t.densityAtNode(ia, ib) + wa * t.densityAtNode(ia + 1, ib)) +
+    wb * ((1 - wa) * t.densityAtNode(ia, ib + 1) + wa * t.densityAtNode(ia + 1, ib + 1))
   );
 }
 

@@ -94,15 +94,19 @@ describe('runChunks: the same result whatever order and place the chunks run in'
       const one = await monteCarlo(sheet, opts);
       const givenShort: number[] = [];
       const madeShort: number[] = [];
-      const short = await monteCarlo(sheet, opts, undefined, { workers: 3, pool: recordingPool(givenShort, madeShort), startAfterMs: Infinity });
+      const heardShort: number[] = [];
+      const short = await monteCarlo(sheet, opts, undefined, { workers: 3, pool: recordingPool(givenShort, madeShort), startAfterMs: Infinity, onPoolStart: (n) => heardShort.push(n) });
       expect(madeShort).toEqual([]);
+      expect(heardShort).toEqual([]);
       expect(short.outputs.A_yr).toEqual(one.outputs.A_yr);
       const given: number[] = [];
       const made: number[] = [];
       const progress: number[] = [];
-      const long = await monteCarlo(sheet, opts, { onProgress: (d) => progress.push(d) }, { workers: 3, pool: recordingPool(given, made), startAfterMs: 0 });
+      const heard: number[] = [];
+      const long = await monteCarlo(sheet, opts, { onProgress: (d) => progress.push(d) }, { workers: 3, pool: recordingPool(given, made), startAfterMs: 0, onPoolStart: (n) => heard.push(n) });
       // chunks run here until the pace is known (at least the first), then every chunk not started goes to one pool of 3 workers
       expect(made).toEqual([3]);
+      expect(heard).toEqual([3]);
       const first = Math.min(...given);
       expect(first).toBeGreaterThanOrEqual(1);
       expect(given.sort((a, b) => a - b)).toEqual(Array.from({ length: 5 - first }, (_, k) => first + k));

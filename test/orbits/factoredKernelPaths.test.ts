@@ -142,34 +142,44 @@ describe('loudest binary of the finite-number bins', () => {
     const { iscoGwFrequencyHz } = await import('../../src/physics/circularKernel');
     const { circularResidenceTime, singleBinaryStrain, FINITE_DEFAULT_RESOLUTION: R } = await import('../../src/physics/finiteBinaries');
     const { MPC_M } = await import('../../src/physics/constants');
-    const pop = smoothPopulation();
+    const { phenomenologicalPopulation } = await import('../../src/physics/phenomenologicalPopulation');
+    const { powerLawMassRatio } = await import('../../src/physics/populationShapes');
+    // Invented: no mass cutoff up to 1e11 Msun, so binaries past their ISCO weigh in the counts from the top.
+    const heavy = phenomenologicalPopulation({ rateNorm: 2e-3, alpha: 0, cutoffMass: 1e14, beta: 1.5, z0: 1.2, zMax: 4, log10MMin: 6, log10MMax: 11, massRatio: powerLawMassRatio(-0.3, 0.1), cosmology: testCosmology });
     const T = 12 * 365.25 * 86400;
-    const f = Float64Array.from([1 / T, 4 / T, 15 / T, 40 / T]);
-    const zr = compositeNodes(pop.zMin, pop.zMax, R.zPanels, R.order);
-    const mr = compositeNodes(pop.log10MMin, pop.log10MMax, R.log10MPanels, R.order);
-    const qr = compositeNodes(pop.qMin, pop.qMax, R.qPanels, R.order);
-    const got = finiteBinaryBins(pop, testCosmology, f, T).loudestStrain;
-    for (let k = 0; k < f.length; k++) {
-      const perLnF: number[] = [];
-      const strain: number[] = [];
-      for (let iz = 0; iz < zr.nodes.length; iz++) {
-        const z = zr.nodes[iz];
-        const fr = (1 + z) * f[k];
-        const perTime = testCosmology.comovingVolumeElementM3(z) / testCosmology.dtdzS(z) / MPC_M ** 3;
-        for (let im = 0; im < mr.nodes.length; im++) {
-          const mKg = M_SUN_KG * 10 ** mr.nodes[im];
-          for (let iq = 0; iq < qr.nodes.length; iq++) {
-            const mcKg = chirpMassFromTotal(mKg, qr.nodes[iq]);
-            const emits = fr <= iscoGwFrequencyHz(mKg);
-            const n = zr.weights[iz] * mr.weights[im] * qr.weights[iq] * pop.density(z, mr.nodes[im], qr.nodes[iq]) * perTime;
-            perLnF.push(emits ? n * circularResidenceTime(fr, mcKg) : 0);
-            strain.push(emits ? singleBinaryStrain(fr, mcKg, testCosmology.comovingDistanceM(z)) : 0);
+    // Bins in any order (the bins are walked by increasing f), one twice, and bins where the heaviest have merged (ISCO).
+    const cases: [BinaryPopulation, Float64Array][] = [
+      [smoothPopulation(), Float64Array.from([1 / T, 4 / T, 15 / T, 40 / T])],
+      [smoothPopulation(), Float64Array.from([120 / T, 2 / T, 40 / T, 40 / T, 7 / T, 70 / T])],
+      [heavy, Float64Array.from([30 / T, 1 / T, 12 / T, 12 / T, 3 / T, 20 / T])],
+    ];
+    for (const [pop, f] of cases) {
+      const zr = compositeNodes(pop.zMin, pop.zMax, R.zPanels, R.order);
+      const mr = compositeNodes(pop.log10MMin, pop.log10MMax, R.log10MPanels, R.order);
+      const qr = compositeNodes(pop.qMin, pop.qMax, R.qPanels, R.order);
+      const got = finiteBinaryBins(pop, testCosmology, f, T).loudestStrain;
+      for (let k = 0; k < f.length; k++) {
+        const perLnF: number[] = [];
+        const strain: number[] = [];
+        for (let iz = 0; iz < zr.nodes.length; iz++) {
+          const z = zr.nodes[iz];
+          const fr = (1 + z) * f[k];
+          const perTime = testCosmology.comovingVolumeElementM3(z) / testCosmology.dtdzS(z) / MPC_M ** 3;
+          for (let im = 0; im < mr.nodes.length; im++) {
+            const mKg = M_SUN_KG * 10 ** mr.nodes[im];
+            for (let iq = 0; iq < qr.nodes.length; iq++) {
+              const mcKg = chirpMassFromTotal(mKg, qr.nodes[iq]);
+              const emits = fr <= iscoGwFrequencyHz(mKg);
+              const n = zr.weights[iz] * mr.weights[im] * qr.weights[iq] * pop.density(z, mr.nodes[im], qr.nodes[iq]) * perTime;
+              perLnF.push(emits ? n * circularResidenceTime(fr, mcKg) : 0);
+              strain.push(emits ? singleBinaryStrain(fr, mcKg, testCosmology.comovingDistanceM(z)) : 0);
+            }
           }
         }
+        const expected = loudestExpected(Float64Array.from(perLnF), Float64Array.from(strain), 1 / (f[k] * T), new Float64Array(4096));
+        expect(expected).toBeGreaterThan(0);
+        if (!(Math.abs(got[k] / expected - 1) < 1e-12)) throw new Error(`f = ${f[k]} Hz: loudest strain ${got[k]}, per-node search ${expected}, threshold 1e-12 relative`);
       }
-      const expected = loudestExpected(Float64Array.from(perLnF), Float64Array.from(strain), 1 / (f[k] * T), new Float64Array(4096));
-      expect(expected).toBeGreaterThan(0);
-      if (!(Math.abs(got[k] / expected - 1) < 1e-12)) throw new Error(`f = ${f[k]} Hz: loudest strain ${got[k]}, per-node search ${expected}, threshold 1e-12 relative`);
     }
   });
 });

@@ -47,6 +47,9 @@ export function JobStatusView(props: { status: JobStatus; unit: string; detail?:
  */
 export const WORKERS_HINT = '1 runs in the job worker itself; each further worker first rebuilds the sheet (seconds), so more pay off only for long runs. The numbers do not depend on it.';
 
+/** The scan panel's workers field, empty by default (the job worker's startAfterMs, jobWorker.ts). */
+export const AUTO_WORKERS_HINT = 'Empty: the job runs in the job worker and hands its chunks to one worker per core once it would take over a second there. A number: that many workers from the start. The numbers do not depend on it.';
+
 /** A whole number from a form field, or null when the text is not one within [min, max]. */
 export function wholeIn(text: string, min: number, max: number): number | null {
   if (!/^\s*\d+\s*$/.test(text)) return null;

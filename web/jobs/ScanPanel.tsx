@@ -9,6 +9,7 @@ import type { GoalSeekJobResult, JobSpec, SampleResult, ScanAxisSpec } from './j
 import { formatNumber } from '../../src/sheet/formatValue';
 import { PlotView } from '../plots/PlotView';
 import { CellSelect } from './CellSelect';
+import { AUTO_WORKERS_HINT, wholeIn } from './JobStatusView';
 import { scan1Model, scan2Model, sampleModel } from './scanPlotModels';
 
 type Mode = 'scan1' | 'scan2' | 'sample' | 'goalSeek';
@@ -121,6 +122,8 @@ export function ScanPanel() {
   const [samples, setSamples] = createSignal(1000);
   const [seed, setSeed] = createSignal(1);
   const [target, setTarget] = createSignal('');
+  /** Web Workers for the chunks: empty is automatic (one per core, started once the job proves long). */
+  const [workers, setWorkers] = createSignal('');
 
   const run = () => {
     setFormError(null);
@@ -158,7 +161,13 @@ export function ScanPanel() {
       if (!(Number.isInteger(samples()) && samples() >= 10 && samples() <= 200_000)) return setFormError('Samples must be a whole number from 10 to 200000.');
       job = { kind: 'sample', samples: samples(), seed: seed(), output: output(), measurement: measurement() || null };
     }
-    client.start(session.toFileText(), job);
+    let w: number | undefined;
+    if (m !== 'goalSeek' && workers().trim() !== '') {
+      const k = wholeIn(workers(), 1, 16);
+      if (k === null) return setFormError(`Workers must be a whole number from 1 to 16, or empty for automatic, got "${workers()}".`);
+      w = k;
+    }
+    client.start(session.toFileText(), job, w);
   };
 
   const status = client.status;
@@ -246,6 +255,9 @@ export function ScanPanel() {
             <CellSelect value={output()} choices={scalarCells()} label="Output cell" onChange={setOutput} />
           </label>
           <Show when={mode() !== 'goalSeek'}>
+            <label>
+              workers <input type="number" min="1" max="16" step="1" placeholder="auto" data-field="workers" title={AUTO_WORKERS_HINT} value={workers()} onInput={(e) => setWorkers(e.currentTarget.value)} />
+            </label>
             <label>
               measurement
               <CellSelect value={measurement()} choices={measurementCells()} label="Measurement cell" emptyLabel="none" onChange={setMeasurement} />

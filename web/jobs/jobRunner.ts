@@ -72,7 +72,7 @@ function toSample(job: Extract<JobSpec, { kind: 'sample' }>, r: Extract<Statisti
   const summary: { label: string; value: string }[] = [
     { label: 'inputs drawn', value: r.inputs.map((i) => `${i.cell}: ${i.distribution}`).join('; ') || 'none (no cell has an uncertainty)' },
     { label: 'samples', value: `${r.samples} (seed ${r.seed}), ${r.evaluations} evaluations${r.failures ? `, ${r.failures} failed` : ''}` },
-    { label: 'workers', value: `${Math.min(workers, Math.max(1, Math.ceil(r.samples / SAMPLE_CHUNK)))} (chunks of ${SAMPLE_CHUNK} samples; the samples do not depend on the number of workers)` },
+    { label: 'workers', value: `${workers} (chunks of ${SAMPLE_CHUNK} samples; the samples do not depend on the number of workers)` },
   ];
   if (s) {
     summary.push({ label: 'median', value: `${formatNumber(s.median)}${u} ± ${formatNumber(s.medianError)} (Monte Carlo error)` });
@@ -97,7 +97,18 @@ function toSample(job: Extract<JobSpec, { kind: 'sample' }>, r: Extract<Statisti
 export async function runJob(sheetText: string, job: JobSpec, ctl: JobControl, parallel?: ParallelOptions): Promise<JobResult> {
   await loadBuiltinsNamedIn(sheetText); // the groups of built-ins its formulas name (lazyBuiltins.ts)
   const sheet = Sheet.fromFile(sheetText, { evaluateOnRead: true });
-  const par = parallel ? { ...parallel, sheetText } : undefined;
+  // workers the job's chunks ran on: 1 (this worker) unless it started a pool
+  let poolWorkers = 1;
+  const par = parallel
+    ? {
+        ...parallel,
+        sheetText,
+        onPoolStart: (n: number) => {
+          poolWorkers = n;
+          parallel.onPoolStart?.(n);
+        },
+      }
+    : undefined;
   const control = { signal: ctl.signal, onProgress: ctl.progress };
   try {
     if (job.kind === 'scan1') {
@@ -121,7 +132,7 @@ export async function runJob(sheetText: string, job: JobSpec, ctl: JobControl, p
     }
     const r = await runStatisticsJob(sheet, { kind: 'sample', samples: job.samples, seed: job.seed, outputs: [job.output], measurementCell: job.measurement ?? undefined }, control, par);
     if (r.kind !== 'sample') throw new Error(`unexpected result ${r.kind}`);
-    return toSample(job, r.result, parallel?.workers ?? 1);
+    return toSample(job, r.result, poolWorkers);
   } catch (err) {
     if (err instanceof JobCancelledError) throw new JobCancelled();
     throw err;
