@@ -434,7 +434,7 @@ const detectionSpanBuiltin: Builtin = {
     { name: 'longestSpan', unit: 'time (yr)', description: 'longest span searched (default 100 yr; for a spectrum without its population, never beyond 1/(its lowest frequency))', optional: true },
   ],
   returns: { unit: 'time (yr)', description: 'the span; an error says so when the threshold is not reached within the search' },
-  source: 'S/N of Siemens, Ellis, Jenet & Romano 2013, CQG 30, 224015; log-spaced scan then bisection (common practice, no source)',
+  source: 'S/N of Siemens, Ellis, Jenet & Romano 2013, CQG 30, 224015; log-spaced scan (common practice, no source) then the root finder of Brent in log T (Brent 1973, Algorithms for Minimization without Derivatives, Prentice-Hall)',
   example: 'detectionSpan(2e-15, pulsarArray(30, 200 ns, 14 day, 12 yr), 3)',
   fn: (signal: unknown, array: unknown, threshold: unknown, longestSpan?: unknown) => {
     const fn = 'detectionSpan';

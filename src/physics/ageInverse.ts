@@ -11,6 +11,8 @@ interface AgeTable {
   lnAge: Float64Array; // decreasing in u
   slope: Float64Array; // du / d ln t at each point
   step: number;
+  filled: number; // points 0 .. filled - 1 are computed (from z = 0 up, as far as look-ups reach)
+  cosmo: FlatLambdaCdm;
 }
 
 const tables = new WeakMap<FlatLambdaCdm, AgeTable>();
@@ -19,19 +21,24 @@ function tableOf(cosmo: FlatLambdaCdm): AgeTable {
   let t = tables.get(cosmo);
   if (t) return t;
   const uMax = Math.log1p(COSMOLOGY_Z_LIMIT);
-  const step = uMax / (POINTS - 1);
-  const lnAge = new Float64Array(POINTS);
-  const slope = new Float64Array(POINTS);
-  for (let i = 0; i < POINTS; i++) {
+  t = { lnAge: new Float64Array(POINTS), slope: new Float64Array(POINTS), step: uMax / (POINTS - 1), filled: 0, cosmo };
+  tables.set(cosmo, t);
+  return t;
+}
+
+/** Computes the table up to at least point n - 1 (at least doubling what is there, in one loop). */
+function fillTo(t: AgeTable, n: number): void {
+  if (t.filled >= n) return;
+  const end = Math.min(POINTS, Math.max(n, 2 * t.filled, 512));
+  const { lnAge, slope, step, cosmo } = t;
+  for (let i = t.filled; i < end; i++) {
     const z = Math.min(COSMOLOGY_Z_LIMIT, Math.expm1(i * step));
     const age = cosmo.ageS(z);
     lnAge[i] = Math.log(age);
     // d ln t / du = -(1+z) |dt/dz| / t
     slope[i] = -age / ((1 + z) * cosmo.dtdzS(z));
   }
-  t = { lnAge, slope, step };
-  tables.set(cosmo, t);
-  return t;
+  t.filled = end;
 }
 
 /**
@@ -39,14 +46,18 @@ function tableOf(cosmo: FlatLambdaCdm): AgeTable {
  * that age lies beyond z = 1e4 (where the cosmology's tables stop), 0 at today's age.
  */
 export function redshiftAtAge(cosmo: FlatLambdaCdm, ageS: number): number {
-  const { lnAge, slope, step } = tableOf(cosmo);
+  const t = tableOf(cosmo);
+  const { lnAge, slope, step } = t;
   if (!(ageS > 0)) return NaN;
   const L = Math.log(ageS);
+  fillTo(t, 1);
   if (L > lnAge[0]) return ageS <= cosmo.ageS(0) ? 0 : NaN;
-  if (L < lnAge[POINTS - 1]) return Infinity;
+  // computed until a point below L (ln t decreases) or the end
+  while (t.filled < POINTS && lnAge[t.filled - 1] >= L) fillTo(t, t.filled + 1);
+  if (t.filled === POINTS && L < lnAge[POINTS - 1]) return Infinity;
   // lnAge decreases: find i with lnAge[i] >= L >= lnAge[i+1].
   let lo = 0;
-  let hi = POINTS - 1;
+  let hi = t.filled - 1;
   while (hi - lo > 1) {
     const mid = (lo + hi) >> 1;
     if (lnAge[mid] >= L) lo = mid;
@@ -70,10 +81,12 @@ export function redshiftAtAge(cosmo: FlatLambdaCdm, ageS: number): number {
  * the exact slopes (Hogg 1999, eq. 30; relative error below 1e-12, tested against FlatLambdaCdm.ageS).
  */
 export function ageAtRedshift(cosmo: FlatLambdaCdm, z: number): number {
-  const { lnAge, slope, step } = tableOf(cosmo);
+  const t = tableOf(cosmo);
+  const { lnAge, slope, step } = t;
   if (!(z >= 0 && z <= COSMOLOGY_Z_LIMIT)) throw new RangeError(`redshift must lie in [0, ${COSMOLOGY_Z_LIMIT}], got ${z}`);
   const x = Math.log1p(z) / step;
   const i = Math.min(POINTS - 2, Math.floor(x));
+  fillTo(t, i + 2);
   const s = x - i;
   const h00 = (1 + 2 * s) * (1 - s) * (1 - s);
   const h10 = s * (1 - s) * (1 - s);

@@ -23,6 +23,7 @@ import { skyAverageRule } from './hellingsDowns';
 import { memberNoise, pairLayout, type PairLayout } from './pulsarPairs';
 import type { StrainModel } from './strainOnBins';
 import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
+import { brentRoot } from '../statistics/rootFinding';
 
 export interface SnrResult {
   /** Expected S/N of the cross-correlation statistic. */
@@ -118,10 +119,10 @@ export interface SpanResult {
 
 /**
  * Shortest observing span at which the expected S/N reaches `threshold`: a scan over 48 spans spaced
- * evenly in log T from one bin (2 dt) to `maxSpanS`, then bisection in log T on the first bracket to
- * a relative width of 1e-10. S/N(T) jumps up where a new bin k/T enters, so the answer may sit on
- * such a jump; with strong red pulsar noise S/N(T) need not be monotonic, and the first crossing
- * found on the scan is returned.
+ * evenly in log T from one bin (2 dt) to `maxSpanS`, then the first bracket is narrowed in log T to a
+ * relative width of 1e-10 (spanCrossing). S/N(T) jumps up where a new bin k/T enters, so the answer
+ * may sit on such a jump; with strong red pulsar noise S/N(T) need not be monotonic, and the first
+ * crossing found on the scan is returned.
  */
 export function detectionSpan(
   array: PulsarArray,
@@ -136,27 +137,47 @@ export function detectionSpan(
   const steps = 48;
   const ratio = Math.pow(maxSpanS / minSpanS, 1 / (steps - 1));
   let previous = minSpanS;
+  let sPrevious = 0;
   for (let i = 0; i < steps; i++) {
     const t = i === steps - 1 ? maxSpanS : minSpanS * Math.pow(ratio, i);
     const s = snrAt(t);
     if (s >= threshold) {
       if (i === 0) return { spanS: t, reached: true, snr: s, searchedFromS: minSpanS, searchedToS: maxSpanS };
-      let lo = previous;
-      let hi = t;
-      let sHi = s;
-      while (hi / lo - 1 > 1e-10) {
-        const mid = Math.sqrt(lo * hi);
-        const sMid = snrAt(mid);
-        if (sMid >= threshold) {
-          hi = mid;
-          sHi = sMid;
-        } else lo = mid;
-      }
-      return { spanS: hi, reached: true, snr: sHi, searchedFromS: minSpanS, searchedToS: maxSpanS };
+      const c = spanCrossing(snrAt, threshold, previous, sPrevious, t, s);
+      return { spanS: c.spanS, reached: true, snr: c.snr, searchedFromS: minSpanS, searchedToS: maxSpanS };
     }
     previous = t;
+    sPrevious = s;
     if (i === steps - 1) return { spanS: NaN, reached: false, snr: s, searchedFromS: minSpanS, searchedToS: maxSpanS };
   }
   /* c8 ignore next */
   throw new Error('unreachable');
+}
+
+/**
+ * Narrows a bracket [lo, hi] of spans with S/N(lo) < threshold <= S/N(hi) to a relative width below
+ * 1e-10 and returns its upper end: Brent's method in log T (Brent 1973, Algorithms for Minimization
+ * without Derivatives, Prentice-Hall; src/statistics/rootFinding.ts), superlinear where S/N(T) is
+ * smooth, bisection steps at a jump (where a bin enters). Brent ends on an evaluated span and the
+ * nearest evaluated span on the other side of the threshold, within 0.9e-10 + 4 eps |ln T| in ln T.
+ */
+function spanCrossing(snrAt: (t: number) => number, threshold: number, lo: number, sLo: number, hi: number, sHi: number): { spanS: number; snr: number } {
+  const points = [
+    { x: Math.log(lo), t: lo, s: sLo },
+    { x: Math.log(hi), t: hi, s: sHi },
+  ];
+  const g = (x: number) => {
+    const t = Math.exp(x);
+    const s = snrAt(t);
+    points.push({ x, t, s });
+    return s - threshold;
+  };
+  const r = brentRoot(g, points[0].x, points[1].x, { fa: sLo - threshold, fb: sHi - threshold, xTol: 0.9e-10, relTol: Number.EPSILON });
+  const best = points.find((p) => p.x === r.x) as { x: number; t: number; s: number };
+  if (best.s >= threshold && r.fx === 0) return { spanS: best.t, snr: best.s };
+  // the other end of Brent's last bracket: the nearest evaluated span on the other side
+  let other = best;
+  for (const p of points) if (p.s >= threshold !== best.s >= threshold && (other === best || Math.abs(p.x - r.x) < Math.abs(other.x - r.x))) other = p;
+  const upper = best.s >= threshold ? best : other;
+  return { spanS: upper.t, snr: upper.s };
 }

@@ -4,12 +4,9 @@
 // (f_r / n >= f0 for binaries that start at orbital frequency f0 with eccentricity e0) contribute.
 // Under GW-only decay e depends on f_orb/f0 and e0 alone (Peters 1964, Phys. Rev. 136, B1224), so
 // Phi is a universal function of x = f_r / f0 for each e0; HarmonicSumTable tabulates it once.
-import { eccentricityEnhancement, harmonicCut, harmonicPower, harmonicPowerBound, harmonicPowerBoundPart } from './petersMathews';
-import { eccentricityFromShape, petersShapeLog } from './petersEvolution';
+import { harmonicCut } from './petersMathews';
+import { HarmonicSeries, harmonicSeriesFor } from './harmonicSeries';
 import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
-
-/** A harmonic whose Kapteyn-bounded weight is below this is skipped (it cannot change a double sum of size >= 1e-2). */
-const SKIP_WEIGHT = 1e-19;
 
 /**
  * Phi(x; e0) by direct summation over harmonics n = 1 .. min(floor(x), nMax), x = f_r / f0.
@@ -17,46 +14,15 @@ const SKIP_WEIGHT = 1e-19;
  */
 export function harmonicSumDirect(x: number, e0: number, nMax: number, nTop?: number): number {
   if (!(x >= 1)) return 0;
-  const below = Math.floor(x);
-  return sumHarmonics(x, e0, Math.min(nTop ?? below, nMax), 0);
-}
-
-/** The sum after harmonic `partialAt` in the last sumHarmonics call. */
-let partialSum = 0;
-
-/** Phi(x; e0) summed over harmonics 1 .. top (x >= 1); the sum after harmonic partialAt is kept in partialSum. */
-function sumHarmonics(x: number, e0: number, top: number, partialAt: number): number {
-  if (top >= 1 && !(e0 >= 0 && e0 < 1)) throw new RangeError(`eccentricity e0 must lie in [0, 1), got ${e0}`);
-  const shape0 = e0 === 0 ? 0 : petersShapeLog(e0);
-  const twoOverN23 = harmonicWeights(top);
-  let sum = 0;
-  let en = e0;
-  for (let n = 1; n <= top; n++) {
-    // e grows with n (lower orbital frequency): the previous harmonic's e is a close first guess.
-    en = e0 === 0 ? 0 : eccentricityFromShape(e0, shape0, x / n, n === 1 ? undefined : en);
-    const weight = twoOverN23[n] / eccentricityEnhancement(en);
-    // Skipped when the bound is below SKIP_WEIGHT; its cheap part decides first where it is above.
-    if (n <= 2 || weight * harmonicPowerBoundPart(n, en) >= SKIP_WEIGHT || weight * harmonicPowerBound(n, en) >= SKIP_WEIGHT) sum += weight * harmonicPower(n, en);
-    if (n === partialAt) partialSum = sum;
-  }
-  return sum;
-}
-
-/** (2/n)^(2/3) at index n, for n up to at least `top` (kept between calls, grown on demand). */
-let harmonicWeightTable = new Float64Array(0);
-function harmonicWeights(top: number): Float64Array {
-  if (harmonicWeightTable.length <= top) {
-    const t = new Float64Array(Math.max(top + 1, 2 * harmonicWeightTable.length, 64));
-    for (let n = 1; n < t.length; n++) t[n] = Math.pow(2 / n, 2 / 3);
-    harmonicWeightTable = t;
-  }
-  return harmonicWeightTable;
+  const top = Math.min(nTop ?? Math.floor(x), nMax);
+  if (!(top >= 1)) return 0;
+  return harmonicSeriesFor(e0).sum(x, top, 0);
 }
 
 export interface HarmonicSumTableOptions {
   /**
-   * Not part of the table (nor of its cache key): called once per integer interval while it is built
-   * and once per point the log grid grows by later (TimeCheck; a stop leaves the grid as it was).
+   * Not part of the table (nor of its cache key): called once per integer interval when it is built
+   * (on the first query inside it) and once per log-grid point (TimeCheck; a stop leaves the table as it was).
    */
   checkTime?: TimeCheck;
   /**
@@ -78,13 +44,15 @@ export interface HarmonicSumTableOptions {
 /**
  * Phi(x) tabulated for one e0 (or a weighted mixture of e0 values on the same grid).
  * Layout: x < 1 gives 0 (no orbit exists yet); on [1, X1) each unit interval [k, k+1) holds its own
- * uniformly spaced values (max(4, ceil(16/k)) steps), from the right limit at k to the left limit at k+1 (Phi jumps at every
- * integer, where harmonic k+1 switches on); on [X1, X2] a logarithmic grid, computed as far as queries
- * reach (the jumps there are below
- * the stated tolerance, checked in test/orbits); beyond X2, where |Phi - 1| < 1e-9, the small-e law
+ * uniformly spaced values (max(4, ceil(16/k)) steps), from the right limit at k to the left limit at k+1
+ * (Phi jumps at every integer, where harmonic k+1 switches on), built on the first query inside it,
+ * up to S = max(nMax, 16): from the last kept harmonic nMax on no harmonic switches on and Phi is smooth,
+ * so [S, X1] holds one value per integer (relative step at most 1/16, as the intervals below); on
+ * [X1, X2] a logarithmic grid, computed as far as queries reach (the jumps there are below the stated
+ * tolerance, checked in test/orbits); beyond X2, where |Phi - 1| < 1e-9, the small-e law
  * Phi - 1 proportional to e^2 proportional to x^(-19/9) (Peters 1964: e proportional to f^(-19/18)).
  * Interpolation is four-point Lagrange (cubic) in x (integer region) and in ln x (log region), never
- * across an integer below X1.
+ * across an integer below S. Every value is the same whatever order the queries come in.
  */
 export class HarmonicSumTable {
   readonly e0Values: Float64Array;
@@ -95,8 +63,18 @@ export class HarmonicSumTable {
   readonly omittedFraction: number;
   private readonly unitSteps: Int32Array; // sub-intervals of [k, k+1), index k - 1
   private readonly unitOffsets: Int32Array; // start of interval k's values in unitValues
+  private readonly unitBuilt: Uint8Array; // index k - 1: interval k's values are in place
+  private unitCount = 0; // values of the intervals built
   private readonly x1: number;
   private readonly unitValues: Float64Array; // per interval [k, k+1): unitSteps + 1 values
+  private readonly smoothFrom: number; // S: from here to X1 one value per integer
+  private readonly smoothValues: Float64Array; // at x = S + j, j = 0 .. X1 - S
+  private readonly smoothDone: Uint8Array;
+  // At integer x = j the left limit (harmonics up to j - 1) and the value (up to j) share their first
+  // j - 1 terms, so one pass gives both: the last value of interval j - 1 and the first of interval j.
+  private readonly jumpLeft: Float64Array; // index j
+  private readonly jumpRight: Float64Array;
+  private readonly jumpDone: Uint8Array;
   private readonly logStart: number;
   private readonly logStep: number;
   // The log grid grows on demand, in order, so only the x range actually asked for is computed; the
@@ -107,7 +85,7 @@ export class HarmonicSumTable {
   private logDone = false;
   private x2 = Infinity;
   private tailAtX2 = 0;
-  private readonly mix: (x: number, nTop?: number) => number;
+  private readonly series: HarmonicSeries[]; // per e0 value
   private readonly checkTime: TimeCheck;
 
   /** A table for one e0, or for a mixture sum_k w_k Phi(x; e0_k) (weights summing to 1). */
@@ -125,15 +103,16 @@ export class HarmonicSumTable {
     const cuts = values.map((e) => harmonicCut(e, tol));
     this.harmonicsKept = Int32Array.from(cuts.map((c) => c.nMax));
     this.omittedFraction = Math.max(...cuts.map((c) => c.omittedFraction));
-
-    const mix = (x: number, nTop?: number): number => {
-      let s = 0;
-      for (let k = 0; k < values.length; k++) if (weights[k] !== 0) s += weights[k] * harmonicSumDirect(x, values[k], this.harmonicsKept[k], nTop);
-      return s;
-    };
+    this.series = values.map((e) => new HarmonicSeries(e));
+    // where the last harmonic has switched on (and at least four integers before X1, for the cubic)
+    const smoothFrom = Math.max(...this.harmonicsKept, perUnit);
+    this.smoothFrom = smoothFrom <= this.x1 - 3 ? smoothFrom : this.x1;
+    this.smoothValues = new Float64Array(this.x1 - this.smoothFrom + 1);
+    this.smoothDone = new Uint8Array(this.x1 - this.smoothFrom + 1);
 
     this.unitSteps = new Int32Array(this.x1 - 1);
     this.unitOffsets = new Int32Array(this.x1 - 1);
+    this.unitBuilt = new Uint8Array(this.x1 - 1);
     let total = 0;
     for (let k = 1; k < this.x1; k++) {
       this.unitSteps[k - 1] = Math.max(4, Math.ceil(perUnit / k));
@@ -141,34 +120,78 @@ export class HarmonicSumTable {
       total += this.unitSteps[k - 1] + 1;
     }
     this.unitValues = new Float64Array(total);
-    const checkTime = (this.checkTime = opts.checkTime ?? NO_TIME_CHECK);
-    // At x = k + 1 the left limit (harmonics up to k) and the value (up to k + 1) share their first k
-    // terms: one pass gives both (rightAt, the value, starts interval k + 1).
-    const rightAt = { value: 0 };
-    const leftAndRight = (x: number, k: number): number => {
-      let left = 0;
-      let right = 0;
-      for (let c = 0; c < values.length; c++) {
-        if (weights[c] === 0) continue;
-        const nMax = this.harmonicsKept[c];
-        const full = sumHarmonics(x, values[c], Math.min(k + 1, nMax), Math.min(k, nMax));
-        left += weights[c] * partialSum;
-        right += weights[c] * full;
-      }
-      rightAt.value = right;
-      return left;
-    };
-    for (let k = 1; k < this.x1; k++) {
-      checkTime();
-      const m = this.unitSteps[k - 1];
-      const o = this.unitOffsets[k - 1];
-      for (let i = 0; i < m; i++) this.unitValues[o + i] = i === 0 && k > 1 ? rightAt.value : mix(k + i / m, k);
-      this.unitValues[o + m] = leftAndRight(k + m / m, k);
-    }
+    this.jumpLeft = new Float64Array(this.x1 + 1);
+    this.jumpRight = new Float64Array(this.x1 + 1);
+    this.jumpDone = new Uint8Array(this.x1 + 1);
+    this.checkTime = opts.checkTime ?? NO_TIME_CHECK;
     this.logStart = Math.log(this.x1);
     this.logStep = Math.LN10 / perDecade;
-    this.mix = mix;
     this.growLog(3); // at least four values, so interpolation always has its nodes
+  }
+
+  /** sum_k w_k Phi(x; e0_k) over harmonics up to min(nTop ?? floor(x), nMax_k). */
+  private mix(x: number, nTop?: number): number {
+    let s = 0;
+    for (let k = 0; k < this.series.length; k++) {
+      if (this.e0Weights[k] === 0) continue;
+      const top = Math.min(nTop ?? Math.floor(x), this.harmonicsKept[k]);
+      if (top >= 1) s += this.e0Weights[k] * this.series[k].sum(x, top, 0);
+    }
+    return s;
+  }
+
+  /** The left limit and the value at integer x = j (1 < j <= X1), from one pass per e0. */
+  private jumpAt(j: number): void {
+    if (this.jumpDone[j]) return;
+    let left = 0;
+    let right = 0;
+    for (let c = 0; c < this.series.length; c++) {
+      if (this.e0Weights[c] === 0) continue;
+      const nMax = this.harmonicsKept[c];
+      const full = this.series[c].sum(j, Math.min(j, nMax), Math.min(j - 1, nMax));
+      left += this.e0Weights[c] * this.series[c].partial;
+      right += this.e0Weights[c] * full;
+    }
+    this.jumpLeft[j] = left;
+    this.jumpRight[j] = right;
+    this.jumpDone[j] = 1;
+  }
+
+  /** Computes the values of interval [k, k+1). */
+  private buildInterval(k: number): void {
+    this.checkTime();
+    const m = this.unitSteps[k - 1];
+    const o = this.unitOffsets[k - 1];
+    if (k > 1) this.jumpAt(k);
+    this.jumpAt(k + 1);
+    const v = this.unitValues;
+    v[o] = k > 1 ? this.jumpRight[k] : this.mix(1, 1);
+    for (let i = 1; i < m; i++) v[o + i] = this.mix(k + i / m, k);
+    v[o + m] = this.jumpLeft[k + 1];
+    this.unitBuilt[k - 1] = 1;
+    this.unitCount += m + 1;
+  }
+
+  /** Phi at x in [S, X1] from the values at the four integers around it (computed on demand). */
+  private smoothAt(x: number): number {
+    const t = x - this.smoothFrom;
+    const count = this.smoothValues.length;
+    let i = Math.floor(t) - 1;
+    if (i < 0) i = 0;
+    if (i > count - 4) i = count - 4;
+    for (let j = i; j < i + 4; j++) {
+      if (this.smoothDone[j]) continue;
+      this.checkTime();
+      const at = this.smoothFrom + j;
+      if (j === 0) {
+        // the value at S is also the right limit of the jump there
+        this.jumpAt(at);
+        this.smoothValues[0] = this.jumpRight[at];
+      } else this.smoothValues[j] = this.mix(at);
+      this.smoothDone[j] = 1;
+      this.unitCount++;
+    }
+    return cubicAt(this.smoothValues, 0, count, t);
   }
 
   /** Computes log-grid values up to index i (or until the grid ends: Phi within 1e-9 of 1 at four points, or x > 1e15). */
@@ -199,6 +222,8 @@ export class HarmonicSumTable {
     if (!(x >= 1)) return 0;
     if (x < this.x1) {
       const k = Math.floor(x);
+      if (k >= this.smoothFrom) return this.smoothAt(x);
+      if (!this.unitBuilt[k - 1]) this.buildInterval(k);
       const m = this.unitSteps[k - 1];
       return cubicAt(this.unitValues, this.unitOffsets[k - 1], m + 1, (x - k) * m);
     }
@@ -216,7 +241,7 @@ export class HarmonicSumTable {
 
   /** Number of values tabulated so far. */
   get size(): number {
-    return this.unitValues.length + this.logCount;
+    return this.unitCount + this.logCount;
   }
 }
 

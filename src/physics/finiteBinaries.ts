@@ -112,7 +112,7 @@ export function finiteBinaryBins(
   let sums = residence ? undefined : nodeSums(rate, mc53, nz, nm, nq);
   // With a residence factor the rates change per bin: a search per bin. Without one, one walk for all bins (loudestSweep.ts) after the loop.
   let loud: LoudestSearch | undefined;
-  const perBin = residence ? undefined : { tau: new Float64Array(nf * nz), hF: new Float64Array(nf * nz), emitting: new Int32Array(nf * nz) };
+  const perBin: PerBin | undefined = residence ? undefined : { tau: new Float64Array(nf * nz), hF: new Float64Array(nf * nz), emitting: new Int32Array(nf * nz), h2Total: new Float64Array(nf) };
   // Cell of each mass node: as wide as its quadrature weight, cells laid end to end (each node lies in
   // its own cell: the separation theorem of Chebyshev, Markov and Stieltjes, Szego 1939, Orthogonal
   // Polynomials, 3.41; section number unverified, no copy of the book reachable with the search tool; the
@@ -138,31 +138,72 @@ export function finiteBinaryBins(
     out.expectedPerBin[k] = count;
     out.longResidencePerBin[k] = bin.longCount;
     out.smoothHc[k] = Math.sqrt(h2Total);
+    if (perBin) {
+      // GW-driven: the cuts and the loudest binaries are computed when first read (below), from these.
+      perBin.tau.set(bin.tauOf, k * nz);
+      perBin.hF.set(bin.hFOf, k * nz);
+      perBin.emitting.set(bin.emitting, k * nz);
+      perBin.h2Total[k] = h2Total;
+      continue;
+    }
     // With fewer than one binary in the whole bin nothing is expected: cut at the bottom, h_c = 0.
     const cut = count >= 1 ? massCut(bin, sums as NodeSums, dlnf, edges, nm) : { log10M: pop.log10MMin, h2Above: h2Total };
     out.cutLog10M[k] = cut.log10M;
     out.thinnedHc[k] = Math.sqrt(Math.max(0, h2Total - cut.h2Above));
-
     // Loudest expected binary: nodes by decreasing strain until one binary is expected.
-    if (perBin) {
-      perBin.tau.set(bin.tauOf, k * nz);
-      perBin.hF.set(bin.hFOf, k * nz);
-      perBin.emitting.set(bin.emitting, k * nz);
-    } else out.loudestStrain[k] = count < 1 ? 0 : (loud as LoudestSearch).search(bin.tauOf, bin.hFOf, bin.emitting, dlnf);
+    out.loudestStrain[k] = count < 1 ? 0 : (loud as LoudestSearch).search(bin.tauOf, bin.hFOf, bin.emitting, dlnf);
   }
-  if (perBin) loudestBySweep(out, perBin, new LoudestSweep(rate, mc53, zr.nodes, dc, nm, nq), nz, spanS);
+  if (perBin) {
+    const gwSums = sums as NodeSums;
+    computedOnFirstRead(out, ['cutLog10M', 'thinnedHc'], () => cutsOfBins(out.frequencyHz, out.expectedPerBin, perBin, gwSums, edges, nz, nm, spanS));
+    computedOnFirstRead(out, ['loudestStrain'], () => ({ loudestStrain: loudestBySweep(out.frequencyHz, out.expectedPerBin, perBin, new LoudestSweep(rate, mc53, zr.nodes, dc, nm, nq), nz, spanS) }));
+  }
   return out;
 }
 
+/** What the GW-driven bins keep for the fields computed when first read: each bin's per-z factors, ISCO cuts and h^2 total. */
+interface PerBin {
+  tau: Float64Array;
+  hF: Float64Array;
+  emitting: Int32Array;
+  h2Total: Float64Array;
+}
+
+/**
+ * Makes out[key] for each key a value computed on first read (all keys by one call of compute), so that
+ * a caller asking for the counts only does not pay for the cuts or the loudest binaries.
+ */
+function computedOnFirstRead<T extends object, K extends keyof T>(out: T, keys: K[], compute: () => Pick<T, K>): void {
+  let values: Pick<T, K> | undefined;
+  for (const key of keys) Object.defineProperty(out, key, { enumerable: true, configurable: true, get: () => (values ??= compute())[key] });
+}
+
+/** The mass cut and thinned h_c of every GW-driven bin (massCut on the kept factors; sums the same for every bin). */
+function cutsOfBins(f: Float64Array, counts: Float64Array, perBin: PerBin, sums: NodeSums, edges: Float64Array, nz: number, nm: number, spanS: number): { cutLog10M: Float64Array; thinnedHc: Float64Array } {
+  const cutLog10M = new Float64Array(f.length);
+  const thinnedHc = new Float64Array(f.length);
+  for (let k = 0; k < f.length; k++) {
+    const at = k * nz;
+    const h2Total = perBin.h2Total[k];
+    const bin: BinScratch = { tauOf: perBin.tau.subarray(at, at + nz), hFOf: perBin.hF.subarray(at, at + nz), emitting: perBin.emitting.subarray(at, at + nz), count: counts[k], h2Total, longCount: 0 };
+    // With fewer than one binary in the whole bin nothing is expected: cut at the bottom, h_c = 0.
+    const cut = counts[k] >= 1 ? massCut(bin, sums, 1 / (f[k] * spanS), edges, nm) : { log10M: edges[0], h2Above: h2Total };
+    cutLog10M[k] = cut.log10M;
+    thinnedHc[k] = Math.sqrt(Math.max(0, h2Total - cut.h2Above));
+  }
+  return { cutLog10M, thinnedHc };
+}
+
 /** The loudest binary of each bin holding one or more, by one walk over the bins in increasing f (LoudestSweep). */
-function loudestBySweep(out: FiniteBinaryResult, perBin: { tau: Float64Array; hF: Float64Array; emitting: Int32Array }, sweep: LoudestSweep, nz: number, spanS: number): void {
-  const f = out.frequencyHz;
+function loudestBySweep(f: Float64Array, counts: Float64Array, perBin: PerBin, sweep: LoudestSweep, nz: number, spanS: number): Float64Array {
+  const loudest = new Float64Array(f.length);
   const byF = Array.from(f.keys()).sort((a, b) => f[a] - f[b] || a - b);
   for (const k of byF) {
-    if (out.expectedPerBin[k] < 1) continue;
+    if (counts[k] < 1) continue;
     const at = k * nz;
-    out.loudestStrain[k] = sweep.loudest(f[k], perBin.tau.subarray(at, at + nz), perBin.hF.subarray(at, at + nz), perBin.emitting.subarray(at, at + nz), 1 / (f[k] * spanS));
+    loudest[k] = sweep.loudest(f[k], perBin.tau.subarray(at, at + nz), perBin.hF.subarray(at, at + nz), perBin.emitting.subarray(at, at + nz), 1 / (f[k] * spanS));
   }
+  return loudest;
 }
 
 /** One bin's per-z residence and strain factors, ISCO cuts and totals (filled by binTotals). */

@@ -20,26 +20,34 @@ export function hardSeparation(m2Kg: number, sigmaMS: number): number {
 // [0, 1] (their nearest poles, the fifth roots of -1, lie 0.59 from the interval), so this is exact to rounding.
 const UNIT = compositeNodes(0, 1, 2, 16);
 
+/** Int_0^t x^3 / (1 + x^5) dx for 0 <= t <= 1. */
+function lowPart(t: number): number {
+  let s = 0;
+  for (let i = 0; i < UNIT.nodes.length; i++) {
+    const x = t * UNIT.nodes[i];
+    s += UNIT.weights[i] * ((x * x * x) / (1 + x * x * x * x * x));
+  }
+  return s * t;
+}
+
+/** I(1), the same sum every time. */
+const LOW_PART_AT_ONE = lowPart(1);
+
 /** Int_0^X x^3 / (1 + x^5) dx for X >= 0 (for X > 1 via y = 1/x: I(1) + Int_{1/X}^1 dy / (1 + y^5)). */
 export function hardeningIntegral(X: number): number {
   if (!(X >= 0)) throw new RangeError(`hardening integral needs X >= 0, got ${X}`);
-  const low = (t: number): number => {
-    let s = 0;
-    for (let i = 0; i < UNIT.nodes.length; i++) {
-      const x = t * UNIT.nodes[i];
-      s += UNIT.weights[i] * ((x * x * x) / (1 + x * x * x * x * x));
-    }
-    return s * t;
-  };
-  if (X <= 1) return low(X);
+  if (X <= 1) return lowPart(X);
   const lo = 1 / X;
   let s = 0;
   for (let i = 0; i < UNIT.nodes.length; i++) {
     const y = lo + (1 - lo) * UNIT.nodes[i];
     s += UNIT.weights[i] / (1 + y * y * y * y * y);
   }
-  return low(1) + s * (1 - lo);
+  return LOW_PART_AT_ONE + s * (1 - lo);
 }
+
+const G_CUBED = G_SI ** 3;
+const C_FIFTH = C_SI ** 5;
 
 /** Time from separation a0 to coalescence under stars and GW emission, s (formula at the top). */
 export function hardeningTime(mKg: number, q: number, env: StellarEnvironment, a0M: number): number {
@@ -50,7 +58,7 @@ export function hardeningTime(mKg: number, q: number, env: StellarEnvironment, a
   const m1 = mKg / (1 + q);
   const m2 = mKg - m1;
   const A = (G_SI * env.densityKgM3 * env.hardeningRate) / env.dispersionMS;
-  const B = ((64 / 5) * G_SI ** 3 * m1 * m2 * mKg) / C_SI ** 5;
+  const B = ((64 / 5) * G_CUBED * m1 * m2 * mKg) / C_FIFTH;
   const aT = Math.pow(B / A, 0.2);
   return hardeningIntegral(a0M / aT) / (A * aT);
 }
@@ -76,9 +84,15 @@ export function frictionPhaseTime(mKg: number, q: number, env: StellarEnvironmen
  * hardening time from a_h, plus the dynamical-friction time to a_h when a friction phase is given.
  */
 export function lifetimeFunction(env: MassEnvironment, mSunKg: number, friction?: FrictionPhase): (log10M: number, q: number) => number {
+  // callers run through the mass ratios of one mass at a time: its environment is kept
+  let lastM = NaN;
+  let local: StellarEnvironment | undefined;
   return (log10M, q) => {
     const m = Math.pow(10, log10M) * mSunKg;
-    const local = env.ofMass(m);
+    if (m !== lastM || !local) {
+      local = env.ofMass(m);
+      lastM = m;
+    }
     const hard = hardBinaryLifetime(m, q, local);
     return friction ? hard + frictionPhaseTime(m, q, local, friction) : hard;
   };

@@ -85,5 +85,13 @@ export function mergedNumberDensity(pop: BinaryPopulation): number {
  * bound on the mass density of the merger remnants, since a hole that merges twice is counted twice.
  */
 export function mergedMassDensity(pop: BinaryPopulation): number {
-  return overRedshift(pop, (m) => m);
+  let value = mergedMass.get(pop);
+  if (value === undefined) {
+    value = overRedshift(pop, (m) => m);
+    mergedMass.set(pop, value);
+  }
+  return value;
 }
+
+/** Merged mass density per population object (populations are immutable; mergedMassDensity and massFunctionCheck both ask). */
+const mergedMass = new WeakMap<BinaryPopulation, number>();

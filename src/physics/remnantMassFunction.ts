@@ -21,6 +21,8 @@ interface Rules {
   qIntegral: number;
   /** The limits the rules were laid out for. */
   limits: readonly number[];
+  /** redshift(z) at each z node for a density that factorises in z and M too (populationTypes.ts), else undefined. */
+  zFactors: Float64Array | undefined;
 }
 
 /** Rules per population object, laid out once for the many masses of an integral over M. */
@@ -36,7 +38,9 @@ function rules(pop: BinaryPopulation): Rules {
       qIntegral = 0;
       for (let b = 0; b < qr.nodes.length; b++) qIntegral += qr.weights[b] * pop.separable.massRatio(qr.nodes[b]);
     }
-    r = { zr: compositeNodes(pop.zMin, pop.zMax, Z_PANELS, ORDER), qr, qIntegral, limits };
+    const zr = compositeNodes(pop.zMin, pop.zMax, Z_PANELS, ORDER);
+    const redshift = pop.separable?.lnMass ? pop.separable.redshift : undefined;
+    r = { zr, qr, qIntegral, limits, zFactors: redshift ? Float64Array.from(zr.nodes, (z) => redshift(z)) : undefined };
     rulesOf.set(pop, r);
   }
   return r;
@@ -49,9 +53,15 @@ function rules(pop: BinaryPopulation): Rules {
 export function remnantMassFunction(pop: BinaryPopulation, log10M: number): number {
   checkPopulation(pop);
   if (!(log10M >= pop.log10MMin && log10M <= pop.log10MMax)) return 0;
-  const { zr, qr, qIntegral } = rules(pop);
+  const { zr, qr, qIntegral, zFactors } = rules(pop);
   const sep = pop.separable;
   let s = 0;
+  if (zFactors && sep?.lnMass) {
+    // zMass(z, M) = redshift(z) exp(lnMass(M)) (separablePopulation.ts): the z factors kept per population, one exp per mass
+    const massFactor = Math.exp(sep.lnMass(log10M));
+    for (let c = 0; c < zr.nodes.length; c++) s += zr.weights[c] * (zFactors[c] * massFactor);
+    return s * qIntegral;
+  }
   if (sep) {
     for (let c = 0; c < zr.nodes.length; c++) s += zr.weights[c] * sep.zMass(zr.nodes[c], log10M);
     return s * qIntegral;

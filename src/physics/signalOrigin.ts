@@ -4,7 +4,7 @@
 import { C_SI, G_SI, MPC_M, M_SUN_KG } from './constants';
 import { symmetricMassRatio } from './binaryMasses';
 import { circularGwKernel, iscoTotalMassKg } from './circularKernel';
-import { compositeNodes, compositeSum } from './gaussLegendre';
+import { compositeNodes, compositeSum, gaussLegendreRule } from './gaussLegendre';
 import { checkPopulation } from './backgroundIntegral';
 import type { BinaryPopulation, EmissionKernel } from './populationTypes';
 
@@ -104,6 +104,10 @@ export function chirpMassOrigin(pop: BinaryPopulation, fHz: number, opts: Origin
   const hi = pop.log10MMax + 0.6 * Math.log10(symmetricMassRatio(pop.qMax));
   const grid = evenGrid(lo, hi, n);
   const zr = compositeNodes(pop.zMin, pop.zMax, panels, 8);
+  // The top of the mass range at each z node (the ISCO cut does not depend on the grid point).
+  const xTopOf = Float64Array.from(zr.nodes, (z) => Math.min(pop.log10MMax, xCutOf((1 + z) * fHz, cut)));
+  const sep = pop.separable;
+  const factored = kernel === circularGwKernel && sep?.redshift && sep.lnMass ? new FactoredQSum(sep.redshift, sep.lnMass, sep.massRatio, panels) : undefined;
   const density = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const y = grid[i];
@@ -111,7 +115,7 @@ export function chirpMassOrigin(pop: BinaryPopulation, fHz: number, opts: Origin
     for (let c = 0; c < zr.nodes.length; c++) {
       const z = zr.nodes[c];
       const fr = (1 + z) * fHz;
-      const xTop = Math.min(pop.log10MMax, xCutOf(fr, cut));
+      const xTop = xTopOf[c];
       if (xTop <= pop.log10MMin) continue;
       // eta decreases with x at fixed y: x <= xTop needs eta >= 10^((y - xTop)/0.6), x >= xMin needs eta <= 10^((y - xMin)/0.6).
       const etaLo = Math.pow(10, (y - xTop) / 0.6);
@@ -120,6 +124,10 @@ export function chirpMassOrigin(pop: BinaryPopulation, fHz: number, opts: Origin
       const qa = Math.max(pop.qMin, massRatioForEta(etaLo));
       const qb = Math.min(pop.qMax, massRatioForEta(Math.min(etaHi, 0.25)));
       if (!(qb > qa)) continue;
+      if (factored) {
+        s += (zr.weights[c] / (1 + z)) * factored.sum(y, qa, qb, z) * circularGwKernel(fr, M_SUN_KG * Math.pow(10, y), 0, 0, z);
+        continue;
+      }
       if (kernel === circularGwKernel) {
         // The circular kernel depends on M_c only (fixed here), so it multiplies the q integral of the
         // density (the sum over compositeNodes(qa, qb, panels, 8), without allocating it per point).
@@ -147,6 +155,62 @@ export function chirpMassOrigin(pop: BinaryPopulation, fHz: number, opts: Origin
     density[i] = (ENERGY_FORM / (fHz * fHz)) * s * PER_MPC3;
   }
   return summarise(grid, density);
+}
+
+/**
+ * The q integral of chirpMassOrigin's circular path for a density redshift(z) exp(lnMass(x)) massRatio(q)
+ * (populationTypes.ts: the product zMass(z, x) massRatio(q) of separablePopulation.ts, in its order), at
+ * x = y - 0.6 log10 eta(q): the same sum as compositeSum(qa, qb, panels, 8, q => max(0, density(z, x, q))),
+ * with each node's weight, exp(lnMass(x)) and massRatio(q) kept while (y, qa, qb) stay (below the ISCO
+ * cut they are the same at every z).
+ */
+class FactoredQSum {
+  private y = NaN;
+  private qa = NaN;
+  private qb = NaN;
+  private readonly weight: Float64Array;
+  private readonly massFactor: Float64Array;
+  private readonly ratio: Float64Array;
+  constructor(
+    private readonly redshift: (z: number) => number,
+    private readonly lnMass: (x: number) => number,
+    private readonly massRatio: (q: number) => number,
+    private readonly panels: number,
+  ) {
+    this.weight = new Float64Array(panels * 8);
+    this.massFactor = new Float64Array(panels * 8);
+    this.ratio = new Float64Array(panels * 8);
+  }
+
+  sum(y: number, qa: number, qb: number, z: number): number {
+    if (y !== this.y || qa !== this.qa || qb !== this.qb) this.lay(y, qa, qb);
+    const zFactor = this.redshift(z);
+    const { weight, massFactor, ratio } = this;
+    let s = 0;
+    for (let i = 0; i < weight.length; i++) {
+      const d = zFactor * massFactor[i] * ratio[i];
+      s += weight[i] * (d > 0 ? d : 0);
+    }
+    return s;
+  }
+
+  /** Nodes and weights as compositeSum lays them (gaussLegendre.ts), and the mass and q factors there. */
+  private lay(y: number, qa: number, qb: number): void {
+    this.y = y;
+    this.qa = qa;
+    this.qb = qb;
+    const rule = gaussLegendreRule(8);
+    const h = (qb - qa) / this.panels;
+    for (let p = 0; p < this.panels; p++) {
+      const mid = qa + (p + 0.5) * h;
+      for (let i = 0; i < 8; i++) {
+        const q = mid + 0.5 * h * rule.nodes[i];
+        this.weight[p * 8 + i] = 0.5 * h * rule.weights[i];
+        this.massFactor[p * 8 + i] = Math.exp(this.lnMass(y - 0.6 * Math.log10(symmetricMassRatio(q))));
+        this.ratio[p * 8 + i] = this.massRatio(q);
+      }
+    }
+  }
 }
 
 function evenGrid(a: number, b: number, n: number): Float64Array {

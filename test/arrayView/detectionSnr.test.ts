@@ -280,7 +280,21 @@ describe('detection span (root find over T)', () => {
     const r = detectionSpan(arr, model, 4, 60 * YEAR_S);
     expect(r.reached).toBe(true);
     expect(detectionSnr(arr, model, r.spanS).snr).toBeGreaterThanOrEqual(4);
-    expect(detectionSnr(arr, model, r.spanS * (1 - 1e-8)).snr).toBeLessThan(4);
+    expect(detectionSnr(arr, model, r.spanS * (1 - 2e-10)).snr).toBeLessThan(4);
+  });
+
+  it('finds a crossing that sits on a jump of S/N, where bin k enters at T = 2 k dt (bins k/T up to 1/(2 dt), common practice, no source), to 1e-10', () => {
+    // A strong signal (P_g >> P_n): S/N grows with the number of bins, hardly with T between them.
+    const arr = identical(30, 2e-7, 10);
+    const model = powerLawModel(1e-10);
+    const jump = 2 * 3 * CADENCE; // bin 3 enters here
+    const below = detectionSnr(arr, model, jump * (1 - 1e-9)).snr;
+    const above = detectionSnr(arr, model, jump * (1 + 1e-9)).snr;
+    expect(above - below).toBeGreaterThan(1e-3 * above); // a jump, not the smooth growth over 2e-9 of T
+    const thr = 0.5 * (below + above);
+    const r = detectionSpan(arr, model, thr, 60 * YEAR_S);
+    expect(Math.abs(r.spanS / jump - 1)).toBeLessThan(1e-10);
+    expect(detectionSnr(arr, model, r.spanS).snr).toBeGreaterThanOrEqual(thr);
   });
 
   it('in the weak regime follows T_det = T_ref (threshold / rho_ref)^(3/13) (inverse of rho proportional to T^(13/3))', () => {

@@ -42,6 +42,12 @@ xs = [1.0, 1.3, 1.999, 2.0, 2.5, 3.7, 7.25, 15.5, 40.0, 63.5, 100.0, 333.0, 1000
 runs = []
 for e0 in (0.0, 0.3, 0.7, 0.9):
     runs.append({"e0": e0, "points": [{"x": x, "phi": phi(x, e0)} for x in xs]})
+# Between the last harmonic a table keeps (e0 = 0.3: 14, e0 = 0.6: 41, at power tolerance 1e-7) and
+# x = 64, where Phi is smooth: points between integers, and just above the integers where it jumps.
+smooth_xs = [16.5, 17.25, 19.9, 23.4, 29.75, 37.1, 41.01, 41.5, 44.3, 48.75, 53.2, 58.6, 62.125, 63.9]
+smooth_runs = []
+for e0 in (0.3, 0.6):
+    smooth_runs.append({"e0": e0, "points": [{"x": x, "phi": phi(x, e0)} for x in smooth_xs]})
 out = {
     "library": "scipy.special.jv, scipy.optimize.brentq",
     "library_version": scipy.__version__,
@@ -49,6 +55,7 @@ out = {
     "python_version": platform.python_version(),
     "call": "phi(x, e0) = sum_{n=1}^{min(floor(x),3000)} (2/n)^(2/3) g(n,e_n)/F(e_n); g from scipy.special.jv; e_n = brentq(shape_log(e) - [shape_log(e0) - (2/3) ln(x/n)], 1e-300, 1-1e-16, rtol=1e-15)",
     "runs": runs,
+    "smooth_runs": smooth_runs,
 }
 path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "harmonic_sum.json")
 with open(path, "w") as fh:

@@ -1,0 +1,146 @@
+// The harmonic sum of the eccentric GW-driven background for one e0 (Enoki & Nagashima 2007, PTP 117, 241):
+//   Phi(x; e0) = sum_{n=1}^{top} (2/n)^(2/3) g(n, e_n) / F(e_n),  x = f_r / f0,
+// e_n the eccentricity at orbital frequency f_r / n (Peters 1964, Phys. Rev. 136, B1224), g and F of
+// Peters & Mathews 1963 (Phys. Rev. 131, 435). What depends on e0 alone is computed once per series.
+import { eccentricityEnhancement, harmonicPower, harmonicPowerBound, harmonicPowerBoundPart } from './petersMathews';
+import { eccentricityFromShape, petersShapeLog } from './petersEvolution';
+
+/** A harmonic whose Kapteyn-bounded weight is below this is skipped (it cannot change a double sum of size >= 1e-2). */
+export const SKIP_WEIGHT = 1e-19;
+
+/** The sum of harmonics 1 .. top at x for one e0 (x >= top), and its value after a chosen harmonic. */
+export class HarmonicSeries {
+  /** The sum after harmonic `partialAt` in the last sum() call. */
+  partial = 0;
+  private readonly shape0: number;
+  private readonly enhancement0: number;
+  private readonly eBoundFactor: number; // e(f0 r) <= eBoundFactor r^(-19/18), see tailSkipped
+  // keptFrom[n]: from this eccentricity on, harmonic n surely passes the cheap skip test (below).
+  private keptFrom = new Float64Array(0);
+
+  constructor(readonly e0: number) {
+    if (!(e0 >= 0 && e0 < 1)) throw new RangeError(`eccentricity e0 must lie in [0, 1), got ${e0}`);
+    this.shape0 = e0 === 0 ? 0 : petersShapeLog(e0);
+    this.enhancement0 = eccentricityEnhancement(e0);
+    this.eBoundFactor = e0 === 0 ? 0 : Math.exp((19 / 12) * this.shape0);
+  }
+
+  /** Phi(x; e0) summed over harmonics 1 .. top (top <= x); the sum after harmonic partialAt is kept in `partial`. */
+  sum(x: number, top: number, partialAt: number): number {
+    const e0 = this.e0;
+    const shape0 = this.shape0;
+    const twoOverN23 = harmonicWeights(top);
+    const keptFrom = this.keptFromUpTo(top);
+    let sum = 0;
+    let en = e0;
+    let tailChecked = false;
+    for (let n = 1; n <= top; n++) {
+      // e grows with n (lower orbital frequency): the previous harmonic's e is a close first guess.
+      en = e0 === 0 ? 0 : eccentricityFromShape(e0, shape0, x / n, n === 1 ? undefined : en);
+      const weight = twoOverN23[n] / eccentricityEnhancement(en);
+      // Skipped when the bound is below SKIP_WEIGHT; its cheap part decides first where it is above, and
+      // before it the eccentricity above which that part surely passes (keptFrom, no transcendental call).
+      if (n <= 2 || en >= keptFrom[n] || weight * harmonicPowerBoundPart(n, en) >= SKIP_WEIGHT || weight * harmonicPowerBound(n, en) >= SKIP_WEIGHT) {
+        sum += weight * harmonicPower(n, en);
+      } else if (!tailChecked) {
+        // the first harmonic skipped: if every later one surely is too, the sum is complete
+        tailChecked = true;
+        if (this.tailSkipped(x, n, top)) {
+          if (partialAt >= n && partialAt <= top) this.partial = sum;
+          break;
+        }
+      }
+      if (n === partialAt) this.partial = sum;
+    }
+    return sum;
+  }
+
+  /**
+   * True when harmonics after..top all fail the skip test surely, without their eccentricities: since
+   * -ln(1 - e^2) and the last term of the Peters 1964 shape are >= 0, (12/19) ln e_n <= shape(e0) -
+   * (2/3) ln(x/n), an upper bound e^ on e_n; the weight is at most (2/n)^(2/3) (F >= 1); the five Bessel
+   * bounds of harmonicPowerBound are at most Kapteyn's bound K_{n-2}(n e^) (it grows with the argument and
+   * falls with the order), so the bound is at most 1.9 n^4 K^2 (its coefficients at e <= 1, n >= 3). Each
+   * must be below SKIP_WEIGHT / 2 (a factor 2 to spare for rounding); checked from the top down.
+   */
+  private tailSkipped(x: number, after: number, top: number): boolean {
+    const twoOverN23 = harmonicWeights(top);
+    for (let n = top; n > after; n--) {
+      const eHat = this.eBoundFactor * Math.pow(n / x, 19 / 18) * (1 + 1e-9);
+      const m = n - 2;
+      const z = (n * eHat) / m;
+      if (!(z < 1)) return false;
+      const s = Math.sqrt(1 - z * z);
+      const k = Math.exp(m * (Math.log(z) + s - Math.log1p(s)));
+      const n2 = n * n;
+      if (!(twoOverN23[n] * 1.9 * n2 * n2 * k * k < 0.5 * SKIP_WEIGHT)) return false;
+    }
+    return true;
+  }
+
+  private keptFromUpTo(top: number): Float64Array {
+    if (this.keptFrom.length <= top) {
+      const t = new Float64Array(Math.max(top + 1, 2 * this.keptFrom.length, 64));
+      t.set(this.keptFrom);
+      const weights = harmonicWeights(t.length);
+      for (let n = Math.max(this.keptFrom.length, 1); n < t.length; n++) t[n] = surePassEccentricity(n, weights[n] / this.enhancement0);
+      this.keptFrom = t;
+    }
+    return this.keptFrom;
+  }
+}
+
+/**
+ * An eccentricity e* such that every e in [e*, e0] passes the cheap skip test of harmonic n,
+ * (2/n)^(2/3)/F(e) * harmonicPowerBoundPart(n, e) >= SKIP_WEIGHT, with a factor 2 to spare for rounding;
+ * Infinity where none is found. minWeight = (2/n)^(2/3)/F(e0) bounds the weight from below (F grows
+ * with e, and e_n <= e0 since x/n >= 1). The part is (n^2/24) K^2, K = exp(n g(u)) Kapteyn's bound
+ * at z = e = exp(u), g(u) = u + s - ln(1 + s), s = sqrt(1 - z^2), which increases with u (dg/du = s),
+ * so e* = exp(u*) with g(u*) = ln(48 SKIP_WEIGHT / (minWeight n^2)) / (2 n), by Newton's method.
+ */
+function surePassEccentricity(n: number, minWeight: number): number {
+  if (n <= 2) return 0;
+  const target = Math.log((48 * SKIP_WEIGHT) / (minWeight * n * n)) / (2 * n);
+  if (!(target < 0)) return Infinity; // K <= 1: the test may fail whatever e is
+  const g = (u: number): number => {
+    const z = Math.exp(u);
+    const s = Math.sqrt(1 - z * z);
+    return u + s - Math.log1p(s) - target;
+  };
+  // g is concave: from u = target (where g >= 0) Newton's steps approach the root from below.
+  let u = target;
+  for (let i = 0; i < 60; i++) {
+    const z = Math.exp(u);
+    const s = Math.sqrt(1 - z * z);
+    const step = (u + s - Math.log1p(s) - target) / s;
+    if (!Number.isFinite(step)) break;
+    u -= step;
+    if (Math.abs(step) < 1e-14) break;
+  }
+  // above the root by a margin, checked
+  const above = u + 1e-12;
+  return above < 0 && g(above) >= 0 ? Math.exp(above) : Infinity;
+}
+
+/** (2/n)^(2/3) at index n, for n up to at least `top` (kept between calls, grown on demand). */
+let harmonicWeightTable = new Float64Array(0);
+function harmonicWeights(top: number): Float64Array {
+  if (harmonicWeightTable.length <= top) {
+    const t = new Float64Array(Math.max(top + 1, 2 * harmonicWeightTable.length, 64));
+    for (let n = 1; n < t.length; n++) t[n] = Math.pow(2 / n, 2 / 3);
+    harmonicWeightTable = t;
+  }
+  return harmonicWeightTable;
+}
+
+// The series of the last few e0 values asked for by harmonicSeriesFor.
+const recent: HarmonicSeries[] = [];
+
+/** The series of one e0 (kept for the last 8 values asked for). */
+export function harmonicSeriesFor(e0: number): HarmonicSeries {
+  for (const s of recent) if (s.e0 === e0) return s;
+  const s = new HarmonicSeries(e0);
+  if (recent.length >= 8) recent.shift();
+  recent.push(s);
+  return s;
+}
