@@ -7,7 +7,7 @@ import fixture from '../reference/hardening_lifetime.json';
 import { characteristicStrainSquared } from '../../src/physics/backgroundIntegral';
 import { C_SI, G_SI, GYR_S, KM_S_MPC_SI, M_SUN_KG, PC_M } from '../../src/physics/constants';
 import { FlatLambdaCdm } from '../../src/physics/cosmology';
-import { delayedPopulation, stalledFraction } from '../../src/physics/delayedPopulation';
+import { delayedPopulation, redshiftOfAge, stalledFraction } from '../../src/physics/delayedPopulation';
 import { hardBinaryLifetime, hardeningIntegral, hardeningTime, hardSeparation, lifetimeFunction } from '../../src/physics/hardeningLifetime';
 import { massScaledEnvironment, MCCONNELL_MA_2013_M_SIGMA } from '../../src/physics/hostEnvironment';
 import { delayedPopulationByMass, stalledFractionByMass } from '../../src/physics/massDependentDelay';
@@ -124,6 +124,32 @@ describe('a lifetime that depends on mass and mass ratio, fed into the populatio
     expect(full).toBeLessThan(0.05);
     expect(share(1)).toBeGreaterThan(full);
     expect(share(0.05)).toBeGreaterThan(share(1));
+  });
+
+  it('the stalled share with hardening lifetimes (H = 1) equals a converged sum to 1e-12: the same (M, q) nodes, each z integral by 64 panels of 16 Gauss-Legendre points of the density, z_stall by the Newton inverse redshiftOfAge', () => {
+    const lifetime = lifetimeFunction(massScaledEnvironment({ mSigma: MCCONNELL_MA_2013_M_SIGMA, hardeningRate: 1 }), M_SUN_KG);
+    const mr = compositeNodes(base.log10MMin, base.log10MMax, 4, 8);
+    const qr = compositeNodes(base.qMin, base.qMax, 4, 8);
+    const zIntegral = (lg: number, q: number, hi: number) => {
+      const zr = compositeNodes(base.zMin, hi, 64, 16);
+      let s = 0;
+      for (let c = 0; c < zr.nodes.length; c++) s += zr.weights[c] * base.density(zr.nodes[c], lg, q);
+      return s;
+    };
+    let total = 0;
+    let stalled = 0;
+    for (let a = 0; a < mr.nodes.length; a++) {
+      for (let b = 0; b < qr.nodes.length; b++) {
+        const w = mr.weights[a] * qr.weights[b];
+        total += w * zIntegral(mr.nodes[a], qr.nodes[b], base.zMax);
+        const zStall = redshiftOfAge(cosmo, cosmo.ageS(0) - lifetime(mr.nodes[a], qr.nodes[b]));
+        const hi = Number.isNaN(zStall) ? base.zMax : Math.min(base.zMax, zStall);
+        if (hi > base.zMin) stalled += w * zIntegral(mr.nodes[a], qr.nodes[b], hi);
+      }
+    }
+    const share = stalledFractionByMass(base, cosmo, lifetime);
+    expect(share).toBeGreaterThan(0.01);
+    expect(rel(share, stalled / total), `converged ${stalled / total}, got ${share}`).toBeLessThan(1e-12);
   });
 
   it('rejects a negative or non-finite lifetime, naming the mass and mass ratio', () => {
