@@ -143,15 +143,19 @@ function binSamples(x: ArrayLike<number>, lo: number, dx: number, size: number, 
   const last = size - 1;
   for (let i = 0; i < x.length; i++) {
     const v = x[i];
+    // Both images are computed for every sample, so the optimised code has seen their arithmetic
+    // even when the first samples have none within reach.
+    const va = 2 * a - v;
+    const vb = 2 * b - v;
     // the sample, then its image about a, then about b (images that fall on the table are kept)
     for (let image = 0; image < 3; image++) {
       let y = v;
       if (image === 1) {
         if (!(v - a < reach)) continue;
-        y = 2 * a - v;
+        y = va;
       } else if (image === 2) {
         if (!(b - v < reach)) continue;
-        y = 2 * b - v;
+        y = vb;
       }
       const t = (y - lo) / dx;
       if (t < 0 || t > last) continue;
