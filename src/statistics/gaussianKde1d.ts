@@ -203,11 +203,16 @@ function convolve(counts: Float64Array, kernel: Float64Array, span: Span): Float
   let last = size - 1;
   while (last > first && counts[last] === 0) last--;
   const dens = new Float64Array(size);
-  // points farther than m from every count stay zero
-  const to = last + m < span.to ? last + m : span.to;
-  for (let j = first - m > span.from ? first - m : span.from; j <= to; j++) {
-    const iLo = j - m > first ? j - m : first;
-    const iHi = j + m < last ? j + m : last;
+  // Points farther than m from every count stay zero. Each bound is computed before it is compared,
+  // so optimised code compiled early in a call has seen every operation (no deoptimisation later).
+  const from = first - m;
+  const to = last + m;
+  const jHi = to < span.to ? to : span.to;
+  for (let j = from > span.from ? from : span.from; j <= jHi; j++) {
+    const left = j - m;
+    const right = j + m;
+    const iLo = left > first ? left : first;
+    const iHi = right < last ? right : last;
     let s = 0;
     for (let i = iLo; i < j && i <= iHi; i++) s += counts[i] * kernel[j - i];
     for (let i = j > iLo ? j : iLo; i <= iHi; i++) s += counts[i] * kernel[i - j];
