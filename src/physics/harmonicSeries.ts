@@ -8,7 +8,11 @@ import { eccentricityFromShape, petersShapeLog } from './petersEvolution';
 /** A harmonic whose Kapteyn-bounded weight is below this is skipped (it cannot change a double sum of size >= 1e-2). */
 export const SKIP_WEIGHT = 1e-19;
 
-/** The sum of harmonics 1 .. top at x for one e0 (x >= top), and its value after a chosen harmonic. */
+/**
+ * The sum of harmonics 1 .. top at x for one e0, and its value after a chosen harmonic (or after each).
+ * top may exceed x by a little: those harmonics' orbits have not formed yet (x/n < 1), and the sum is the
+ * smooth continuation of the one beyond the next integer, which a table interpolates across integers.
+ */
 export class HarmonicSeries {
   /** The sum after harmonic `partialAt` in the last sum() call. */
   partial = 0;
@@ -25,8 +29,11 @@ export class HarmonicSeries {
     this.eBoundFactor = e0 === 0 ? 0 : Math.exp((19 / 12) * this.shape0);
   }
 
-  /** Phi(x; e0) summed over harmonics 1 .. top (top <= x); the sum after harmonic partialAt is kept in `partial`. */
-  sum(x: number, top: number, partialAt: number): number {
+  /**
+   * Phi(x; e0) summed over harmonics 1 .. top; the sum after harmonic partialAt is kept in `partial`,
+   * and, if given, the sum after each harmonic n in prefix[n] (prefix[0] = 0).
+   */
+  sum(x: number, top: number, partialAt: number, prefix?: Float64Array): number {
     const e0 = this.e0;
     const shape0 = this.shape0;
     const twoOverN23 = harmonicWeights(top);
@@ -34,23 +41,27 @@ export class HarmonicSeries {
     let sum = 0;
     let en = e0;
     let tailChecked = false;
+    if (prefix) prefix[0] = 0;
     for (let n = 1; n <= top; n++) {
       // e grows with n (lower orbital frequency): the previous harmonic's e is a close first guess.
       en = e0 === 0 ? 0 : eccentricityFromShape(e0, shape0, x / n, n === 1 ? undefined : en);
       const weight = twoOverN23[n] / eccentricityEnhancement(en);
       // Skipped when the bound is below SKIP_WEIGHT; its cheap part decides first where it is above, and
-      // before it the eccentricity above which that part surely passes (keptFrom, no transcendental call).
-      if (n <= 2 || en >= keptFrom[n] || weight * harmonicPowerBoundPart(n, en) >= SKIP_WEIGHT || weight * harmonicPowerBound(n, en) >= SKIP_WEIGHT) {
+      // before it the eccentricity above which that part surely passes (keptFrom, no transcendental call;
+      // it assumes e_n <= e0, true where the orbit has formed, n <= x).
+      if (n <= 2 || (en >= keptFrom[n] && n <= x) || weight * harmonicPowerBoundPart(n, en) >= SKIP_WEIGHT || weight * harmonicPowerBound(n, en) >= SKIP_WEIGHT) {
         sum += weight * harmonicPower(n, en);
       } else if (!tailChecked) {
         // the first harmonic skipped: if every later one surely is too, the sum is complete
         tailChecked = true;
         if (this.tailSkipped(x, n, top)) {
           if (partialAt >= n && partialAt <= top) this.partial = sum;
+          if (prefix) prefix.fill(sum, n, top + 1);
           break;
         }
       }
       if (n === partialAt) this.partial = sum;
+      if (prefix) prefix[n] = sum;
     }
     return sum;
   }
