@@ -44,7 +44,7 @@ export class HarmonicSeries {
     if (prefix) prefix[0] = 0;
     for (let n = 1; n <= top; n++) {
       // e grows with n (lower orbital frequency): the previous harmonic's e is a close first guess.
-      en = e0 === 0 ? 0 : eccentricityFromShape(e0, shape0, x / n, n === 1 ? undefined : en);
+      en = e0 === 0 ? 0 : eccentricityFromShape(e0, shape0, x / n, n === 1 ? undefined : nextGuess(en, n));
       const weight = twoOverN23[n] / eccentricityEnhancement(en);
       // Skipped when the bound is below SKIP_WEIGHT; its cheap part decides first where it is above, and
       // before it the eccentricity above which that part surely passes (keptFrom, no transcendental call;
@@ -99,6 +99,17 @@ export class HarmonicSeries {
     }
     return this.keptFrom;
   }
+}
+
+/**
+ * A first guess of e_n from e_{n-1}: the orbital frequency falls by (n-1)/n, and
+ * d ln e / d ln f = -(2/3) / (e d shape/de) (Peters 1964, eq. 5.11 with Kepler's law), so to first
+ * order e_n = e_{n-1} (n / (n-1))^((2/3) / (e shape'(e))).
+ */
+function nextGuess(ePrev: number, n: number): number {
+  const e2 = ePrev * ePrev;
+  const eSlope = 12 / 19 + (2 * e2) / (1 - e2) + ((870 / 2299) * (242 / 304) * e2) / (1 + (121 / 304) * e2);
+  return ePrev * Math.pow(n / (n - 1), 2 / (3 * eSlope));
 }
 
 /**
