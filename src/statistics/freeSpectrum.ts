@@ -70,6 +70,8 @@ export function validateFreeSpectrum(data: FreeSpectrumData): FreeSpectrumData {
   if (p.kind === 'uniform' && !(Number.isFinite(p.lower) && Number.isFinite(p.upper) && p.lower < p.upper)) {
     throw new FreeSpectrumError(`the prior range must be two finite numbers, lower < upper, got ${p.lower} to ${p.upper}`);
   }
+  const lower = p.kind === 'uniform' ? p.lower : -Infinity;
+  const upper = p.kind === 'uniform' ? p.upper : Infinity;
   for (let k = 0; k < nb; k++) {
     const f = data.frequencyHz[k];
     if (!(Number.isFinite(f) && f > 0)) throw new FreeSpectrumError(`bin ${k + 1}: frequency must be positive and finite, got ${f} Hz`);
@@ -78,16 +80,30 @@ export function validateFreeSpectrum(data: FreeSpectrumData): FreeSpectrumData {
     const s = data.samples[k];
     if (s.length < 2) throw new FreeSpectrumError(`bin ${k + 1} has ${s.length} samples; at least 2 are needed`);
     if (s.length > FREE_SPECTRUM_MAX_SAMPLES) throw new FreeSpectrumError(`bin ${k + 1} has ${s.length} samples; at most ${FREE_SPECTRUM_MAX_SAMPLES}`);
-    let same = true;
-    for (let i = 0; i < s.length; i++) {
-      if (!Number.isFinite(s[i])) throw new FreeSpectrumError(`bin ${k + 1}, sample ${i + 1}: ${s[i]} is not a finite number`);
-      if (p.kind === 'uniform' && (s[i] < p.lower || s[i] > p.upper)) {
-        throw new FreeSpectrumError(`bin ${k + 1}, sample ${i + 1}: ${s[i]} lies outside the prior range ${p.lower} to ${p.upper}`);
-      }
-      if (s[i] !== s[0]) same = false;
+    const bad = firstBadSample(s, lower, upper);
+    if (bad >= 0) {
+      const v = s[bad];
+      const why = Number.isFinite(v) ? `lies outside the prior range ${lower} to ${upper}` : 'is not a finite number';
+      throw new FreeSpectrumError(`bin ${k + 1}, sample ${bad + 1}: ${v} ${why}`);
     }
-    if (same) throw new FreeSpectrumError(`bin ${k + 1}: all samples are equal (${s[0]}); a density needs spread`);
+    if (allEqual(s)) throw new FreeSpectrumError(`bin ${k + 1}: all samples are equal (${s[0]}); a density needs spread`);
   }
   checked.add(data);
   return data;
+}
+
+/** Index of the first sample that is not a finite number in [lower, upper], or -1. */
+function firstBadSample(s: Float64Array, lower: number, upper: number): number {
+  for (let i = 0; i < s.length; i++) {
+    const v = s[i];
+    // v - v is NaN for an infinite v and for NaN (which also fails both comparisons)
+    if (!(v >= lower && v <= upper && v - v === 0)) return i;
+  }
+  return -1;
+}
+
+function allEqual(s: Float64Array): boolean {
+  const first = s[0];
+  for (let i = 1; i < s.length; i++) if (s[i] !== first) return false;
+  return true;
 }

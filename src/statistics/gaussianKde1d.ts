@@ -199,7 +199,9 @@ function convolve(counts: Float64Array, kernel: Float64Array, span: Span): Float
   let last = size - 1;
   while (last > first && counts[last] === 0) last--;
   const dens = new Float64Array(size);
-  for (let j = span.from; j <= span.to; j++) {
+  // points farther than m from every count stay zero
+  const to = last + m < span.to ? last + m : span.to;
+  for (let j = first - m > span.from ? first - m : span.from; j <= to; j++) {
     const iLo = j - m > first ? j - m : first;
     const iHi = j + m < last ? j + m : last;
     let s = 0;

@@ -51,17 +51,35 @@ export function decodeColumn(text: string, what: string): Float64Array {
   if (!Number.isFinite(min) || !Number.isFinite(max) || !(max >= min)) throw new SampleEncodingError(`${what}: bad range ${parts[0]} to ${parts[1]}`);
   if (!(Number.isInteger(count) && count >= 0)) throw new SampleEncodingError(`${what}: bad sample count ${parts[2]}`);
   if (payload.length !== 2 * count) throw new SampleEncodingError(`${what}: ${count} samples need ${2 * count} characters, found ${payload.length} (the text is damaged or cut)`);
+  const codes = asciiCodes(payload);
   const out = new Float64Array(count);
   const step = (max - min) / LEVELS;
   for (let i = 0; i < count; i++) {
-    const c0 = payload.charCodeAt(2 * i);
-    const c1 = payload.charCodeAt(2 * i + 1);
+    const c0 = codes[2 * i];
+    const c1 = codes[2 * i + 1];
     const a = c0 < 128 ? INDEX[c0] : -1;
     const b = c1 < 128 ? INDEX[c1] : -1;
     if (a < 0 || b < 0) throw new SampleEncodingError(`${what}: character ${2 * i + (a < 0 ? 1 : 2)} of the samples is not part of the encoding`);
     out[i] = min + ((a << 6) | b) * step;
   }
   return out;
+}
+
+const UTF8 = new TextEncoder();
+
+/**
+ * The text's character codes as bytes, any character beyond ASCII as 255 (not of the encoding):
+ * read by index, cheaper than a charCodeAt call per character while the code runs cold.
+ */
+function asciiCodes(text: string): Uint8Array {
+  const bytes = UTF8.encode(text);
+  if (bytes.length === text.length) return bytes; // ASCII only: one byte per character
+  const codes = new Uint8Array(text.length);
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    codes[i] = c < 128 ? c : 255;
+  }
+  return codes;
 }
 
 function fields(text: string, tag: string, what: string): Map<string, string> {

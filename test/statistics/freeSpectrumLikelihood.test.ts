@@ -100,6 +100,13 @@ describe('floor, prior and percentiles', () => {
     bad.samples[1][7] = NaN;
     expect(() => buildFreeSpectrumLikelihood(bad)).toThrow(FreeSpectrumError);
     expect(() => buildFreeSpectrumLikelihood(bad)).toThrow(/bin 2, sample 8: NaN is not a finite number/);
+    const infinite = gaussianData(50, [-7, -7.2], 0.1, 5);
+    infinite.samples[0][3] = -Infinity;
+    expect(() => validateFreeSpectrum({ ...infinite, prior: { kind: 'none' } })).toThrow(/bin 1, sample 4: -Infinity is not a finite number/);
+    expect(() => validateFreeSpectrum({ ...infinite, prior: { kind: 'uniform', lower: -10, upper: -4 } })).toThrow(/bin 1, sample 4: -Infinity is not a finite number/);
+    const outside = gaussianData(50, [-7, -7.2], 0.1, 5);
+    outside.samples[1][9] = -3.5;
+    expect(() => validateFreeSpectrum({ ...outside, prior: { kind: 'uniform', lower: -10, upper: -4 } })).toThrow(/bin 2, sample 10: -3.5 lies outside the prior range -10 to -4/);
     const good = gaussianData(50, [-7, -7.2], 0.1, 5);
     const copy = { ...good, samples: good.samples.map((s) => Float64Array.from(s)) };
     expect(validateFreeSpectrum(good)).toBe(good);

@@ -109,6 +109,10 @@ describe('compact encoding inside the sheet', () => {
     const t = encodeColumn([1, 2, 3]);
     expect(() => decodeColumn(t.slice(0, -1), 'bin 1')).toThrow(/bin 1: 3 samples need 6 characters/);
     expect(() => decodeColumn(t.slice(0, -1) + '!', 'bin 1')).toThrow(/character 6/);
+    // characters beyond ASCII (one or two UTF-16 units) are not of the encoding either, and the first bad one is named
+    expect(() => decodeColumn(t.slice(0, -3) + 'é' + t.slice(-2), 'bin 1')).toThrow(/character 4 /);
+    expect(() => decodeColumn(t.slice(0, -4) + '😀' + t.slice(-2), 'bin 1')).toThrow(/character 3 /);
+    expect(() => decodeColumn(t.slice(0, -4) + '!é' + t.slice(-2), 'bin 1')).toThrow(/character 3 /);
     expect(MAX_ENCODED_SAMPLES * 2).toBeLessThan(200_000); // fits the sheet's longest formula (formulaLimits.ts)
   });
 });
