@@ -18,7 +18,7 @@ import type { BinaryPopulation } from './populationTypes';
 import type { ResidenceFactor } from './residenceFactor';
 import { LoudestSearch } from './loudestSearch';
 import { LoudestSweep } from './loudestSweep';
-import { nodeRates } from './nodeRates';
+import { nodeRates, type NodeSumsOverQ } from './nodeRates';
 import { NO_TIME_CHECK, type TimeCheck } from './timeCheck';
 
 /** dt_r/dln f_r = (5/96) (G M_c / c^3)^(-5/3) (pi f_r)^(-8/3), s (Peters 1964, Phys. Rev. 136, B1224; Sesana, Vecchio & Colacino 2008). */
@@ -93,7 +93,9 @@ export function finiteBinaryBins(
   const nq = qr.nodes.length;
   const size = nz * nm * nq;
 
-  const { rate, mc53, massKg, fIsco, dc, age } = nodeRates(pop, cosmo, zr, mr, qr, checkTime);
+  // GW-driven: the sums over q are filled in the pass over the nodes that computes the rates.
+  const overQ = residence ? undefined : { perMc53: new Float64Array(nz * nm), timesMc53: new Float64Array(nz * nm), perMc53ByQ: new Float64Array(nz * nq * (nm + 1)) };
+  const { rate, mc53, massKg, fIsco, dc, age } = nodeRates(pop, cosmo, zr, mr, qr, checkTime, overQ);
 
   const nf = freqsHz.length;
   const out: FiniteBinaryResult = {
@@ -109,7 +111,7 @@ export function finiteBinaryBins(
   // each node's rate is scaled by the factor at the bin's f_r and the sums are rebuilt per bin.
   const scaled = residence ? new Float64Array(size) : rate;
   const factor = residence ? new Float64Array(size) : undefined;
-  let sums = residence ? undefined : nodeSums(rate, mc53, nz, nm, nq);
+  let sums = overQ ? sumsBelow(overQ, nz, nm) : undefined;
   // With a residence factor the rates change per bin: a search per bin. Without one, one walk for all bins (loudestSweep.ts) after the loop.
   let loud: LoudestSearch | undefined;
   const perBin: PerBin | undefined = residence ? undefined : { tau: new Float64Array(nf * nz), hF: new Float64Array(nf * nz), emitting: new Int32Array(nf * nz), h2Total: new Float64Array(nf) };
@@ -298,11 +300,14 @@ interface NodeSums {
 }
 
 function nodeSums(rate: Float64Array, mc53: Float64Array, nz: number, nm: number, nq: number): NodeSums {
-  // One function per pass over the nodes (each compiled on its own while cold).
-  const perMc53 = new Float64Array(nz * nm); // sum_q rate / M_c^(5/3)
-  const timesMc53 = new Float64Array(nz * nm); // sum_q rate x M_c^(5/3)
-  const perMc53ByQ = new Float64Array(nz * nq * (nm + 1));
-  sumsOverQ(rate, mc53, nz, nm, nq, perMc53, timesMc53, perMc53ByQ);
+  const overQ = { perMc53: new Float64Array(nz * nm), timesMc53: new Float64Array(nz * nm), perMc53ByQ: new Float64Array(nz * nq * (nm + 1)) };
+  sumsOverQ(rate, mc53, nz, nm, nq, overQ.perMc53, overQ.timesMc53, overQ.perMc53ByQ);
+  return sumsBelow(overQ, nz, nm);
+}
+
+/** The node sums from the sums over q (nodeRates.ts fills them in its pass, or sumsOverQ): adds the running sums over mass. */
+function sumsBelow(overQ: NodeSumsOverQ, nz: number, nm: number): NodeSums {
+  const { perMc53, timesMc53, perMc53ByQ } = overQ;
   const perMc53Below = new Float64Array(nz * (nm + 1));
   const timesMc53Below = new Float64Array(nz * (nm + 1));
   runningSumsOverMass(perMc53, timesMc53, nz, nm, perMc53Below, timesMc53Below);
@@ -311,19 +316,22 @@ function nodeSums(rate: Float64Array, mc53: Float64Array, nz: number, nm: number
 
 /**
  * Sums over q per (z, mass node) for the counts and h^2 (dN h^2 = rate tau_F h_F^2 M_c^(5/3)), and per
- * (z, q) the running sums over the mass nodes of rate / M_c^(5/3). M_c rises with the mass index at fixed
+ * (z, q) the running sums over the mass nodes of rate / M_c^(5/3) (with a residence factor, per bin;
+ * GW-driven, nodeRates.ts fills the same sums in its pass). M_c rises with the mass index at fixed
  * q, so the nodes with residence time tau_F / M_c^(5/3) above the age are a prefix.
  */
 function sumsOverQ(rate: Float64Array, mc53: Float64Array, nz: number, nm: number, nq: number, perMc53: Float64Array, timesMc53: Float64Array, perMc53ByQ: Float64Array): void {
+  let i = 0; // node (iz * nm + im) * nq + iq
   for (let iz = 0; iz < nz; iz++) {
     for (let im = 0; im < nm; im++) {
       let a = 0;
       let b = 0;
-      for (let iq = 0; iq < nq; iq++) {
-        const r = rate[(iz * nm + im) * nq + iq];
-        const per = r / mc53[im * nq + iq];
+      for (let iq = 0; iq < nq; iq++, i++) {
+        const r = rate[i];
+        const m53 = mc53[im * nq + iq];
+        const per = r / m53;
         a += per;
-        b += r * mc53[im * nq + iq];
+        b += r * m53;
         const base = (iz * nq + iq) * (nm + 1) + im;
         perMc53ByQ[base + 1] = perMc53ByQ[base] + per;
       }
