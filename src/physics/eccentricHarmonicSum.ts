@@ -43,16 +43,17 @@ export interface HarmonicSumTableOptions {
 
 /**
  * Phi(x) tabulated for one e0 (or a weighted mixture of e0 values on the same grid).
- * Layout: x < 1 gives 0 (no orbit exists yet); on [1, X1) each unit interval [k, k+1) holds its own
- * uniformly spaced values (max(4, ceil(16/k)) steps), from the right limit at k to the left limit at k+1
- * (Phi jumps at every integer, where harmonic k+1 switches on), built on the first query inside it,
- * up to S = max(nMax, 16): from the last kept harmonic nMax on no harmonic switches on and Phi is smooth,
- * so [S, X1] holds one value per integer (relative step at most 1/16, as the intervals below); on
- * [X1, X2] a logarithmic grid, computed as far as queries reach (the jumps there are below the stated
+ * Layout: x < 1 gives 0 (no orbit exists yet); on [1, 16) each unit interval [k, k+1) holds its own
+ * uniformly spaced values (ceil(16/k), at least 4, steps), from the right limit at k to the left limit
+ * at k+1 (Phi jumps at every integer, where harmonic k+1 switches on), built on the first query inside
+ * it. On [16, X1) one step per unit is as fine (relative step at most 1/16): on [k, k+1) Phi is the sum
+ * over harmonics n <= k, a smooth function of x also beyond the interval, interpolated (eight-point
+ * Lagrange) from its values at the integers k .. k+7; the sums over n <= K at integer j are kept for
+ * every K (one pass per j), so an interval costs a few harmonics, not four sums. On [X1, X2] a logarithmic grid, computed as far as queries reach (the jumps there are below the stated
  * tolerance, checked in test/orbits); beyond X2, where |Phi - 1| < 1e-9, the small-e law
  * Phi - 1 proportional to e^2 proportional to x^(-19/9) (Peters 1964: e proportional to f^(-19/18)).
- * Interpolation is four-point Lagrange (cubic) in x (integer region) and in ln x (log region), never
- * across an integer below S. Every value is the same whatever order the queries come in.
+ * Interpolation is four-point Lagrange (cubic) in x (unit intervals) and in ln x (log region), never
+ * across a jump. Every value is the same whatever order the queries come in.
  */
 export class HarmonicSumTable {
   readonly e0Values: Float64Array;
@@ -67,9 +68,10 @@ export class HarmonicSumTable {
   private unitCount = 0; // values of the intervals built
   private readonly x1: number;
   private readonly unitValues: Float64Array; // per interval [k, k+1): unitSteps + 1 values
-  private readonly smoothFrom: number; // S: from here to X1 one value per integer
-  private readonly smoothValues: Float64Array; // at x = S + j, j = 0 .. X1 - S
-  private readonly smoothDone: Uint8Array;
+  private readonly unitFrom: number; // from this interval on, values at the integers (16, or X1)
+  // per e0 value c and integer j >= unitFrom - 1: the sums over harmonics n <= K at x = j, index K
+  private readonly integerSums: (Float64Array | undefined)[][];
+  private readonly nodes8 = new Float64Array(8);
   // At integer x = j the left limit (harmonics up to j - 1) and the value (up to j) share their first
   // j - 1 terms, so one pass gives both: the last value of interval j - 1 and the first of interval j.
   private readonly jumpLeft: Float64Array; // index j
@@ -104,11 +106,9 @@ export class HarmonicSumTable {
     this.harmonicsKept = Int32Array.from(cuts.map((c) => c.nMax));
     this.omittedFraction = Math.max(...cuts.map((c) => c.omittedFraction));
     this.series = values.map((e) => new HarmonicSeries(e));
-    // where the last harmonic has switched on (and at least four integers before X1, for the cubic)
-    const smoothFrom = Math.max(...this.harmonicsKept, perUnit);
-    this.smoothFrom = smoothFrom <= this.x1 - 3 ? smoothFrom : this.x1;
-    this.smoothValues = new Float64Array(this.x1 - this.smoothFrom + 1);
-    this.smoothDone = new Uint8Array(this.x1 - this.smoothFrom + 1);
+    // where one step per unit is fine enough (ceil(perUnit / k) = 1), at least at integer 2
+    this.unitFrom = Math.min(Math.max(perUnit, 2), this.x1);
+    this.integerSums = values.map(() => []);
 
     this.unitSteps = new Int32Array(this.x1 - 1);
     this.unitOffsets = new Int32Array(this.x1 - 1);
@@ -172,26 +172,33 @@ export class HarmonicSumTable {
     this.unitCount += m + 1;
   }
 
-  /** Phi at x in [S, X1] from the values at the four integers around it (computed on demand). */
-  private smoothAt(x: number): number {
-    const t = x - this.smoothFrom;
-    const count = this.smoothValues.length;
-    let i = Math.floor(t) - 1;
-    if (i < 0) i = 0;
-    if (i > count - 4) i = count - 4;
-    for (let j = i; j < i + 4; j++) {
-      if (this.smoothDone[j]) continue;
-      this.checkTime();
-      const at = this.smoothFrom + j;
-      if (j === 0) {
-        // the value at S is also the right limit of the jump there
-        this.jumpAt(at);
-        this.smoothValues[0] = this.jumpRight[at];
-      } else this.smoothValues[j] = this.mix(at);
-      this.smoothDone[j] = 1;
-      this.unitCount++;
+  /** Phi at x in [k, k+1), k >= unitFrom: the sum over n <= k through its values at the integers k .. k+7. */
+  private byIntegers(x: number, k: number): number {
+    for (let d = 0; d < 8; d++) {
+      const j = k + d;
+      let v = 0;
+      for (let c = 0; c < this.series.length; c++) {
+        if (this.e0Weights[c] === 0) continue;
+        v += this.e0Weights[c] * this.sumsAt(c, j)[Math.min(k, this.harmonicsKept[c])];
+      }
+      this.nodes8[d] = v;
     }
-    return cubicAt(this.smoothValues, 0, count, t);
+    return eightPointAt(this.nodes8, x - k);
+  }
+
+  /** The sums over harmonics n <= K at x = j for K = 0 .. min(j, nMax) (the intervals up to j use them). */
+  private sumsAt(c: number, j: number): Float64Array {
+    const i = j - this.unitFrom;
+    let row = this.integerSums[c][i];
+    if (!row) {
+      this.checkTime();
+      const top = Math.min(j, this.harmonicsKept[c]);
+      row = new Float64Array(top + 1);
+      this.series[c].sum(j, top, 0, row);
+      this.integerSums[c][i] = row;
+      this.unitCount += 1;
+    }
+    return row;
   }
 
   /** Computes log-grid values up to index i (or until the grid ends: Phi within 1e-9 of 1 at four points, or x > 1e15). */
@@ -222,7 +229,7 @@ export class HarmonicSumTable {
     if (!(x >= 1)) return 0;
     if (x < this.x1) {
       const k = Math.floor(x);
-      if (k >= this.smoothFrom) return this.smoothAt(x);
+      if (k >= this.unitFrom) return this.byIntegers(x, k);
       if (!this.unitBuilt[k - 1]) this.buildInterval(k);
       const m = this.unitSteps[k - 1];
       return cubicAt(this.unitValues, this.unitOffsets[k - 1], m + 1, (x - k) * m);
@@ -243,6 +250,28 @@ export class HarmonicSumTable {
   get size(): number {
     return this.unitCount + this.logCount;
   }
+}
+
+/** prod_{b != a} (a - b) for nodes 0 .. 7. */
+const EIGHT_POINT_DENOMINATORS = Float64Array.from({ length: 8 }, (_, a) => {
+  let d = 1;
+  for (let b = 0; b < 8; b++) if (b !== a) d *= a - b;
+  return d;
+});
+
+/**
+ * Eight-point Lagrange interpolation at t (0 <= t <= 1 here) of values[0..7] at t = 0..7, written about
+ * values[0] so that a constant is reproduced exactly and t = 0 gives values[0].
+ */
+function eightPointAt(values: Float64Array, t: number): number {
+  const y0 = values[0];
+  let s = 0;
+  for (let a = 1; a < 8; a++) {
+    let l = 1 / EIGHT_POINT_DENOMINATORS[a];
+    for (let b = 0; b < 8; b++) if (b !== a) l *= t - b;
+    s += l * (values[a] - y0);
+  }
+  return y0 + s;
 }
 
 /** Four-point Lagrange interpolation at fractional index t of values[offset .. offset + count - 1] (count >= 4). */

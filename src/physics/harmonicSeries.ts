@@ -8,7 +8,11 @@ import { eccentricityFromShape, petersShapeLog } from './petersEvolution';
 /** A harmonic whose Kapteyn-bounded weight is below this is skipped (it cannot change a double sum of size >= 1e-2). */
 export const SKIP_WEIGHT = 1e-19;
 
-/** The sum of harmonics 1 .. top at x for one e0 (x >= top), and its value after a chosen harmonic. */
+/**
+ * The sum of harmonics 1 .. top at x for one e0, and its value after a chosen harmonic (or after each).
+ * top may exceed x by a little: those harmonics' orbits have not formed yet (x/n < 1), and the sum is the
+ * smooth continuation of the one beyond the next integer, which a table interpolates across integers.
+ */
 export class HarmonicSeries {
   /** The sum after harmonic `partialAt` in the last sum() call. */
   partial = 0;
@@ -25,57 +29,61 @@ export class HarmonicSeries {
     this.eBoundFactor = e0 === 0 ? 0 : Math.exp((19 / 12) * this.shape0);
   }
 
-  /** Phi(x; e0) summed over harmonics 1 .. top (top <= x); the sum after harmonic partialAt is kept in `partial`. */
-  sum(x: number, top: number, partialAt: number): number {
+  /**
+   * Phi(x; e0) summed over harmonics 1 .. top; the sum after harmonic partialAt is kept in `partial`,
+   * and, if given, the sum after each harmonic n in prefix[n] (prefix[0] = 0).
+   */
+  sum(x: number, top: number, partialAt: number, prefix?: Float64Array): number {
     const e0 = this.e0;
     const shape0 = this.shape0;
     const twoOverN23 = harmonicWeights(top);
     const keptFrom = this.keptFromUpTo(top);
     let sum = 0;
     let en = e0;
-    let tailChecked = false;
+    // harmonics lowestSure .. top are shown to be skipped (tailFrom); checks stop once top itself is not
+    let lowestSure = top + 1;
+    if (prefix) prefix[0] = 0;
     for (let n = 1; n <= top; n++) {
       // e grows with n (lower orbital frequency): the previous harmonic's e is a close first guess.
-      en = e0 === 0 ? 0 : eccentricityFromShape(e0, shape0, x / n, n === 1 ? undefined : en);
+      en = e0 === 0 ? 0 : eccentricityFromShape(e0, shape0, x / n, n === 1 ? undefined : nextGuess(en, n));
       const weight = twoOverN23[n] / eccentricityEnhancement(en);
       // Skipped when the bound is below SKIP_WEIGHT; its cheap part decides first where it is above, and
-      // before it the eccentricity above which that part surely passes (keptFrom, no transcendental call).
-      if (n <= 2 || en >= keptFrom[n] || weight * harmonicPowerBoundPart(n, en) >= SKIP_WEIGHT || weight * harmonicPowerBound(n, en) >= SKIP_WEIGHT) {
+      // before it the eccentricity above which that part surely passes (keptFrom, no transcendental call;
+      // it assumes e_n <= e0, true where the orbit has formed, n <= x), and after it one Kapteyn bound
+      // that shows the bound surely below (skipBound).
+      if (n <= 2 || (en >= keptFrom[n] && n <= x) || (!(skipBound(n, n * en, twoOverN23[n]) < 0.5 * SKIP_WEIGHT) && (weight * harmonicPowerBoundPart(n, en) >= SKIP_WEIGHT || weight * harmonicPowerBound(n, en) >= SKIP_WEIGHT))) {
         sum += weight * harmonicPower(n, en);
-      } else if (!tailChecked) {
-        // the first harmonic skipped: if every later one surely is too, the sum is complete
-        tailChecked = true;
-        if (this.tailSkipped(x, n, top)) {
+      } else if (lowestSure > 0) {
+        // a harmonic skipped: if every later one surely is too, the sum is complete
+        lowestSure = this.tailFrom(x, n, lowestSure);
+        if (lowestSure === n + 1) {
           if (partialAt >= n && partialAt <= top) this.partial = sum;
+          if (prefix) prefix.fill(sum, n, top + 1);
           break;
         }
+        if (lowestSure === top + 1) lowestSure = 0; // top itself may be kept: no tail to skip
       }
       if (n === partialAt) this.partial = sum;
+      if (prefix) prefix[n] = sum;
     }
     return sum;
   }
 
   /**
-   * True when harmonics after..top all fail the skip test surely, without their eccentricities: since
+   * Extends the run lowestSure .. top of harmonics shown to fail the skip test down towards after + 1,
+   * without their eccentricities, and returns its new start (after + 1 when all are shown): since
    * -ln(1 - e^2) and the last term of the Peters 1964 shape are >= 0, (12/19) ln e_n <= shape(e0) -
-   * (2/3) ln(x/n), an upper bound e^ on e_n; the weight is at most (2/n)^(2/3) (F >= 1); the five Bessel
-   * bounds of harmonicPowerBound are at most Kapteyn's bound K_{n-2}(n e^) (it grows with the argument and
-   * falls with the order), so the bound is at most 1.9 n^4 K^2 (its coefficients at e <= 1, n >= 3). Each
-   * must be below SKIP_WEIGHT / 2 (a factor 2 to spare for rounding); checked from the top down.
+   * (2/3) ln(x/n), an upper bound e^ on e_n, and skipBound(n, n e^) grows with e (Kapteyn's bound grows
+   * with the argument).
    */
-  private tailSkipped(x: number, after: number, top: number): boolean {
-    const twoOverN23 = harmonicWeights(top);
-    for (let n = top; n > after; n--) {
+  private tailFrom(x: number, after: number, lowestSure: number): number {
+    const twoOverN23 = harmonicWeights(lowestSure);
+    let n = lowestSure - 1;
+    for (; n > after; n--) {
       const eHat = this.eBoundFactor * Math.pow(n / x, 19 / 18) * (1 + 1e-9);
-      const m = n - 2;
-      const z = (n * eHat) / m;
-      if (!(z < 1)) return false;
-      const s = Math.sqrt(1 - z * z);
-      const k = Math.exp(m * (Math.log(z) + s - Math.log1p(s)));
-      const n2 = n * n;
-      if (!(twoOverN23[n] * 1.9 * n2 * n2 * k * k < 0.5 * SKIP_WEIGHT)) return false;
+      if (!(skipBound(n, n * eHat, twoOverN23[n]) < 0.5 * SKIP_WEIGHT)) break;
     }
-    return true;
+    return n + 1;
   }
 
   private keptFromUpTo(top: number): Float64Array {
@@ -88,6 +96,33 @@ export class HarmonicSeries {
     }
     return this.keptFrom;
   }
+}
+
+/**
+ * An upper bound on (2/n)^(2/3)/F(e) * harmonicPowerBound(n, e) at x = n e, n >= 3: the weight is at most
+ * twoOverN23 = (2/n)^(2/3) (F >= 1), the five Bessel bounds are at most Kapteyn's bound K_{n-2}(x) (it
+ * falls with the order), and the coefficients at e <= 1 make the bound at most 1.9 n^4 K^2. Compared
+ * with SKIP_WEIGHT / 2, a factor 2 to spare for rounding. Infinity where Kapteyn's bound is 1 (x >= n-2).
+ */
+function skipBound(n: number, x: number, twoOverN23: number): number {
+  const m = n - 2;
+  const z = x / m;
+  if (!(z < 1)) return Infinity;
+  const s = Math.sqrt(1 - z * z);
+  const k = Math.exp(m * (Math.log(z) + s - Math.log1p(s)));
+  const n2 = n * n;
+  return twoOverN23 * 1.9 * n2 * n2 * k * k;
+}
+
+/**
+ * A first guess of e_n from e_{n-1}: the orbital frequency falls by (n-1)/n, and
+ * d ln e / d ln f = -(2/3) / (e d shape/de) (Peters 1964, eq. 5.11 with Kepler's law), so to first
+ * order e_n = e_{n-1} (n / (n-1))^((2/3) / (e shape'(e))).
+ */
+function nextGuess(ePrev: number, n: number): number {
+  const e2 = ePrev * ePrev;
+  const eSlope = 12 / 19 + (2 * e2) / (1 - e2) + ((870 / 2299) * (242 / 304) * e2) / (1 + (121 / 304) * e2);
+  return ePrev * Math.pow(n / (n - 1), 2 / (3 * eSlope));
 }
 
 /**

@@ -42,8 +42,8 @@ xs = [1.0, 1.3, 1.999, 2.0, 2.5, 3.7, 7.25, 15.5, 40.0, 63.5, 100.0, 333.0, 1000
 runs = []
 for e0 in (0.0, 0.3, 0.7, 0.9):
     runs.append({"e0": e0, "points": [{"x": x, "phi": phi(x, e0)} for x in xs]})
-# Between the last harmonic a table keeps (e0 = 0.3: 14, e0 = 0.6: 41, at power tolerance 1e-7) and
-# x = 64, where Phi is smooth: points between integers, and just above the integers where it jumps.
+# On [16, 64), where a table interpolates the harmonic sums at the integers (e0 = 0.3 keeps 14
+# harmonics, e0 = 0.6 41, at power tolerance 1e-7): points between integers, and just above integers.
 smooth_xs = [16.5, 17.25, 19.9, 23.4, 29.75, 37.1, 41.01, 41.5, 44.3, 48.75, 53.2, 58.6, 62.125, 63.9]
 smooth_runs = []
 for e0 in (0.3, 0.6):
