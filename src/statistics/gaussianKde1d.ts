@@ -143,15 +143,19 @@ function binSamples(x: ArrayLike<number>, lo: number, dx: number, size: number, 
   const last = size - 1;
   for (let i = 0; i < x.length; i++) {
     const v = x[i];
+    // Both images are computed for every sample, so the optimised code has seen their arithmetic
+    // even when the first samples have none within reach.
+    const va = 2 * a - v;
+    const vb = 2 * b - v;
     // the sample, then its image about a, then about b (images that fall on the table are kept)
     for (let image = 0; image < 3; image++) {
       let y = v;
       if (image === 1) {
         if (!(v - a < reach)) continue;
-        y = 2 * a - v;
+        y = va;
       } else if (image === 2) {
         if (!(b - v < reach)) continue;
-        y = 2 * b - v;
+        y = vb;
       }
       const t = (y - lo) / dx;
       if (t < 0 || t > last) continue;
@@ -199,11 +203,16 @@ function convolve(counts: Float64Array, kernel: Float64Array, span: Span): Float
   let last = size - 1;
   while (last > first && counts[last] === 0) last--;
   const dens = new Float64Array(size);
-  // points farther than m from every count stay zero
-  const to = last + m < span.to ? last + m : span.to;
-  for (let j = first - m > span.from ? first - m : span.from; j <= to; j++) {
-    const iLo = j - m > first ? j - m : first;
-    const iHi = j + m < last ? j + m : last;
+  // Points farther than m from every count stay zero. Each bound is computed before it is compared,
+  // so optimised code compiled early in a call has seen every operation (no deoptimisation later).
+  const from = first - m;
+  const to = last + m;
+  const jHi = to < span.to ? to : span.to;
+  for (let j = from > span.from ? from : span.from; j <= jHi; j++) {
+    const left = j - m;
+    const right = j + m;
+    const iLo = left > first ? left : first;
+    const iHi = right < last ? right : last;
     let s = 0;
     for (let i = iLo; i < j && i <= iHi; i++) s += counts[i] * kernel[j - i];
     for (let i = j > iLo ? j : iLo; i <= iHi; i++) s += counts[i] * kernel[i - j];

@@ -160,6 +160,7 @@ interface Span {
  */
 function smoothRows(counts: Float64Array, kern: Float64Array, size: number, rows: Span, cols: Span, checkTime: TimeCheck): Float64Array {
   const m = kern.length - 1;
+  const last = size - 1;
   const out = new Float64Array(size * size);
   for (let r = rows.from; r <= rows.to; r++) {
     checkTime();
@@ -167,8 +168,11 @@ function smoothRows(counts: Float64Array, kern: Float64Array, size: number, rows
     for (let i = cols.from; i <= cols.to; i++) {
       const c = counts[row + i];
       if (c === 0) continue;
-      const jLo = i > m ? i - m : 0;
-      const jHi = i + m < size ? i + m : size - 1;
+      // bounds computed before they are compared (see smoothColumnAt)
+      const left = i - m;
+      const right = i + m;
+      const jLo = left > 0 ? left : 0;
+      const jHi = right < last ? right : last;
       for (let j = jLo; j < i; j++) out[row + j] += c * kern[i - j];
       for (let j = i; j <= jHi; j++) out[row + j] += c * kern[j - i];
     }
@@ -182,8 +186,13 @@ function smoothRows(counts: Float64Array, kern: Float64Array, size: number, rows
  */
 function smoothColumnAt(smoothed: Float64Array, kern: Float64Array, size: number, norm: number, i: number, j: number): number {
   const m = kern.length - 1;
-  const rLo = j > m ? j - m : 0;
-  const rHi = j + m < size ? j + m : size - 1;
+  // Each bound is computed before it is compared, so optimised code compiled while every point so
+  // far was far from the grid's edges has seen every operation (no deoptimisation near an edge).
+  const last = size - 1;
+  const below = j - m;
+  const above = j + m;
+  const rLo = below > 0 ? below : 0;
+  const rHi = above < last ? above : last;
   let s = 0;
   let at = rLo * size + i;
   for (let r = rLo; r < j; r++, at += size) s += norm * smoothed[at] * kern[j - r];

@@ -46,7 +46,9 @@ export function encodeColumn(x: ArrayLike<number>): string {
 export function decodeColumn(text: string, what: string): Float64Array {
   const parts = text.split(':');
   if (parts.length !== 4) throw new SampleEncodingError(`${what}: expected min:max:count:samples, found ${parts.length} fields`);
-  const [min, max, count] = parts.slice(0, 3).map(Number);
+  const min = Number(parts[0]);
+  const max = Number(parts[1]);
+  const count = Number(parts[2]);
   const payload = parts[3];
   if (!Number.isFinite(min) || !Number.isFinite(max) || !(max >= min)) throw new SampleEncodingError(`${what}: bad range ${parts[0]} to ${parts[1]}`);
   if (!(Number.isInteger(count) && count >= 0)) throw new SampleEncodingError(`${what}: bad sample count ${parts[2]}`);
