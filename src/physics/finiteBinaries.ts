@@ -71,7 +71,8 @@ export interface FiniteBinaryResult {
  * With `residence`, dt_r/dln f_r is the total residence time, the GW one times R(f_r, M, q, z), and
  * h_c^2 equals Phinney's h_c^2 with the emission kernel circular x R; a binary is long-residence when
  * that total time exceeds the age. Without it every number is the GW-driven one, computed as before.
- * `checkTime` is called once per redshift row of the set-up and once per bin (TimeCheck).
+ * `checkTime` is called once per redshift row of the set-up and once per bin (TimeCheck), and GW-driven
+ * once per bin again by each group of fields computed when first read (cuts and thinned h_c, loudest binaries).
  */
 export function finiteBinaryBins(
   pop: BinaryPopulation,
@@ -157,8 +158,8 @@ export function finiteBinaryBins(
   }
   if (perBin) {
     const gwSums = sums as NodeSums;
-    computedOnFirstRead(out, ['cutLog10M', 'thinnedHc'], () => cutsOfBins(out.frequencyHz, out.expectedPerBin, perBin, gwSums, edges, nz, nm, spanS));
-    computedOnFirstRead(out, ['loudestStrain'], () => ({ loudestStrain: loudestBySweep(out.frequencyHz, out.expectedPerBin, perBin, new LoudestSweep(rate, mc53, zr.nodes, dc, nm, nq), nz, spanS) }));
+    computedOnFirstRead(out, ['cutLog10M', 'thinnedHc'], () => cutsOfBins(out.frequencyHz, out.expectedPerBin, perBin, gwSums, edges, nz, nm, spanS, checkTime));
+    computedOnFirstRead(out, ['loudestStrain'], () => ({ loudestStrain: loudestBySweep(out.frequencyHz, out.expectedPerBin, perBin, new LoudestSweep(rate, mc53, zr.nodes, dc, nm, nq), nz, spanS, checkTime) }));
   }
   return out;
 }
@@ -181,10 +182,11 @@ function computedOnFirstRead<T extends object, K extends keyof T>(out: T, keys: 
 }
 
 /** The mass cut and thinned h_c of every GW-driven bin (massCut on the kept factors; sums the same for every bin). */
-function cutsOfBins(f: Float64Array, counts: Float64Array, perBin: PerBin, sums: NodeSums, edges: Float64Array, nz: number, nm: number, spanS: number): { cutLog10M: Float64Array; thinnedHc: Float64Array } {
+function cutsOfBins(f: Float64Array, counts: Float64Array, perBin: PerBin, sums: NodeSums, edges: Float64Array, nz: number, nm: number, spanS: number, checkTime: TimeCheck): { cutLog10M: Float64Array; thinnedHc: Float64Array } {
   const cutLog10M = new Float64Array(f.length);
   const thinnedHc = new Float64Array(f.length);
   for (let k = 0; k < f.length; k++) {
+    checkTime();
     const at = k * nz;
     const h2Total = perBin.h2Total[k];
     const bin: BinScratch = { tauOf: perBin.tau.subarray(at, at + nz), hFOf: perBin.hF.subarray(at, at + nz), emitting: perBin.emitting.subarray(at, at + nz), count: counts[k], h2Total, longCount: 0 };
@@ -197,10 +199,11 @@ function cutsOfBins(f: Float64Array, counts: Float64Array, perBin: PerBin, sums:
 }
 
 /** The loudest binary of each bin holding one or more, by one walk over the bins in increasing f (LoudestSweep). */
-function loudestBySweep(f: Float64Array, counts: Float64Array, perBin: PerBin, sweep: LoudestSweep, nz: number, spanS: number): Float64Array {
+function loudestBySweep(f: Float64Array, counts: Float64Array, perBin: PerBin, sweep: LoudestSweep, nz: number, spanS: number, checkTime: TimeCheck): Float64Array {
   const loudest = new Float64Array(f.length);
   const byF = Array.from(f.keys()).sort((a, b) => f[a] - f[b] || a - b);
   for (const k of byF) {
+    checkTime();
     if (counts[k] < 1) continue;
     const at = k * nz;
     loudest[k] = sweep.loudest(f[k], perBin.tau.subarray(at, at + nz), perBin.hF.subarray(at, at + nz), perBin.emitting.subarray(at, at + nz), 1 / (f[k] * spanS));

@@ -89,6 +89,18 @@ describe("built-ins' loops and the page's cell budget", () => {
     });
   });
 
+  it('GW-driven, the cuts (thinnedSpectrum) and loudest binaries (loudestBinaryStrain) computed when first read stop on the page, per bin, and are computed whole later', () => {
+    const get = inputs();
+    const args = [get('pop'), get('freqs'), get('array_span')];
+    for (const n of ['thinnedSpectrum', 'loudestBinaryStrain']) {
+      const reference = plain(call(n, ...args));
+      call('binariesPerBin', ...args, get('stellar_environment')); // another computation kept (orbits.ts finiteBins)
+      call('binariesPerBin', ...args); // the bins set up anew, the fields not read yet
+      stopsOnPage(() => call(n, ...args));
+      expect(plain(call(n, ...args)), n).toEqual(reference);
+    }
+  });
+
   it('realiseBackground: a small run goes to the end on the page (its plot reads the draws), a large one stops (cells and summary per bin, draws per realisation); realisedQuantile stops per bin', () => {
     const get = inputs();
     const freqs = get('freqs') as { size(): number[] };
