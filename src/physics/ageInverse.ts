@@ -26,10 +26,13 @@ function tableOf(cosmo: FlatLambdaCdm): AgeTable {
   return t;
 }
 
+/** Points computed at the first look-up, in one loop: up to z = 9 (ln 10 / step). */
+const FIRST_FILL = 2048;
+
 /** Computes the table up to at least point n - 1 (at least doubling what is there, in one loop). */
 function fillTo(t: AgeTable, n: number): void {
   if (t.filled >= n) return;
-  const end = Math.min(POINTS, Math.max(n, 2 * t.filled, 512));
+  const end = Math.min(POINTS, Math.max(n, 2 * t.filled, FIRST_FILL));
   const { lnAge, slope, step, cosmo } = t;
   for (let i = t.filled; i < end; i++) {
     const z = Math.min(COSMOLOGY_Z_LIMIT, Math.expm1(i * step));

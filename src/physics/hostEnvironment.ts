@@ -74,8 +74,10 @@ export function bulgeMassOfMass(mKg: number): number {
   return 1e11 * M_SUN_KG * Math.pow(10, (Math.log10(mKg / M_SUN_KG) - r.a) / r.b);
 }
 
+const ISOTHERMAL: HostProfile = Object.freeze({ kind: 'isothermal' });
+
 /** Stellar density at the influence radius of a binary of mass mKg with host dispersion sigmaMS, kg/m^3. */
-export function influenceDensity(mKg: number, sigmaMS: number, profile: HostProfile = { kind: 'isothermal' }): number {
+export function influenceDensity(mKg: number, sigmaMS: number, profile: HostProfile = ISOTHERMAL): number {
   if (profile.kind === 'dehnen') return dehnenInfluence(mKg, sigmaMS, bulgeMassOfMass(mKg), profile.gamma).densityKgM3;
   return isothermalDensity(isothermalInfluenceRadius(mKg, sigmaMS), sigmaMS);
 }

@@ -71,9 +71,11 @@ function isMassEnvironment(env: StellarEnvironment | MassEnvironment): env is Ma
   return typeof (env as MassEnvironment).ofMass === 'function';
 }
 
-/** The environment part of a_t^5 = k eta M^3: k = (64/5) G^2 F(e) sigma / (c^5 rho H) (equal rates, as above). */
-function transitionConstant(env: StellarEnvironment, e: number): number {
-  return ((64 / 5) * G_SI * G_SI * eccentricityEnhancement(e) * env.dispersionMS) / (C_SI ** 5 * env.densityKgM3 * env.hardeningRate);
+const C_FIFTH = C_SI ** 5;
+
+/** The environment part of a_t^5 = k eta M^3: k = (64/5) G^2 F(e) sigma / (c^5 rho H) (equal rates, as above); enhancement = F(e). */
+function transitionConstant(env: StellarEnvironment, enhancement: number): number {
+  return ((64 / 5) * G_SI * G_SI * enhancement * env.dispersionMS) / (C_FIFTH * env.densityKgM3 * env.hardeningRate);
 }
 
 /**
@@ -90,17 +92,18 @@ export function transitionFrequencyFunction(env: StellarEnvironment | MassEnviro
  */
 export function transitionFrequencyParts(env: StellarEnvironment | MassEnvironment, e = 0): { of: (mKg: number, q: number) => number; mass: (mKg: number) => number; ratio: (q: number) => number } {
   const ratio = (q: number): number => Math.pow(q / ((1 + q) * (1 + q)), -0.3);
+  const enhancement = eccentricityEnhancement(e);
   if (isMassEnvironment(env)) {
     // k depends on M through sigma(M) and rho(M); the factorisation in M and q still holds.
     const mass = (mKg: number): number => {
       const local = env.ofMass(mKg);
       checkEnvironment(local);
-      return (Math.sqrt(G_SI * mKg) * Math.pow(transitionConstant(local, e) * mKg * mKg * mKg, -0.3)) / Math.PI;
+      return (Math.sqrt(G_SI * mKg) * Math.pow(transitionConstant(local, enhancement) * mKg * mKg * mKg, -0.3)) / Math.PI;
     };
     return { of: (mKg, q) => mass(mKg) * ratio(q), mass, ratio };
   }
   const of = transitionFrequencyOf(env, e);
-  const k = transitionConstant(env, e);
+  const k = transitionConstant(env, enhancement);
   return {
     of,
     mass: (mKg) => (Math.sqrt(G_SI * mKg) * Math.pow(k * mKg * mKg * mKg, -0.3)) / Math.PI,
@@ -110,7 +113,7 @@ export function transitionFrequencyParts(env: StellarEnvironment | MassEnvironme
 
 function transitionFrequencyOf(env: StellarEnvironment, e: number): (mKg: number, q: number) => number {
   checkEnvironment(env);
-  const k = transitionConstant(env, e);
+  const k = transitionConstant(env, eccentricityEnhancement(e));
   const g = G_SI;
   return (mKg, q) => {
     const m1 = mKg / (1 + q);

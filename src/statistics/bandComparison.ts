@@ -43,8 +43,15 @@ export interface BandComparison {
 function medianOfTable(like: FreeSpectrumLikelihood, k: number): number {
   const t = like.tables[k];
   const total = t.cdf[t.size - 1];
-  let i = 0;
-  while (i < t.size - 1 && t.cdf[i + 1] < 0.5 * total) i++;
+  // i: the last grid point before the cdf reaches half the total (the cdf never falls: bisection)
+  let lo = 1;
+  let hi = t.size;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (t.cdf[mid] < 0.5 * total) lo = mid + 1;
+    else hi = mid;
+  }
+  const i = lo - 1;
   const a = t.cdf[i];
   const b = t.cdf[i + 1];
   const w = b > a ? (0.5 * total - a) / (b - a) : 0;
