@@ -54,7 +54,8 @@ export function kdeLogDensityDirect(x: ArrayLike<number>, h: number, t: number):
 }
 
 export interface KdeTable {
-  /** Grid start, spacing and number of points: x_i = x0 + i dx. */
+  /** Grid start, spacing and number of points: x_i = x0 + i dx. A reflecting edge with samples within
+   * reach of it is the first (x0) or last grid point; the density is zero off the table. */
   x0: number;
   dx: number;
   size: number;
@@ -62,7 +63,7 @@ export interface KdeTable {
   h: number;
   /** ln density at each grid point (-Infinity where the binned sum is 0). */
   logDensity: Float64Array;
-  /** Cumulative probability at each grid point (trapezoid rule on the density; ends at about 1). */
+  /** Cumulative probability at each grid point (trapezoid rule on the density from x0; ends at about 1). */
   cdf: Float64Array;
   /** Largest ln density on the grid. */
   logPeak: number;
@@ -80,8 +81,8 @@ export interface KdeTableOptions {
 /**
  * Tabulates the KDE of the samples. With edges, samples within reach of a finite edge are mirrored
  * about it so the estimate keeps its mass inside (reflection method, Silverman 1986, Density
- * Estimation, Chapman & Hall) and the density is zero beyond the edge; without edges the result is scipy's
- * gaussian_kde on the table.
+ * Estimation, Chapman & Hall); the edge is a grid point, so the density is zero beyond it and the cdf
+ * integrates over the inside only. Without edges the result is scipy's gaussian_kde on the table.
  */
 export function tabulateKde(x: ArrayLike<number>, opts: KdeTableOptions = {}): KdeTable {
   const n = x.length;
@@ -94,18 +95,44 @@ export function tabulateKde(x: ArrayLike<number>, opts: KdeTableOptions = {}): K
   const b = opts.upperEdge ?? Infinity;
   if (min < a || max > b) throw new RangeError(`samples run from ${min} to ${max}, outside the edges ${a} to ${b}`);
   const reach = KERNEL_REACH_H * h;
-  // The grid covers every sample within reach, and the mirror images of samples near an edge; the
-  // density outside the edges is zero.
-  const lo = min < a + reach ? a - reach : min - reach;
-  const hi = max > b - reach ? b + reach : max + reach;
-  let size = Math.ceil(((hi - lo) / h) * TABLE_STEPS_PER_H) + 1;
-  if (size > MAX_TABLE_POINTS) size = MAX_TABLE_POINTS; // very wide spread against h: coarser table
-  size = Math.max(size, 3);
-  const dx = (hi - lo) / (size - 1);
+  // The table runs from L to H: from an edge that has samples within reach of it (so the edge is a
+  // grid point, the density is zero beyond it and the cdf integrates from it), else from reach
+  // beyond the outermost sample. Mirror images are binned on `pad` more points beyond each such edge.
+  const lowEdge = min < a + reach;
+  const highEdge = max > b - reach;
+  const L = lowEdge ? a : min - reach;
+  const H = highEdge ? b : max + reach;
+  const { steps, dx, pad } = tableSteps(H - L, h, reach, lowEdge, highEdge);
+  const padLo = lowEdge ? pad : 0;
+  const size = steps + 1 + padLo + (highEdge ? pad : 0);
+  const lo = L - padLo * dx;
   const counts = binSamples(x, lo, dx, size, a, b, reach);
   const m = Math.min(Math.ceil(reach / dx), size - 1);
-  const dens = convolve(counts, gaussianKernel(m, dx, h, 1 / (n * h * Math.sqrt(2 * Math.PI))), inside(lo, dx, size, a, b));
-  return { x0: lo, dx, size, h, ...logAndCdf(dens, dx) };
+  const span = { from: padLo, to: padLo + steps };
+  const dens = convolve(counts, gaussianKernel(m, dx, h, 1 / (n * h * Math.sqrt(2 * Math.PI))), span);
+  return { x0: L, dx, size: steps + 1, h, ...logAndCdf(dens.subarray(span.from, span.to + 1), dx) };
+}
+
+/**
+ * Grid steps across a table of width w, their spacing dx <= h / TABLE_STEPS_PER_H (coarser only when
+ * the grid would pass MAX_TABLE_POINTS, mirror-image points included) and the points `pad` the grid
+ * reaches beyond an edge. With an upper edge, dx is nudged up until w / dx <= steps and w * (1 / dx) <= steps,
+ * so the edge itself is read at most at the last grid point, not past it.
+ */
+function tableSteps(w: number, h: number, reach: number, lowEdge: boolean, highEdge: boolean): { steps: number; dx: number; pad: number } {
+  const edges = (lowEdge ? 1 : 0) + (highEdge ? 1 : 0);
+  let steps = Math.max(Math.ceil((w / h) * TABLE_STEPS_PER_H), 2);
+  let dx = w / steps;
+  // images lie within reach of their edge and within the table's width w of it
+  let pad = Math.min(Math.ceil(reach / dx), steps + 1);
+  if (steps + 1 + edges * pad > MAX_TABLE_POINTS) {
+    // very wide spread against h: a coarser table (pad only shrinks as dx grows)
+    steps = Math.max(MAX_TABLE_POINTS - 1 - edges * pad, 2);
+    dx = w / steps;
+    pad = Math.min(Math.ceil(reach / dx), steps + 1);
+  }
+  if (highEdge) while (w / dx > steps || w * (1 / dx) > steps) dx *= 1 + Number.EPSILON;
+  return { steps, dx, pad };
 }
 
 /** Smallest and largest sample and their sum (in order); refuses a sample that is not a finite number. */
@@ -178,15 +205,6 @@ function gaussianKernel(m: number, dx: number, h: number, norm: number): Float64
 interface Span {
   from: number;
   to: number;
-}
-
-/** The grid points lo + i dx that lie within the edges [a, b] (to a part in 1e12 of dx). */
-function inside(lo: number, dx: number, size: number, a: number, b: number): Span {
-  let from = 0;
-  while (from < size && lo + from * dx < a - 1e-12 * dx) from++;
-  let to = size - 1;
-  while (to >= from && lo + to * dx > b + 1e-12 * dx) to--;
-  return { from, to };
 }
 
 /**

@@ -3,7 +3,8 @@
 // scipy version and each call), and the binned table's own accuracy against direct summation.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { kdeLogDensityDirect, kernelWidth, tableCdf, tableLogDensity, tabulateKde } from '../../src/statistics/gaussianKde1d';
+import { KERNEL_REACH_H, kdeLogDensityDirect, kernelWidth, tableCdf, tableLogDensity, tabulateKde } from '../../src/statistics/gaussianKde1d';
+import { binnedPointsPerSample, cdfErrorBound, reflectedKde } from './kdeErrorBounds';
 import { kde2dDensity, tabulateKde2d } from '../../src/statistics/gaussianKde2d';
 
 const ref = JSON.parse(readFileSync(new URL('../reference/kde_reference.json', import.meta.url), 'utf8'));
@@ -48,8 +49,12 @@ describe('1-D KDE against scipy.stats.gaussian_kde (kde_reference.json)', () => 
   it('with a reflecting edge the table keeps unit mass inside and is zero beyond the edge (reflection method, Silverman 1986, Density Estimation)', () => {
     const lower = Math.min(...x) - 0.01;
     const t = tabulateKde(x, { lowerEdge: lower });
-    expect(tableLogDensity(t, lower - 0.05)).toBe(-Infinity);
-    expect(Math.abs(t.cdf[t.size - 1] - 1)).toBeLessThan(2e-3);
+    expect(tableLogDensity(t, lower - 1e-9)).toBe(-Infinity);
+    // The exact reflected estimate has mass 1 inside; the table within the binned-KDE cdf bound (kdeErrorBounds.ts).
+    let maxSlope = 0;
+    for (let i = 0; i < t.size; i++) maxSlope = Math.max(maxSlope, Math.abs(reflectedKde(x, t.h, lower, Infinity, t.x0 + i * t.dx).slope));
+    const tol = cdfErrorBound(t.dx, t.h, binnedPointsPerSample(x, lower, Infinity, KERNEL_REACH_H * t.h), maxSlope);
+    expect(Math.abs(t.cdf[t.size - 1] - 1)).toBeLessThan(tol);
   });
   it('refuses one sample, equal samples and non-finite samples', () => {
     expect(() => tabulateKde([1])).toThrow(/at least 2 samples/);

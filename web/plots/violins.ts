@@ -43,20 +43,18 @@ export function violinDensity(samples: ArrayLike<number>, scale: number, shift: 
     }
   }
   // The outline ends at a prior edge (the density there is not zero: reflection keeps the mass inside),
-  // read at the table's nearest point inside the edge.
+  // which is the table's first or last grid point.
   const a = opts.lowerEdge ?? -Infinity;
   const b = opts.upperEdge ?? Infinity;
   const lo = Math.max(a, t.x0 + Math.max(0, first - 1) * t.dx);
   const hi = Math.min(b, t.x0 + Math.min(t.size - 1, last + 1) * t.dx);
-  const aIn = Number.isFinite(a) ? t.x0 + Math.ceil((a - t.x0) / t.dx - 1e-9) * t.dx : -Infinity;
-  const bIn = Number.isFinite(b) ? t.x0 + Math.floor((b - t.x0) / t.dx + 1e-9) * t.dx : Infinity;
   const n = Math.max(3, opts.points ?? VIOLIN_POINTS);
   const log10Y = new Float64Array(n);
   const density = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    const s = lo + ((hi - lo) * i) / (n - 1);
+    const s = Math.min(hi, lo + ((hi - lo) * i) / (n - 1));
     log10Y[i] = scale * s + shift;
-    const p = Math.exp(tableLogDensity(t, Math.min(bIn, Math.max(aIn, s))));
+    const p = Math.exp(tableLogDensity(t, s));
     density[i] = Number.isFinite(p) ? p / scale : 0;
   }
   return { log10Y, density };
