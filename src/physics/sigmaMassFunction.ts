@@ -113,8 +113,8 @@ export function sigmaMassFunctionPerDex(log10M: number, s: SigmaMassFunctionSpec
 export const SIGMA_MASS_FUNCTION_TOP = 12.5;
 
 /** Panels of the ln sigma integral of sigmaNumberAbove: per unit ln sigma outside the step, and across the step of +-8 eps. */
-const PANELS_PER_LN_SIGMA = 6;
-const STEP_PANELS = 24;
+const PANELS_PER_LN_SIGMA = 3;
+const STEP_PANELS = 12;
 
 /**
  * Number density above massMsun, Mpc^-3: phi_BH integrated over log10 M up to SIGMA_MASS_FUNCTION_TOP.
