@@ -10,8 +10,8 @@ export const SKIP_WEIGHT = 1e-19;
 
 /**
  * The sum of harmonics 1 .. top at x for one e0, and its value after a chosen harmonic (or after each).
- * top may exceed x by a little: those harmonics' orbits have not formed yet (x/n < 1), and the sum is the
- * smooth continuation of the one beyond the next integer, which a table interpolates across integers.
+ * Should top exceed x, the harmonics above x (orbits not formed yet, x/n < 1) give the sum's smooth
+ * continuation; the cheap keep test, which assumes e_n <= e0, is not used for them.
  */
 export class HarmonicSeries {
   /** The sum after harmonic `partialAt` in the last sum() call. */

@@ -7,7 +7,8 @@ import type { FlatLambdaCdm } from './cosmology';
 import { redshiftOfAge } from './delayedPopulation';
 import { ageAtRedshift, redshiftAtAge } from './ageInverse';
 import { adaptiveZRule } from './adaptiveZRule';
-import { compositeNodes, compositeSum, gaussLegendreRule } from './gaussLegendre';
+import { compositeNodes, gaussLegendreRule } from './gaussLegendre';
+import { cumulativeIntegral, panelledIntegral } from './panelledIntegral';
 import { checkPopulation } from './backgroundIntegral';
 import type { BinaryPopulation, ZRule } from './populationTypes';
 
@@ -145,9 +146,13 @@ export function delayedPopulationByMass(base: BinaryPopulation, cosmo: FlatLambd
   };
 }
 
-/** Nodes per dimension for the stalled share: 4 panels of 8 Gauss-Legendre points in z, log10M and q. */
+/**
+ * Nodes per dimension for the stalled share: 4 panels of 8 Gauss-Legendre points in log10M and q, and in z
+ * for the whole range; the stalled part up to z_stall on 8 fixed panels of the z range (panelledIntegral.ts).
+ */
 const PANELS = 4;
 const ORDER = 8;
+const STALL_PANELS = 8;
 
 /**
  * Share (by number) of the base population's binaries whose lifetime carries them past today: for each
@@ -161,7 +166,10 @@ export function stalledFractionByMass(base: BinaryPopulation, cosmo: FlatLambdaC
   const zAll = compositeNodes(base.zMin, base.zMax, PANELS, ORDER);
   // A separable base, density = zMass(z, M) massRatio(q): the z sums are taken of zMass and multiplied
   // by massRatio(q) (the same sums of products, reordered), so the full-range sum is one per mass node.
+  // The stalled parts, on panels fixed whatever z_stall, then need the z factor's whole panels once:
+  // zMass = redshift(z) exp(lnMass(M)) (separablePopulation.ts).
   const sep = base.separable;
+  const zFactorUpTo = sep?.redshift && sep.lnMass ? cumulativeIntegral(sep.redshift, base.zMin, base.zMax, STALL_PANELS, ORDER) : undefined;
   const zSum = (zr: { nodes: Float64Array; weights: Float64Array }, lg: number, q: number): number => {
     let s = 0;
     if (sep) for (let c = 0; c < zr.nodes.length; c++) s += zr.weights[c] * sep.zMass(zr.nodes[c], lg);
@@ -173,6 +181,7 @@ export function stalledFractionByMass(base: BinaryPopulation, cosmo: FlatLambdaC
   for (let a = 0; a < mr.nodes.length; a++) {
     const lg = mr.nodes[a];
     const allOfMass = sep ? zSum(zAll, lg, NaN) : NaN;
+    const massFactor = zFactorUpTo && sep?.lnMass ? Math.exp(sep.lnMass(lg)) : NaN;
     for (let b = 0; b < qr.nodes.length; b++) {
       const q = qr.nodes[b];
       const w = mr.weights[a] * qr.weights[b];
@@ -190,8 +199,11 @@ export function stalledFractionByMass(base: BinaryPopulation, cosmo: FlatLambdaC
       }
       const hi = Math.min(base.zMax, zStall);
       if (!(hi > base.zMin)) continue;
-      // the rule compositeNodes(base.zMin, hi, PANELS, ORDER), summed without allocating it per (M, q)
-      const part = sep ? compositeSum(base.zMin, hi, PANELS, ORDER, (z) => sep.zMass(z, lg)) : compositeSum(base.zMin, hi, PANELS, ORDER, (z) => base.density(z, lg, q));
+      const part = zFactorUpTo
+        ? massFactor * zFactorUpTo(hi)
+        : sep
+          ? panelledIntegral((z) => sep.zMass(z, lg), base.zMin, base.zMax, STALL_PANELS, ORDER, hi)
+          : panelledIntegral((z) => base.density(z, lg, q), base.zMin, base.zMax, STALL_PANELS, ORDER, hi);
       stalled += w * (sep ? part * ratio : part);
     }
   }

@@ -153,7 +153,7 @@ describe("built-ins' loops and the page's cell budget", () => {
     expect(plain(call('compareAcrossBand', ...args))).toEqual(reference);
   });
 
-  it("eccentric harmonic tables stop on the page, per integer interval; the cache keeps no half-built table", () => {
+  it("eccentric harmonic tables stop on the page, per interval as it is built on first use; the cache keeps no half-built table", () => {
     const get = inputs();
     const args = [get('pop'), get('freqs'), get('e0_start'), get('f0_start')];
     const reference = plain(get('spectrum_eccentric'));
