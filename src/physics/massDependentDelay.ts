@@ -32,6 +32,15 @@ export function lifetimeRange(base: BinaryPopulation, lifetimeOf: LifetimeOf): {
   return { min, max };
 }
 
+/** Panel edges of the base in formation redshift, and at the Gauss-Legendre nodes of each panel z, t(z) and the z factor. */
+interface PanelNodes {
+  rule: ZRule;
+  edges: Float64Array;
+  z: Float64Array;
+  age: Float64Array;
+  zFactor?: Float64Array;
+}
+
 /** Remembers the lifetime at each (log10M, q) node the integrators ask for (they reuse their nodes). */
 function cachedLifetime(lifetimeOf: LifetimeOf): LifetimeOf {
   const cache = new Map<number, Map<number, number>>();
@@ -75,21 +84,38 @@ export function delayedPopulationByMass(base: BinaryPopulation, cosmo: FlatLambd
   // Panel edges in formation redshift for zIntegral: error control (adaptiveZRule.ts) on the base's z
   // factor, or on its density summed over one panel of (M, q) nodes, so that kinks of the base in z
   // (a power z^a at z = 0) get small panels; the steps that move with (M, q) are the limits of each
-  // (M, q)'s integral and never fall inside a panel.
-  let panelsFor: { rule: ZRule; edges: Float64Array } | undefined;
-  const basePanels = (rule: ZRule): Float64Array => {
-    if (panelsFor && panelsFor.rule.panels === rule.panels && panelsFor.rule.order === rule.order && panelsFor.rule.tol === rule.tol) return panelsFor.edges;
-    const zFactor = base.separable?.redshift;
+  // (M, q)'s integral and never fall inside a panel. At the nodes of each whole panel, the age t(z_f)
+  // and (a base separable in z and M) the z factor are kept: every (M, q) whose range holds the panel
+  // asks for the same ones.
+  const sep = base.separable;
+  const zFactorOf = sep?.redshift && sep.lnMass ? sep.redshift : undefined;
+  let panelsFor: PanelNodes | undefined;
+  const basePanels = (rule: ZRule): PanelNodes => {
+    if (panelsFor && panelsFor.rule.panels === rule.panels && panelsFor.rule.order === rule.order && panelsFor.rule.tol === rule.tol) return panelsFor;
     const mr = compositeNodes(base.log10MMin, base.log10MMax, 1, rule.order);
     const qr = compositeNodes(base.qMin, base.qMax, 1, rule.order);
-    const indicator = zFactor ?? ((z: number) => {
+    const indicator = sep?.redshift ?? ((z: number) => {
       let s = 0;
       for (let a = 0; a < mr.nodes.length; a++) for (let b = 0; b < qr.nodes.length; b++) s += mr.weights[a] * qr.weights[b] * base.density(z, mr.nodes[a], qr.nodes[b]);
       return s;
     });
     const edges = adaptiveZRule(base.zMin, base.zMax, rule.panels, rule.order, indicator, rule.tol).edges;
-    panelsFor = { rule, edges };
-    return edges;
+    const unit = gaussLegendreRule(rule.order);
+    const count = (edges.length - 1) * rule.order;
+    const z = new Float64Array(count);
+    const age = new Float64Array(count);
+    const zFactor = zFactorOf ? new Float64Array(count) : undefined;
+    for (let p = 0, k = 0; p + 1 < edges.length; p++) {
+      const mid = 0.5 * (edges[p] + edges[p + 1]);
+      const half = 0.5 * (edges[p + 1] - edges[p]);
+      for (let i = 0; i < rule.order; i++, k++) {
+        z[k] = mid + half * unit.nodes[i];
+        age[k] = ageAtRedshift(cosmo, z[k]);
+        if (zFactor) zFactor[k] = zFactorOf!(z[k]);
+      }
+    }
+    panelsFor = { rule, edges, z, age, zFactor };
+    return panelsFor;
   };
   // The integrators ask for every (M, q) at one z before moving on: remember t(z_c) and |dt/dz|(z_c).
   let lastZ = NaN;
@@ -121,24 +147,31 @@ export function delayedPopulationByMass(base: BinaryPopulation, cosmo: FlatLambd
       const lo = Math.max(base.zMin, redshiftAtAge(cosmo, ageMin));
       const hi = ageMax > 0 ? Math.min(base.zMax, redshiftAtAge(cosmo, ageMax)) : base.zMax;
       if (!(hi > lo)) return 0;
-      const g = (zf: number): number => {
-        const n = base.density(zf, log10M, q);
-        if (n === 0) return 0;
-        const zc = t === 0 ? zf : redshiftAtAge(cosmo, ageAtRedshift(cosmo, zf) + t);
-        return n * weight(zc >= 0 ? zc : 0); // NaN only by rounding at today's age
-      };
       // the base's own panels (refined where the base is not smooth in z), clipped to [lo, hi]
-      const edges = basePanels(rule);
-      const unit = gaussLegendreRule(rule.order);
+      const nodes = basePanels(rule);
+      const { edges, zFactor } = nodes;
+      const order = rule.order;
+      const unit = gaussLegendreRule(order);
+      // density = redshift(z) exp(lnMass(M)) massRatio(q) (populationTypes.ts), as separablePopulation.ts multiplies
+      const massFactor = zFactor ? Math.exp(sep!.lnMass!(log10M)) : NaN;
+      const ratio = zFactor ? sep!.massRatio(q) : NaN;
       let sum = 0;
       for (let p = 0; p + 1 < edges.length; p++) {
         const a = Math.max(lo, edges[p]);
         const b = Math.min(hi, edges[p + 1]);
         if (!(b > a)) continue;
+        const whole = a === edges[p] && b === edges[p + 1];
         const mid = 0.5 * (a + b);
         const half = 0.5 * (b - a);
         let s = 0;
-        for (let i = 0; i < rule.order; i++) s += unit.weights[i] * g(mid + half * unit.nodes[i]);
+        for (let i = 0, k = p * order; i < order; i++, k++) {
+          // n_f(z_f) weight(z_c(z_f)): the integrand is smooth in z_f
+          const zf = whole ? nodes.z[k] : mid + half * unit.nodes[i];
+          const n = zFactor ? (whole ? zFactor[k] : zFactorOf!(zf)) * massFactor * ratio : base.density(zf, log10M, q);
+          if (n === 0) continue;
+          const zc = t === 0 ? zf : redshiftAtAge(cosmo, (whole ? nodes.age[k] : ageAtRedshift(cosmo, zf)) + t);
+          s += unit.weights[i] * (n * weight(zc >= 0 ? zc : 0)); // NaN only by rounding at today's age
+        }
         sum += half * s;
       }
       return sum;
