@@ -1,7 +1,7 @@
 // Stellar environments that scale with the host: the velocity dispersion sigma(M) from an M-sigma
 // relation and the stellar density at the binary's influence radius from a density profile, so the
 // stellar-hardening transition frequency moves with the binary's mass. SI in and out.
-import { G_SI, M_SUN_KG } from './constants';
+import { C_SI, G_SI, M_SUN_KG } from './constants';
 import { MCCONNELL_MA_2013 } from './blackHoleBulgeRelation';
 import { checkInnerSlope, dehnenInfluence } from './dehnenProfile';
 import { checkFrictionPhase, type FrictionPhase } from './dynamicalFriction';
@@ -103,9 +103,25 @@ export function copyMassScaledEnvironment(s: MassScaledEnvironment): MassScaledE
   };
 }
 
+/**
+ * The mass factor of the transition frequency in an isothermal host: with rho = sigma^6 / (2 pi G^3 M^2),
+ * equal stellar and GW hardening rates (Quinlan 1996, New Astron. 1, 35; Peters 1964, Phys. Rev. 136,
+ * B1224) give f_t = (c sigma)^(3/2) / (pi G M) (5 H / (128 pi F(e)))^(3/10) eta^(-3/10), and sigma from
+ * M-sigma (McConnell & Ma 2013) makes the mass factor a power law, coefficient x (M/Msun)^(3/(2 slope) - 1).
+ */
+export function isothermalTransitionMassFactor(rel: MSigmaRelation, hardeningRate: number, enhancement: number): (mKg: number) => number {
+  const exponent = 1.5 / rel.slope - 1;
+  const coefficient =
+    (Math.pow(C_SI * M_SIGMA_REFERENCE_MS, 1.5) * Math.pow(10, (-1.5 * rel.norm) / rel.slope) * Math.pow((5 * hardeningRate) / (128 * Math.PI * enhancement), 0.3)) /
+    (Math.PI * G_SI * M_SUN_KG);
+  return (mKg) => coefficient * Math.pow(mKg / M_SUN_KG, exponent);
+}
+
 /** The environment as a function of the binary's total mass, for the stellar kernels (stellarHardening.ts). */
 export function massScaledEnvironment(s: MassScaledEnvironment): MassEnvironment {
   checkMassScaledEnvironment(s);
   const scaled = copyMassScaledEnvironment(s);
-  return { ofMass: (mKg) => environmentOfMass(mKg, scaled) };
+  const ofMass = (mKg: number) => environmentOfMass(mKg, scaled);
+  if (scaled.profile?.kind === 'dehnen') return { ofMass };
+  return { ofMass, transitionMassFactor: (enhancement) => isothermalTransitionMassFactor(scaled.mSigma, scaled.hardeningRate, enhancement) };
 }

@@ -62,6 +62,8 @@ export function stellarSuppression(frHz: number, ftHz: number): number {
 /** An environment that depends on the binary's total mass only (the host scalings of hostEnvironment.ts). */
 export interface MassEnvironment {
   ofMass: (mKg: number) => StellarEnvironment;
+  /** Optional: the mass factor of f_t in closed form, for F(e) = enhancement (the same as from ofMass, fewer operations). */
+  transitionMassFactor?: (enhancement: number) => (mKg: number) => number;
 }
 
 /** An environment for each binary: one for all, one per total mass, or a function of (total mass kg, q, z). */
@@ -95,11 +97,20 @@ export function transitionFrequencyParts(env: StellarEnvironment | MassEnvironme
   const enhancement = eccentricityEnhancement(e);
   if (isMassEnvironment(env)) {
     // k depends on M through sigma(M) and rho(M); the factorisation in M and q still holds.
-    const mass = (mKg: number): number => {
+    const perMass = (mKg: number): number => {
       const local = env.ofMass(mKg);
       checkEnvironment(local);
       return (Math.sqrt(G_SI * mKg) * Math.pow(transitionConstant(local, enhancement) * mKg * mKg * mKg, -0.3)) / Math.PI;
     };
+    // the closed form where the environment has one; where it is not positive and finite, the
+    // per-mass environment (whose checks say why)
+    const closed = env.transitionMassFactor?.(enhancement);
+    const mass = closed
+      ? (mKg: number): number => {
+          const v = closed(mKg);
+          return v > 0 && v < Infinity ? v : perMass(mKg);
+        }
+      : perMass;
     return { of: (mKg, q) => mass(mKg) * ratio(q), mass, ratio };
   }
   const of = transitionFrequencyOf(env, e);

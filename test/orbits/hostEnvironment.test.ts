@@ -80,6 +80,22 @@ describe('transition frequency scaled by mass: closed form', () => {
     }
   });
 
+  it('with F(e) of Peters & Mathews 1963 (eq. 17) written out, e = 0.4: f_t(e) = f_t(0) F(e)^(-3/10) for M = 1e6 to 3e10 Msun, to 1e-12', () => {
+    // a_t^5 is proportional to F(e) (equal rates, Peters 1964 eq. 5.6), f_t to a_t^(-3/2)
+    const e = 0.4;
+    const F = (1 + (73 / 24) * e * e + (37 / 96) * e ** 4) / Math.pow(1 - e * e, 3.5);
+    const ftE = transitionFrequencyFunction(env, e);
+    for (const mSun of [1e6, 1e8, 1e9, 3e10]) {
+      const m = mSun * M_SUN_KG;
+      expect(rel(ftE(m, 0.3), closedForm(m, 0.3, 16) * Math.pow(F, -0.3)), `M ${mSun}`).toBeLessThan(1e-12);
+    }
+  });
+
+  it('where the power law in M overflows, the per-mass environment says why (its density is not finite)', () => {
+    const steep = transitionFrequencyFunction(massScaledEnvironment({ mSigma: { norm: 8.32, slope: 0.004 }, hardeningRate: 16 }));
+    expect(() => steep(1e12 * M_SUN_KG, 0.5)).toThrow(/stellar density must be positive and finite/);
+  });
+
   it('follows M^(3/(2 slope) - 1) = M^(-0.734): the ratio over each decade from 1e6 to 1e10 Msun, to 1e-12', () => {
     const exponent = 3 / (2 * MCCONNELL_MA_2013_M_SIGMA.slope) - 1;
     for (let lg = 6; lg < 10; lg++) {
