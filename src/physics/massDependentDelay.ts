@@ -121,6 +121,9 @@ export function delayedPopulationByMass(base: BinaryPopulation, cosmo: FlatLambd
   let lastZ = NaN;
   let lastAge = NaN;
   let lastDtdz = NaN;
+  let ageLatest = NaN;
+  let lastTop = NaN;
+  let ageOfTop = NaN;
   return {
     ...limits,
     density: (zc, log10M, q) => {
@@ -141,8 +144,14 @@ export function delayedPopulationByMass(base: BinaryPopulation, cosmo: FlatLambd
       const t = tau(log10M, q);
       const top = Math.min(zTop, limits.zMax);
       if (!(top > limits.zMin)) return 0;
-      const ageMin = Math.min(now, ageAtRedshift(cosmo, limits.zMin)) - t; // latest formation age counted
-      const ageMax = ageAtRedshift(cosmo, top) - t; // earliest
+      // t(z_c) at the lower limit once, at the upper one once per top (most (M, q) share zMax)
+      if (Number.isNaN(ageLatest)) ageLatest = Math.min(now, ageAtRedshift(cosmo, limits.zMin));
+      if (top !== lastTop) {
+        lastTop = top;
+        ageOfTop = ageAtRedshift(cosmo, top);
+      }
+      const ageMin = ageLatest - t; // latest formation age counted
+      const ageMax = ageOfTop - t; // earliest
       if (!(ageMin > 0)) return 0;
       const lo = Math.max(base.zMin, redshiftAtAge(cosmo, ageMin));
       const hi = ageMax > 0 ? Math.min(base.zMax, redshiftAtAge(cosmo, ageMax)) : base.zMax;
