@@ -14,16 +14,28 @@ function panelSum(f: (x: number) => number, lo: number, hi: number, order: numbe
   return half * s;
 }
 
+/** The number of whole panels of width `width` from a that lie below top (at most `panels`). */
+function wholePanels(a: number, width: number, panels: number, top: number): number {
+  let k = 0;
+  while (k < panels && a + (k + 1) * width <= top) k++;
+  return k;
+}
+
+/** `whole` (the sum over the first k panels) plus the part of panel k below top. */
+function withPartialPanel(f: (x: number) => number, whole: number, a: number, width: number, panels: number, order: number, k: number, top: number): number {
+  const start = a + k * width;
+  return k < panels && top > start ? whole + panelSum(f, start, top, order) : whole;
+}
+
 /** Int_a^h f on `panels` equal panels of [a, b] (0 when h <= a; h is taken as b above b). */
 export function panelledIntegral(f: (x: number) => number, a: number, b: number, panels: number, order: number, h: number): number {
   if (!(h > a)) return 0;
   const width = (b - a) / panels;
   const top = Math.min(h, b);
+  const k = wholePanels(a, width, panels, top);
   let s = 0;
-  let k = 0;
-  for (; k < panels && a + (k + 1) * width <= top; k++) s += panelSum(f, a + k * width, a + (k + 1) * width, order);
-  const start = a + k * width;
-  return k < panels && top > start ? s + panelSum(f, start, top, order) : s;
+  for (let p = 0; p < k; p++) s += panelSum(f, a + p * width, a + (p + 1) * width, order);
+  return withPartialPanel(f, s, a, width, panels, order, k, top);
 }
 
 /** panelledIntegral of one f for many h, its whole panels summed once (the same numbers, bit for bit). */
@@ -34,9 +46,7 @@ export function cumulativeIntegral(f: (x: number) => number, a: number, b: numbe
   return (h) => {
     if (!(h > a)) return 0;
     const top = Math.min(h, b);
-    let k = 0;
-    while (k < panels && a + (k + 1) * width <= top) k++;
-    const start = a + k * width;
-    return k < panels && top > start ? below[k] + panelSum(f, start, top, order) : below[k];
+    const k = wholePanels(a, width, panels, top);
+    return withPartialPanel(f, below[k], a, width, panels, order, k, top);
   };
 }

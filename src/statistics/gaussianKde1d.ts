@@ -23,13 +23,24 @@ export function bandwidthFactor(n: number, rule: BandwidthRule): number {
 }
 
 export function sampleMeanSd(x: ArrayLike<number>): { mean: number; sd: number } {
-  const n = x.length;
   let m = 0;
-  for (let i = 0; i < n; i++) m += x[i];
-  m /= n;
+  for (let i = 0; i < x.length; i++) m += x[i];
+  m /= x.length;
+  return { mean: m, sd: sdAbout(x, m) };
+}
+
+/** Sample standard deviation about the mean m (n - 1 in the denominator). */
+function sdAbout(x: ArrayLike<number>, m: number): number {
+  const n = x.length;
   let v = 0;
   for (let i = 0; i < n; i++) v += (x[i] - m) * (x[i] - m);
-  return { mean: m, sd: Math.sqrt(v / (n - 1)) };
+  return Math.sqrt(v / (n - 1));
+}
+
+/** Kernel width from the samples' standard deviation under the rule; refuses samples without spread. */
+function widthOfSd(sd: number, n: number, rule: BandwidthRule): number {
+  if (!(sd > 0)) throw new RangeError('all samples are equal: a KDE needs spread in the samples');
+  return sd * bandwidthFactor(n, rule);
 }
 
 /** Kernel standard deviation h for the samples under the rule. Needs two distinct samples. */
@@ -38,9 +49,7 @@ export function kernelWidth(x: ArrayLike<number>, rule: BandwidthRule = 'scott')
   for (let i = 0; i < x.length; i++) {
     if (!Number.isFinite(x[i])) throw new RangeError(`sample ${i + 1} is not a finite number (${x[i]})`);
   }
-  const { sd } = sampleMeanSd(x);
-  if (!(sd > 0)) throw new RangeError('all samples are equal: a KDE needs spread in the samples');
-  return sd * bandwidthFactor(x.length, rule);
+  return widthOfSd(sampleMeanSd(x).sd, x.length, rule);
 }
 
 /** ln of the KDE at t by direct summation over every sample (O(n); for checks and small data). */
@@ -150,15 +159,9 @@ function sampleRange(x: ArrayLike<number>): { min: number; max: number; sum: num
   return { min, max, sum };
 }
 
-/** kernelWidth(x, rule) given the sum of the finite samples x (the same arithmetic as sampleMeanSd). */
+/** kernelWidth(x, rule) given the sum of the finite samples x (the mean as sampleMeanSd takes it). */
 function widthFromSum(x: ArrayLike<number>, sum: number, rule: BandwidthRule): number {
-  const n = x.length;
-  const m = sum / n;
-  let v = 0;
-  for (let i = 0; i < n; i++) v += (x[i] - m) * (x[i] - m);
-  const sd = Math.sqrt(v / (n - 1));
-  if (!(sd > 0)) throw new RangeError('all samples are equal: a KDE needs spread in the samples');
-  return sd * bandwidthFactor(n, rule);
+  return widthOfSd(sdAbout(x, sum / x.length), x.length, rule);
 }
 
 /**
